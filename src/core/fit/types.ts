@@ -1,0 +1,99 @@
+/**
+ * Public contract of the nonlinear least-squares engine.
+ *
+ * Models with several independent variables (for example M(H, T)) pass
+ * `x` = point index (0, 1, 2, …) and close over their own data columns:
+ * `evaluate` then reads `H[x[i]]`, `T[x[i]]` for each point `i`.
+ */
+
+/** A model y = f(x; p) with named parameters. */
+export interface IFitModel {
+  /** Parameter names, in the order used by `p`. */
+  readonly parameters: readonly string[];
+  /** Writes the model value at every `x[i]` into `out[i]`. */
+  evaluate(p: Float64Array, x: Float64Array, out: Float64Array): void;
+  /**
+   * Optional analytic Jacobian, row-major n×k: `out[i*k + j]` = ∂f(x_i)/∂p_j.
+   * When absent, finite differences are used.
+   */
+  jacobian?(p: Float64Array, x: Float64Array, out: Float64Array): void;
+}
+
+/** Observations. `sigma` (optional) are per-point standard uncertainties of `y`. */
+export interface IFitData {
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  sigma?: ArrayLike<number>;
+}
+
+/** Progress report sent during a fit. */
+export interface IFitProgress {
+  iteration: number;
+  evaluations: number;
+  cost: number;
+}
+
+/**
+ * Fit options. Defaults are defined once in `FIT_DEFAULTS` (see `defaults.ts`).
+ */
+export interface IFitOptions {
+  /** Starting values, one per parameter. */
+  start: ArrayLike<number>;
+  /** Lower bounds (−∞ allowed). */
+  lower?: ArrayLike<number>;
+  /** Upper bounds (+∞ allowed). */
+  upper?: ArrayLike<number>;
+  /** `true` keeps that parameter at its start value. */
+  fixed?: ArrayLike<boolean>;
+  /** Maximum number of model evaluations (Jacobian columns by finite differences count). */
+  maxEvaluations?: number;
+  /** Relative reduction of the cost below which the fit stops. */
+  ftol?: number;
+  /** Relative step size below which the fit stops. */
+  xtol?: number;
+  /** Scaled gradient (cosine) below which the fit stops. */
+  gtol?: number;
+  /** Two-sided probability for Student-t intervals, default 0.6827 (1σ). */
+  confidenceLevel?: number;
+  /** Called after every accepted or rejected iteration. */
+  onProgress?: (p: IFitProgress) => void;
+  /** Cancellation: return true to stop; best-so-far is returned with converged=false, reason 'cancelled'. */
+  shouldStop?: () => boolean;
+}
+
+/** Which convention produced the standard errors. */
+export type ErrorScaling = 'scaled-by-reduced-chi2' | 'from-sigma';
+
+/** Outcome of a fit. Arrays follow the order of `parameters`. */
+export interface IFitResult {
+  parameters: string[];
+  values: number[];
+  standardErrors: number[];
+  covariance: number[][];
+  correlation: number[][];
+  confidenceIntervals: [number, number][];
+  confidenceLevel: number;
+  /** 'from-sigma' when per-point σ were given, otherwise errors scaled by √χ²_red. */
+  errorScaling: ErrorScaling;
+  chi2: number;
+  reducedChi2: number;
+  dof: number;
+  aic: number;
+  aicc: number;
+  bic: number;
+  /** Unweighted residuals y − f(x). */
+  residuals: number[];
+  evaluations: number;
+  iterations: number;
+  converged: boolean;
+  reason: string;
+  warnings: string[];
+}
+
+/** Precise error thrown for invalid inputs at the boundary of the engine. */
+export class FitInputError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'FitInputError';
+  }
+}
