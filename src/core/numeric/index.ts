@@ -1,0 +1,5 @@
+/** Small numerical building blocks shared by the physics models. */
+export { realPolynomialRoots, polyEval, polyDerivative } from './polyroots';
+export type { PolyCoefficients } from './polyroots';
+export { bracketRoot, goldenMinimum } from './scalar';
+export type { IScalarRootResult } from './scalar';
