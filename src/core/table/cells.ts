@@ -1,0 +1,173 @@
+/**
+ * Reading single displayed cells: numbers (with NaN and ±inf as pandas and
+ * CSV writers spell them), booleans, ISO dates, and missing markers.
+ */
+
+/** Texts that mean "missing" in pandas displays and CSV files. */
+const MISSING: ReadonlySet<string> = new Set(['', 'NaN', 'nan', '<NA>', 'NaT', 'None', 'null', 'NULL', 'N/A', 'n/a', '#N/A']);
+
+/** True when a displayed cell means "missing". */
+export function isMissingText(text: string): boolean {
+  return MISSING.has(text);
+}
+
+const POS_INF: ReadonlySet<string> = new Set(['inf', '+inf', 'Inf', '+Inf', 'Infinity', '+Infinity', 'INF', 'infinity']);
+const NEG_INF: ReadonlySet<string> = new Set(['-inf', '-Inf', '-Infinity', '-INF', '-infinity']);
+
+/**
+ * Parse a decimal number as written by pandas, Python or a CSV writer.
+ * Accepts `12`, `-1.5`, `.5`, `1e-7`, `1.000000e+10`, `inf`, `-inf`, `nan`.
+ * Rejects hex, binary, thousands separators, underscores and empty text,
+ * which `Number()` alone would accept or misread. Returns undefined for non-numbers.
+ */
+export function parseNumber(text: string): number | undefined {
+  const n = text.length;
+  if (n === 0 || n > 400) {
+    return undefined;
+  }
+  let i = 0;
+  let c = text.charCodeAt(0);
+  if (c === 43 || c === 45) {
+    i = 1;
+  }
+  let digits = 0;
+  while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+    i++;
+    digits++;
+  }
+  if (i < n && text.charCodeAt(i) === 46) {
+    i++;
+    while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+      i++;
+      digits++;
+    }
+  }
+  if (digits === 0) {
+    return specialNumber(text);
+  }
+  if (i < n && ((c = text.charCodeAt(i)) === 101 || c === 69)) {
+    i++;
+    if (i < n && ((c = text.charCodeAt(i)) === 43 || c === 45)) {
+      i++;
+    }
+    let expDigits = 0;
+    while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+      i++;
+      expDigits++;
+    }
+    if (expDigits === 0) {
+      return undefined;
+    }
+  }
+  return i === n ? Number(text) : undefined;
+}
+
+function specialNumber(text: string): number | undefined {
+  if (POS_INF.has(text)) {
+    return Infinity;
+  }
+  if (NEG_INF.has(text)) {
+    return -Infinity;
+  }
+  if (text === 'NaN' || text === 'nan' || text === '-nan' || text === 'NAN') {
+    return NaN;
+  }
+  return undefined;
+}
+
+/** Parse `True`/`False` (any case); undefined otherwise. */
+export function parseBoolean(text: string): boolean | undefined {
+  switch (text) {
+    case 'True':
+    case 'true':
+    case 'TRUE':
+      return true;
+    case 'False':
+    case 'false':
+    case 'FALSE':
+      return false;
+    default:
+      return undefined;
+  }
+}
+
+const ISO_DATE =
+  /^(\d{4}-\d{2}-\d{2})(?:[ T](\d{2}:\d{2}(?::\d{2}(?:\.\d{1,9})?)?))?\s*(Z|[+-]\d{2}:?\d{2})?$/;
+
+/** Parts of an ISO date-time as displayed. */
+export interface IDateParts {
+  date: string;
+  time: string | null;
+  zone: string | null;
+}
+
+/** Split an ISO 8601 / pandas date-time text into parts; undefined when it is not one. */
+export function parseDateParts(text: string): IDateParts | undefined {
+  const m = ISO_DATE.exec(text);
+  if (!m) {
+    return undefined;
+  }
+  const [y, mo, d] = m[1].split('-').map(Number);
+  if (mo < 1 || mo > 12 || d < 1 || d > 31 || y < 1) {
+    return undefined;
+  }
+  return { date: m[1], time: m[2] ?? null, zone: m[3] ?? null };
+}
+
+/**
+ * Canonical ISO strings for a datetime column, the way pandas writes CSV:
+ * date only (`2024-01-05`) when every value is at midnight without zone, else
+ * `YYYY-MM-DDTHH:MM:SS[.fff]` (trailing fractional zeros dropped) plus the zone
+ * (`+00:00` written as `Z`).
+ */
+export function canonicalDates(parts: (IDateParts | null)[]): (string | null)[] {
+  const dateOnly = parts.every(p => p === null || (p.zone === null && (p.time === null || /^00:00(?::00(?:\.0+)?)?$/.test(p.time))));
+  return parts.map(p => {
+    if (p === null) {
+      return null;
+    }
+    if (dateOnly) {
+      return p.date;
+    }
+    let time = p.time ?? '00:00:00';
+    if (time.length === 5) {
+      time += ':00';
+    }
+    time = time.replace(/(\.\d*?)0+$/, '$1').replace(/\.$/, '');
+    let zone = p.zone ?? '';
+    if (zone === '+00:00' || zone === '+0000' || zone === '-00:00') {
+      zone = 'Z';
+    } else if (/^[+-]\d{4}$/.test(zone)) {
+      zone = `${zone.slice(0, 3)}:${zone.slice(3)}`;
+    }
+    return `${p.date}T${time}${zone}`;
+  });
+}
+
+/**
+ * Significant digits shown in a displayed number (`0.000120` → 3, `1.234560e+05` → 7,
+ * `120` → 3, `1.50` → 3). Trailing zeros after a decimal point count; those of an
+ * integer without a point do not. Returns 0 for non-finite or zero values.
+ */
+export function significantDigits(text: string): number {
+  let mantissa = text;
+  const e = mantissa.search(/[eE]/);
+  if (e >= 0) {
+    mantissa = mantissa.slice(0, e);
+  }
+  mantissa = mantissa.replace(/^[+-]/, '');
+  const hasPoint = mantissa.includes('.');
+  let digits = mantissa.replace('.', '').replace(/^0+/, '');
+  if (!hasPoint) {
+    digits = digits.replace(/0+$/, '');
+  }
+  return /^\d*$/.test(digits) ? digits.length : 0;
+}
+
+/** Digits after the decimal point of a displayed number's mantissa (`1.250` → 3, `2e5` → 0). */
+export function decimalsShown(text: string): number {
+  const e = text.search(/[eE]/);
+  const mantissa = e >= 0 ? text.slice(0, e) : text;
+  const point = mantissa.indexOf('.');
+  return point < 0 ? 0 : mantissa.length - point - 1;
+}

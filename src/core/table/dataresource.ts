@@ -1,0 +1,71 @@
+/**
+ * `application/vnd.dataresource+json` (Table Schema + data records), which
+ * pandas emits with `display.html.table_schema` enabled (`to_json(orient='table')`).
+ */
+import { columnFromJson } from './columns';
+import type { JsonKindHint } from './columns';
+import { collectRecords, isRecord, jsonType, jsonValue } from './json';
+import { checkRowAndColumnCounts } from './limits';
+import type { IColumn, ITable } from './types';
+import { TableParseError } from './types';
+
+/** Table Schema field types mapped to column kinds. */
+function hintFor(type: unknown): JsonKindHint {
+  switch (type) {
+    case 'integer':
+    case 'number':
+      return 'number';
+    case 'boolean':
+      return 'boolean';
+    case 'datetime':
+    case 'date':
+      return 'datetime';
+    case 'string':
+    case 'duration':
+    case 'time':
+      return 'string';
+    default:
+      return 'infer';
+  }
+}
+
+/** Parse a dataresource payload (text or parsed value). */
+export function parseDataResource(payload: unknown): ITable {
+  const value = jsonValue(payload, 'The dataresource text');
+  if (!isRecord(value)) {
+    throw new TableParseError(`The dataresource payload is ${jsonType(value)}, not an object with 'schema' and 'data'.`);
+  }
+  const { schema, data } = value;
+  if (!Array.isArray(data)) {
+    throw new TableParseError(`The dataresource 'data' is ${jsonType(data)}, not an array of rows.`);
+  }
+  const fields = isRecord(schema) && Array.isArray(schema.fields) ? schema.fields : null;
+  if (fields === null) {
+    throw new TableParseError("The dataresource has no 'schema.fields' list naming its columns.");
+  }
+  checkRowAndColumnCounts(data.length, fields.length, 'dataresource');
+  const names: string[] = [];
+  const hints: JsonKindHint[] = [];
+  fields.forEach((f, c) => {
+    if (!isRecord(f) || f.name === undefined || f.name === null) {
+      throw new TableParseError(`Field ${c + 1} (column ${c + 1}) of the dataresource schema has no name.`);
+    }
+    names.push(typeof f.name === 'string' ? f.name : String(f.name));
+    hints.push(hintFor(f.type));
+  });
+  const rawKey = isRecord(schema) ? schema.primaryKey : undefined;
+  const primaryKey = new Set<string>(
+    typeof rawKey === 'string' ? [rawKey] : Array.isArray(rawKey) ? rawKey.filter((k): k is string => typeof k === 'string') : []
+  );
+  const cells = collectRecords(data, 'dataresource data', names);
+  const known = new Set(names);
+  const extra = [...cells.keys()].find(k => !known.has(k));
+  if (extra !== undefined) {
+    const row = data.findIndex(r => isRecord(r) && extra in r);
+    throw new TableParseError(`Row ${row + 1} of the dataresource data has a column '${extra.slice(0, 40)}' that the schema does not list.`);
+  }
+  const columns: IColumn[] = names.map((name, c) =>
+    columnFromJson(name, cells.get(name) ?? [], { isIndex: primaryKey.has(name), hint: hints[c], colIndex: c })
+  );
+  return { columns, rowCount: data.length, format: 'dataresource', notes: [] };
+}
