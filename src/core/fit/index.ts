@@ -14,3 +14,6 @@ export type {
   ErrorScaling
 } from './types';
 export { FitInputError } from './types';
+export { fitCurve } from './fitCurve';
+export { FIT_DEFAULTS } from './defaults';
+export { studentTQuantileTwoSided, normalQuantileTwoSided } from './studentT';

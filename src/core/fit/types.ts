@@ -75,19 +75,35 @@ export interface IFitResult {
   confidenceLevel: number;
   /** 'from-sigma' when per-point σ were given, otherwise errors scaled by √χ²_red. */
   errorScaling: ErrorScaling;
+  /**
+   * Multiplier of the standard errors in `confidenceIntervals`: the Student-t
+   * quantile with `dof` degrees of freedom when errors are scaled by √χ²_red,
+   * the normal quantile when σ were given.
+   */
+  intervalQuantile: number;
+  /** χ² = Σ((yᵢ − fᵢ)/σᵢ)², or the residual sum of squares when σ were not given. */
   chi2: number;
   reducedChi2: number;
   dof: number;
   aic: number;
   aicc: number;
   bic: number;
-  /** Unweighted residuals y − f(x). */
+  /**
+   * 'known-sigma': AIC = χ² + 2k, BIC = χ² + k ln n; 'profiled-variance' (no σ):
+   * AIC = n ln(χ²/n) + 2k, BIC = n ln(χ²/n) + k ln n; AICc = AIC + 2k(k+1)/(n−k−1);
+   * k = number of free parameters.
+   */
+  criteriaConvention: 'known-sigma' | 'profiled-variance';
+  /** Unweighted residuals yᵢ − f(xᵢ) (observed minus model). */
   residuals: number[];
   evaluations: number;
   iterations: number;
+  /** True only when a convergence test was met at a non-degenerate point. */
   converged: boolean;
   reason: string;
   warnings: string[];
+  /** Whether each parameter was fixed (fixed ones have zero standard error and covariance). */
+  fixed: boolean[];
 }
 
 /** Precise error thrown for invalid inputs at the boundary of the engine. */

@@ -1,0 +1,40 @@
+/**
+ * Every default of the fit engine, defined once.
+ *
+ * | name | value | meaning |
+ * |---|---|---|
+ * | `ftol` | 1e-15 | stop when both the actual and the predicted relative reduction of χ² are below `ftol` |
+ * | `xtol` | 1e-15 | stop when the trust radius is below `xtol`·‖D·p‖ (D = Moré column scaling) |
+ * | `gtol` | 1e-15 | stop when the largest cosine between the residual vector and a Jacobian column is below `gtol` |
+ * | `maxEvaluationsPerParameter` | 400 | default `maxEvaluations` = 400·(k+1), k = free parameters (Jacobian columns by finite differences count) |
+ * | `confidenceLevel` | 0.6827 | Student-t intervals cover ±1σ for a normal variable |
+ * | `initialStepFactor` | 100 | first trust radius = factor·‖D·p₀‖ (or factor when that is 0), as in MINPACK |
+ * | `forwardStep` | √ε | relative forward-difference step |
+ * | `centralStep` | ε^(1/3) | relative central-difference step |
+ * | `svdMaxRows` | 20000 | up to this many points the trust-region step uses an SVD of the scaled Jacobian; above it, an eigen-decomposition of JᵀJ formed in a tight loop |
+ * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
+ * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
+ * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
+ * | `gradientRestartThreshold` | 1e-6 | a stop on a small step with a scaled gradient above this restarts from the best point |
+ * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
+ * | `geodesicAcceleration` | true | add second-order geodesic acceleration to accepted trial steps |
+ * | `geodesicAlpha` | 0.75 | the acceleration is used only when ‖a‖ ≤ α‖v‖ (scaled norms) |
+ */
+export const FIT_DEFAULTS = Object.freeze({
+  ftol: 1e-15,
+  xtol: 1e-15,
+  gtol: 1e-15,
+  maxEvaluationsPerParameter: 400,
+  confidenceLevel: 0.6827,
+  initialStepFactor: 100,
+  forwardStep: Math.sqrt(Number.EPSILON),
+  centralStep: Math.cbrt(Number.EPSILON),
+  svdMaxRows: 20000,
+  singularTolerance: 1e-13,
+  correlationWarning: 0.99,
+  conditionWarning: 1e12,
+  gradientRestartThreshold: 1e-6,
+  maxRestarts: 3,
+  geodesicAcceleration: true,
+  geodesicAlpha: 0.75
+});

@@ -1,0 +1,220 @@
+/**
+ * Residuals and Jacobians of a fit problem, with preallocated buffers,
+ * evaluation counting and containment of model failures (a model that
+ * throws or returns NaN/∞ yields a non-finite cost, never an exception).
+ */
+import { FIT_DEFAULTS } from './defaults';
+import type { IFitProblem } from './problem';
+
+/** Finite-difference scheme for the Jacobian. */
+export type DifferenceScheme = 'forward' | 'central';
+
+/** Evaluates weighted residuals rᵢ = wᵢ(f(xᵢ; p) − yᵢ) and their Jacobian over the free parameters. */
+export class ResidualEvaluator {
+  readonly n: number;
+  readonly k: number;
+  /** Model evaluations so far (each finite-difference column counts as one). */
+  evaluations = 0;
+  /** Analytic Jacobian evaluations so far. */
+  jacobianEvaluations = 0;
+  /** Message of the last model exception, if any. */
+  lastError: string | null = null;
+  private readonly problem: IFitProblem;
+  private readonly full: Float64Array;
+  private readonly fplus: Float64Array;
+  private readonly fminus: Float64Array;
+  private readonly jfull: Float64Array | null;
+
+  constructor(problem: IFitProblem) {
+    this.problem = problem;
+    this.n = problem.n;
+    this.k = problem.free.length;
+    this.full = Float64Array.from(problem.start);
+    this.fplus = new Float64Array(this.n);
+    this.fminus = new Float64Array(this.n);
+    this.jfull = problem.model.jacobian ? new Float64Array(this.n * problem.kAll) : null;
+  }
+
+  /** True when the model supplies an analytic Jacobian. */
+  get analytic(): boolean {
+    return this.jfull !== null;
+  }
+
+  /** Full parameter vector (fixed values included) for free values `p`. */
+  fullParameters(p: Float64Array): Float64Array {
+    const out = Float64Array.from(this.full);
+    for (let j = 0; j < this.k; j++) {
+      out[this.problem.free[j]] = p[j];
+    }
+    return out;
+  }
+
+  private setFree(p: Float64Array): void {
+    const free = this.problem.free;
+    for (let j = 0; j < this.k; j++) {
+      this.full[free[j]] = p[j];
+    }
+  }
+
+  /** Raw model values at the current `full` vector into `out`; false on failure. */
+  private callModel(out: Float64Array): boolean {
+    this.evaluations++;
+    try {
+      this.problem.model.evaluate(this.full, this.problem.x, out);
+    } catch (err) {
+      this.lastError = err instanceof Error ? err.message : String(err);
+      return false;
+    }
+    return true;
+  }
+
+  /**
+   * Writes weighted residuals for free values `p` into `r` and the raw model
+   * values into `f`; returns Σr² (NaN on failure).
+   */
+  residuals(p: Float64Array, r: Float64Array, f: Float64Array): number {
+    this.setFree(p);
+    if (!this.callModel(f)) {
+      return Number.NaN;
+    }
+    const { y, weights } = this.problem;
+    let sum = 0;
+    if (weights) {
+      for (let i = 0; i < this.n; i++) {
+        const ri = (f[i] - y[i]) * weights[i];
+        r[i] = ri;
+        sum += ri * ri;
+      }
+    } else {
+      for (let i = 0; i < this.n; i++) {
+        const ri = f[i] - y[i];
+        r[i] = ri;
+        sum += ri * ri;
+      }
+    }
+    return Number.isFinite(sum) ? sum : Number.NaN;
+  }
+
+  /**
+   * Weighted Jacobian (row-major n×k over free parameters) at `p` into `jac`.
+   * `f0` must hold the raw model values at `p`. Returns false when it is not finite.
+   */
+  jacobian(p: Float64Array, f0: Float64Array, jac: Float64Array, scheme: DifferenceScheme): boolean {
+    const { n, k } = this;
+    const { weights, free } = this.problem;
+    this.setFree(p);
+    if (this.jfull) {
+      this.jacobianEvaluations++;
+      const kAll = this.problem.kAll;
+      try {
+        this.problem.model.jacobian!(this.full, this.problem.x, this.jfull);
+      } catch (err) {
+        this.lastError = err instanceof Error ? err.message : String(err);
+        return false;
+      }
+      for (let i = 0; i < n; i++) {
+        const w = weights ? weights[i] : 1;
+        for (let j = 0; j < k; j++) {
+          jac[i * k + j] = this.jfull[i * kAll + free[j]] * w;
+        }
+      }
+      return allFinite(jac, n * k);
+    }
+    for (let j = 0; j < k; j++) {
+      if (!this.differenceColumn(p, f0, jac, j, scheme)) {
+        this.setFree(p);
+        return false;
+      }
+    }
+    this.setFree(p);
+    return true;
+  }
+
+  /** One finite-difference column; chooses directions that stay inside the bounds. */
+  private differenceColumn(
+    p: Float64Array,
+    f0: Float64Array,
+    jac: Float64Array,
+    j: number,
+    scheme: DifferenceScheme
+  ): boolean {
+    const { n, k } = this;
+    const idx = this.problem.free[j];
+    const lo = this.problem.lower[idx];
+    const hi = this.problem.upper[idx];
+    const pj = p[j];
+    const rel = scheme === 'central' ? FIT_DEFAULTS.centralStep : FIT_DEFAULTS.forwardStep;
+    const h = rel * (pj !== 0 ? Math.abs(pj) : 1);
+    const w = this.problem.weights;
+    if (scheme === 'central' && pj - h >= lo && pj + h <= hi) {
+      const plus = pj + h;
+      const minus = pj - h;
+      this.full[idx] = plus;
+      const okPlus = this.callModel(this.fplus);
+      this.full[idx] = minus;
+      const okMinus = this.callModel(this.fminus);
+      this.full[idx] = pj;
+      if (okPlus && okMinus) {
+        const inv = 1 / (plus - minus);
+        for (let i = 0; i < n; i++) {
+          jac[i * k + j] = (this.fplus[i] - this.fminus[i]) * inv * (w ? w[i] : 1);
+        }
+        if (columnFinite(jac, n, k, j)) {
+          return true;
+        }
+      }
+    }
+    // One-sided: forward (or backward near the upper bound); second order when central was asked.
+    const dir = pj + (scheme === 'central' ? 2 * h : h) <= hi ? 1 : -1;
+    const step = (pj + dir * h) - pj;
+    this.full[idx] = pj + step;
+    if (!this.callModel(this.fplus)) {
+      this.full[idx] = pj;
+      return false;
+    }
+    if (scheme === 'central') {
+      this.full[idx] = pj + 2 * step;
+      const ok = this.callModel(this.fminus);
+      this.full[idx] = pj;
+      if (!ok) {
+        return false;
+      }
+      // f'(p) ≈ (−3f(p) + 4f(p+s) − f(p+2s)) / (2s)
+      const inv2 = 1 / (2 * step);
+      for (let i = 0; i < n; i++) {
+        jac[i * k + j] = (-3 * f0[i] + 4 * this.fplus[i] - this.fminus[i]) * inv2 * (w ? w[i] : 1);
+      }
+    } else {
+      this.full[idx] = pj;
+      const inv = 1 / step;
+      if (w) {
+        for (let i = 0; i < n; i++) {
+          jac[i * k + j] = (this.fplus[i] - f0[i]) * inv * w[i];
+        }
+      } else {
+        for (let i = 0; i < n; i++) {
+          jac[i * k + j] = (this.fplus[i] - f0[i]) * inv;
+        }
+      }
+    }
+    return columnFinite(jac, n, k, j);
+  }
+}
+
+function allFinite(a: Float64Array, len: number): boolean {
+  for (let i = 0; i < len; i++) {
+    if (!Number.isFinite(a[i])) {
+      return false;
+    }
+  }
+  return true;
+}
+
+function columnFinite(jac: Float64Array, n: number, k: number, j: number): boolean {
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(jac[i * k + j])) {
+      return false;
+    }
+  }
+  return true;
+}

@@ -1,0 +1,163 @@
+/**
+ * `fitCurve`: validated inputs → Levenberg–Marquardt → uncertainty analysis.
+ */
+import { FIT_DEFAULTS } from './defaults';
+import { ResidualEvaluator } from './evaluator';
+import { levenbergMarquardt } from './lm';
+import type { ILmOutcome } from './lm';
+import { buildProblem } from './problem';
+import type { IFitProblem } from './problem';
+import { informationCriteria, inverseNormal } from './statistics';
+import { normalQuantileTwoSided, studentTQuantileTwoSided } from './studentT';
+import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
+
+/**
+ * Fits `model` to `data` by weighted nonlinear least squares.
+ *
+ * Throws `FitInputError` for invalid inputs (non-finite data, σ ≤ 0, wrong
+ * lengths, start outside bounds, fewer points than free parameters …).
+ * Model failures (exceptions, NaN) never throw: they end the fit with
+ * `converged: false` and a reason, keeping the best point found.
+ */
+export function fitCurve(model: IFitModel, data: IFitData, options: IFitOptions): IFitResult {
+  const problem = buildProblem(model, data, options);
+  const ev = new ResidualEvaluator(problem);
+  let outcome: ILmOutcome;
+  try {
+    outcome = levenbergMarquardt(problem, ev, {
+      onProgress: options.onProgress,
+      shouldStop: options.shouldStop
+    });
+  } catch (err) {
+    // Only a callback (onProgress / shouldStop) can throw here.
+    const msg = err instanceof Error ? err.message : String(err);
+    const p = Float64Array.from(problem.free, (j) => problem.start[j]);
+    const r = new Float64Array(problem.n);
+    const f = new Float64Array(problem.n);
+    const cost = ev.residuals(p, r, f);
+    outcome = {
+      p,
+      r,
+      f,
+      cost,
+      iterations: 0,
+      converged: false,
+      reason: `aborted: ${msg}`,
+      gradientCosine: Number.NaN,
+      restarts: 0
+    };
+  }
+  return assemble(problem, ev, outcome);
+}
+
+function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): IFitResult {
+  const { n, kAll, free, names } = problem;
+  const k = free.length;
+  const warnings: string[] = [];
+  let converged = o.converged;
+  let reason = o.reason;
+  const full = ev.fullParameters(o.p);
+  const values = Array.from(full);
+  const chi2 = o.cost;
+  const dof = n - k;
+  const reducedChi2 = dof > 0 ? chi2 / dof : Number.NaN;
+  const knownSigma = problem.weights !== null;
+  const evaluationsBeforeStats = ev.evaluations;
+
+  // Jacobian at the solution: analytic, or central differences.
+  const jac = new Float64Array(n * k);
+  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'central');
+  const factor = finite ? inverseNormal(jac, n, k) : { inverse: null, rank: 0, condition: NaN };
+  const scale = knownSigma ? 1 : reducedChi2;
+  const covariance = Array.from({ length: kAll }, () => new Array<number>(kAll).fill(0));
+  if (factor.inverse) {
+    for (let a = 0; a < k; a++) {
+      for (let b = 0; b < k; b++) {
+        covariance[free[a]][free[b]] = factor.inverse[a][b] * scale;
+      }
+    }
+  } else {
+    for (const a of free) {
+      for (const b of free) {
+        covariance[a][b] = Number.NaN;
+      }
+    }
+    if (finite) {
+      warnings.push(
+        `covariance is singular: the Jacobian has rank ${factor.rank} for ${k} free parameters (not all parameters are identifiable)`
+      );
+      if (converged) {
+        converged = false;
+        reason = `degenerate point: Jacobian rank ${factor.rank} < ${k} free parameters (${reason})`;
+      }
+    } else {
+      warnings.push('the Jacobian at the solution is not finite; no uncertainties');
+    }
+  }
+  if (factor.inverse && factor.condition > FIT_DEFAULTS.conditionWarning) {
+    warnings.push(
+      `covariance is ill-conditioned (condition number of the scaled Jacobian ${factor.condition.toExponential(2)})`
+    );
+  }
+  if (!knownSigma && !(dof > 0)) {
+    warnings.push('no degrees of freedom left: standard errors scaled by √χ²_red are undefined');
+  }
+  const standardErrors = covariance.map((row, j) => Math.sqrt(row[j]));
+  const correlation = covariance.map((row, a) =>
+    row.map((c, b) => {
+      if (problem.fixed[a] || problem.fixed[b]) {
+        return a === b ? 1 : 0;
+      }
+      return a === b ? (Number.isFinite(c) ? 1 : Number.NaN) : c / (standardErrors[a] * standardErrors[b]);
+    })
+  );
+  for (let a = 0; a < kAll; a++) {
+    for (let b = a + 1; b < kAll; b++) {
+      if (Math.abs(correlation[a][b]) > FIT_DEFAULTS.correlationWarning) {
+        warnings.push(
+          `|correlation(${names[a]}, ${names[b]})| = ${Math.abs(correlation[a][b]).toFixed(4)} > ${FIT_DEFAULTS.correlationWarning}`
+        );
+      }
+    }
+  }
+  for (const j of free) {
+    const tol = 1e-12 * Math.max(1, Math.abs(values[j]));
+    if (values[j] - problem.lower[j] <= tol || problem.upper[j] - values[j] <= tol) {
+      warnings.push(`${names[j]} = ${values[j]} is at a bound; its standard error is not meaningful`);
+    }
+  }
+  const q = knownSigma
+    ? normalQuantileTwoSided(problem.confidenceLevel)
+    : studentTQuantileTwoSided(problem.confidenceLevel, dof);
+  const confidenceIntervals = values.map(
+    (v, j) => [v - q * standardErrors[j], v + q * standardErrors[j]] as [number, number]
+  );
+  const criteria = informationCriteria(chi2, n, k, knownSigma);
+  const residuals = Array.from(o.f, (fi, i) => problem.y[i] - fi);
+  if (o.restarts > 0) {
+    warnings.push(`restarted ${o.restarts} time(s) from the best point after the step collapsed`);
+  }
+  return {
+    parameters: names.slice(),
+    values,
+    standardErrors,
+    covariance,
+    correlation,
+    confidenceIntervals,
+    confidenceLevel: problem.confidenceLevel,
+    errorScaling: knownSigma ? 'from-sigma' : 'scaled-by-reduced-chi2',
+    intervalQuantile: q,
+    chi2,
+    reducedChi2,
+    dof,
+    ...criteria,
+    criteriaConvention: knownSigma ? 'known-sigma' : 'profiled-variance',
+    residuals,
+    evaluations: evaluationsBeforeStats,
+    iterations: o.iterations,
+    converged,
+    reason,
+    warnings,
+    fixed: problem.fixed.slice()
+  };
+}

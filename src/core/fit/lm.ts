@@ -1,0 +1,261 @@
+/**
+ * Levenberg–Marquardt trust-region iteration with Moré column scaling,
+ * projected box bounds with an active set, forward differences switching to
+ * central ones before convergence is declared, and a restart from the best
+ * point when the step collapses while the gradient is not small.
+ */
+import { FIT_DEFAULTS } from './defaults';
+import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
+import type { IFitProblem } from './problem';
+import { dampingForRadius, spectralModel, stepForMu } from './subproblem';
+import type { ISpectralModel } from './subproblem';
+import type { IFitProgress } from './types';
+
+/** Outcome of the iteration (free parameters only). */
+export interface ILmOutcome {
+  /** Best free-parameter values found. */
+  p: Float64Array;
+  /** Weighted residuals at `p`. */
+  r: Float64Array;
+  /** Raw model values at `p`. */
+  f: Float64Array;
+  /** Σr² at `p`. */
+  cost: number;
+  iterations: number;
+  converged: boolean;
+  reason: string;
+  /** Largest cosine between r and a Jacobian column at the last Jacobian (NaN if none). */
+  gradientCosine: number;
+  restarts: number;
+}
+
+/** Callbacks steering the iteration. */
+export interface ILmHooks {
+  onProgress?: (p: IFitProgress) => void;
+  shouldStop?: () => boolean;
+}
+
+function scaledNorm(diag: Float64Array, v: Float64Array): number {
+  let s = 0;
+  for (let j = 0; j < v.length; j++) {
+    const t = diag[j] * v[j];
+    s += t * t;
+  }
+  return Math.sqrt(s);
+}
+
+/** Runs the iteration from `problem.start`. Never throws for model failures. */
+export function levenbergMarquardt(
+  problem: IFitProblem,
+  ev: ResidualEvaluator,
+  hooks: ILmHooks
+): ILmOutcome {
+  const { n } = problem;
+  const k = problem.free.length;
+  const lower = Float64Array.from(problem.free, (j) => problem.lower[j]);
+  const upper = Float64Array.from(problem.free, (j) => problem.upper[j]);
+  let p = Float64Array.from(problem.free, (j) => problem.start[j]);
+  let r = new Float64Array(n);
+  let f = new Float64Array(n);
+  let pT = new Float64Array(k);
+  let rT = new Float64Array(n);
+  let fT = new Float64Array(n);
+  const jac = new Float64Array(n * k);
+  const jd = new Float64Array(n);
+  const diag = new Float64Array(k);
+  const colNorm = new Float64Array(k);
+  const grad = new Float64Array(k);
+  const z = new Float64Array(k);
+  const step = new Float64Array(k);
+  const useSvd = n <= FIT_DEFAULTS.svdMaxRows;
+  let scheme: DifferenceScheme = ev.analytic ? 'central' : 'forward';
+
+  const out = (converged: boolean, reason: string): ILmOutcome => ({
+    p,
+    r,
+    f,
+    cost,
+    iterations,
+    converged,
+    reason,
+    gradientCosine: gcos,
+    restarts
+  });
+
+  let cost = ev.residuals(p, r, f);
+  let iterations = 0;
+  let gcos = Number.NaN;
+  let restarts = 0;
+  if (!Number.isFinite(cost)) {
+    const why = ev.lastError ? `model threw: ${ev.lastError}` : 'model returned NaN or ∞';
+    return out(false, `non-finite residuals at the start values (${why})`);
+  }
+  let needJacobian = true;
+  let first = true;
+  let delta = 0;
+  let model: ISpectralModel | null = null;
+  const progress = (): void => {
+    hooks.onProgress?.({ iteration: iterations, evaluations: ev.evaluations, cost });
+  };
+
+  for (;;) {
+    if (hooks.shouldStop?.()) {
+      return out(false, 'cancelled');
+    }
+    if (ev.evaluations >= problem.maxEvaluations) {
+      return out(false, `maximum number of evaluations (${problem.maxEvaluations}) reached`);
+    }
+    if (needJacobian) {
+      if (!ev.jacobian(p, f, jac, scheme)) {
+        const why = ev.lastError ? `: ${ev.lastError}` : '';
+        return out(false, `Jacobian is not finite at the current point${why}`);
+      }
+      colNorm.fill(0);
+      grad.fill(0);
+      for (let i = 0; i < n; i++) {
+        const row = i * k;
+        const ri = r[i];
+        for (let j = 0; j < k; j++) {
+          const v = jac[row + j];
+          colNorm[j] += v * v;
+          grad[j] += v * ri;
+        }
+      }
+      const rnorm = Math.sqrt(cost);
+      gcos = 0;
+      for (let j = 0; j < k; j++) {
+        colNorm[j] = Math.sqrt(colNorm[j]);
+        const scale = colNorm[j] > 0 ? colNorm[j] : 1;
+        diag[j] = first ? scale : Math.max(diag[j], colNorm[j]);
+        if (colNorm[j] > 0 && rnorm > 0) {
+          gcos = Math.max(gcos, Math.abs(grad[j]) / (colNorm[j] * rnorm));
+        }
+      }
+      if (first) {
+        const pn = scaledNorm(diag, p);
+        delta = FIT_DEFAULTS.initialStepFactor * (pn > 0 ? pn : 1);
+      }
+      if (cost === 0) {
+        return out(true, 'zero residual');
+      }
+      if (gcos <= problem.gtol && scheme === 'central') {
+        return out(true, `gradient orthogonal to the residuals within gtol (${problem.gtol})`);
+      }
+      const cols: number[] = [];
+      for (let j = 0; j < k; j++) {
+        const blockedLow = p[j] <= lower[j] && grad[j] > 0;
+        const blockedHigh = p[j] >= upper[j] && grad[j] < 0;
+        if (!blockedLow && !blockedHigh) {
+          cols.push(j);
+        }
+      }
+      if (cols.length === 0) {
+        return out(true, 'every free parameter is held at a bound by the gradient');
+      }
+      model = spectralModel(jac, n, k, cols, diag, r, useSvd, FIT_DEFAULTS.singularTolerance);
+      needJacobian = false;
+    }
+    const m = model!;
+    const mu = dampingForRadius(m, delta);
+    stepForMu(m, mu, z);
+    step.fill(0);
+    for (let a = 0; a < m.cols.length; a++) {
+      step[m.cols[a]] = z[a] / diag[m.cols[a]];
+    }
+    let clipped = false;
+    for (let j = 0; j < k; j++) {
+      let v = p[j] + step[j];
+      if (v < lower[j]) {
+        v = lower[j];
+        clipped = true;
+      } else if (v > upper[j]) {
+        v = upper[j];
+        clipped = true;
+      }
+      pT[j] = v;
+      step[j] = v - p[j];
+    }
+    const pnorm = scaledNorm(diag, step);
+    if (first) {
+      delta = Math.min(delta, pnorm);
+      first = false;
+    }
+    // Predicted reduction of Σr² from the linear model.
+    let jdNorm2 = 0;
+    let gStep = 0;
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      let s = 0;
+      for (let j = 0; j < k; j++) {
+        s += jac[row + j] * step[j];
+      }
+      jd[i] = s;
+      jdNorm2 += s * s;
+    }
+    for (let j = 0; j < k; j++) {
+      gStep += grad[j] * step[j];
+    }
+    const dnorm2 = pnorm * pnorm;
+    const pred = clipped ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
+    const costT = ev.residuals(pT, rT, fT);
+    const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
+    const rho = pred > 0 ? actual / pred : actual > 0 ? 1 : -1;
+    const costBefore = cost;
+    if (rho <= 0.25) {
+      let temp = 0.5;
+      if (!Number.isFinite(actual)) {
+        temp = 0.1;
+      } else if (actual < 0) {
+        const dirder = -(jdNorm2 + mu * dnorm2);
+        temp = (0.5 * dirder) / (dirder + 0.5 * actual);
+        temp = Math.min(0.5, Math.max(0.1, Number.isFinite(temp) ? temp : 0.1));
+      }
+      delta = temp * Math.min(delta, pnorm / 0.1);
+    } else if (mu === 0 || rho >= 0.75) {
+      delta = pnorm / 0.5;
+    }
+    const accepted = rho >= 1e-4 && Number.isFinite(costT) && costT <= cost;
+    if (accepted) {
+      [p, pT] = [pT, p];
+      [r, rT] = [rT, r];
+      [f, fT] = [fT, f];
+      cost = costT;
+      needJacobian = true;
+      iterations++;
+    }
+    progress();
+    const actRel = Number.isFinite(actual) ? Math.abs(actual) / costBefore : Infinity;
+    const predRel = pred / costBefore;
+    const ftolHit = actRel <= problem.ftol && predRel <= problem.ftol && rho <= 2;
+    const xnorm = scaledNorm(diag, p);
+    const xtolHit = delta <= problem.xtol * xnorm || delta <= Number.MIN_VALUE * 1e10;
+    const machineHit = actRel <= Number.EPSILON && predRel <= Number.EPSILON && rho <= 2;
+    if (ftolHit || xtolHit || machineHit) {
+      if (scheme === 'forward') {
+        scheme = 'central';
+        needJacobian = true;
+        delta = Math.max(delta, pnorm);
+        continue;
+      }
+      if (!ftolHit && !machineHit && gcos > FIT_DEFAULTS.gradientRestartThreshold) {
+        if (restarts >= FIT_DEFAULTS.maxRestarts) {
+          return out(
+            false,
+            `step became negligible while the gradient is not small (cosine ${gcos.toExponential(2)}) after ${restarts} restarts`
+          );
+        }
+        restarts++;
+        const pn = scaledNorm(diag, p);
+        delta = FIT_DEFAULTS.initialStepFactor * (pn > 0 ? pn : 1);
+        needJacobian = true;
+        continue;
+      }
+      const which = ftolHit
+        ? `relative reduction of χ² below ftol (${problem.ftol})`
+        : machineHit
+          ? 'no further reduction possible at machine precision'
+          : `relative step below xtol (${problem.xtol})`;
+      return out(true, which);
+    }
+  }
+}

@@ -1,0 +1,229 @@
+/**
+ * The Levenberg–Marquardt trust-region subproblem in scaled variables.
+ *
+ * With Js = J·D⁻¹ (D = Moré column scaling) decomposed as Js = U S Vᵀ
+ * (SVD, accurate) or JsᵀJs = V S² Vᵀ (eigen-decomposition of the normal
+ * matrix, fast for many points), the damped step in scaled variables is
+ *   z(μ) = −V diag(cᵢ / (sᵢ² + μ)),  c = Vᵀ Jsᵀ r = S Uᵀ r,
+ * and μ ≥ 0 is chosen so that ‖z(μ)‖ ≈ Δ (Hebden / Moré iteration on
+ * 1/‖z(μ)‖, which is concave in μ so Newton from the left converges
+ * monotonically).
+ */
+import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
+
+/** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
+export interface ISpectralModel {
+  /** Indices (into the free parameters) of the columns in this model. */
+  cols: number[];
+  /** Right singular vectors / eigenvectors, m×m, row-major (m = cols.length). */
+  v: Float64Array;
+  /** Squared singular values sᵢ², descending, with rank-deficient ones set to 0. */
+  s2: Float64Array;
+  /** cᵢ = (Vᵀ Jsᵀ r)ᵢ. */
+  c: Float64Array;
+}
+
+/**
+ * Builds the spectral model from the weighted Jacobian `jac` (row-major n×k)
+ * restricted to `cols`, scaled by `diag`, for residuals `r`.
+ * `useSvd` selects SVD of the n×m matrix (accurate) or eigen-decomposition of
+ * the m×m normal matrix formed in a tight loop (fast for large n).
+ */
+export function spectralModel(
+  jac: Float64Array,
+  n: number,
+  k: number,
+  cols: number[],
+  diag: Float64Array,
+  r: Float64Array,
+  useSvd: boolean,
+  singularTolerance: number
+): ISpectralModel {
+  const m = cols.length;
+  const v = new Float64Array(m * m);
+  const s2 = new Float64Array(m);
+  const c = new Float64Array(m);
+  if (m === 0) {
+    return { cols, v, s2, c };
+  }
+  if (useSvd) {
+    const js = new Matrix(n, m);
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      for (let a = 0; a < m; a++) {
+        js.set(i, a, jac[row + cols[a]] / diag[cols[a]]);
+      }
+    }
+    const svd = new SingularValueDecomposition(js, {
+      computeLeftSingularVectors: true,
+      computeRightSingularVectors: true,
+      autoTranspose: false
+    });
+    const s = svd.diagonal;
+    const u = svd.leftSingularVectors;
+    const vv = svd.rightSingularVectors;
+    const smax = s[0];
+    for (let a = 0; a < m; a++) {
+      let ur = 0;
+      for (let i = 0; i < n; i++) {
+        ur += u.get(i, a) * r[i];
+      }
+      const sa = s[a] > singularTolerance * smax ? s[a] : 0;
+      s2[a] = sa * sa;
+      c[a] = sa * ur;
+      for (let b = 0; b < m; b++) {
+        v[b * m + a] = vv.get(b, a);
+      }
+    }
+    return { cols, v, s2, c };
+  }
+  const normal = normalMatrix(jac, n, k, cols, diag);
+  const g = new Float64Array(m);
+  for (let i = 0; i < n; i++) {
+    const row = i * k;
+    const ri = r[i];
+    for (let a = 0; a < m; a++) {
+      g[a] += jac[row + cols[a]] * ri;
+    }
+  }
+  for (let a = 0; a < m; a++) {
+    g[a] /= diag[cols[a]];
+  }
+  const evd = new EigenvalueDecomposition(normal, { assumeSymmetric: true });
+  const ev = evd.realEigenvalues;
+  const vec = evd.eigenvectorMatrix;
+  const order = ev.map((_, i) => i).sort((p, q) => ev[q] - ev[p]);
+  const lmax = Math.max(ev[order[0]], 0);
+  const cut = Math.max(singularTolerance * singularTolerance, Number.EPSILON * m) * lmax;
+  for (let a = 0; a < m; a++) {
+    const col = order[a];
+    const la = ev[col] > cut ? ev[col] : 0;
+    s2[a] = la;
+    let ca = 0;
+    for (let b = 0; b < m; b++) {
+      const vb = vec.get(b, col);
+      v[b * m + a] = vb;
+      ca += vb * g[b];
+    }
+    c[a] = la > 0 ? ca : 0;
+  }
+  return { cols, v, s2, c };
+}
+
+/** The m×m scaled normal matrix JsᵀJs over `cols`, formed row by row. */
+export function normalMatrix(
+  jac: Float64Array,
+  n: number,
+  k: number,
+  cols: number[],
+  diag: Float64Array
+): Matrix {
+  const m = cols.length;
+  const acc = new Float64Array(m * m);
+  if (m === k) {
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      for (let a = 0; a < m; a++) {
+        const ja = jac[row + a];
+        for (let b = a; b < m; b++) {
+          acc[a * m + b] += ja * jac[row + b];
+        }
+      }
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      for (let a = 0; a < m; a++) {
+        const ja = jac[row + cols[a]];
+        for (let b = a; b < m; b++) {
+          acc[a * m + b] += ja * jac[row + cols[b]];
+        }
+      }
+    }
+  }
+  const out = new Matrix(m, m);
+  for (let a = 0; a < m; a++) {
+    for (let b = a; b < m; b++) {
+      const val = acc[a * m + b] / (diag[cols[a]] * diag[cols[b]]);
+      out.set(a, b, val);
+      out.set(b, a, val);
+    }
+  }
+  return out;
+}
+
+/** ‖z(μ)‖ for the spectral model. */
+function stepNorm(model: ISpectralModel, mu: number): number {
+  let sum = 0;
+  for (let a = 0; a < model.s2.length; a++) {
+    const den = model.s2[a] + mu;
+    if (den > 0) {
+      const t = model.c[a] / den;
+      sum += t * t;
+    }
+  }
+  return Math.sqrt(sum);
+}
+
+/** Writes z(μ) (scaled step over `model.cols`) into `out`. */
+export function stepForMu(model: ISpectralModel, mu: number, out: Float64Array): void {
+  const m = model.cols.length;
+  out.fill(0, 0, m);
+  for (let a = 0; a < m; a++) {
+    const den = model.s2[a] + mu;
+    if (!(den > 0)) {
+      continue;
+    }
+    const w = -model.c[a] / den;
+    for (let b = 0; b < m; b++) {
+      out[b] += model.v[b * m + a] * w;
+    }
+  }
+}
+
+/**
+ * Damping μ ≥ 0 such that ‖z(μ)‖ ≤ Δ, within 10 % of Δ when μ > 0.
+ * `mu0` is a warm start (the previous μ); μ = 0 is used when the
+ * Gauss–Newton step already fits.
+ */
+export function dampingForRadius(model: ISpectralModel, delta: number): number {
+  const gn = stepNorm(model, 0);
+  if (gn <= 1.1 * delta) {
+    return 0;
+  }
+  // Newton on ψ(μ) = 1/‖z(μ)‖ − 1/Δ, concave and increasing: monotone from the left.
+  let mu = 0;
+  for (let iter = 0; iter < 60; iter++) {
+    let sum = 0;
+    let sum3 = 0;
+    for (let a = 0; a < model.s2.length; a++) {
+      const den = model.s2[a] + mu;
+      if (den > 0) {
+        const t = model.c[a] / den;
+        sum += t * t;
+        sum3 += (t * t) / den;
+      }
+    }
+    const norm = Math.sqrt(sum);
+    if (norm <= 1.1 * delta && norm >= 0.9 * delta) {
+      return mu;
+    }
+    if (norm === 0) {
+      return mu;
+    }
+    // dψ/dμ = Σ c²/(s²+μ)³ / ‖z‖³
+    const psi = 1 / norm - 1 / delta;
+    const dpsi = sum3 / (norm * norm * norm);
+    if (!(dpsi > 0)) {
+      break;
+    }
+    const next = mu - psi / dpsi;
+    if (!(next > mu) && psi < 0) {
+      // safeguard against stagnation from rounding
+      mu = mu === 0 ? 1e-300 : mu * 2;
+    } else {
+      mu = next;
+    }
+  }
+  return mu;
+}
