@@ -1,0 +1,3 @@
+/** Critical power laws, effective exponents against the fit window. */
+export * from './power-law';
+export * from './window';

@@ -1,0 +1,150 @@
+/**
+ * Critical power law for the order parameter below Tc (t = (T − Tc)/Tc):
+ *   y = A (−t)^(p β) [1 + aW (−t)^Δ] + y0
+ * with Tc free, optional constant background y0 and optional Wegner
+ * correction (Δ fixed). `proxyPower` p is the power of ψ that the measured
+ * quantity follows (intensity ∝ ψ² → p = 2); β itself is reported.
+ */
+import { fitCurve } from '../../fit/index';
+import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
+import { PhysicsInputError } from '../errors';
+
+/** Options of a critical power-law fit. */
+export interface IPowerLawOptions {
+  /** Starting values (estimated when absent). */
+  start?: { A?: number; Tc?: number; beta?: number; y0?: number; aW?: number };
+  /** Fit a constant background y0 (default false: y0 = 0). */
+  background?: boolean;
+  /** Include the Wegner term with this Δ (e.g. 0.52 for 3D Ising); omitted = no correction. */
+  wegnerDelta?: number;
+  /** Measured quantity ∝ ψ^proxyPower (default 1). */
+  proxyPower?: number;
+  /** Value above Tc: 'zero' (physical) or 'signed' (odd continuation, smoother for the optimiser). Default 'zero'. */
+  aboveTc?: 'zero' | 'signed';
+  engine?: Partial<IFitOptions>;
+}
+
+/** Result of a power-law fit with the convention used. */
+export interface IPowerLawResult extends IFitResult {
+  convention: string;
+  proxyPower: number;
+}
+
+/** Builds the engine model; parameters A, Tc, beta [, y0] [, aW]. */
+export function powerLawModel(options: IPowerLawOptions = {}): IFitModel {
+  const pw = options.proxyPower ?? 1;
+  const bg = options.background === true;
+  const wd = options.wegnerDelta;
+  const signed = options.aboveTc === 'signed';
+  const params = ['A', 'Tc', 'beta'];
+  if (bg) {
+    params.push('y0');
+  }
+  if (wd !== undefined) {
+    params.push('aW');
+  }
+  const iBg = bg ? 3 : -1;
+  const iW = wd !== undefined ? params.length - 1 : -1;
+  return {
+    parameters: params,
+    evaluate(p, x, out) {
+      const A = p[0];
+      const Tc = p[1];
+      const e = pw * p[2];
+      for (let i = 0; i < x.length; i++) {
+        const u = 1 - x[i] / Tc; // −t
+        let v = 0;
+        if (u > 0 || (signed && u < 0)) {
+          const au = Math.abs(u);
+          v = A * Math.sign(u) * Math.pow(au, e);
+          if (iW >= 0) {
+            v *= 1 + p[iW] * Math.pow(au, wd as number);
+          }
+        }
+        out[i] = v + (iBg >= 0 ? p[iBg] : 0);
+      }
+    },
+    jacobian(p, x, out) {
+      const k = params.length;
+      const A = p[0];
+      const Tc = p[1];
+      const e = pw * p[2];
+      for (let i = 0; i < x.length; i++) {
+        const u = 1 - x[i] / Tc;
+        const row = i * k;
+        for (let j = 0; j < k; j++) {
+          out[row + j] = 0;
+        }
+        if (iBg >= 0) {
+          out[row + iBg] = 1;
+        }
+        if (!(u > 0 || (signed && u < 0))) {
+          continue;
+        }
+        const au = Math.abs(u);
+        const s = Math.sign(u);
+        const pwr = Math.pow(au, e);
+        const corr = iW >= 0 ? 1 + p[iW] * Math.pow(au, wd as number) : 1;
+        const dcorr = iW >= 0 ? p[iW] * (wd as number) * Math.pow(au, (wd as number) - 1) : 0; // d corr/d|u|
+        const base = s * pwr;
+        out[row] = base * corr;
+        // d/d|u| of A s |u|^e corr
+        const dAu = A * s * (e * Math.pow(au, e - 1) * corr + pwr * dcorr);
+        // |u| = s·u, du/dTc = x/Tc²
+        out[row + 1] = dAu * s * (x[i] / (Tc * Tc));
+        out[row + 2] = A * base * corr * Math.log(au) * pw;
+        if (iW >= 0) {
+          out[row + iW] = A * base * Math.pow(au, wd as number);
+        }
+      }
+    }
+  };
+}
+
+/** Fits the critical power law to (T, y) with Tc free. */
+export function fitPowerLaw(
+  data: { T: ArrayLike<number>; y: ArrayLike<number>; sigma?: ArrayLike<number> },
+  options: IPowerLawOptions = {}
+): IPowerLawResult {
+  const n = data.T.length;
+  if (n !== data.y.length) {
+    throw new PhysicsInputError('T and y must have equal lengths');
+  }
+  const pw = options.proxyPower ?? 1;
+  if (!(pw > 0)) {
+    throw new PhysicsInputError(`proxyPower must be > 0, got ${pw}`);
+  }
+  if (options.wegnerDelta !== undefined && !(options.wegnerDelta > 0)) {
+    throw new PhysicsInputError(`wegnerDelta must be > 0, got ${options.wegnerDelta}`);
+  }
+  let Tmax = -Infinity;
+  let ymax = 0;
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(data.T[i]) || !Number.isFinite(data.y[i])) {
+      throw new PhysicsInputError(`point ${i} is not finite`);
+    }
+    Tmax = Math.max(Tmax, data.T[i]);
+    ymax = Math.max(ymax, Math.abs(data.y[i]));
+  }
+  const model = powerLawModel(options);
+  const s = options.start ?? {};
+  const start = [s.A ?? ymax, s.Tc ?? Tmax * 1.01, s.beta ?? 0.35];
+  const lower = [-Infinity, 0, 1e-3];
+  const upper = [Infinity, Infinity, 5];
+  if (options.background === true) {
+    start.push(s.y0 ?? 0);
+    lower.push(-Infinity);
+    upper.push(Infinity);
+  }
+  if (options.wegnerDelta !== undefined) {
+    start.push(s.aW ?? 0);
+    lower.push(-Infinity);
+    upper.push(Infinity);
+  }
+  const res = fitCurve(model, { x: Float64Array.from(data.T), y: data.y, sigma: data.sigma }, { lower, upper, ...options.engine, start });
+  return {
+    ...res,
+    proxyPower: pw,
+    convention: `y = A(-t)^(${pw}*beta)[1 + aW(-t)^Delta] + y0, t = (T - Tc)/Tc; beta is the order-parameter exponent`
+  };
+}

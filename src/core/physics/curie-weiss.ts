@@ -1,0 +1,133 @@
+/**
+ * Curie–Weiss law χ = χ0 + C/(T − θ) and the effective moment from the
+ * molar Curie constant (domain reference B2, prefactors C7):
+ *   cgs-emu molar:  C_mol = N_A μB² p²/(3 kB)        (cm³ K mol⁻¹)
+ *   SI molar:       C_mol = μ0 N_A μB² p²/(3 kB)     (m³ K mol⁻¹)
+ */
+import { fitCurve } from '../fit/index';
+import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
+import { PHYS } from './constants';
+import { PhysicsInputError } from './errors';
+
+/** Unit system of a molar susceptibility. */
+export type MolarUnits = 'cgs-emu' | 'SI';
+
+/** Curie prefactor per p_eff²: N_A μB²/(3 kB) (cgs-emu, cm³ K mol⁻¹) or μ0 N_A μB²/(3 kB) (SI, m³ K mol⁻¹). */
+export function curiePrefactor(units: MolarUnits): number {
+  if (units === 'SI') {
+    return (PHYS.mu0 * PHYS.NA * PHYS.muB * PHYS.muB) / (3 * PHYS.kB);
+  }
+  // Gaussian units: μB in erg/G (×1e3), kB in erg/K (×1e7)
+  const muB = PHYS.muB * 1e3;
+  return (PHYS.NA * muB * muB) / (3 * PHYS.kB * 1e7);
+}
+
+/** Effective moment p_eff = μ_eff/μB per magnetic ion from a molar Curie constant. */
+export function effectiveMoment(
+  Cmol: number,
+  units: MolarUnits,
+  ionsPerFormulaUnit = 1
+): { pEff: number; convention: string } {
+  if (!(Cmol > 0) || !Number.isFinite(Cmol)) {
+    throw new PhysicsInputError(`Curie constant must be finite and > 0, got ${Cmol}`);
+  }
+  if (!(ionsPerFormulaUnit > 0)) {
+    throw new PhysicsInputError(`ionsPerFormulaUnit must be > 0, got ${ionsPerFormulaUnit}`);
+  }
+  return {
+    pEff: Math.sqrt(Cmol / (ionsPerFormulaUnit * curiePrefactor(units))),
+    convention: `molar ${units}: C_mol = ${units === 'SI' ? 'mu0 ' : ''}N_A muB^2 p_eff^2/(3 kB), per magnetic ion`
+  };
+}
+
+/** Free-ion effective moment g √(J(J+1)). */
+export function freeIonMoment(g: number, J: number): number {
+  return g * Math.sqrt(J * (J + 1));
+}
+
+/** Result of a Curie–Weiss fit. */
+export interface ICurieWeissFitResult extends IFitResult {
+  convention: string;
+  /** p_eff per ion with its standard error (propagated from C). */
+  pEff: number;
+  pEffError: number;
+  units: MolarUnits;
+  /** Temperature window actually used (points below `Tmin` are excluded). */
+  Tmin: number;
+}
+
+/** The model χ = χ0 + C/(T − θ), parameters C, theta, chi0, analytic Jacobian. */
+export const curieWeissModel: IFitModel = {
+  parameters: ['C', 'theta', 'chi0'],
+  evaluate(p, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      out[i] = p[2] + p[0] / (x[i] - p[1]);
+    }
+  },
+  jacobian(p, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const d = 1 / (x[i] - p[1]);
+      out[i * 3] = d;
+      out[i * 3 + 1] = p[0] * d * d;
+      out[i * 3 + 2] = 1;
+    }
+  }
+};
+
+/**
+ * Fits χ(T) = χ0 + C/(T − θ) on T ≥ Tmin (default: all points; the reference
+ * recommends T ≳ 2 max(Tc, |θ|)). `fixChi0` pins χ0 (default free).
+ */
+export function fitCurieWeiss(
+  data: { T: ArrayLike<number>; chi: ArrayLike<number>; sigma?: ArrayLike<number> },
+  options: { units: MolarUnits; Tmin?: number; ionsPerFormulaUnit?: number; start?: [number, number, number]; fixChi0?: boolean; engine?: Partial<IFitOptions> }
+): ICurieWeissFitResult {
+  const Tmin = options.Tmin ?? -Infinity;
+  const T: number[] = [];
+  const y: number[] = [];
+  const s: number[] = [];
+  if (data.T.length !== data.chi.length) {
+    throw new PhysicsInputError('T and chi must have equal lengths');
+  }
+  for (let i = 0; i < data.T.length; i++) {
+    if (!Number.isFinite(data.T[i]) || !Number.isFinite(data.chi[i])) {
+      throw new PhysicsInputError(`point ${i} is not finite`);
+    }
+    if (data.T[i] >= Tmin) {
+      T.push(data.T[i]);
+      y.push(data.chi[i]);
+      if (data.sigma) {
+        s.push(data.sigma[i]);
+      }
+    }
+  }
+  if (T.length < 4) {
+    throw new PhysicsInputError(`need at least 4 points at T >= Tmin, got ${T.length}`);
+  }
+  let start = options.start;
+  if (!start) {
+    // 1/χ ≈ (T − θ)/C from the two ends, χ0 = 0
+    const i0 = 0;
+    const i1 = T.length - 1;
+    const C0 = (T[i1] - T[i0]) / (1 / y[i1] - 1 / y[i0]);
+    start = [C0, T[i0] - C0 / y[i0], 0];
+  }
+  const minT = Math.min(...T);
+  const res = fitCurve(
+    curieWeissModel,
+    { x: T, y, sigma: data.sigma ? s : undefined },
+    { upper: [Infinity, minT - 1e-9 * Math.abs(minT), Infinity], fixed: [false, false, options.fixChi0 === true], ...options.engine, start }
+  );
+  const n = options.ionsPerFormulaUnit ?? 1;
+  const C = res.values[0];
+  const sC = res.standardErrors[0];
+  const pEff = C > 0 ? effectiveMoment(C, options.units, n).pEff : NaN;
+  return {
+    ...res,
+    convention: `chi = chi0 + C/(T - theta), molar ${options.units}; p_eff per ion`,
+    pEff,
+    pEffError: C > 0 ? (pEff * sC) / (2 * C) : NaN,
+    units: options.units,
+    Tmin
+  };
+}

@@ -1,0 +1,220 @@
+/**
+ * Closed-form consequences of the Landau 2-4-6 free energy in convention L
+ * without cubic term (domain reference B3 (i)–(iv)), and numerical
+ * counterparts that also work with a cubic term.
+ */
+import { bracketRoot } from '../../numeric/scalar';
+import { PhysicsInputError } from '../errors';
+import type { ILandauCoefficients } from './conventions';
+import { validateLandau } from './conventions';
+import { stationaryUnchecked } from './free-energy';
+
+/** Order of the zero-field transition. */
+export type LandauRegime = 'second-order' | 'first-order' | 'tricritical';
+
+/** Derived quantities of a 2-4-6 Landau free energy (convention L, d = 0). */
+export interface ILandauDerived {
+  convention: 'L';
+  regime: LandauRegime;
+  /** Supercooling limit / stability limit of the disordered state. */
+  T0: number;
+  /** Transition temperature: T0 (second order, tricritical) or T1 (first order). */
+  Ttransition: number;
+  /** Superheating limit T** (first order only, otherwise = T0). */
+  Tsuperheat: number;
+  /** Order-parameter jump at the transition (0 if continuous). */
+  psiJump: number;
+  /** Latent heat per unit of F (0 if continuous). */
+  latentHeat: number;
+  /** Barrier at T1: position and height (first order only, else NaN). */
+  barrierPsi: number;
+  barrierHeight: number;
+  /** 1/χ on the disordered and ordered sides at the transition (first order; 0 otherwise). */
+  inverseChiDisordered: number;
+  inverseChiOrdered: number;
+  /** d(1/χ)/dT on the disordered and ordered sides at the transition. */
+  inverseChiSlopeDisordered: number;
+  inverseChiSlopeOrdered: number;
+  /** Specific-heat jump at T0 (second order; Infinity at the tricritical point, NaN for first order). */
+  specificHeatJump: number;
+  /** Critical end point of the line of field-induced jumps (first order only, else NaN). */
+  criticalEndPoint: { T: number; psi: number; h: number };
+  /** ψ on the ordered branch at T0 (first order: √(|b|/c)). */
+  psiOrderedAtT0: number;
+}
+
+/** Closed forms of B3 for convention-L coefficients with no cubic term. */
+export function landauDerived(k: ILandauCoefficients): ILandauDerived {
+  validateLandau(k);
+  if ((k.d ?? 0) !== 0) {
+    throw new PhysicsInputError('closed forms need d = 0; use landauTransitionNumeric for a cubic term');
+  }
+  const { a, b, c, T0 } = k;
+  const nan = { T: NaN, psi: NaN, h: NaN };
+  if (b > 0) {
+    return {
+      convention: 'L',
+      regime: 'second-order',
+      T0,
+      Ttransition: T0,
+      Tsuperheat: T0,
+      psiJump: 0,
+      latentHeat: 0,
+      barrierPsi: NaN,
+      barrierHeight: NaN,
+      inverseChiDisordered: 0,
+      inverseChiOrdered: 0,
+      inverseChiSlopeDisordered: a,
+      inverseChiSlopeOrdered: -2 * a,
+      specificHeatJump: (T0 * a * a) / (2 * b),
+      criticalEndPoint: nan,
+      psiOrderedAtT0: 0
+    };
+  }
+  if (b === 0) {
+    return {
+      convention: 'L',
+      regime: 'tricritical',
+      T0,
+      Ttransition: T0,
+      Tsuperheat: T0,
+      psiJump: 0,
+      latentHeat: 0,
+      barrierPsi: NaN,
+      barrierHeight: NaN,
+      inverseChiDisordered: 0,
+      inverseChiOrdered: 0,
+      inverseChiSlopeDisordered: a,
+      inverseChiSlopeOrdered: -4 * a,
+      specificHeatJump: Infinity,
+      criticalEndPoint: nan,
+      psiOrderedAtT0: 0
+    };
+  }
+  const B = -b;
+  const T1 = T0 + (3 * B * B) / (16 * a * c);
+  const psi1 = Math.sqrt((3 * B) / (4 * c));
+  const psiCp = Math.sqrt((3 * B) / (10 * c));
+  return {
+    convention: 'L',
+    regime: 'first-order',
+    T0,
+    Ttransition: T1,
+    Tsuperheat: T0 + (B * B) / (4 * a * c),
+    psiJump: psi1,
+    latentHeat: (3 * a * B * T1) / (8 * c),
+    barrierPsi: Math.sqrt(B / (4 * c)),
+    barrierHeight: (B * B * B) / (96 * c * c),
+    inverseChiDisordered: (3 * B * B) / (16 * c),
+    inverseChiOrdered: (3 * B * B) / (4 * c),
+    inverseChiSlopeDisordered: a,
+    inverseChiSlopeOrdered: -8 * a,
+    specificHeatJump: NaN,
+    criticalEndPoint: { T: T0 + (9 * B * B) / (20 * a * c), psi: psiCp, h: (6 / 25) * ((B * B) / c) * psiCp },
+    psiOrderedAtT0: Math.sqrt(B / c)
+  };
+}
+
+/** Lowest ordered (ψ ≠ 0) local minimum at (T, h = 0), or null. */
+function orderedMinimum(k: ILandauCoefficients, T: number): { psi: number; F: number } | null {
+  const r = stationaryUnchecked(k, T, 0);
+  let best: { psi: number; F: number } | null = null;
+  const tiny = 1e-12;
+  for (const p of r.points) {
+    if ((p.kind === 'stable' || p.kind === 'metastable') && Math.abs(p.psi) > tiny) {
+      if (best === null || p.F < best.F) {
+        best = { psi: p.psi, F: p.F };
+      }
+    }
+  }
+  return best;
+}
+
+/** Numerically determined zero-field transition (works with a cubic term). */
+export interface ILandauTransitionNumeric {
+  convention: 'L';
+  firstOrder: boolean;
+  /** Superheating limit: highest T with an ordered local minimum. */
+  Tsuperheat: number;
+  /** Transition temperature (equal free energies; = T0 if continuous). */
+  Ttransition: number;
+  psiJump: number;
+  /** T1 · a ψ1²/2 (entropy S = S0 − (a/2)ψ² holds with a cubic term too). */
+  latentHeat: number;
+  converged: boolean;
+  reason: string;
+}
+
+/**
+ * Zero-field transition found numerically: the superheating limit by
+ * bisection on the existence of an ordered minimum, then T1 by Brent's
+ * method on F_ordered(T) − F(0) = 0.
+ */
+export function landauTransitionNumeric(k: ILandauCoefficients): ILandauTransitionNumeric {
+  validateLandau(k);
+  const { a, T0 } = k;
+  // expand upward until no ordered minimum exists
+  let span = 1e-3 * Math.max(1, Math.abs(T0));
+  let hi = T0 + span;
+  let guard = 0;
+  while (orderedMinimum(k, hi) !== null && guard++ < 200) {
+    span *= 2;
+    hi = T0 + span;
+  }
+  const exists = orderedMinimum(k, T0 + 1e-12 * Math.max(1, Math.abs(T0))) !== null;
+  if (!exists) {
+    return {
+      convention: 'L',
+      firstOrder: false,
+      Tsuperheat: T0,
+      Ttransition: T0,
+      psiJump: 0,
+      latentHeat: 0,
+      converged: true,
+      reason: 'continuous: no ordered minimum above T0'
+    };
+  }
+  let lo = T0;
+  for (let it = 0; it < 200 && hi - lo > 4 * Number.EPSILON * Math.abs(hi); it++) {
+    const mid = 0.5 * (lo + hi);
+    if (orderedMinimum(k, mid) !== null) {
+      lo = mid;
+    } else {
+      hi = mid;
+    }
+  }
+  const Tss = lo;
+  const dF = (T: number): number => {
+    const o = orderedMinimum(k, T);
+    return o === null ? Infinity : o.F; // F(0) = 0 at h = 0
+  };
+  const r = bracketRoot(dF, T0, Tss, 1e-13 * Math.max(1, Math.abs(T0)));
+  const T1 = r.root;
+  const o = orderedMinimum(k, T1);
+  const psi1 = o === null ? NaN : Math.abs(o.psi);
+  return {
+    convention: 'L',
+    firstOrder: true,
+    Tsuperheat: Tss,
+    Ttransition: T1,
+    psiJump: psi1,
+    latentHeat: (T1 * a * psi1 * psi1) / 2,
+    converged: r.converged && o !== null,
+    reason: r.reason
+  };
+}
+
+/** ψ at h = 0 on the tricritical or second-order equilibrium branch (closed form, d = 0, b ≥ 0). */
+export function landauOrderParameterClosedForm(k: ILandauCoefficients, T: number): number {
+  if (T >= k.T0) {
+    return 0;
+  }
+  const { a, b, c } = k;
+  if (c === 0) {
+    return Math.sqrt((a * (k.T0 - T)) / b);
+  }
+  const disc = b * b + 4 * a * c * (k.T0 - T);
+  // (−b + √disc)/(2c) written without cancellation
+  const psi2 = (4 * a * (k.T0 - T)) / (2 * (b + Math.sqrt(disc)));
+  return Math.sqrt(psi2);
+}

@@ -1,0 +1,136 @@
+/**
+ * Fit of convention-L coefficients (a, T0, b, c; no cubic term) to the
+ * equilibrium order parameter ψ(T) at h = 0, optionally jointly with
+ * 1/χ(T) (= F″ at the minimum) and the specific-heat jump ΔC = T0 a²/(2b).
+ * ψ(T) alone fixes only T0, b/a and c/a (F can be rescaled), so without
+ * 1/χ or ΔC the scale `a` is held at its start value and a warning says so.
+ * Joint fits need per-point σ in every data set so that the weights are
+ * meaningful.
+ */
+import { fitCurve } from '../../fit/index';
+import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
+import { PhysicsInputError } from '../errors';
+import type { ILandauCoefficients } from './conventions';
+
+/** ψ_eq(T) ≥ 0 at h = 0 in closed form (d = 0); NaN for an unbounded F. */
+export function landauEquilibriumPsi(k: ILandauCoefficients, T: number): number {
+  const { a, b, c, T0 } = k;
+  if (!(a > 0) || c < 0 || (c === 0 && !(b > 0))) {
+    return NaN;
+  }
+  const x = a * (T0 - T);
+  if (b >= 0) {
+    if (x <= 0) {
+      return 0;
+    }
+    const disc = b * b + 4 * c * x;
+    return Math.sqrt((2 * x) / (b + Math.sqrt(disc)));
+  }
+  const B = -b;
+  const T1 = T0 + (3 * B * B) / (16 * a * c);
+  if (T >= T1) {
+    return 0;
+  }
+  const disc = B * B + 4 * c * x;
+  return Math.sqrt((B + Math.sqrt(Math.max(0, disc))) / (2 * c));
+}
+
+/** Data for a Landau fit. */
+export interface ILandauFitData {
+  psi: { T: ArrayLike<number>; y: ArrayLike<number>; sigma?: ArrayLike<number> };
+  inverseChi?: { T: ArrayLike<number>; y: ArrayLike<number>; sigma: ArrayLike<number> };
+  specificHeatJump?: { value: number; sigma: number };
+}
+
+/** Result of a Landau fit in convention L. */
+export interface ILandauFitResult extends IFitResult {
+  convention: 'L';
+  coefficients: ILandauCoefficients;
+  /** True when only ψ(T) was given and `a` was held fixed. */
+  scaleFixed: boolean;
+}
+
+/**
+ * Fits (a, T0, b, c). `sextic: false` (default true) fixes c = 0 (2-4 model,
+ * then b > 0 is enforced).
+ */
+export function fitLandau(
+  data: ILandauFitData,
+  options: { start: ILandauCoefficients; sextic?: boolean; engine?: Partial<IFitOptions> }
+): ILandauFitResult {
+  const kinds: number[] = [];
+  const Ts: number[] = [];
+  const ys: number[] = [];
+  const ss: number[] = [];
+  const joint = data.inverseChi !== undefined || data.specificHeatJump !== undefined;
+  const add = (kind: number, T: ArrayLike<number>, y: ArrayLike<number>, s?: ArrayLike<number>): void => {
+    if (T.length !== y.length || (s !== undefined && s.length !== T.length)) {
+      throw new PhysicsInputError('each data set needs equal-length T, y (and sigma)');
+    }
+    for (let i = 0; i < T.length; i++) {
+      if (!Number.isFinite(T[i]) || !Number.isFinite(y[i])) {
+        throw new PhysicsInputError(`non-finite point ${i} in data set ${kind}`);
+      }
+      kinds.push(kind);
+      Ts.push(T[i]);
+      ys.push(y[i]);
+      ss.push(s ? s[i] : 1);
+    }
+  };
+  if (joint && data.psi.sigma === undefined) {
+    throw new PhysicsInputError('a joint fit needs sigma for psi(T) as well, so that data sets are weighted consistently');
+  }
+  add(0, data.psi.T, data.psi.y, data.psi.sigma);
+  if (data.inverseChi) {
+    add(1, data.inverseChi.T, data.inverseChi.y, data.inverseChi.sigma);
+  }
+  if (data.specificHeatJump) {
+    add(2, [0], [data.specificHeatJump.value], [data.specificHeatJump.sigma]);
+  }
+  if (Ts.length < 4) {
+    throw new PhysicsInputError(`need at least 4 points, got ${Ts.length}`);
+  }
+  const sextic = options.sextic !== false;
+  const model: IFitModel = {
+    parameters: ['a', 'T0', 'b', 'c'],
+    evaluate(p, x, out) {
+      const k: ILandauCoefficients = { a: p[0], T0: p[1], b: p[2], c: p[3] };
+      for (let i = 0; i < x.length; i++) {
+        const j = x[i];
+        const T = Ts[j];
+        if (kinds[j] === 0) {
+          out[i] = landauEquilibriumPsi(k, T);
+        } else if (kinds[j] === 1) {
+          const psi = landauEquilibriumPsi(k, T);
+          const p2 = psi * psi;
+          out[i] = k.a * (T - k.T0) + 3 * k.b * p2 + 5 * k.c * p2 * p2;
+        } else {
+          out[i] = k.b > 0 ? (k.T0 * k.a * k.a) / (2 * k.b) : NaN;
+        }
+      }
+    }
+  };
+  const s = options.start;
+  const res = fitCurve(
+    model,
+    { x: Ts.map((_, i) => i), y: ys, sigma: joint || data.psi.sigma ? ss : undefined },
+    {
+      lower: [1e-300, -Infinity, sextic ? -Infinity : 1e-300, 0],
+      upper: [Infinity, Infinity, Infinity, Infinity],
+      fixed: [!joint, false, false, !sextic],
+      ...options.engine,
+      start: [s.a, s.T0, s.b, sextic ? s.c : 0]
+    }
+  );
+  const warnings = res.warnings.slice();
+  if (!joint) {
+    warnings.push('only psi(T) given: a held at its start value; T0, b/a and c/a are determined, the overall scale is not');
+  }
+  return {
+    ...res,
+    warnings,
+    convention: 'L',
+    coefficients: { a: res.values[0], T0: res.values[1], b: res.values[2], c: res.values[3], d: 0 },
+    scaleFixed: !joint
+  };
+}

@@ -1,0 +1,6 @@
+/** Landau 2-4-6 free energy (convention L, optional cubic term): landscape, derived quantities, paths, fits. */
+export * from './conventions';
+export * from './free-energy';
+export * from './derived';
+export * from './paths';
+export * from './fit';

@@ -1,0 +1,223 @@
+/**
+ * Fits of the Weiss mean-field model to M(T) (Ms, Tc, optionally J) and to
+ * M(B, T) isotherms (Ms, Tc, moment), built on the shared least-squares
+ * engine. The M(T) model has an analytic Jacobian from implicit
+ * differentiation of m = B_J((k m + h)/τ):
+ *   ∂m/∂τ = −B′ x /(τ − k B′),   ∂m/∂h = B′/(τ − k B′).
+ */
+import { fitCurve } from '../fit/index';
+import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
+import { PHYS } from './constants';
+import { PhysicsInputError, requireSpin } from './errors';
+import { solveWeiss } from './weiss';
+
+/** Convention tag stored with every Weiss fit. */
+export const WEISS_CONVENTION =
+  'Weiss mean field (reference B1): M = Ms*B_J(x), x = (3J/(J+1) m + h)/tau, tau = T/Tc, h = mu*muB*B/(kB*Tc), mu = g*J in Bohr magnetons';
+
+/** Result of a Weiss fit: the engine result plus the model description. */
+export interface IWeissFitResult extends IFitResult {
+  convention: string;
+  /** Spin used (the fitted value when J was free). */
+  J: number;
+  jFitted: boolean;
+}
+
+/** Options of `fitWeissMT`. */
+export interface IWeissMTOptions {
+  /** Spin J (½, 1, …, Infinity); the start value when `fitJ` is true. */
+  J: number;
+  /** Fit J as a continuous effective parameter (bounded to [0.5, 50]). */
+  fitJ?: boolean;
+  /** Constant applied field μ0H in tesla (default 0). */
+  fieldTesla?: number;
+  /** Moment g·J in Bohr magnetons, needed when `fieldTesla` ≠ 0. */
+  momentBohr?: number;
+  /** Starting values [Ms, Tc] (estimated from the data when absent). */
+  start?: [number, number];
+  /** Extra engine options (bounds, callbacks, confidence level …). */
+  engine?: Partial<IFitOptions>;
+}
+
+function checkColumns(T: ArrayLike<number>, y: ArrayLike<number>, sigma?: ArrayLike<number>): void {
+  if (T.length !== y.length || (sigma !== undefined && sigma.length !== T.length)) {
+    throw new PhysicsInputError('T, M (and sigma) must have equal lengths');
+  }
+  if (T.length < 3) {
+    throw new PhysicsInputError(`need at least 3 points, got ${T.length}`);
+  }
+  for (let i = 0; i < T.length; i++) {
+    if (!(T[i] > 0) || !Number.isFinite(T[i])) {
+      throw new PhysicsInputError(`T[${i}] must be a finite temperature in kelvin > 0, got ${T[i]}`);
+    }
+    if (!Number.isFinite(y[i])) {
+      throw new PhysicsInputError(`M[${i}] must be finite, got ${y[i]}`);
+    }
+  }
+}
+
+/** Rough start values: Ms from the largest |M|, Tc where M falls below 10 % of it. */
+export function estimateWeissStart(T: ArrayLike<number>, M: ArrayLike<number>): [number, number] {
+  let Mmax = 0;
+  for (let i = 0; i < M.length; i++) {
+    Mmax = Math.max(Mmax, Math.abs(M[i]));
+  }
+  let Tc = 0;
+  for (let i = 0; i < T.length; i++) {
+    if (Math.abs(M[i]) > 0.1 * Mmax) {
+      Tc = Math.max(Tc, T[i]);
+    }
+  }
+  return [Mmax * 1.05, Tc * 1.02];
+}
+
+/** The M(T) model as an engine model (parameters Ms, Tc[, J]). */
+export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBohr = 0): IFitModel {
+  const hNumerator = (momentBohr * PHYS.muB * fieldTesla) / PHYS.kB; // h = hNumerator / Tc
+  const tauBuf = { tau: new Float64Array(0) };
+  const reduced = (p: Float64Array, x: Float64Array): ReturnType<typeof solveWeiss> => {
+    const Tc = p[1];
+    const n = x.length;
+    if (tauBuf.tau.length !== n) {
+      tauBuf.tau = new Float64Array(n);
+    }
+    const tau = tauBuf.tau;
+    for (let i = 0; i < n; i++) {
+      tau[i] = x[i] / Tc;
+    }
+    return solveWeiss(fitJ ? p[2] : J, tau, hNumerator / Tc);
+  };
+  const params = fitJ ? ['Ms', 'Tc', 'J'] : ['Ms', 'Tc'];
+  return {
+    parameters: params,
+    evaluate(p, x, out) {
+      const s = reduced(p, x);
+      for (let i = 0; i < x.length; i++) {
+        out[i] = p[0] * s.m[i];
+      }
+    },
+    jacobian(p, x, out) {
+      const Ms = p[0];
+      const Tc = p[1];
+      const k = params.length;
+      const s = reduced(p, x);
+      const h = hNumerator / Tc;
+      for (let i = 0; i < x.length; i++) {
+        const tau = x[i] / Tc;
+        out[i * k] = s.m[i];
+        out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
+      }
+      if (fitJ) {
+        const dJ = 1e-6 * Math.max(1, p[2]);
+        const pp = Float64Array.from(p);
+        pp[2] = p[2] + dJ;
+        const up = reduced(pp, x).m.slice();
+        pp[2] = p[2] - dJ;
+        const dn = reduced(pp, x).m;
+        for (let i = 0; i < x.length; i++) {
+          out[i * k + 2] = (Ms * (up[i] - dn[i])) / (2 * dJ);
+        }
+      }
+    }
+  };
+}
+
+/**
+ * Fits M(T) = Ms·m(T/Tc, h) with J fixed or fitted. Per-point σ (optional)
+ * give errors 'from-sigma'; otherwise errors are scaled by √χ²_red.
+ */
+export function fitWeissMT(
+  data: { T: ArrayLike<number>; M: ArrayLike<number>; sigma?: ArrayLike<number> },
+  options: IWeissMTOptions
+): IWeissFitResult {
+  requireSpin(options.J);
+  checkColumns(data.T, data.M, data.sigma);
+  const field = options.fieldTesla ?? 0;
+  if (field !== 0 && !(options.momentBohr !== undefined && options.momentBohr > 0)) {
+    throw new PhysicsInputError('momentBohr (g*J, > 0) is required when fieldTesla is not 0');
+  }
+  const fitJ = options.fitJ === true;
+  const model = weissMTModel(options.J, fitJ, field, options.momentBohr ?? 0);
+  const start = options.start ?? estimateWeissStart(data.T, data.M);
+  const J0 = options.J === Infinity ? 50 : options.J;
+  const res = fitCurve(
+    model,
+    { x: Float64Array.from(data.T), y: data.M, sigma: data.sigma },
+    {
+      lower: fitJ ? [-Infinity, 1e-9, 0.5] : [-Infinity, 1e-9],
+      upper: fitJ ? [Infinity, Infinity, 50] : [Infinity, Infinity],
+      ...options.engine,
+      start: fitJ ? [start[0], start[1], J0] : start
+    }
+  );
+  return { ...res, convention: WEISS_CONVENTION, J: fitJ ? res.values[2] : options.J, jFitted: fitJ };
+}
+
+/** Options of `fitWeissIsotherms`. */
+export interface IWeissIsothermOptions {
+  J: number;
+  /** Starting values [Ms, Tc, moment in μB]. */
+  start: [number, number, number];
+  /** Keep the moment fixed (e.g. to g·J of the free ion). */
+  fixMoment?: boolean;
+  engine?: Partial<IFitOptions>;
+}
+
+/**
+ * Fits M(B, T) isotherms (B = μ0 H_int in tesla) with parameters Ms, Tc and
+ * the moment μ = g·J (μB). Uses x = point index and closes over T and B.
+ */
+export function fitWeissIsotherms(
+  data: { T: ArrayLike<number>; B: ArrayLike<number>; M: ArrayLike<number>; sigma?: ArrayLike<number> },
+  options: IWeissIsothermOptions
+): IWeissFitResult {
+  requireSpin(options.J);
+  checkColumns(data.T, data.M, data.sigma);
+  if (data.B.length !== data.T.length) {
+    throw new PhysicsInputError('B must have the same length as T');
+  }
+  const T = Float64Array.from(data.T);
+  const B = Float64Array.from(data.B);
+  const J = options.J;
+  const model: IFitModel = {
+    parameters: ['Ms', 'Tc', 'moment'],
+    evaluate(p, x, out) {
+      const n = x.length;
+      const tau = new Float64Array(n);
+      const h = new Float64Array(n);
+      for (let i = 0; i < n; i++) {
+        const j = x[i];
+        tau[i] = T[j] / p[1];
+        h[i] = (p[2] * PHYS.muB * B[j]) / (PHYS.kB * p[1]);
+      }
+      const s = solveWeiss(J, tau, h);
+      for (let i = 0; i < n; i++) {
+        out[i] = p[0] * s.m[i];
+      }
+    }
+  };
+  const res = fitCurve(
+    model,
+    { x: Float64Array.from(T, (_, i) => i), y: data.M, sigma: data.sigma },
+    {
+      lower: [-Infinity, 1e-9, 1e-6],
+      upper: [Infinity, Infinity, Infinity],
+      fixed: [false, false, options.fixMoment === true],
+      ...options.engine,
+      start: options.start
+    }
+  );
+  return { ...res, convention: WEISS_CONVENTION, J, jFitted: false };
+}
+
+/**
+ * Curie constant of the mean-field susceptibility above Tc,
+ * C = μ0 N g² μB² J(J+1)/(3 kB) (SI, volume; K), for N moments per m³.
+ */
+export function weissCurieConstantSI(N: number, g: number, J: number): number {
+  requireSpin(J);
+  if (J === Infinity) {
+    throw new PhysicsInputError('use the classical moment form for J = Infinity');
+  }
+  return (PHYS.mu0 * N * g * g * PHYS.muB * PHYS.muB * J * (J + 1)) / (3 * PHYS.kB);
+}
