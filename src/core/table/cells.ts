@@ -171,3 +171,10 @@ export function decimalsShown(text: string): number {
   const point = mantissa.indexOf('.');
   return point < 0 ? 0 : mantissa.length - point - 1;
 }
+
+/** Decimal places of a number written in fixed or scientific notation (`1.23e-8` → 10, `2.5` → 1, `3e2` → 0). */
+export function fixedDecimals(text: string): number {
+  const e = text.search(/[eE]/);
+  const exponent = e >= 0 ? Number(text.slice(e + 1)) : 0;
+  return Math.max(0, decimalsShown(text) - (Number.isFinite(exponent) ? exponent : 0));
+}

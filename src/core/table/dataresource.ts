@@ -5,7 +5,9 @@
 import { columnFromJson } from './columns';
 import type { JsonKindHint } from './columns';
 import { collectRecords, isRecord, jsonType, jsonValue } from './json';
+import { fixedDecimals, significantDigits } from './cells';
 import { checkRowAndColumnCounts } from './limits';
+import { roundedNote } from './notes';
 import type { IColumn, ITable } from './types';
 import { TableParseError } from './types';
 
@@ -67,5 +69,38 @@ export function parseDataResource(payload: unknown): ITable {
   const columns: IColumn[] = names.map((name, c) =>
     columnFromJson(name, cells.get(name) ?? [], { isIndex: primaryKey.has(name), hint: hints[c], colIndex: c })
   );
-  return { columns, rowCount: data.length, format: 'dataresource', notes: [] };
+  const table: ITable = { columns, rowCount: data.length, format: 'dataresource', notes: [] };
+  if (isRecord(schema) && schema.pandas_version !== undefined) {
+    columns.forEach(markJsonRounding);
+    const note = roundedNote(columns, "pandas' dataresource JSON (to_json) writes floats to 10 decimal places");
+    if (note) {
+      table.notes.push(note);
+    }
+  }
+  return table;
+}
+
+/** Decimal places pandas' to_json keeps by default (double_precision). */
+export const PANDAS_JSON_PRECISION = 10;
+
+/** Set shownDigits on a number column whose values show signs of to_json's 10-decimal rounding. */
+function markJsonRounding(column: IColumn): void {
+  if (!(column.values instanceof Float64Array)) {
+    return;
+  }
+  let rounded = false;
+  let digits = 0;
+  for (const v of column.values) {
+    if (!Number.isFinite(v)) {
+      continue;
+    }
+    const text = String(v);
+    if (fixedDecimals(text) >= PANDAS_JSON_PRECISION) {
+      rounded = true;
+    }
+    digits = Math.max(digits, significantDigits(text));
+  }
+  if (rounded) {
+    column.shownDigits = digits;
+  }
 }

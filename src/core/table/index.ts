@@ -6,7 +6,10 @@
  */
 import { parseDelimited } from './csv';
 import { parseDataResource } from './dataresource';
+import { parsePandasHtml } from './html';
 import { parseJsonTable } from './json';
+import { crossCheckDataResource } from './crosscheck';
+import { parsePandasText } from './text';
 import type { ITable, ParseResult } from './types';
 import { TableParseError } from './types';
 
@@ -20,7 +23,9 @@ export const TABLE_MIME_PREFERENCE: readonly string[] = [
   'application/vnd.dataresource+json',
   'text/csv',
   'text/tab-separated-values',
-  'application/json'
+  'text/html',
+  'application/json',
+  'text/plain'
 ];
 
 /** Join nbformat multi-line strings (lists of lines) into one text. */
@@ -47,20 +52,26 @@ function parseMimeOrThrow(mime: string, payload: unknown): ITable {
       return parseDelimited(requireText(payload, mime), ',');
     case 'text/tab-separated-values':
       return parseDelimited(requireText(payload, mime), '\t');
+    case 'text/html':
+      return parsePandasHtml(requireText(payload, mime));
     case 'application/json':
       return parseJsonTable(textOf(payload));
+    case 'text/plain':
+      return parsePandasText(requireText(payload, mime));
     default:
-      throw new TableParseError(`The MIME type ${mime} does not hold a table.`);
+      throw new TableParseError(`The MIME type ${mime} does not hold a table.`, 'no-table');
   }
 }
 
+type Attempt = ParseResult | { ok: false; message: string; noTable: true };
+
 /** Run a parser, turning refusals and unexpected failures into `{ ok: false }`. */
-function guarded(run: () => ITable): ParseResult {
+function attempt(run: () => ITable): Attempt {
   try {
     return { ok: true, table: run() };
   } catch (e) {
     if (e instanceof TableParseError) {
-      return { ok: false, message: e.message };
+      return e.reason === 'no-table' ? { ok: false, message: e.message, noTable: true } : { ok: false, message: e.message };
     }
     if (e instanceof RangeError) {
       return { ok: false, message: `The output is too large or too deeply nested to read as a table (${e.message}).` };
@@ -71,7 +82,8 @@ function guarded(run: () => ITable): ParseResult {
 
 /** Parse one MIME payload. */
 export function parseMime(mime: string, payload: unknown): ParseResult {
-  return guarded(() => parseMimeOrThrow(mime, payload));
+  const result = attempt(() => parseMimeOrThrow(mime, payload));
+  return result.ok ? result : { ok: false, message: result.message };
 }
 
 function isObject(v: unknown): v is Record<string, unknown> {
@@ -103,16 +115,21 @@ export function parseOutput(bundle: Readonly<Record<string, unknown>>): ParseRes
     return { ok: false, message: data };
   }
   const present = TABLE_MIME_PREFERENCE.filter(m => data[m] !== undefined && data[m] !== null);
-  const failures: string[] = [];
+  const refusals: string[] = [];
   for (const mime of present) {
-    const result = parseMime(mime, data[mime]);
+    const result = attempt(() => parseMimeOrThrow(mime, data[mime]));
     if (result.ok) {
+      if (mime === 'application/vnd.dataresource+json') {
+        crossCheckDataResource(result.table, data, (m, p) => attempt(() => parseMimeOrThrow(m, p)));
+      }
       return result;
     }
-    failures.push(`${mime}: ${result.message}`);
+    if (!('noTable' in result)) {
+      refusals.push(`${mime}: ${result.message}`);
+    }
   }
-  if (failures.length > 0) {
-    return { ok: false, message: `This output holds no readable table. ${failures.join(' ')}` };
+  if (refusals.length > 0) {
+    return { ok: false, message: `This output's table could not be read. ${refusals.join(' ')}` };
   }
   const mimes = Object.keys(data);
   return {

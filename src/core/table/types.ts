@@ -91,8 +91,11 @@ export const TABLE_LIMITS: ITableLimits = Object.freeze({
  * at the public boundary. The message names the row and/or column concerned.
  */
 export class TableParseError extends Error {
-  constructor(message: string) {
+  /** 'no-table': the payload holds no table at all; 'refused': a table that is malformed or over a limit. */
+  readonly reason: 'refused' | 'no-table';
+  constructor(message: string, reason: 'refused' | 'no-table' = 'refused') {
     super(message);
     this.name = 'TableParseError';
+    this.reason = reason;
   }
 }

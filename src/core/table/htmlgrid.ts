@@ -1,0 +1,198 @@
+/**
+ * From HTML text to a rectangular grid of cell texts, via parse5's inert tree.
+ * Nothing is executed or rendered: only text nodes are read; script, style and
+ * template contents are skipped. Rowspan/colspan are expanded as the HTML table
+ * model does (spans do not cross thead/tbody/tfoot sections).
+ */
+import { parseFragment } from 'parse5';
+import type { DefaultTreeAdapterTypes } from 'parse5';
+import { TABLE_LIMITS, TableParseError } from './types';
+
+type Node = DefaultTreeAdapterTypes.Node;
+type Element = DefaultTreeAdapterTypes.Element;
+
+/** One expanded grid cell. */
+export interface IGridCell {
+  text: string;
+  /** From a `th` element. */
+  isHeader: boolean;
+}
+
+/** The grid of one table: header rows (thead) and body rows. */
+export interface IHtmlGrid {
+  head: IGridCell[][];
+  body: IGridCell[][];
+  /** All text outside the chosen table (e.g. pandas' "N rows × M columns" line). */
+  outsideText: string;
+  /** How many tables the markup held. */
+  tableCount: number;
+}
+
+const SKIPPED = new Set(['script', 'style', 'template', 'noscript', 'iframe', 'object', 'svg', 'math']);
+
+function isElement(n: Node): n is Element {
+  return 'tagName' in n;
+}
+
+function children(n: Node): Node[] {
+  return 'childNodes' in n ? n.childNodes : [];
+}
+
+function attr(el: Element, name: string): string | undefined {
+  return el.attrs.find(a => a.name === name)?.value;
+}
+
+function span(el: Element, name: string, max: number): number {
+  const v = Number.parseInt(attr(el, name) ?? '1', 10);
+  return Number.isFinite(v) && v >= 1 ? Math.min(v, max) : 1;
+}
+
+/** Text of a subtree (iterative), whitespace collapsed; refuses over-deep or over-long cells. */
+function cellText(cell: Element, where: () => string): string {
+  const parts: string[] = [];
+  let length = 0;
+  const stack: [Node, number][] = [[cell, 0]];
+  while (stack.length > 0) {
+    const [node, depth] = stack.pop() as [Node, number];
+    if (depth > TABLE_LIMITS.maxDepth) {
+      throw new TableParseError(`The cell in ${where()} is nested more than ${TABLE_LIMITS.maxDepth} elements deep.`);
+    }
+    if (node.nodeName === '#text') {
+      const value = (node as DefaultTreeAdapterTypes.TextNode).value;
+      length += value.length;
+      if (length > TABLE_LIMITS.maxCellChars * 2) {
+        throw new TableParseError(`The cell in ${where()} holds more than ${TABLE_LIMITS.maxCellChars} characters; that is the limit.`);
+      }
+      parts.push(value);
+      continue;
+    }
+    if (isElement(node) && node !== cell && SKIPPED.has(node.tagName)) {
+      continue;
+    }
+    if (isElement(node) && node.tagName === 'br') {
+      parts.push(' ');
+    }
+    const kids = children(node);
+    for (let i = kids.length - 1; i >= 0; i--) {
+      stack.push([kids[i], depth + 1]);
+    }
+  }
+  const text = parts.join('').replace(/\s+/g, ' ').trim();
+  if (text.length > TABLE_LIMITS.maxCellChars) {
+    throw new TableParseError(`The cell in ${where()} holds ${text.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`);
+  }
+  return text;
+}
+
+/** Find the tables of a tree without recursion; returns tables in document order and the text outside them. */
+function findTables(root: Node): { tables: Element[]; outside: string } {
+  const tables: Element[] = [];
+  const outside: string[] = [];
+  const stack: Node[] = [root];
+  while (stack.length > 0) {
+    const node = stack.pop() as Node;
+    if (node.nodeName === '#text') {
+      outside.push((node as DefaultTreeAdapterTypes.TextNode).value);
+      continue;
+    }
+    if (isElement(node) && node.tagName === 'table') {
+      tables.push(node);
+      continue;
+    }
+    if (isElement(node) && SKIPPED.has(node.tagName)) {
+      continue;
+    }
+    const kids = children(node);
+    for (let i = kids.length - 1; i >= 0; i--) {
+      stack.push(kids[i]);
+    }
+  }
+  return { tables, outside: outside.join(' ').replace(/\s+/g, ' ') };
+}
+
+/** Rows of a table grouped by section (thead first, then tbody/tr, then tfoot). */
+function sections(table: Element): { head: Element[][]; body: Element[][] } {
+  const head: Element[][] = [];
+  const body: Element[][] = [];
+  const loose: Element[] = [];
+  const foot: Element[][] = [];
+  for (const child of table.childNodes) {
+    if (!isElement(child)) {
+      continue;
+    }
+    const rows = child.childNodes.filter((r): r is Element => isElement(r) && r.tagName === 'tr');
+    if (child.tagName === 'thead') {
+      head.push(rows);
+    } else if (child.tagName === 'tbody') {
+      body.push(rows);
+    } else if (child.tagName === 'tfoot') {
+      foot.push(rows);
+    } else if (child.tagName === 'tr') {
+      loose.push(child);
+    }
+  }
+  if (loose.length > 0) {
+    body.push(loose);
+  }
+  return { head, body: [...body, ...foot] };
+}
+
+/** Expand one section's rows into grid rows (HTML table model for spans). */
+function expandSection(rows: Element[], firstRow: number, section: string): IGridCell[][] {
+  const grid: IGridCell[][] = rows.map(() => []);
+  rows.forEach((tr, r) => {
+    const out = grid[r];
+    let c = 0;
+    for (const cell of tr.childNodes) {
+      if (!isElement(cell) || (cell.tagName !== 'td' && cell.tagName !== 'th')) {
+        continue;
+      }
+      while (out[c] !== undefined) {
+        c++;
+      }
+      const colspan = span(cell, 'colspan', TABLE_LIMITS.maxColumns + 1);
+      const rowspan = span(cell, 'rowspan', rows.length - r);
+      const col = c;
+      const text = cellText(cell, () => `${section} row ${firstRow + r + 1}, column ${col + 1}`);
+      const value: IGridCell = { text, isHeader: cell.tagName === 'th' };
+      if (c + colspan > TABLE_LIMITS.maxColumns) {
+        throw new TableParseError(
+          `Row ${firstRow + r + 1} of the HTML table reaches column ${c + colspan}; the limit is ${TABLE_LIMITS.maxColumns} columns.`
+        );
+      }
+      for (let dr = 0; dr < rowspan; dr++) {
+        for (let dc = 0; dc < colspan; dc++) {
+          grid[r + dr][c + dc] = value;
+        }
+      }
+      c += colspan;
+    }
+  });
+  return grid;
+}
+
+/** Parse HTML text and return the grid of its first pandas table (class "dataframe"), else its first table. */
+export function htmlGrid(html: string): IHtmlGrid | null {
+  const fragment = parseFragment(html);
+  const { tables, outside } = findTables(fragment);
+  if (tables.length === 0) {
+    return null;
+  }
+  const table = tables.find(t => /(^|\s)dataframe(\s|$)/.test(attr(t, 'class') ?? '')) ?? tables[0];
+  const { head, body } = sections(table);
+  const headGrid: IGridCell[][] = [];
+  for (const rows of head) {
+    headGrid.push(...expandSection(rows, headGrid.length, 'header'));
+  }
+  const bodyRowCount = body.reduce((n, rows) => n + rows.length, 0);
+  if (bodyRowCount > TABLE_LIMITS.maxRows) {
+    throw new TableParseError(
+      `The HTML table has ${bodyRowCount} rows; the limit is ${TABLE_LIMITS.maxRows} (row ${TABLE_LIMITS.maxRows + 1} is the first past it).`
+    );
+  }
+  const bodyGrid: IGridCell[][] = [];
+  for (const rows of body) {
+    bodyGrid.push(...expandSection(rows, bodyGrid.length, 'body'));
+  }
+  return { head: headGrid, body: bodyGrid, outsideText: outside, tableCount: tables.length };
+}

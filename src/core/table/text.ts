@@ -1,0 +1,201 @@
+/**
+ * The plain pandas text repr (`repr(df)`), read as a last resort.
+ *
+ * pandas pads every field to a fixed width; values and column labels are
+ * right-justified, index values left-justified. Fields are found as runs of
+ * character positions that are not blank in every data line; a run whose
+ * header is blank belongs to the labelled run on its right (e.g. the date
+ * and time halves of a datetime). Leading unlabelled runs are index levels.
+ * Single-level columns only; a names row below the header gives index names.
+ */
+import { columnFromText } from './columns';
+import { checkRowAndColumnCounts, checkTextSize } from './limits';
+import { roundedNote, shapeFooter, truncatedNote } from './notes';
+import type { IColumn, ITable, ITableNote, ITruncation } from './types';
+import { TABLE_LIMITS, TableParseError } from './types';
+
+const NO_TABLE = 'The text is not a pandas table display';
+const ELLIPSIS = new Set(['...', '..', '…']);
+
+interface IField {
+  start: number;
+  end: number;
+}
+
+interface IBlock {
+  index: IColumn[];
+  data: IColumn[];
+  rows: number;
+  rowGapAt: number | null;
+  elidedColumns: number;
+}
+
+function slice(line: string, f: IField): string {
+  return line.slice(f.start, f.end).trim();
+}
+
+/** Runs of positions that are non-blank in at least one line. */
+function fieldsOf(lines: readonly string[], width: number): IField[] {
+  const used = new Uint8Array(width);
+  for (const line of lines) {
+    for (let p = 0; p < line.length; p++) {
+      if (line.charCodeAt(p) !== 32) {
+        used[p] = 1;
+      }
+    }
+  }
+  const fields: IField[] = [];
+  for (let p = 0; p < width; p++) {
+    if (used[p] === 1 && (p === 0 || used[p - 1] === 0)) {
+      fields.push({ start: p, end: p + 1 });
+    } else if (used[p] === 1) {
+      fields[fields.length - 1].end = p + 1;
+    }
+  }
+  return fields;
+}
+
+function parseBlock(raw: readonly string[]): IBlock {
+  const lines = raw.map(l => l.replace(/\s+\\$/, '').trimEnd());
+  if (lines.length < 2) {
+    throw new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
+  }
+  // A label at the very left is the columns' own name (`df.columns.name`); it is not a column.
+  const header = /^\S/.test(lines[0]) ? lines[0].replace(/^\S+/, m => ' '.repeat(m.length)) : lines[0];
+  let bodyStart = 1;
+  const firstLabel = header.search(/\S/);
+  const namesRow = lines[1].length > 0 && firstLabel > 0 && lines[1].length <= firstLabel ? lines[1] : null;
+  if (namesRow !== null) {
+    bodyStart = 2;
+  }
+  const body = lines.slice(bodyStart);
+  const width = Math.max(...lines.map(l => l.length));
+  const rowEnds = new Set(body.filter(l => !isEllipsisLine(l)).map(l => l.length));
+  if (body.length === 0 || rowEnds.size > 1 || !rowEnds.has(lines[0].length)) {
+    throw new TableParseError(`${NO_TABLE}: its lines are not aligned in fixed-width columns.`, 'no-table');
+  }
+  const fields = fieldsOf(body.filter(l => !isEllipsisLine(l)), width);
+  const nIndex = fields.findIndex(f => slice(header, f) !== '');
+  if (nIndex <= 0) {
+    throw new TableParseError(`${NO_TABLE}: no index column was found left of the column labels.`, 'no-table');
+  }
+  const indexFields = fields.slice(0, nIndex);
+  const dataFields: IField[] = [];
+  let pendingStart: number | null = null;
+  for (const f of fields.slice(nIndex)) {
+    if (slice(header, { start: pendingStart ?? f.start, end: f.end }) === '' || slice(header, f) === '') {
+      pendingStart ??= f.start;
+      continue;
+    }
+    dataFields.push({ start: pendingStart ?? f.start, end: f.end });
+    pendingStart = null;
+  }
+  if (pendingStart !== null || dataFields.length === 0) {
+    throw new TableParseError(`${NO_TABLE}: some of its columns have no label.`, 'no-table');
+  }
+  for (let k = 0; k < dataFields.length; k++) {
+    const prevEnd = k === 0 ? indexFields[indexFields.length - 1].end : dataFields[k - 1].end;
+    dataFields[k] = { start: Math.min(dataFields[k].start, prevEnd + 1), end: dataFields[k].end };
+  }
+  checkRowAndColumnCounts(body.length, nIndex + dataFields.length, 'text');
+  let rowGapAt: number | null = null;
+  const rows: string[] = [];
+  for (const line of body) {
+    if (isEllipsisLine(line)) {
+      rowGapAt ??= rows.length;
+    } else {
+      rows.push(line);
+    }
+  }
+  const index = indexFields.map((f, k) => {
+    const cells: (string | null)[] = [];
+    let previous: string | null = null;
+    rows.forEach((line, r) => {
+      let t = slice(line, f);
+      if (t === '' && nIndex > 1 && k < nIndex - 1) {
+        t = previous ?? '';
+      }
+      if (t.length > TABLE_LIMITS.maxCellChars) {
+        throw new TableParseError(`The cell in row ${r + 1}, index level ${k + 1} holds ${t.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`);
+      }
+      previous = t;
+      cells.push(t);
+    });
+    const nextStart = k + 1 < nIndex ? indexFields[k + 1].start : undefined;
+    const name = namesRow !== null ? namesRow.slice(f.start, nextStart).trim() : '';
+    return columnFromText(name || (nIndex === 1 ? 'index' : `level_${k}`), cells, { isIndex: true, displayed: true });
+  });
+  let elidedColumns = 0;
+  const data: IColumn[] = [];
+  for (const f of dataFields) {
+    const label = slice(header, f);
+    const cells = rows.map(line => slice(line, f));
+    if (ELLIPSIS.has(label) && cells.every(c => ELLIPSIS.has(c))) {
+      elidedColumns++;
+      continue;
+    }
+    data.push(columnFromText(label, cells, { isIndex: false, displayed: true }));
+  }
+  return { index, data, rows: rows.length, rowGapAt, elidedColumns };
+}
+
+function isEllipsisLine(line: string): boolean {
+  const tokens = line.trim().split(/\s+/);
+  return tokens.length > 0 && tokens.every(t => ELLIPSIS.has(t));
+}
+
+/** Parse the plain-text repr of a pandas DataFrame. */
+export function parsePandasText(text: string): ITable {
+  checkTextSize(text.length, 'The text');
+  const lines = text.replace(/\r\n?/g, '\n').split('\n');
+  while (lines.length > 0 && lines[lines.length - 1].trim() === '') {
+    lines.pop();
+  }
+  let footer: { rows: number; columns: number } | null = null;
+  if (lines.length > 0 && /^\[\d+ rows x \d+ columns\]$/.test(lines[lines.length - 1].trim())) {
+    footer = shapeFooter(lines.pop() as string);
+  }
+  if (lines.length > 0 && lines[0].startsWith('Empty DataFrame')) {
+    throw new TableParseError('The text shows an empty DataFrame (no rows).', 'no-table');
+  }
+  const blocks: string[][] = [[]];
+  for (const line of lines) {
+    if (line.trim() === '') {
+      if (blocks[blocks.length - 1].length > 0) {
+        blocks.push([]);
+      }
+    } else {
+      blocks[blocks.length - 1].push(line);
+    }
+  }
+  const parsed = blocks.filter(b => b.length > 0).map(parseBlock);
+  if (parsed.length === 0) {
+    throw new TableParseError(`${NO_TABLE}: it is empty.`, 'no-table');
+  }
+  const first = parsed[0];
+  const bad = parsed.findIndex(b => b.rows !== first.rows);
+  if (bad > 0) {
+    throw new TableParseError(`${NO_TABLE}: wrapped block ${bad + 1} has ${parsed[bad].rows} rows but block 1 has ${first.rows}.`, 'no-table');
+  }
+  const columns = [...first.index, ...parsed.flatMap(b => b.data)];
+  const notes: ITableNote[] = [];
+  const table: ITable = { columns, rowCount: first.rows, format: 'pandas-text', notes };
+  const dataColumns = columns.length - first.index.length;
+  const elided = parsed.reduce((n, b) => n + b.elidedColumns, 0);
+  const truncation: ITruncation = {
+    shownRows: first.rows,
+    totalRows: footer?.rows ?? null,
+    shownColumns: dataColumns,
+    totalColumns: footer?.columns ?? null,
+    rowGapAt: first.rowGapAt
+  };
+  if (first.rowGapAt !== null || elided > 0 || (footer !== null && (footer.rows > first.rows || footer.columns > dataColumns))) {
+    table.truncation = truncation;
+    notes.push(truncatedNote(truncation, 'text display'));
+  }
+  const rounded = roundedNote(columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
+  if (rounded) {
+    notes.push(rounded);
+  }
+  return table;
+}
