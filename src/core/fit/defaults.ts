@@ -11,6 +11,7 @@
  * | `initialStepFactor` | 100 | first trust radius = factor·‖D·p₀‖ (or factor when that is 0), as in MINPACK |
  * | `forwardStep` | √ε | relative forward-difference step |
  * | `centralStep` | ε^(1/3) | relative central-difference step |
+ * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
  * | `svdMaxRows` | 20000 | up to this many points the trust-region step uses an SVD of the scaled Jacobian; above it, an eigen-decomposition of JᵀJ formed in a tight loop |
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
@@ -26,9 +27,10 @@ export const FIT_DEFAULTS = Object.freeze({
   gtol: 1e-15,
   maxEvaluationsPerParameter: 400,
   confidenceLevel: 0.6827,
-  initialStepFactor: 100,
+  initialStepFactor: 1,
   forwardStep: Math.sqrt(Number.EPSILON),
   centralStep: Math.cbrt(Number.EPSILON),
+  extrapolatedStep: Math.pow(Number.EPSILON, 0.2),
   svdMaxRows: 20000,
   singularTolerance: 1e-13,
   correlationWarning: 0.99,

@@ -7,7 +7,7 @@ import { FIT_DEFAULTS } from './defaults';
 import type { IFitProblem } from './problem';
 
 /** Finite-difference scheme for the Jacobian. */
-export type DifferenceScheme = 'forward' | 'central';
+export type DifferenceScheme = 'forward' | 'central' | 'extrapolated';
 
 /** Evaluates weighted residuals rᵢ = wᵢ(f(xᵢ; p) − yᵢ) and their Jacobian over the free parameters. */
 export class ResidualEvaluator {
@@ -23,6 +23,8 @@ export class ResidualEvaluator {
   private readonly full: Float64Array;
   private readonly fplus: Float64Array;
   private readonly fminus: Float64Array;
+  private readonly fplus2: Float64Array;
+  private readonly fminus2: Float64Array;
   private readonly jfull: Float64Array | null;
 
   constructor(problem: IFitProblem) {
@@ -32,6 +34,8 @@ export class ResidualEvaluator {
     this.full = Float64Array.from(problem.start);
     this.fplus = new Float64Array(this.n);
     this.fminus = new Float64Array(this.n);
+    this.fplus2 = new Float64Array(this.n);
+    this.fminus2 = new Float64Array(this.n);
     this.jfull = problem.model.jacobian ? new Float64Array(this.n * problem.kAll) : null;
   }
 
@@ -143,9 +147,43 @@ export class ResidualEvaluator {
     const lo = this.problem.lower[idx];
     const hi = this.problem.upper[idx];
     const pj = p[j];
-    const rel = scheme === 'central' ? FIT_DEFAULTS.centralStep : FIT_DEFAULTS.forwardStep;
+    const rel =
+      scheme === 'central'
+        ? FIT_DEFAULTS.centralStep
+        : scheme === 'extrapolated'
+          ? FIT_DEFAULTS.extrapolatedStep
+          : FIT_DEFAULTS.forwardStep;
     const h = rel * (pj !== 0 ? Math.abs(pj) : 1);
     const w = this.problem.weights;
+    if (scheme === 'extrapolated' && pj - h >= lo && pj + h <= hi) {
+      // Richardson: R = (4·D(h/2) − D(h)) / 3, error O(h⁴).
+      const a1 = pj + h;
+      const b1 = pj - h;
+      const a2 = pj + h / 2;
+      const b2 = pj - h / 2;
+      let ok = true;
+      this.full[idx] = a1;
+      ok = this.callModel(this.fplus) && ok;
+      this.full[idx] = b1;
+      ok = this.callModel(this.fminus) && ok;
+      this.full[idx] = a2;
+      ok = this.callModel(this.fplus2) && ok;
+      this.full[idx] = b2;
+      ok = this.callModel(this.fminus2) && ok;
+      this.full[idx] = pj;
+      if (ok) {
+        const inv1 = 1 / (a1 - b1);
+        const inv2 = 1 / (a2 - b2);
+        for (let i = 0; i < n; i++) {
+          const d1 = (this.fplus[i] - this.fminus[i]) * inv1;
+          const d2 = (this.fplus2[i] - this.fminus2[i]) * inv2;
+          jac[i * k + j] = ((4 * d2 - d1) / 3) * (w ? w[i] : 1);
+        }
+        if (columnFinite(jac, n, k, j)) {
+          return true;
+        }
+      }
+    }
     if (scheme === 'central' && pj - h >= lo && pj + h <= hi) {
       const plus = pj + h;
       const minus = pj - h;
@@ -165,14 +203,15 @@ export class ResidualEvaluator {
       }
     }
     // One-sided: forward (or backward near the upper bound); second order when central was asked.
-    const dir = pj + (scheme === 'central' ? 2 * h : h) <= hi ? 1 : -1;
+    const twoSided = scheme !== 'forward';
+    const dir = pj + (twoSided ? 2 * h : h) <= hi ? 1 : -1;
     const step = (pj + dir * h) - pj;
     this.full[idx] = pj + step;
     if (!this.callModel(this.fplus)) {
       this.full[idx] = pj;
       return false;
     }
-    if (scheme === 'central') {
+    if (twoSided) {
       this.full[idx] = pj + 2 * step;
       const ok = this.callModel(this.fminus);
       this.full[idx] = pj;

@@ -64,9 +64,9 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
   const knownSigma = problem.weights !== null;
   const evaluationsBeforeStats = ev.evaluations;
 
-  // Jacobian at the solution: analytic, or central differences.
+  // Jacobian at the solution: analytic, or Richardson-extrapolated central differences.
   const jac = new Float64Array(n * k);
-  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'central');
+  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'extrapolated');
   const factor = finite ? inverseNormal(jac, n, k) : { inverse: null, rank: 0, condition: NaN };
   const scale = knownSigma ? 1 : reducedChi2;
   const covariance = Array.from({ length: kAll }, () => new Array<number>(kAll).fill(0));

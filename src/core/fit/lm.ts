@@ -7,7 +7,7 @@
 import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
-import { dampingForRadius, spectralModel, stepForMu } from './subproblem';
+import { dampingForRadius, solveDamped, spectralModel, stepForMu } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 import type { IFitProgress } from './types';
 
@@ -33,6 +33,22 @@ export interface ILmOutcome {
 export interface ILmHooks {
   onProgress?: (p: IFitProgress) => void;
   shouldStop?: () => boolean;
+}
+
+/**
+ * Rounding-noise level of Σr²: 2‖r‖‖e‖ + ‖e‖², with eᵢ ≈ 4ε·wᵢ(|fᵢ| + |yᵢ|)
+ * the error of one residual evaluated in binary64.
+ */
+function costNoise(problem: IFitProblem, r: Float64Array, f: Float64Array): number {
+  const { y, weights } = problem;
+  let e2 = 0;
+  let r2 = 0;
+  for (let i = 0; i < r.length; i++) {
+    const ei = 4 * Number.EPSILON * (Math.abs(f[i]) + Math.abs(y[i])) * (weights ? weights[i] : 1);
+    e2 += ei * ei;
+    r2 += r[i] * r[i];
+  }
+  return 2 * Math.sqrt(r2 * e2) + e2;
 }
 
 function scaledNorm(diag: Float64Array, v: Float64Array): number {
@@ -68,7 +84,59 @@ export function levenbergMarquardt(
   const z = new Float64Array(k);
   const step = new Float64Array(k);
   const useSvd = n <= FIT_DEFAULTS.svdMaxRows;
-  let scheme: DifferenceScheme = ev.analytic ? 'central' : 'forward';
+  const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
+  const rvv = new Float64Array(n);
+  const za = new Float64Array(k);
+  const rhs = new Float64Array(k);
+
+  /**
+   * Geodesic acceleration (second directional derivative of r along the
+   * velocity by one extra evaluation): adds ½a to `step` when ‖a‖ ≤ α‖v‖.
+   */
+  const accelerate = (m: ISpectralModel, mu: number): 'used' | 'rejected' | 'none' => {
+    const hh = 0.1;
+    for (let j = 0; j < k; j++) {
+      pT[j] = Math.min(upper[j], Math.max(lower[j], p[j] + hh * step[j]));
+    }
+    const c = ev.residuals(pT, rT, fT);
+    if (!Number.isFinite(c)) {
+      return 'none';
+    }
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      let jv = 0;
+      for (let j = 0; j < k; j++) {
+        jv += jac[row + j] * (pT[j] - p[j]);
+      }
+      rvv[i] = ((2 / hh) * (rT[i] - r[i] - jv)) / hh;
+    }
+    rhs.fill(0);
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      const ri = rvv[i];
+      for (let a = 0; a < m.cols.length; a++) {
+        rhs[a] += jac[row + m.cols[a]] * ri;
+      }
+    }
+    for (let a = 0; a < m.cols.length; a++) {
+      rhs[a] /= diag[m.cols[a]];
+    }
+    solveDamped(m, mu, rhs, za);
+    let an = 0;
+    let vn = 0;
+    for (let a = 0; a < m.cols.length; a++) {
+      an += za[a] * za[a];
+      vn += z[a] * z[a];
+    }
+    if (!(Math.sqrt(an) <= FIT_DEFAULTS.geodesicAlpha * Math.sqrt(vn))) {
+      return 'rejected';
+    }
+    for (let a = 0; a < m.cols.length; a++) {
+      step[m.cols[a]] += (0.5 * za[a]) / diag[m.cols[a]];
+    }
+    return 'used';
+  };
+  let scheme: DifferenceScheme = ev.analytic ? 'extrapolated' : 'forward';
 
   const out = (converged: boolean, reason: string): ILmOutcome => ({
     p,
@@ -94,6 +162,10 @@ export function levenbergMarquardt(
   let first = true;
   let delta = 0;
   let model: ISpectralModel | null = null;
+  let noise = costNoise(problem, r, f);
+  let noiseSteps = 0;
+  let costPrevious = cost;
+  let havePrevious = false;
   const progress = (): void => {
     hooks.onProgress?.({ iteration: iterations, evaluations: ev.evaluations, cost });
   };
@@ -107,9 +179,21 @@ export function levenbergMarquardt(
     }
     if (needJacobian) {
       if (!ev.jacobian(p, f, jac, scheme)) {
-        const why = ev.lastError ? `: ${ev.lastError}` : '';
-        return out(false, `Jacobian is not finite at the current point${why}`);
+        if (iterations === 0 || !havePrevious) {
+          const why = ev.lastError ? `: ${ev.lastError}` : '';
+          return out(false, `Jacobian is not finite at the current point${why}`);
+        }
+        // Step back to the previous point and shrink the trust region.
+        [p, pT] = [pT, p];
+        [r, rT] = [rT, r];
+        [f, fT] = [fT, f];
+        cost = costPrevious;
+        noise = costNoise(problem, r, f);
+        havePrevious = false;
+        delta *= 0.1;
+        continue;
       }
+      havePrevious = false;
       colNorm.fill(0);
       grad.fill(0);
       for (let i = 0; i < n; i++) {
@@ -138,7 +222,7 @@ export function levenbergMarquardt(
       if (cost === 0) {
         return out(true, 'zero residual');
       }
-      if (gcos <= problem.gtol && scheme === 'central') {
+      if (gcos <= problem.gtol && scheme !== 'forward') {
         return out(true, `gradient orthogonal to the residuals within gtol (${problem.gtol})`);
       }
       const cols: number[] = [];
@@ -162,6 +246,15 @@ export function levenbergMarquardt(
     for (let a = 0; a < m.cols.length; a++) {
       step[m.cols[a]] = z[a] / diag[m.cols[a]];
     }
+    const acceleration = useGeodesic && mu > 0 ? accelerate(m, mu) : 'none';
+    if (acceleration === 'rejected') {
+      // The path curves too much within this radius: shrink it.
+      delta *= 0.5;
+      first = false;
+      progress();
+      continue;
+    }
+    const accelerated = acceleration === 'used';
     let clipped = false;
     for (let j = 0; j < k; j++) {
       let v = p[j] + step[j];
@@ -196,12 +289,17 @@ export function levenbergMarquardt(
       gStep += grad[j] * step[j];
     }
     const dnorm2 = pnorm * pnorm;
-    const pred = clipped ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
+    const pred = clipped || accelerated ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
     const costT = ev.residuals(pT, rT, fT);
     const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
     const rho = pred > 0 ? actual / pred : actual > 0 ? 1 : -1;
     const costBefore = cost;
-    if (rho <= 0.25) {
+    // Near the solution χ² differences drown in rounding noise; a Gauss–Newton
+    // step whose predicted and actual changes are both at that level is accepted.
+    const atNoise = Number.isFinite(costT) && pred <= noise && actual >= -noise && mu === 0;
+    if (atNoise) {
+      delta = Math.max(delta, pnorm / 0.5);
+    } else if (rho <= 0.25) {
       let temp = 0.5;
       if (!Number.isFinite(actual)) {
         temp = 0.1;
@@ -214,16 +312,29 @@ export function levenbergMarquardt(
     } else if (mu === 0 || rho >= 0.75) {
       delta = pnorm / 0.5;
     }
-    const accepted = rho >= 1e-4 && Number.isFinite(costT) && costT <= cost;
+    const accepted = atNoise || (rho >= 1e-4 && Number.isFinite(costT) && costT <= cost);
+    noiseSteps = atNoise ? noiseSteps + 1 : accepted ? 0 : noiseSteps;
     if (accepted) {
+      costPrevious = cost;
+      havePrevious = true;
       [p, pT] = [pT, p];
       [r, rT] = [rT, r];
       [f, fT] = [fT, f];
       cost = costT;
+      noise = costNoise(problem, r, f);
       needJacobian = true;
       iterations++;
     }
     progress();
+    if (noiseSteps >= 3) {
+      if (scheme === 'forward') {
+        scheme = 'extrapolated';
+        noiseSteps = 0;
+        needJacobian = true;
+        continue;
+      }
+      return out(true, 'Gauss–Newton steps change χ² only at the rounding-noise level');
+    }
     const actRel = Number.isFinite(actual) ? Math.abs(actual) / costBefore : Infinity;
     const predRel = pred / costBefore;
     const ftolHit = actRel <= problem.ftol && predRel <= problem.ftol && rho <= 2;
@@ -232,9 +343,10 @@ export function levenbergMarquardt(
     const machineHit = actRel <= Number.EPSILON && predRel <= Number.EPSILON && rho <= 2;
     if (ftolHit || xtolHit || machineHit) {
       if (scheme === 'forward') {
-        scheme = 'central';
+        scheme = 'extrapolated';
         needJacobian = true;
-        delta = Math.max(delta, pnorm);
+        const pn = scaledNorm(diag, p);
+        delta = Math.max(delta, pn > 0 ? pn : 1);
         continue;
       }
       if (!ftolHit && !machineHit && gcos > FIT_DEFAULTS.gradientRestartThreshold) {

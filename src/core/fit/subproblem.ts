@@ -227,3 +227,31 @@ export function dampingForRadius(model: ISpectralModel, delta: number): number {
   }
   return mu;
 }
+
+/**
+ * out = −(JsᵀJs + μI)⁺ rhs over `model.cols` (pseudo-inverse for zero
+ * modes when μ = 0). Used for the geodesic acceleration.
+ */
+export function solveDamped(
+  model: ISpectralModel,
+  mu: number,
+  rhs: Float64Array,
+  out: Float64Array
+): void {
+  const m = model.cols.length;
+  out.fill(0, 0, m);
+  for (let a = 0; a < m; a++) {
+    const den = model.s2[a] + mu;
+    if (!(den > 0)) {
+      continue;
+    }
+    let proj = 0;
+    for (let b = 0; b < m; b++) {
+      proj += model.v[b * m + a] * rhs[b];
+    }
+    const w = -proj / den;
+    for (let b = 0; b < m; b++) {
+      out[b] += model.v[b * m + a] * w;
+    }
+  }
+}
