@@ -132,7 +132,7 @@ export function realPolynomialRoots(coefficients: PolyCoefficients): number[] {
   const out: number[] = [];
   for (const r of roots) {
     if (out.length === 0 || Math.abs(r - out[out.length - 1]) > 4 * Number.EPSILON * Math.max(1, Math.abs(r))) {
-      out.push(r);
+      out.push(r === 0 ? 0 : r);
     }
   }
   return out;

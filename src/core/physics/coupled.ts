@@ -91,6 +91,12 @@ export interface ICoupledBoundary {
 export function coupledPhaseBoundaries(k: ICoupledCoefficients, Tmin: number, Tmax: number, n = 400): ICoupledBoundary[] {
   validate(k);
   const out: ICoupledBoundary[] = [];
+  // typical order-parameter size over the scan, used to tell a finite jump from a continuous onset
+  let typical = 1e-300;
+  for (let i = 0; i < n; i++) {
+    const e = coupledPhases(k, Tmin + ((Tmax - Tmin) * i) / (n - 1)).equilibrium;
+    typical = Math.max(typical, Math.hypot(e.psi, e.phi));
+  }
   let Tp = Tmin;
   let ph = coupledPhases(k, Tp).equilibrium;
   for (let i = 1; i < n; i++) {
@@ -109,9 +115,10 @@ export function coupledPhaseBoundaries(k: ICoupledCoefficients, Tmin: number, Tm
       }
       const a = coupledPhases(k, lo).equilibrium;
       const b = coupledPhases(k, hi).equilibrium;
+      // F crossings are resolved only to ~sqrt(eps) in T near a continuous onset, where the
+      // vanishing amplitude is still ~(ΔT)^(1/2): a jump below 1 % of the typical size counts as continuous
       const jump = Math.hypot(a.psi - b.psi, a.phi - b.phi);
-      const scale = Math.max(1e-12, Math.hypot(a.psi, a.phi), Math.hypot(b.psi, b.phi));
-      out.push({ T: 0.5 * (lo + hi), from: ph.phase, to: e.phase, discontinuous: jump > 1e-4 * scale });
+      out.push({ T: 0.5 * (lo + hi), from: ph.phase, to: e.phase, discontinuous: jump > 1e-2 * typical });
     }
     Tp = T;
     ph = e;
