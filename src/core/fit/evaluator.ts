@@ -103,10 +103,11 @@ export class ResidualEvaluator {
    * Weighted Jacobian (row-major n×k over free parameters) at `p` into `jac`.
    * `f0` must hold the raw model values at `p`. Returns false when it is not finite.
    */
-  jacobian(p: Float64Array, f0: Float64Array, jac: Float64Array, scheme: DifferenceScheme): boolean {
+  jacobian(p: Float64Array, f0: Float64Array, jac: Float64Array, requested: DifferenceScheme): boolean {
     const { n, k } = this;
     const { weights, free } = this.problem;
     this.setFree(p);
+    let scheme = requested;
     if (this.jfull) {
       this.jacobianEvaluations++;
       const kAll = this.problem.kAll;
@@ -114,7 +115,7 @@ export class ResidualEvaluator {
         this.problem.model.jacobian!(this.full, this.problem.x, this.jfull);
       } catch (err) {
         this.lastError = err instanceof Error ? err.message : String(err);
-        return false;
+        this.jfull.fill(Number.NaN);
       }
       for (let i = 0; i < n; i++) {
         const w = weights ? weights[i] : 1;
@@ -122,7 +123,12 @@ export class ResidualEvaluator {
           jac[i * k + j] = this.jfull[i * kAll + free[j]] * w;
         }
       }
-      return allFinite(jac, n * k);
+      if (allFinite(jac, n * k)) {
+        return true;
+      }
+      // An analytic derivative can be singular where the model is smooth
+      // (e.g. log x · x^b at x = 0): fall back to differences.
+      scheme = 'extrapolated';
     }
     for (let j = 0; j < k; j++) {
       if (!this.differenceColumn(p, f0, jac, j, scheme)) {

@@ -63,6 +63,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
   const reducedChi2 = dof > 0 ? chi2 / dof : Number.NaN;
   const knownSigma = problem.weights !== null;
   const evaluationsBeforeStats = ev.evaluations;
+  const jacobiansBeforeStats = ev.jacobianEvaluations;
 
   // Jacobian at the solution: analytic, or Richardson-extrapolated central differences.
   const jac = new Float64Array(n * k);
@@ -154,6 +155,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
     criteriaConvention: knownSigma ? 'known-sigma' : 'profiled-variance',
     residuals,
     evaluations: evaluationsBeforeStats,
+    jacobianEvaluations: jacobiansBeforeStats,
     iterations: o.iterations,
     converged,
     reason,

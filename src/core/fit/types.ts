@@ -96,7 +96,10 @@ export interface IFitResult {
   criteriaConvention: 'known-sigma' | 'profiled-variance';
   /** Unweighted residuals yᵢ − f(xᵢ) (observed minus model). */
   residuals: number[];
+  /** Model evaluations during the fit (each finite-difference column counts as one). */
   evaluations: number;
+  /** Calls of the model's analytic `jacobian` during the fit. */
+  jacobianEvaluations: number;
   iterations: number;
   /** True only when a convergence test was met at a non-degenerate point. */
   converged: boolean;

@@ -1,0 +1,293 @@
+/**
+ * Fit models from user expressions such as `b1*(1-exp(-b2*x))`.
+ *
+ * The text is normalised (`[ ]` → `( )`, `**` → `^`, aliases), parsed by
+ * mathjs, its parameters identified (every symbol that is not a variable, a
+ * given constant or pi/e), compiled to a JavaScript function through a
+ * whitelist (see `compile.ts`), and differentiated symbolically with mathjs
+ * for an analytic Jacobian when every derivative compiles.
+ *
+ * Several independent variables: pass `columns` (one array per variable);
+ * the fit's x is then the point index into those columns.
+ */
+import { compile, derivative, parse } from 'mathjs';
+import type { MathNode } from 'mathjs';
+import type { IFitModel } from '../fit/types';
+import { collectSymbols, numberLiteral, toJavaScript } from './compile';
+import { ExpressionError, normalizeExpressionText, splitEquation } from './normalize';
+
+/** Options of `parseExpressionModel`. */
+export interface IExpressionModelOptions {
+  /** Independent-variable names; default `['x']`. */
+  variables?: string[];
+  /** One data column per variable; when given, the fit's x is the point index. */
+  columns?: Record<string, ArrayLike<number>>;
+  /** Named numeric constants (e.g. `{ pi: 3.14159… }`). */
+  constants?: Record<string, number>;
+  /** Parameter order; default: order of first appearance in the model. */
+  parameters?: string[];
+  /** Use symbolic derivatives for the Jacobian when possible; default true. */
+  symbolicJacobian?: boolean;
+}
+
+/** A compiled expression model. */
+export interface IExpressionModel extends IFitModel {
+  /** Normalised model expression (right-hand side). */
+  readonly expression: string;
+  /** Left-hand side (response expression) or null. */
+  readonly response: string | null;
+  readonly variables: readonly string[];
+  /** Symbolic ∂f/∂pⱼ as text, or null when the Jacobian is by finite differences. */
+  readonly derivatives: readonly string[] | null;
+  /** How the expression is evaluated. */
+  readonly evaluation: 'generated-function' | 'mathjs-compiled';
+  /** Applies the left-hand side to observed values (identity when it is a bare symbol). */
+  transformResponse(y: ArrayLike<number>): number[];
+}
+
+const BUILTIN_CONSTANTS: Readonly<Record<string, number>> = { pi: Math.PI, PI: Math.PI, e: Math.E, E: Math.E };
+
+type Kernel = (p: Float64Array, x: Float64Array, out: Float64Array) => void;
+
+function parseNode(text: string): MathNode {
+  try {
+    return parse(text);
+  } catch (err) {
+    throw new ExpressionError(`cannot parse "${text}": ${err instanceof Error ? err.message : String(err)}`);
+  }
+}
+
+let functionConstructorAllowed: boolean | null = null;
+function canGenerate(): boolean {
+  if (functionConstructorAllowed === null) {
+    try {
+      functionConstructorAllowed = new Function('return 1')() === 1;
+    } catch {
+      functionConstructorAllowed = false;
+    }
+  }
+  return functionConstructorAllowed;
+}
+
+/** Parses, checks and compiles a model expression. Throws `ExpressionError`. */
+export function parseExpressionModel(text: string, options: IExpressionModelOptions = {}): IExpressionModel {
+  if (typeof text !== 'string' || text.trim() === '') {
+    throw new ExpressionError('model expression is empty');
+  }
+  const { lhs, rhs } = splitEquation(normalizeExpressionText(text));
+  const variables = options.variables ?? ['x'];
+  const constants: Record<string, number> = { ...(options.constants ?? {}) };
+  const columns = options.columns;
+  if (columns) {
+    for (const v of variables) {
+      if (!columns[v]) {
+        throw new ExpressionError(`no data column for variable "${v}"`);
+      }
+    }
+  } else if (variables.length !== 1) {
+    throw new ExpressionError('several variables need `columns` (the fit x is then the point index)');
+  }
+  const node = parseNode(rhs);
+  const symbols = collectSymbols(node);
+  const isKnown = (s: string): boolean =>
+    variables.includes(s) || s in constants || (s in BUILTIN_CONSTANTS && !options.parameters?.includes(s));
+  const found = symbols.filter((s) => !isKnown(s));
+  let parameters: string[];
+  if (options.parameters) {
+    parameters = options.parameters.slice();
+    const missing = found.filter((s) => !parameters.includes(s));
+    if (missing.length > 0) {
+      throw new ExpressionError(`symbols ${missing.join(', ')} are neither parameters, variables nor constants`);
+    }
+  } else {
+    parameters = found;
+  }
+  if (parameters.length === 0) {
+    throw new ExpressionError(`"${rhs}" has no parameters to fit`);
+  }
+  const resolve = (name: string): string | null => {
+    const vi = variables.indexOf(name);
+    if (vi >= 0) {
+      return `v${vi}`;
+    }
+    if (name in constants) {
+      return numberLiteral(constants[name]);
+    }
+    const pi = parameters.indexOf(name);
+    if (pi >= 0) {
+      return `q${pi}`;
+    }
+    if (name in BUILTIN_CONSTANTS) {
+      return numberLiteral(BUILTIN_CONSTANTS[name]);
+    }
+    return null;
+  };
+  const valueJs = toJavaScript(node, resolve);
+  let derivativeNodes: MathNode[] | null = null;
+  let derivativeJs: string[] | null = null;
+  if (options.symbolicJacobian !== false) {
+    try {
+      derivativeNodes = parameters.map((p) => derivative(node, p));
+      derivativeJs = derivativeNodes.map((d) => toJavaScript(d, resolve));
+    } catch {
+      derivativeNodes = null;
+      derivativeJs = null;
+    }
+  }
+  const colArrays = variables.map((v) => (columns ? columns[v] : null));
+  let evaluate: Kernel;
+  let jacobian: Kernel | undefined;
+  let evaluation: IExpressionModel['evaluation'];
+  if (canGenerate()) {
+    evaluate = generate(parameters.length, variables.length, Boolean(columns), [valueJs], colArrays);
+    jacobian = derivativeJs
+      ? generate(parameters.length, variables.length, Boolean(columns), derivativeJs, colArrays)
+      : undefined;
+    evaluation = 'generated-function';
+  } else {
+    evaluate = interpret(node, parameters, variables, constants, colArrays);
+    jacobian = derivativeNodes ? interpretMany(derivativeNodes, parameters, variables, constants, colArrays) : undefined;
+    evaluation = 'mathjs-compiled';
+  }
+  const transformResponse = responseTransform(lhs, constants);
+  const model: IExpressionModel = {
+    parameters,
+    expression: rhs,
+    response: lhs,
+    variables,
+    derivatives: derivativeNodes ? derivativeNodes.map((d) => d.toString()) : null,
+    evaluation,
+    evaluate,
+    transformResponse
+  };
+  if (jacobian) {
+    model.jacobian = jacobian;
+  }
+  return model;
+}
+
+/**
+ * Builds a kernel writing `exprs.length` values per point (row-major) from
+ * whitelisted JS expressions over q0…q(k−1) (parameters) and v0…(variables).
+ */
+function generate(
+  k: number,
+  nv: number,
+  indexed: boolean,
+  exprs: string[],
+  cols: (ArrayLike<number> | null)[]
+): Kernel {
+  const lines: string[] = ['"use strict";', 'return function (p, x, out) {'];
+  for (let j = 0; j < k; j++) {
+    lines.push(`  const q${j} = p[${j}];`);
+  }
+  lines.push('  const n = x.length;', '  for (let i = 0; i < n; i++) {');
+  if (indexed) {
+    lines.push('    const ix = x[i];');
+    for (let v = 0; v < nv; v++) {
+      lines.push(`    const v${v} = c${v}[ix];`);
+    }
+  } else {
+    lines.push('    const v0 = x[i];');
+  }
+  if (exprs.length === 1) {
+    lines.push(`    out[i] = ${exprs[0]};`);
+  } else {
+    lines.push(`    const o = i * ${exprs.length};`);
+    exprs.forEach((e, j) => lines.push(`    out[o + ${j}] = ${e};`));
+  }
+  lines.push('  }', '};');
+  const argNames = cols.map((_, v) => `c${v}`);
+  const factory = new Function(...argNames, lines.join('\n')) as (...c: unknown[]) => Kernel;
+  return factory(...cols.map((c) => (c ? Float64Array.from(c) : null)));
+}
+
+function scopeFor(
+  p: Float64Array,
+  x: Float64Array,
+  i: number,
+  parameters: string[],
+  variables: string[],
+  constants: Record<string, number>,
+  cols: (ArrayLike<number> | null)[]
+): Record<string, number> {
+  const scope: Record<string, number> = { ...constants };
+  parameters.forEach((name, j) => {
+    scope[name] = p[j];
+  });
+  variables.forEach((name, v) => {
+    const c = cols[v];
+    scope[name] = c ? c[x[i]] : x[i];
+  });
+  return scope;
+}
+
+/** Fallback when generated functions are not allowed: mathjs compiled evaluation per point. */
+function interpret(
+  node: MathNode,
+  parameters: string[],
+  variables: string[],
+  constants: Record<string, number>,
+  cols: (ArrayLike<number> | null)[]
+): Kernel {
+  return interpretMany([node], parameters, variables, constants, cols);
+}
+
+function interpretMany(
+  nodes: MathNode[],
+  parameters: string[],
+  variables: string[],
+  constants: Record<string, number>,
+  cols: (ArrayLike<number> | null)[]
+): Kernel {
+  const compiled = nodes.map((nd) => compile(nd.toString()));
+  return (p, x, out) => {
+    for (let i = 0; i < x.length; i++) {
+      const scope = scopeFor(p, x, i, parameters, variables, constants, cols);
+      compiled.forEach((c, j) => {
+        const v: unknown = c.evaluate(scope);
+        out[i * compiled.length + j] = typeof v === 'number' ? v : Number.NaN;
+      });
+    }
+  };
+}
+
+function responseTransform(
+  lhs: string | null,
+  constants: Record<string, number>
+): (y: ArrayLike<number>) => number[] {
+  if (lhs === null) {
+    return (y) => Array.from(y);
+  }
+  const node = parseNode(lhs);
+  const symbols = collectSymbols(node).filter((s) => !(s in constants) && !(s in BUILTIN_CONSTANTS));
+  if (symbols.length !== 1) {
+    throw new ExpressionError(`left-hand side "${lhs}" must contain exactly one response symbol`);
+  }
+  if (node.type === 'SymbolNode') {
+    return (y) => Array.from(y);
+  }
+  const js = toJavaScript(node, (name) =>
+    name === symbols[0]
+      ? 'v0'
+      : name in constants
+        ? numberLiteral(constants[name])
+        : name in BUILTIN_CONSTANTS
+          ? numberLiteral(BUILTIN_CONSTANTS[name])
+          : null
+  );
+  if (canGenerate()) {
+    const kernel = generate(0, 1, false, [js], [null]);
+    return (y) => {
+      const out = new Float64Array(y.length);
+      kernel(new Float64Array(0), Float64Array.from(y), out);
+      return Array.from(out);
+    };
+  }
+  const c = compile(lhs);
+  return (y) =>
+    Array.from(y, (v) => {
+      const r: unknown = c.evaluate({ ...constants, [symbols[0]]: v });
+      return typeof r === 'number' ? r : Number.NaN;
+    });
+}
