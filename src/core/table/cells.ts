@@ -62,6 +62,32 @@ export function parseNumber(text: string): number | undefined {
   return i === n ? Number(text) : undefined;
 }
 
+/**
+ * Quick path for plain decimal numbers: `Number()` plus cheap checks of the first
+ * and last characters, which rule out what `Number()` accepts but a table must not
+ * (empty text, padding, hex/binary/octal prefixes). Returns undefined when unsure;
+ * callers then fall back to {@link parseNumber}, which has the final word.
+ */
+export function fastNumber(text: string): number | undefined {
+  const n = text.length;
+  if (n === 0) {
+    return undefined;
+  }
+  const first = text.charCodeAt(0);
+  const last = text.charCodeAt(n - 1);
+  if (!((first >= 48 && first <= 57) || first === 45 || first === 43 || first === 46) || !((last >= 48 && last <= 57) || last === 46)) {
+    return undefined;
+  }
+  if (n > 1 && first === 48) {
+    const second = text.charCodeAt(1) | 0x20;
+    if (second === 120 || second === 98 || second === 111) {
+      return undefined;
+    }
+  }
+  const v = +text;
+  return v === v ? v : undefined;
+}
+
 function specialNumber(text: string): number | undefined {
   if (POS_INF.has(text)) {
     return Infinity;

@@ -4,6 +4,7 @@
 import {
   canonicalDates,
   decimalsShown,
+  fastNumber,
   isMissingText,
   parseBoolean,
   parseDateParts,
@@ -51,6 +52,11 @@ function makeColumn(header: string, isIndex: boolean): Omit<IColumn, 'kind' | 'v
   return { name: split.name, unit: split.unit, header, isIndex };
 }
 
+/** A number column from values already converted (full precision). */
+export function numberColumn(header: string, values: Float64Array, isIndex: boolean): IColumn {
+  return { ...makeColumn(header, isIndex), kind: 'number', values };
+}
+
 function numberColumnFromText(cells: readonly (string | null)[]): Float64Array | undefined {
   const out = new Float64Array(cells.length);
   for (let i = 0; i < cells.length; i++) {
@@ -59,7 +65,7 @@ function numberColumnFromText(cells: readonly (string | null)[]): Float64Array |
       out[i] = NaN;
       continue;
     }
-    const v = parseNumber(text);
+    const v = fastNumber(text) ?? parseNumber(text);
     if (v !== undefined) {
       out[i] = v;
     } else if (isMissingText(text)) {

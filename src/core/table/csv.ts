@@ -1,11 +1,99 @@
 /**
  * CSV and TSV text (as written by `DataFrame.to_csv()`) parsed with papaparse.
+ *
+ * Fast path: papaparse streams the text in chunks (no typing, no header mode) and
+ * every column is converted straight into a growing Float64Array. Only columns
+ * that turn out not to be numeric are read a second time as text, so a large
+ * all-numeric file never holds its cells as millions of strings at once.
  */
 import Papa from 'papaparse';
-import { columnFromText, describeColumn } from './columns';
+import type { ParseResult as PapaResult } from 'papaparse';
+import { fastNumber, isMissingText, parseNumber } from './cells';
+import { columnFromText, describeColumn, numberColumn } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import type { IColumn, ITable, ITableNote } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
+
+const CHUNK_CHARS = 1 << 20;
+
+/** Float64Array that grows by doubling. */
+class GrowingFloats {
+  private data = new Float64Array(1024);
+  length = 0;
+  push(v: number): void {
+    if (this.length === this.data.length) {
+      const next = new Float64Array(this.data.length * 2);
+      next.set(this.data);
+      this.data = next;
+    }
+    this.data[this.length++] = v;
+  }
+  toArray(): Float64Array {
+    return this.data.slice(0, this.length);
+  }
+}
+
+interface IScan {
+  header: string[];
+  rows: number;
+  short: number;
+}
+
+/**
+ * Stream the text through papaparse, calling `onRow(row, index)` for every data row
+ * after checking its width and cell lengths. Returns the header and row count.
+ */
+function scan(text: string, delimiter: string, what: string, onRow: (row: string[], r: number, header: string[]) => void): IScan {
+  let header: string[] | null = null;
+  let rows = 0;
+  let short = 0;
+  // With a string input papaparse runs every chunk synchronously before returning.
+  Papa.parse<string[]>(text, {
+    delimiter,
+    header: false,
+    dynamicTyping: false,
+    skipEmptyLines: true,
+    worker: false,
+    chunkSize: CHUNK_CHARS,
+    complete: () => undefined,
+    chunk: (results: PapaResult<string[]>) => {
+      const hard = results.errors.find(e => e.type === 'Quotes');
+      if (hard) {
+        const at = typeof hard.row === 'number' ? `row ${rows + hard.row + (header === null ? 0 : 1)}` : 'a row';
+        throw new TableParseError(`The ${what} text has an unclosed quote in ${at}: ${hard.message}.`);
+      }
+      for (const row of results.data) {
+        if (header === null) {
+          header = row.map(h => h.trim());
+          checkRowAndColumnCounts(0, header.length, what);
+          continue;
+        }
+        if (row.length > header.length) {
+          throw new TableParseError(`Row ${rows + 1} of the ${what} text has ${row.length} cells but the header has ${header.length} columns.`);
+        }
+        if (row.length < header.length) {
+          short++;
+        }
+        if (rows >= TABLE_LIMITS.maxRows) {
+          checkRowAndColumnCounts(rows + 1, header.length, what);
+        }
+        onRow(row, rows, header);
+        rows++;
+      }
+    }
+  });
+  const found = header as string[] | null;
+  if (found === null) {
+    throw new TableParseError(`The ${what} text is empty: it has no header row.`);
+  }
+  return { header: found, rows, short };
+}
+
+function tooLong(cell: string, r: number, c: number, header: readonly string[]): TableParseError {
+  return new TableParseError(
+    `The cell in row ${r + 1}, ${describeColumn(c, header[c] ?? '')} holds ${cell.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`
+  );
+}
 
 /**
  * Parse delimited text with a header row. A first header cell that is empty is
@@ -15,51 +103,63 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const format = delimiter === ',' ? 'csv' : 'tsv';
   const what = format.toUpperCase();
   checkTextSize(text.length, `The ${what} text`);
-  const result = Papa.parse<string[]>(text, { delimiter, header: false, skipEmptyLines: true, dynamicTyping: false });
-  const hard = result.errors.find(e => e.type === 'Quotes');
-  if (hard) {
-    const row = typeof hard.row === 'number' ? `row ${hard.row + 1}` : 'a row';
-    throw new TableParseError(`The ${what} text has an unclosed quote in ${row}: ${hard.message}.`);
-  }
-  const rows = result.data;
-  if (rows.length === 0) {
-    throw new TableParseError(`The ${what} text is empty: it has no header row.`);
-  }
-  const header = rows[0].map(h => h.trim());
-  const rowCount = rows.length - 1;
-  checkRowAndColumnCounts(rowCount, header.length, what);
-  const notes: ITableNote[] = [];
-  let short = 0;
-  const cells: (string | null)[][] = header.map(() => new Array<string | null>(rowCount));
-  for (let r = 0; r < rowCount; r++) {
-    const row = rows[r + 1];
-    if (row.length > header.length) {
-      throw new TableParseError(
-        `Row ${r + 1} of the ${what} text has ${row.length} cells but the header has ${header.length} columns.`
-      );
+  let numbers: (GrowingFloats | null)[] = [];
+  const first = scan(text, delimiter, what, (row, r, header) => {
+    if (r === 0) {
+      numbers = header.map(() => new GrowingFloats());
     }
-    if (row.length < header.length) {
-      short++;
-    }
-    for (let c = 0; c < header.length; c++) {
-      const cell = c < row.length ? row[c] : null;
-      if (cell !== null && cell.length > TABLE_LIMITS.maxCellChars) {
-        throw new TableParseError(
-          `The cell in row ${r + 1}, ${describeColumn(c, header[c])} holds ${cell.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`
-        );
+    for (let c = 0; c < numbers.length; c++) {
+      const col = numbers[c];
+      if (col === null) {
+        continue;
       }
-      cells[c][r] = cell;
+      const cell = c < row.length ? row[c] : '';
+      const v = fastNumber(cell) ?? parseNumber(cell);
+      if (v !== undefined) {
+        col.push(v);
+      } else if (isMissingText(cell)) {
+        col.push(NaN);
+      } else {
+        if (cell.length > TABLE_LIMITS.maxCellChars) {
+          throw tooLong(cell, r, c, header);
+        }
+        numbers[c] = null;
+      }
     }
-    rows[r + 1] = [];
+  });
+  const { header, rows: rowCount, short } = first;
+  if (numbers.length < header.length) {
+    numbers = header.map(() => new GrowingFloats());
   }
+  const textColumns = header.map((_, c) => numbers[c] === null);
+  const cells: (string | null)[][] = header.map((_, c) => (textColumns[c] ? new Array<string | null>(rowCount) : []));
+  if (textColumns.some(Boolean)) {
+    scan(text, delimiter, what, (row, r) => {
+      for (let c = 0; c < header.length; c++) {
+        if (!textColumns[c]) {
+          continue;
+        }
+        const cell = c < row.length ? row[c] : null;
+        if (cell !== null && cell.length > TABLE_LIMITS.maxCellChars) {
+          throw tooLong(cell, r, c, header);
+        }
+        cells[c][r] = cell;
+      }
+    });
+  }
+  const hasIndex = header.length > 1 && header[0] === '';
+  const columns: IColumn[] = header.map((h, c) => {
+    const isIndex = hasIndex && c === 0;
+    const name = isIndex ? 'index' : h;
+    const col = numbers[c];
+    if (col !== null) {
+      return numberColumn(name, col.toArray(), isIndex);
+    }
+    return columnFromText(name, cells[c], { isIndex, displayed: false });
+  });
+  const notes: ITableNote[] = [];
   if (short > 0) {
     notes.push({ kind: 'info', message: `${short} row(s) had fewer cells than the header; the missing cells are read as missing values.` });
   }
-  const hasIndex = header.length > 1 && header[0] === '';
-  const columns: IColumn[] = header.map((h, c) =>
-    hasIndex && c === 0
-      ? columnFromText('index', cells[c], { isIndex: true, displayed: false })
-      : columnFromText(h, cells[c], { isIndex: false, displayed: false })
-  );
   return { columns, rowCount, format, notes };
 }

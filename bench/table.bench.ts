@@ -1,0 +1,82 @@
+/**
+ * Benchmark: parse a 1e6-row, 4-column CSV (pandas to_csv style: unnamed
+ * index + 3 float columns) with the table parser. Target: ≤ 1 s and ≤ 300 MB.
+ *
+ * Run alone: npx tsx bench/table.bench.ts   (add --expose-gc via NODE_OPTIONS for steadier memory figures)
+ * Prints wall time, RSS and heap before/after, and the process's peak RSS (getrusage maxrss)
+ * reached during the parse, relative to the RSS just before it.
+ */
+import { parseMime } from '../src/core/table/index';
+
+const ROWS = 1_000_000;
+const TIME_TARGET_MS = 1000;
+const MEMORY_TARGET_MB = 300;
+
+/** Seeded PRNG so the text is identical run to run. */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function makeCsv(rows: number): string {
+  const rand = mulberry32(12345);
+  const parts: string[] = [',T (K),M [emu/g],H_Oe\n'];
+  for (let i = 0; i < rows; i++) {
+    const t = 2 + (298 * i) / rows;
+    parts.push(`${i},${t},${(rand() * 50).toPrecision(17)},${Math.round(rand() * 90000) - 45000}\n`);
+  }
+  return parts.join('');
+}
+
+function mb(bytes: number): string {
+  return (bytes / 1048576).toFixed(1);
+}
+
+function gc(): void {
+  const g = (globalThis as { gc?: () => void }).gc;
+  if (g) {
+    g();
+  }
+}
+
+/** Run the benchmark and return whether both targets were met. */
+export function runTableBench(): boolean {
+  const text = makeCsv(ROWS);
+  gc();
+  const before = process.memoryUsage();
+  const t0 = performance.now();
+  const result = parseMime('text/csv', text);
+  const ms = performance.now() - t0;
+  const after = process.memoryUsage();
+  // maxRSS is in kilobytes and covers the whole process life; text generation came before `before`.
+  const peakRss = Math.max(process.resourceUsage().maxRSS * 1024, after.rss);
+  if (!result.ok) {
+    console.log(`table.bench: parse failed: ${result.message}`);
+    return false;
+  }
+  const rssDelta = after.rss - before.rss;
+  const heapDelta = after.heapUsed - before.heapUsed;
+  const kinds = result.table.columns.map(c => `${c.header}:${c.kind}`).join(', ');
+  console.log(`table.bench: ${ROWS} rows × 4 columns CSV (${mb(text.length)} MB of text) → ${result.table.rowCount} rows [${kinds}]`);
+  console.log(`table.bench: time ${ms.toFixed(0)} ms (target ≤ ${TIME_TARGET_MS} ms)`);
+  console.log(
+    `table.bench: rss before ${mb(before.rss)} MB, after ${mb(after.rss)} MB (Δ ${mb(rssDelta)} MB), peak ${mb(peakRss)} MB; ` +
+      `heapUsed Δ ${mb(heapDelta)} MB; external+arrayBuffers after ${mb(after.external + after.arrayBuffers)} MB (target ≤ ${MEMORY_TARGET_MB} MB)`
+  );
+  console.log(`table.bench: peak during parse − rss before = ${mb(peakRss - before.rss)} MB`);
+  const ok = ms <= TIME_TARGET_MS && peakRss - before.rss <= MEMORY_TARGET_MB * 1048576;
+  console.log(`table.bench: ${ok ? 'PASS' : 'FAIL'}`);
+  return ok;
+}
+
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /table\.bench\.ts$/.test(process.argv[1]);
+if (isMain) {
+  const ok = runTableBench();
+  process.exitCode = ok ? 0 : 1;
+}
