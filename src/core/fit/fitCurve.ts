@@ -3,7 +3,7 @@
  */
 import { FIT_DEFAULTS } from './defaults';
 import { ResidualEvaluator } from './evaluator';
-import { levenbergMarquardt } from './lm';
+import { levenbergMarquardtSteps } from './lm';
 import type { ILmOutcome } from './lm';
 import { buildProblem } from './problem';
 import type { IFitProblem } from './problem';
@@ -20,34 +20,64 @@ import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
  * `converged: false` and a reason, keeping the best point found.
  */
 export function fitCurve(model: IFitModel, data: IFitData, options: IFitOptions): IFitResult {
+  const run = startFit(model, data, options);
+  for (;;) {
+    const step = run.step();
+    if (step !== null) {
+      return step;
+    }
+  }
+}
+
+/** A fit in progress, advanced one trial step at a time. */
+export interface IFitRun {
+  /** Advances one trial step; returns the result when finished, else null. */
+  step(): IFitResult | null;
+}
+
+/** Validates inputs (throws `FitInputError`) and returns a steppable fit. */
+export function startFit(model: IFitModel, data: IFitData, options: IFitOptions): IFitRun {
   const problem = buildProblem(model, data, options);
   const ev = new ResidualEvaluator(problem);
-  let outcome: ILmOutcome;
-  try {
-    outcome = levenbergMarquardt(problem, ev, {
-      onProgress: options.onProgress,
-      shouldStop: options.shouldStop
-    });
-  } catch (err) {
-    // Only a callback (onProgress / shouldStop) can throw here.
-    const msg = err instanceof Error ? err.message : String(err);
-    const p = Float64Array.from(problem.free, (j) => problem.start[j]);
-    const r = new Float64Array(problem.n);
-    const f = new Float64Array(problem.n);
-    const cost = ev.residuals(p, r, f);
-    outcome = {
-      p,
-      r,
-      f,
-      cost,
-      iterations: 0,
-      converged: false,
-      reason: `aborted: ${msg}`,
-      gradientCosine: Number.NaN,
-      restarts: 0
-    };
-  }
-  return assemble(problem, ev, outcome);
+  const steps = levenbergMarquardtSteps(problem, ev, {
+    onProgress: options.onProgress,
+    shouldStop: options.shouldStop
+  });
+  return {
+    step(): IFitResult | null {
+      let outcome: ILmOutcome;
+      try {
+        const next = steps.next();
+        if (!next.done) {
+          return null;
+        }
+        outcome = next.value;
+      } catch (err) {
+        // Only a callback (onProgress / shouldStop) can throw here.
+        outcome = abortedOutcome(problem, ev, err);
+      }
+      return assemble(problem, ev, outcome);
+    }
+  };
+}
+
+function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknown): ILmOutcome {
+  const msg = err instanceof Error ? err.message : String(err);
+  const p = Float64Array.from(problem.free, (j) => problem.start[j]);
+  const r = new Float64Array(problem.n);
+  const f = new Float64Array(problem.n);
+  const cost = ev.residuals(p, r, f);
+  return {
+    p,
+    r,
+    f,
+    cost,
+    iterations: 0,
+    converged: false,
+    reason: `aborted: ${msg}`,
+    gradientCosine: Number.NaN,
+    restarts: 0
+  };
 }
 
 function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): IFitResult {

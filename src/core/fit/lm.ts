@@ -60,12 +60,26 @@ function scaledNorm(diag: Float64Array, v: Float64Array): number {
   return Math.sqrt(s);
 }
 
-/** Runs the iteration from `problem.start`. Never throws for model failures. */
-export function levenbergMarquardt(
+/** Runs the iteration from `problem.start` to the end. Never throws for model failures. */
+export function levenbergMarquardt(problem: IFitProblem, ev: ResidualEvaluator, hooks: ILmHooks): ILmOutcome {
+  const steps = levenbergMarquardtSteps(problem, ev, hooks);
+  for (;;) {
+    const next = steps.next();
+    if (next.done) {
+      return next.value;
+    }
+  }
+}
+
+/**
+ * The iteration as a generator that yields after every trial step, so that
+ * a driver can interleave other work (message handling, cancellation).
+ */
+export function* levenbergMarquardtSteps(
   problem: IFitProblem,
   ev: ResidualEvaluator,
   hooks: ILmHooks
-): ILmOutcome {
+): Generator<void, ILmOutcome, void> {
   const { n } = problem;
   const k = problem.free.length;
   const lower = Float64Array.from(problem.free, (j) => problem.lower[j]);
@@ -252,6 +266,7 @@ export function levenbergMarquardt(
       delta *= 0.5;
       first = false;
       progress();
+      yield;
       continue;
     }
     const accelerated = acceleration === 'used';
@@ -326,6 +341,7 @@ export function levenbergMarquardt(
       iterations++;
     }
     progress();
+    yield;
     if (noiseSteps >= 3) {
       if (scheme === 'forward') {
         scheme = 'extrapolated';
