@@ -1,0 +1,111 @@
+/** CSV / TSV parsing through parseMime. */
+import { describe, expect, it } from 'vitest';
+import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
+import type { IColumn, ParseResult } from '../../../src/core/table/index';
+
+function table(r: ParseResult) {
+  if (!r.ok) {
+    throw new Error(`expected a table, got: ${r.message}`);
+  }
+  return r.table;
+}
+
+function values(c: IColumn | undefined): unknown[] {
+  return c === undefined ? [] : Array.from(c.values as ArrayLike<unknown>);
+}
+
+describe('CSV', () => {
+  it('reads a to_csv() frame: unnamed index, units, NaN, ±inf, bools, dates, strings', () => {
+    const t = table(
+      parseMime(
+        'text/csv',
+        ',T (K),M [emu/g],ok,when,label\n0,1.5,inf,True,2024-01-01,a\n1,,-inf,False,2024-01-02,"b, c"\n2,3.25,2,True,,\n'
+      )
+    );
+    expect(t.format).toBe('csv');
+    expect(t.rowCount).toBe(3);
+    expect(t.columns.map(c => [c.header, c.name, c.unit, c.kind, c.isIndex])).toEqual([
+      ['index', 'index', null, 'number', true],
+      ['T (K)', 'T', 'K', 'number', false],
+      ['M [emu/g]', 'M', 'emu/g', 'number', false],
+      ['ok', 'ok', null, 'boolean', false],
+      ['when', 'when', null, 'datetime', false],
+      ['label', 'label', null, 'string', false]
+    ]);
+    expect(t.columns[1].values).toBeInstanceOf(Float64Array);
+    expect(values(t.columns[1])).toEqual([1.5, NaN, 3.25]);
+    expect(values(t.columns[2])).toEqual([Infinity, -Infinity, 2]);
+    expect(values(t.columns[3])).toEqual([true, false, true]);
+    expect(values(t.columns[4])).toEqual(['2024-01-01', '2024-01-02', null]);
+    expect(values(t.columns[5])).toEqual(['a', 'b, c', null]);
+    expect(t.notes).toEqual([]);
+    expect(t.columns.every(c => c.shownDigits === undefined)).toBe(true);
+  });
+
+  it('keeps full precision bit for bit', () => {
+    const xs = [0.1 + 0.2, 1 / 3, 5e-324, 1.7976931348623157e308, -2.220446049250313e-16];
+    const t = table(parseMime('text/csv', `x\n${xs.map(String).join('\n')}\n`));
+    expect(Array.from(t.columns[0].values as Float64Array)).toEqual(xs);
+  });
+
+  it('a column that is numeric until its last row becomes a string column with exact text', () => {
+    const t = table(parseMime('text/csv', 'a,b\n1.50,1\n2,2\nthree,3\n'));
+    expect(t.columns[0].kind).toBe('string');
+    expect(values(t.columns[0])).toEqual(['1.50', '2', 'three']);
+    expect(t.columns[1].kind).toBe('number');
+  });
+
+  it('does not read hex or padded numbers as numbers', () => {
+    const t = table(parseMime('text/csv', 'a\n0x10\n12\n'));
+    expect(t.columns[0].kind).toBe('string');
+  });
+
+  it('reads TSV, CRLF line ends and quoted newlines', () => {
+    const t = table(parseMime('text/tab-separated-values', 'T\tnote\r\n1\t"two\r\nlines"\r\n2\tx\r\n'));
+    expect(t.format).toBe('tsv');
+    expect(values(t.columns[0])).toEqual([1, 2]);
+    expect(values(t.columns[1])).toEqual(['two\r\nlines', 'x']);
+  });
+
+  it('pads short rows with missing values and says so', () => {
+    const t = table(parseMime('text/csv', 'a,b\n1,2\n3\n'));
+    expect(values(t.columns[1])).toEqual([2, NaN]);
+    expect(t.notes[0].kind).toBe('info');
+  });
+
+  it('refuses rows wider than the header, naming the row', () => {
+    const r = parseMime('text/csv', 'a,b\n1,2\n3,4,5\n');
+    expect(r).toEqual({ ok: false, message: 'Row 2 of the CSV text has 3 cells but the header has 2 columns.' });
+  });
+
+  it('refuses an unclosed quote, naming the row', () => {
+    const r = parseMime('text/csv', 'a,b\n1,2\n3,"4\n');
+    expect(r.ok).toBe(false);
+    expect(!r.ok && r.message).toMatch(/unclosed quote in row \d+/);
+  });
+
+  it('refuses empty text and a huge cell, naming row and column', () => {
+    expect(parseMime('text/csv', '')).toEqual({ ok: false, message: 'The CSV text is empty: it has no header row.' });
+    const r = parseMime('text/csv', `a,b\n1,${'x'.repeat(TABLE_LIMITS.maxCellChars + 1)}\n`);
+    expect(!r.ok && r.message).toBe(
+      `The cell in row 1, column 2 ('b') holds ${TABLE_LIMITS.maxCellChars + 1} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`
+    );
+  });
+
+  it('refuses too many columns, naming the first column past the limit', () => {
+    const header = Array.from({ length: TABLE_LIMITS.maxColumns + 1 }, (_, i) => `c${i}`).join(',');
+    const r = parseMime('text/csv', `${header}\n`);
+    expect(!r.ok && r.message).toContain(`column ${TABLE_LIMITS.maxColumns + 1} is the first past it`);
+  });
+
+  it('header only gives an empty table; a named first column is not an index', () => {
+    const t = table(parseMime('text/csv', 'T,M\n'));
+    expect(t.rowCount).toBe(0);
+    expect(t.columns.map(c => c.isIndex)).toEqual([false, false]);
+  });
+
+  it('accepts nbformat multi-line strings', () => {
+    const t = table(parseMime('text/csv', ['a,b\n', '1,2\n']));
+    expect(values(t.columns[1])).toEqual([2]);
+  });
+});

@@ -1,0 +1,105 @@
+/** Hand-written HTML tables: pandas shapes, Styler-like markup, spans, hostile markup, limits. */
+import { describe, expect, it } from 'vitest';
+import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
+import type { IColumn, ParseResult } from '../../../src/core/table/index';
+
+function table(r: ParseResult) {
+  if (!r.ok) {
+    throw new Error(`expected a table, got: ${r.message}`);
+  }
+  return r.table;
+}
+
+function values(c: IColumn | undefined): unknown[] {
+  return c === undefined ? [] : Array.from(c.values as ArrayLike<unknown>);
+}
+
+const g = globalThis as { __pwned?: boolean };
+
+describe('pandas-like HTML', () => {
+  it('reads a table without thead whose first row is all th', () => {
+    const t = table(parseMime('text/html', '<table><tr><th>a</th><th>b</th></tr><tr><td>1</td><td>x</td></tr></table>'));
+    expect(t.columns.map(c => [c.header, c.kind, c.isIndex])).toEqual([
+      ['a', 'number', false],
+      ['b', 'string', false]
+    ]);
+  });
+
+  it('reads Styler-like markup with &nbsp; blanks and classes', () => {
+    const html =
+      '<style>#T_x th {color: red}</style><table id="T_x"><thead><tr><th class="blank level0">&nbsp;</th>' +
+      '<th class="col_heading level0 col0">T (K)</th></tr></thead><tbody><tr><th id="r0" class="row_heading level0 row0">0</th>' +
+      '<td class="data row0 col0">1.500000</td></tr></tbody></table>';
+    const t = table(parseMime('text/html', html));
+    expect(t.columns.map(c => [c.header, c.unit, c.isIndex])).toEqual([
+      ['index', null, true],
+      ['T (K)', 'K', false]
+    ]);
+    expect(t.columns[1].shownDigits).toBe(7);
+    expect(t.notes.map(n => n.kind)).toEqual(['rounded']);
+    expect(t.notes[0].message).toContain("display({'text/csv': df.to_csv()}, raw=True)");
+  });
+
+  it('expands rowspan in body and colspan in header', () => {
+    const html =
+      '<table><thead><tr><th></th><th></th><th colspan="2">M</th></tr><tr><th></th><th></th><th>x</th><th>y</th></tr></thead>' +
+      '<tbody><tr><th rowspan="2">a</th><th>1</th><td>1</td><td>2</td></tr><tr><th>2</th><td>3</td><td>4</td></tr></tbody></table>';
+    const t = table(parseMime('text/html', html));
+    expect(t.columns.map(c => c.header)).toEqual(['level_0', 'level_1', 'M / x', 'M / y']);
+    expect(values(t.columns[0])).toEqual(['a', 'a']);
+    expect(values(t.columns[3])).toEqual([2, 4]);
+  });
+
+  it('gives a plain no-table message for HTML without a table', () => {
+    expect(parseMime('text/html', '<div><img src="x.png"></div>')).toEqual({ ok: false, message: 'The HTML holds no table.' });
+  });
+
+  it('takes the pandas table among several and says so', () => {
+    const t = table(parseMime('text/html', '<table><tr><td>layout</td></tr></table><table class="dataframe"><thead><tr><th>a</th></tr></thead><tbody><tr><td>1</td></tr></tbody></table>'));
+    expect(t.columns[0].header).toBe('a');
+    expect(t.notes.some(n => n.kind === 'info' && n.message.includes('2 tables'))).toBe(true);
+  });
+});
+
+describe('hostile HTML is read as inert text', () => {
+  it('script tags, event handlers and javascript: URLs execute nothing and are not cell text', () => {
+    delete g.__pwned;
+    const html =
+      '<table><thead><tr><th onclick="globalThis.__pwned=true">a<script>globalThis.__pwned=true</script></th>' +
+      '<th><a href="javascript:globalThis.__pwned=true">b</a></th></tr></thead>' +
+      '<tbody><tr><td><img src=x onerror="globalThis.__pwned=true">1</td><td><iframe srcdoc="<script>globalThis.__pwned=true</script>"></iframe>2</td></tr></tbody></table>';
+    const t = table(parseMime('text/html', html));
+    expect(t.columns.map(c => c.header)).toEqual(['a', 'b']);
+    expect(values(t.columns[0])).toEqual([1]);
+    expect(values(t.columns[1])).toEqual([2]);
+    expect(g.__pwned).toBeUndefined();
+  });
+
+  it('refuses a cell nested too deep, naming its row and column', () => {
+    const deep = `${'<span>'.repeat(TABLE_LIMITS.maxDepth + 10)}x${'</span>'.repeat(TABLE_LIMITS.maxDepth + 10)}`;
+    const r = parseMime('text/html', `<table><thead><tr><th>a</th></tr></thead><tbody><tr><td>${deep}</td></tr></tbody></table>`);
+    expect(r).toEqual({ ok: false, message: `The cell in body row 1, column 1 is nested more than ${TABLE_LIMITS.maxDepth} elements deep.` });
+  });
+
+  it('a table inside 10 000 nested divs is still found, without recursion', () => {
+    const n = 10_000;
+    const t = table(parseMime('text/html', `${'<div>'.repeat(n)}<table><tr><th>a</th></tr><tr><td>1</td></tr></table>${'</div>'.repeat(n)}`));
+    expect(values(t.columns[0])).toEqual([1]);
+  });
+
+  it('refuses a colspan past the column limit, naming the row', () => {
+    const r = parseMime('text/html', `<table><tr><th colspan="${TABLE_LIMITS.maxColumns}">a</th><th>b</th></tr></table>`);
+    expect(!r.ok && r.message).toBe(`Row 1 of the HTML table reaches column ${TABLE_LIMITS.maxColumns + 1}; the limit is ${TABLE_LIMITS.maxColumns} columns.`);
+  });
+
+  it('refuses a huge cell, naming its row and column', () => {
+    const r = parseMime('text/html', `<table><thead><tr><th>a</th></tr></thead><tr><td>${'y'.repeat(TABLE_LIMITS.maxCellChars * 2 + 5)}</td></tr></table>`);
+    expect(!r.ok && r.message).toMatch(/^The cell in body row 1, column 1 holds more than \d+ characters/);
+  });
+
+  it('a rowspan larger than the section is clamped', () => {
+    const t = table(parseMime('text/html', '<table><thead><tr><th>i</th><th>a</th></tr></thead><tbody><tr><th rowspan="65534">k</th><td>1</td></tr><tr><td>2</td></tr></tbody></table>'));
+    expect(t.rowCount).toBe(2);
+    expect(values(t.columns[0])).toEqual(['k', 'k']);
+  });
+});
