@@ -16,7 +16,7 @@
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
- * | `gradientRestartThreshold` | 1e-6 | a stop on a small step with a scaled gradient above this restarts from the best point |
+ * | `restartReductionThreshold` | 1e-10 | a stop on a small step while the Gauss–Newton model still predicts a relative χ² reduction above this restarts from the best point (a reduction of 1e-10·χ² moves parameters by ≈ 1e-5·√dof standard errors) |
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
  * | `geodesicAcceleration` | true | add second-order geodesic acceleration to accepted trial steps |
  * | `geodesicAlpha` | 0.75 | the acceleration is used only when ‖a‖ ≤ α‖v‖ (scaled norms) |
@@ -35,7 +35,7 @@ export const FIT_DEFAULTS = Object.freeze({
   singularTolerance: 1e-13,
   correlationWarning: 0.99,
   conditionWarning: 1e12,
-  gradientRestartThreshold: 1e-6,
+  restartReductionThreshold: 1e-10,
   maxRestarts: 3,
   geodesicAcceleration: true,
   geodesicAlpha: 0.75

@@ -51,6 +51,17 @@ function costNoise(problem: IFitProblem, r: Float64Array, f: Float64Array): numb
   return 2 * Math.sqrt(r2 * e2) + e2;
 }
 
+/** χ² reduction predicted by the full Gauss–Newton step of the model: Σ cᵢ²/sᵢ². */
+function gaussNewtonReduction(m: ISpectralModel): number {
+  let sum = 0;
+  for (let a = 0; a < m.s2.length; a++) {
+    if (m.s2[a] > 0) {
+      sum += (m.c[a] * m.c[a]) / m.s2[a];
+    }
+  }
+  return sum;
+}
+
 function scaledNorm(diag: Float64Array, v: Float64Array): number {
   let s = 0;
   for (let j = 0; j < v.length; j++) {
@@ -365,11 +376,12 @@ export function* levenbergMarquardtSteps(
         delta = Math.max(delta, pn > 0 ? pn : 1);
         continue;
       }
-      if (!ftolHit && !machineHit && gcos > FIT_DEFAULTS.gradientRestartThreshold) {
+      const gnRel = gaussNewtonReduction(m) / cost;
+      if (!ftolHit && !machineHit && gnRel > FIT_DEFAULTS.restartReductionThreshold) {
         if (restarts >= FIT_DEFAULTS.maxRestarts) {
           return out(
             false,
-            `step became negligible while the gradient is not small (cosine ${gcos.toExponential(2)}) after ${restarts} restarts`
+            `step became negligible while the Gauss–Newton model still predicts a relative χ² reduction of ${gnRel.toExponential(2)} (gradient cosine ${gcos.toExponential(2)}) after ${restarts} restarts`
           );
         }
         restarts++;
