@@ -113,6 +113,10 @@ export function solveWeiss(J: number, tau: ArrayLike<number>, h: ArrayLike<numbe
   const dmdtau = new Float64Array(n);
   const dmdh = new Float64Array(n);
   let unconverged = 0;
+  if (J === 0.5 && typeof h === 'number' && h === 0) {
+    unconverged = solveSpinHalfZeroField(tau, m, dmdtau, dmdh);
+    return { m, dmdtau, dmdh, unconverged };
+  }
   for (let i = 0; i < n; i++) {
     const t = tau[i];
     const hi = hh[i];
@@ -135,6 +139,81 @@ export function solveWeiss(J: number, tau: ArrayLike<number>, h: ArrayLike<numbe
     }
   }
   return { m, dmdtau, dmdh, unconverged };
+}
+
+/**
+ * Hot path for J = ½ at h = 0: m = tanh(m/τ). Newton on g(m) = m − tanh(m/τ)
+ * inside the bracket (0, 1], warm-started from the previous point's root
+ * when that lies on the safe (upper) side, else from the √(3(1 − τ)) /
+ * saturation estimate. Returns the number of unconverged points.
+ */
+function solveSpinHalfZeroField(tau: ArrayLike<number>, m: Float64Array, dmdtau: Float64Array, dmdh: Float64Array): number {
+  let bad = 0;
+  let prev = NaN;
+  for (let i = 0; i < tau.length; i++) {
+    const t = tau[i];
+    if (!(t > 0) || !Number.isFinite(t)) {
+      m[i] = NaN;
+      dmdtau[i] = NaN;
+      dmdh[i] = NaN;
+      prev = NaN;
+      bad++;
+      continue;
+    }
+    if (t >= 1) {
+      m[i] = 0;
+      dmdtau[i] = 0;
+      dmdh[i] = 1 / (t - 1);
+      prev = NaN;
+      continue;
+    }
+    const inv = 1 / t;
+    let x = t < 0.6 ? 1 : Math.min(1, 1.02 * Math.sqrt(3 * (1 - t)));
+    if (prev > 0 && prev < 1) {
+      // g(prev) ≥ 0 means prev is an upper point: monotone Newton from there
+      if (prev - Math.tanh(prev * inv) >= 0) {
+        x = prev;
+      }
+    }
+    let lo = 0;
+    let hi = 1;
+    let ok = false;
+    let B = 0;
+    for (let it = 0; it < 100; it++) {
+      B = Math.tanh(x * inv);
+      const g = x - B;
+      if (g > 0) {
+        hi = x;
+      } else if (g < 0) {
+        lo = x;
+      } else {
+        ok = true;
+        break;
+      }
+      const dg = 1 - (1 - B * B) * inv;
+      let next = dg > 0 ? x - g / dg : NaN;
+      if (!(next > lo && next < hi)) {
+        next = 0.5 * (lo + hi);
+      }
+      if (Math.abs(next - x) <= 4 * Number.EPSILON * next) {
+        x = next;
+        B = Math.tanh(x * inv);
+        ok = true;
+        break;
+      }
+      x = next;
+    }
+    if (!ok) {
+      bad++;
+    }
+    m[i] = x;
+    prev = x;
+    const dB = 1 - B * B;
+    const D = t - dB;
+    dmdtau[i] = D > 0 ? (-dB * x * inv) / D : NaN;
+    dmdh[i] = D > 0 ? dB / D : Infinity;
+  }
+  return bad;
 }
 
 /**

@@ -21,6 +21,13 @@ export interface IPowerLawOptions {
   proxyPower?: number;
   /** Value above Tc: 'zero' (physical) or 'signed' (odd continuation, smoother for the optimiser). Default 'zero'. */
   aboveTc?: 'zero' | 'signed';
+  /**
+   * Allow Tc below the highest temperature in the data (points above Tc then
+   * sit on the background). Default false: the data are taken as ordered-phase
+   * points and Tc is bounded below by the highest T, which removes the spurious
+   * minima with Tc inside the data range.
+   */
+  allowTcInsideData?: boolean;
   engine?: Partial<IFitOptions>;
 }
 
@@ -128,8 +135,9 @@ export function fitPowerLaw(
   }
   const model = powerLawModel(options);
   const s = options.start ?? {};
-  const start = [s.A ?? ymax, s.Tc ?? Tmax * 1.01, s.beta ?? 0.35];
-  const lower = [-Infinity, 0, 1e-3];
+  const start = [s.A ?? ymax, Math.max(s.Tc ?? Tmax * 1.01, options.allowTcInsideData === true ? -Infinity : Tmax * (1 + 1e-9)), s.beta ?? 0.35];
+  const TcMin = options.allowTcInsideData === true ? 0 : Tmax * (1 + 1e-12) + 1e-300;
+  const lower = [-Infinity, TcMin, 1e-3];
   const upper = [Infinity, Infinity, 5];
   if (options.background === true) {
     start.push(s.y0 ?? 0);
