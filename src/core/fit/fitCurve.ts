@@ -39,9 +39,27 @@ export interface IFitRun {
 export function startFit(model: IFitModel, data: IFitData, options: IFitOptions): IFitRun {
   const problem = buildProblem(model, data, options);
   const ev = new ResidualEvaluator(problem);
+  // A throwing callback stops the fit like a cancellation, keeping the best point.
+  let callbackError: string | null = null;
+  const guard = (fn: () => void): void => {
+    try {
+      fn();
+    } catch (err) {
+      callbackError = err instanceof Error ? err.message : String(err);
+    }
+  };
+  const { onProgress, shouldStop } = options;
   const steps = levenbergMarquardtSteps(problem, ev, {
-    onProgress: options.onProgress,
-    shouldStop: options.shouldStop
+    onProgress: onProgress ? (p) => guard(() => onProgress(p)) : undefined,
+    shouldStop: () => {
+      let stop = false;
+      if (shouldStop) {
+        guard(() => {
+          stop = shouldStop() === true;
+        });
+      }
+      return stop || callbackError !== null;
+    }
   });
   return {
     step(): IFitResult | null {
@@ -52,6 +70,9 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
           return null;
         }
         outcome = next.value;
+        if (callbackError !== null) {
+          outcome = { ...outcome, converged: false, reason: `aborted: a callback threw: ${callbackError}` };
+        }
       } catch (err) {
         // Only a callback (onProgress / shouldStop) can throw here.
         outcome = abortedOutcome(problem, ev, err);
