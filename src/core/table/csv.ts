@@ -47,45 +47,67 @@ function scan(text: string, delimiter: string, what: string, onRow: (row: string
   let header: string[] | null = null;
   let rows = 0;
   let short = 0;
+  let blanks = 0;
+  const emit = (row: string[], h: string[]): void => {
+    if (row.length > h.length) {
+      throw new TableParseError(`Row ${rows + 1} of the ${what} text has ${row.length} cells but the header has ${h.length} columns.`);
+    }
+    if (row.length < h.length) {
+      short++;
+    }
+    if (rows >= TABLE_LIMITS.maxRows) {
+      checkRowAndColumnCounts(rows + 1, h.length, what);
+    }
+    onRow(row, rows, h);
+    rows++;
+  };
+  // Blank lines are skipped as pandas' read_csv does, except in a one-column file, where
+  // an empty line between rows is a missing value (Python's csv module writes it as "").
+  const flushBlanks = (h: string[], keep: number): void => {
+    for (; blanks > keep; blanks--) {
+      emit([''], h);
+    }
+    blanks = 0;
+  };
   // With a string input papaparse runs every chunk synchronously before returning.
   Papa.parse<string[]>(text, {
     delimiter,
     header: false,
     dynamicTyping: false,
-    skipEmptyLines: true,
+    skipEmptyLines: false,
     worker: false,
     chunkSize: CHUNK_CHARS,
     complete: () => undefined,
     chunk: (results: PapaResult<string[]>) => {
       const hard = results.errors.find(e => e.type === 'Quotes');
       if (hard) {
-        const at = typeof hard.row === 'number' ? `row ${rows + hard.row + (header === null ? 0 : 1)}` : 'a row';
+        const at = typeof hard.row === 'number' ? `row ${rows + blanks + hard.row + (header === null ? 0 : 1)}` : 'a row';
         throw new TableParseError(`The ${what} text has an unclosed quote in ${at}: ${hard.message}.`);
       }
       for (const row of results.data) {
+        const blank = row.length === 1 && row[0] === '';
         if (header === null) {
-          header = row.map(h => h.trim());
-          checkRowAndColumnCounts(0, header.length, what);
+          if (!blank) {
+            header = row.map(h => h.trim());
+            checkRowAndColumnCounts(0, header.length, what);
+          }
           continue;
         }
-        if (row.length > header.length) {
-          throw new TableParseError(`Row ${rows + 1} of the ${what} text has ${row.length} cells but the header has ${header.length} columns.`);
+        if (blank) {
+          blanks += header.length === 1 ? 1 : 0;
+          continue;
         }
-        if (row.length < header.length) {
-          short++;
-        }
-        if (rows >= TABLE_LIMITS.maxRows) {
-          checkRowAndColumnCounts(rows + 1, header.length, what);
-        }
-        onRow(row, rows, header);
-        rows++;
+        flushBlanks(header, 0);
+        emit(row, header);
       }
     }
   });
   const found = header as string[] | null;
   if (found === null) {
-    throw new TableParseError(`The ${what} text is empty: it has no header row.`);
+    throw new TableParseError(`The ${what} text is empty: it has no header row.`, 'no-table');
   }
+  // The last line break of the text ends the last row; it is not one more blank row.
+  flushBlanks(found, /[\r\n]$/.test(text) ? 1 : 0);
   return { header: found, rows, short };
 }
 

@@ -6,6 +6,7 @@
  */
 import { parseFragment } from 'parse5';
 import type { DefaultTreeAdapterTypes } from 'parse5';
+import { checkHtmlDepth } from './htmldepth';
 import { TABLE_LIMITS, TableParseError } from './types';
 
 type Node = DefaultTreeAdapterTypes.Node;
@@ -173,6 +174,10 @@ function expandSection(rows: Element[], firstRow: number, section: string): IGri
 
 /** Parse HTML text and return the grid of its first pandas table (class "dataframe"), else its first table. */
 export function htmlGrid(html: string): IHtmlGrid | null {
+  if (!/<table/i.test(html)) {
+    return null;
+  }
+  checkHtmlDepth(html);
   const fragment = parseFragment(html);
   const { tables, outside } = findTables(fragment);
   if (tables.length === 0) {

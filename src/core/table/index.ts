@@ -47,7 +47,7 @@ function requireText(payload: unknown, mime: string): string {
 function parseMimeOrThrow(mime: string, payload: unknown): ITable {
   switch (mime) {
     case 'application/vnd.dataresource+json':
-      return parseDataResource(textOf(payload));
+      return parseDataResource(payload);
     case 'text/csv':
       return parseDelimited(requireText(payload, mime), ',');
     case 'text/tab-separated-values':
@@ -55,7 +55,7 @@ function parseMimeOrThrow(mime: string, payload: unknown): ITable {
     case 'text/html':
       return parsePandasHtml(requireText(payload, mime));
     case 'application/json':
-      return parseJsonTable(textOf(payload));
+      return parseJsonTable(payload);
     case 'text/plain':
       return parsePandasText(requireText(payload, mime));
     default:

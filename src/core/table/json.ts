@@ -73,11 +73,14 @@ function tableFromColumns(columns: Iterable<[string, unknown[]]>, rowCount: numb
 export function parseJsonTable(payload: unknown): ITable {
   const value = jsonValue(payload, 'The JSON text');
   if (Array.isArray(value)) {
+    if (value.length === 0) {
+      throw new TableParseError('The JSON records list is empty: it has no rows or columns.', 'no-table');
+    }
     const columns = collectRecords(value, 'JSON records');
     return tableFromColumns(columns, value.length, null);
   }
   if (!isRecord(value)) {
-    throw new TableParseError(`The JSON payload is ${jsonType(value)}, not a table (records or column arrays).`);
+    throw new TableParseError(`The JSON payload is ${jsonType(value)}, not a table (records or column arrays).`, 'no-table');
   }
   if (Array.isArray(value.columns) && Array.isArray(value.data)) {
     return parseSplit(value.columns, value.data, value.index);
@@ -88,7 +91,7 @@ export function parseJsonTable(payload: unknown): ITable {
 function parseColumnObject(value: Record<string, unknown>): ITable {
   const entries = Object.entries(value);
   if (entries.length === 0) {
-    throw new TableParseError('The JSON object is empty: it has no columns.');
+    throw new TableParseError('The JSON object is empty: it has no columns.', 'no-table');
   }
   const allArrays = entries.every(([, v]) => Array.isArray(v));
   const allObjects = entries.every(([, v]) => isRecord(v));
