@@ -168,19 +168,25 @@ function solveSpinHalfZeroField(tau: ArrayLike<number>, m: Float64Array, dmdtau:
       continue;
     }
     const inv = 1 / t;
-    let x = t < 0.6 ? 1 : Math.min(1, 1.02 * Math.sqrt(3 * (1 - t)));
+    let x: number;
+    let B: number;
+    // warm start from the previous point's root when it is an upper point (g ≥ 0);
+    // its tanh is reused as the first iteration
     if (prev > 0 && prev < 1) {
-      // g(prev) ≥ 0 means prev is an upper point: monotone Newton from there
-      if (prev - Math.tanh(prev * inv) >= 0) {
-        x = prev;
+      x = prev;
+      B = Math.tanh(x * inv);
+      if (x - B < 0) {
+        x = t < 0.6 ? 1 : Math.min(1, 1.02 * Math.sqrt(3 * (1 - t)));
+        B = Math.tanh(x * inv);
       }
+    } else {
+      x = t < 0.6 ? 1 : Math.min(1, 1.02 * Math.sqrt(3 * (1 - t)));
+      B = Math.tanh(x * inv);
     }
     let lo = 0;
     let hi = 1;
     let ok = false;
-    let B = 0;
     for (let it = 0; it < 100; it++) {
-      B = Math.tanh(x * inv);
       const g = x - B;
       if (g > 0) {
         hi = x;
@@ -197,18 +203,19 @@ function solveSpinHalfZeroField(tau: ArrayLike<number>, m: Float64Array, dmdtau:
       }
       if (Math.abs(next - x) <= 4 * Number.EPSILON * next) {
         x = next;
-        B = Math.tanh(x * inv);
         ok = true;
         break;
       }
       x = next;
+      B = Math.tanh(x * inv);
     }
     if (!ok) {
       bad++;
     }
     m[i] = x;
     prev = x;
-    const dB = 1 - B * B;
+    // at the root B = tanh(x/τ) = x, so B′ = 1 − x²
+    const dB = 1 - x * x;
     const D = t - dB;
     dmdtau[i] = D > 0 ? (-dB * x * inv) / D : NaN;
     dmdh[i] = D > 0 ? dB / D : Infinity;
