@@ -47,6 +47,10 @@ export interface IExpressionModel extends IFitModel {
 
 const BUILTIN_CONSTANTS: Readonly<Record<string, number>> = { pi: Math.PI, PI: Math.PI, e: Math.E, E: Math.E };
 
+function hasOwn(obj: Record<string, number>, key: string): boolean {
+  return Object.prototype.hasOwnProperty.call(obj, key);
+}
+
 type Kernel = (p: Float64Array, x: Float64Array, out: Float64Array) => void;
 
 function parseNode(text: string): MathNode {
@@ -90,7 +94,7 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
   const node = parseNode(rhs);
   const symbols = collectSymbols(node);
   const isKnown = (s: string): boolean =>
-    variables.includes(s) || s in constants || (s in BUILTIN_CONSTANTS && !options.parameters?.includes(s));
+    variables.includes(s) || hasOwn(constants, s) || (hasOwn(BUILTIN_CONSTANTS, s) && !options.parameters?.includes(s));
   const found = symbols.filter((s) => !isKnown(s));
   let parameters: string[];
   if (options.parameters) {
@@ -110,14 +114,14 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     if (vi >= 0) {
       return `v${vi}`;
     }
-    if (name in constants) {
+    if (hasOwn(constants, name)) {
       return numberLiteral(constants[name]);
     }
     const pi = parameters.indexOf(name);
     if (pi >= 0) {
       return `q${pi}`;
     }
-    if (name in BUILTIN_CONSTANTS) {
+    if (hasOwn(BUILTIN_CONSTANTS, name)) {
       return numberLiteral(BUILTIN_CONSTANTS[name]);
     }
     return null;
@@ -149,7 +153,7 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     jacobian = derivativeNodes ? interpretMany(derivativeNodes, parameters, variables, constants, colArrays) : undefined;
     evaluation = 'mathjs-compiled';
   }
-  const transformResponse = responseTransform(lhs, constants);
+  const transformResponse = responseTransform(lhs, constants, variables);
   const model: IExpressionModel = {
     parameters,
     expression: rhs,
@@ -254,15 +258,19 @@ function interpretMany(
 
 function responseTransform(
   lhs: string | null,
-  constants: Record<string, number>
+  constants: Record<string, number>,
+  variables: string[]
 ): (y: ArrayLike<number>) => number[] {
   if (lhs === null) {
     return (y) => Array.from(y);
   }
   const node = parseNode(lhs);
-  const symbols = collectSymbols(node).filter((s) => !(s in constants) && !(s in BUILTIN_CONSTANTS));
+  const symbols = collectSymbols(node).filter((s) => !(hasOwn(constants, s)) && !(hasOwn(BUILTIN_CONSTANTS, s)));
   if (symbols.length !== 1) {
     throw new ExpressionError(`left-hand side "${lhs}" must contain exactly one response symbol`);
+  }
+  if (variables.includes(symbols[0])) {
+    throw new ExpressionError(`the response "${symbols[0]}" is also an independent variable`);
   }
   if (node.type === 'SymbolNode') {
     return (y) => Array.from(y);
@@ -270,9 +278,9 @@ function responseTransform(
   const js = toJavaScript(node, (name) =>
     name === symbols[0]
       ? 'v0'
-      : name in constants
+      : hasOwn(constants, name)
         ? numberLiteral(constants[name])
-        : name in BUILTIN_CONSTANTS
+        : hasOwn(BUILTIN_CONSTANTS, name)
           ? numberLiteral(BUILTIN_CONSTANTS[name])
           : null
   );
