@@ -14,6 +14,7 @@ export * from './critical/index';
 export * from './universality';
 export * from './curie-weiss';
 export * from './bean-rodbell';
+export * from './bean-rodbell-fit';
 export * from './devonshire';
 export * from './de-gennes';
 export * from './coupled';

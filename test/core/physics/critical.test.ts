@@ -130,6 +130,12 @@ describe('universality classes and scaling relations (REFERENCE.md C2, C6)', () 
     }
   });
 
+  it('2D Ising exact exponents (REFERENCE.md C1)', () => {
+    // [REFERENCE.md C1: Onsager 1944 (alpha), Yang 1952 (beta), compiled in Pelissetto & Vicari, Phys. Rep. 368, 549 (2002)]
+    const c = UNIVERSALITY_CLASSES.find(x => x.id === '2d-ising');
+    expect([c?.alpha.value, c?.beta.value, c?.gamma.value, c?.delta.value, c?.nu.value, c?.eta.value]).toEqual([0, 1 / 8, 7 / 4, 15, 1, 1 / 4]);
+  });
+
   it('mean field, tricritical and 2D Ising satisfy Rushbrooke and Widom exactly (C6)', () => {
     // [REFERENCE.md C6 first bullet]
     for (const id of ['mean-field', 'tricritical', '2d-ising']) {

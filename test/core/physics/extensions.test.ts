@@ -154,3 +154,22 @@ describe('Coupled order parameters', () => {
     expect(() => coupledPhases({ ...base, lambda: -2 }, 50)).toThrow(PhysicsInputError);
   });
 });
+
+describe('Bean–Rodbell fit', () => {
+  it('recovers Ms, T0 and eta from seeded noisy data (second order, eta = 0.6)', async () => {
+    const { fitBeanRodbell } = await import('../../../src/core/physics/index');
+    const { normal } = await import('./prng');
+    const T = Array.from({ length: 70 }, (_, i) => 20 + (330 * i) / 69);
+    const s = beanRodbellMagnetisation(0.5, 0.6, T.map(t => t / 300));
+    const g = normal(77);
+    const M = T.map((_, i) => 2 * s[i] + 0.004 * g());
+    const r = fitBeanRodbell({ T, M }, { J: 0.5, start: [1.8, 290, 0.3] });
+    expect(r.converged).toBe(true);
+    expect(r.firstOrder).toBe(false);
+    expect(Math.abs(r.values[0] - 2)).toBeLessThan(3 * r.standardErrors[0]);
+    expect(Math.abs(r.values[1] - 300)).toBeLessThan(3 * r.standardErrors[1]);
+    expect(Math.abs(r.values[2] - 0.6)).toBeLessThan(3 * r.standardErrors[2]);
+    expect(r.Tc).toBe(r.values[1]);
+    expect(() => fitBeanRodbell({ T: [1, 2, 3], M: [1, 1, 1] }, { J: 0.5, start: [1, 1, 0] })).toThrow(PhysicsInputError);
+  });
+});

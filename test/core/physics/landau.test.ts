@@ -42,6 +42,19 @@ describe('Landau closed forms (REFERENCE.md C5, convention L)', () => {
     expect(rel(d.criticalEndPoint.psi, 0.387298334620742)).toBeLessThan(1e-10);
     expect(rel(d.criticalEndPoint.h, 0.092951600308978)).toBeLessThan(1e-10);
     expect(d.psiOrderedAtT0).toBeCloseTo(0.707106781186548, 14);
+    // numerical counterparts at T1 from the stationary points (C5 "Numerical" column)
+    const at1 = landauStationary(FIRST, 100.375);
+    const barrier = at1.points.find(p => p.kind === 'unstable' && p.psi > 0);
+    expect(Math.abs((barrier?.psi ?? NaN) - 0.3535533906)).toBeLessThan(5e-11);
+    expect(Math.abs((barrier?.F ?? NaN) - 0.005208333333)).toBeLessThan(5e-13);
+    const ordered1 = at1.points.find(p => p.kind !== 'unstable' && p.psi > 0.5);
+    expect(Math.abs((ordered1?.curvature ?? NaN) - 0.75)).toBeLessThan(5e-10);
+    expect(Math.abs((at1.points.find(p => p.psi === 0)?.curvature ?? NaN) - 0.1875)).toBeLessThan(5e-11);
+    // critical end point: the isotherm h(psi) has a horizontal inflection there, F″ = F‴ = 0
+    const cp = d.criticalEndPoint;
+    expect(Math.abs(landauD2F(FIRST, cp.T, cp.psi))).toBeLessThan(1e-13);
+    expect(Math.abs(6 * FIRST.b * cp.psi + 20 * FIRST.c * cp.psi ** 3)).toBeLessThan(1e-13);
+    expect(Math.abs(landauDF(FIRST, cp.T, 0, cp.psi) - cp.h)).toBeLessThan(1e-14);
     // psi at T** = sqrt(|b|/(2c)) = 0.5
     const r = landauStationary(FIRST, 100.5 - 1e-9);
     const ordered = r.points.filter(p => p.psi > 0.1 && p.kind !== 'unstable');

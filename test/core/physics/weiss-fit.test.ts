@@ -105,6 +105,28 @@ describe('Weiss M(T) fits', () => {
     expect(Math.abs(r.values[2] - mu)).toBeLessThan(3 * r.standardErrors[2]);
   });
 
+  it('accepts duplicated temperatures and unsorted input', () => {
+    const T0 = grid(50, 700, 40);
+    const T = [...T0, ...T0].reverse();
+    const m = weissMagnetisation(0.5, T.map(t => t / 630));
+    const g = normal(13);
+    const M = T.map((_, i) => 1.5 * m[i] + 0.005 * g());
+    const r = fitWeissMT({ T, M }, { J: 0.5 });
+    expect(r.converged).toBe(true);
+    expect(Math.abs(r.values[1] - 630)).toBeLessThan(3 * r.standardErrors[1]);
+  });
+
+  it('coarse-to-fine start on large data gives the same optimum as a single stage', () => {
+    const T = grid(30, 700, 3000);
+    const m = weissMagnetisation(0.5, T.map(t => t / 630));
+    const g = normal(14);
+    const M = T.map((_, i) => 1.5 * m[i] + 0.005 * g());
+    const a = fitWeissMT({ T, M }, { J: 0.5, start: [1.4, 620] });
+    const b = fitWeissMT({ T, M }, { J: 0.5, start: [1.4, 620], coarseAbove: Infinity });
+    expect(a.warnings.some(w => w.includes('coarse'))).toBe(true);
+    expect(Math.abs(a.values[1] - b.values[1])).toBeLessThan(0.01 * a.standardErrors[1]);
+  });
+
   it('validates inputs and estimates a sensible start', () => {
     expect(() => fitWeissMT({ T: [1, 2], M: [1, 1] }, { J: 0.5 })).toThrow(PhysicsInputError);
     expect(() => fitWeissMT({ T: [1, 2, NaN], M: [1, 1, 1] }, { J: 0.5 })).toThrow(PhysicsInputError);

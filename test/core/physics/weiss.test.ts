@@ -161,6 +161,18 @@ describe('Weiss mean field m(tau, h)', () => {
     expect(Math.abs(Math.sqrt(3 * 0.01) - 0.1732050808)).toBeLessThan(5e-11);
   });
 
+  it('specific-heat jump by finite differences of U = −(k/2) N kB Tc m² just below Tc (REFERENCE.md C3)', () => {
+    // [REFERENCE.md C3: "A finite-difference value of U(m(tau)) just below Tc reproduced these to about 5e-6"]
+    for (const J of JS) {
+      const k = J === Infinity ? 3 : (3 * J) / (J + 1);
+      const t1 = 0.999999;
+      const t2 = 0.999998;
+      const [m1, m2] = weissMagnetisation(J, [t1, t2]);
+      const C = (-(k / 2) * (m1 * m1 - m2 * m2)) / (t1 - t2);
+      expect(Math.abs(C - weissConstants(J).specificHeatJumpPerNkB)).toBeLessThan(2e-5);
+    }
+  });
+
   it('Arrott slope at Tc: h/m^3 tends to b_J (inverse isotherm at m = 1e-4)', () => {
     // [REFERENCE.md C3: "confirmed by inverting B_J at m = 1e-4"]
     for (const J of JS) {
