@@ -232,3 +232,29 @@ describe('Landau conventions', () => {
     expect(() => toGinzburgLandau(FIRST)).toThrow(PhysicsInputError);
   });
 });
+
+describe('Landau thermal response', () => {
+  it('C = T a² psi²/F″ reproduces the B3 closed forms', async () => {
+    const { landauThermal } = await import('../../../src/core/physics/index');
+    // second order: C just below T0 → T a²/(2b) (REFERENCE.md C5: dC = 6.25 at T0 = 100)
+    expect(rel(landauThermal(SECOND, 99.9999).specificHeat, (99.9999 * 0.25) / 4)).toBeLessThan(1e-12);
+    expect(landauThermal(SECOND, 100.5).specificHeat).toBe(0);
+    // tricritical: C = (T/4) sqrt(a³/(c (T0 − T))) (REFERENCE.md B3 iii)
+    const T = 97;
+    expect(rel(landauThermal(TRI, T).specificHeat, (T / 4) * Math.sqrt(0.125 / (4 * 3)))).toBeLessThan(1e-12);
+    // entropy S − S0 = −(a/2) psi²; latent heat at T1 = T1 ΔS (REFERENCE.md C5: 9.41015625)
+    const below = landauThermal(FIRST, 100.375 - 1e-12).entropy;
+    const above = landauThermal(FIRST, 100.375 + 1e-9).entropy;
+    expect(rel(100.375 * (above - below), 9.41015625)).toBeLessThan(1e-8);
+  });
+
+  it('Devonshire-convention coercive field (2√2/(3√3)) |alpha1|^(3/2)/√alpha11 (REFERENCE.md B12)', async () => {
+    const { devonshireCoerciveField, toConventionL } = await import('../../../src/core/physics/index');
+    const dv = { curieConstant: 1.2e5, T0: 400, alpha11: 3e8, alpha111: 0, eps0: 8.8541878128e-12 };
+    const L = toConventionL({ convention: 'devonshire', coefficients: dv });
+    const T = 350;
+    const alpha1 = (T - dv.T0) / (2 * dv.eps0 * dv.curieConstant);
+    const want = ((2 * Math.SQRT2) / (3 * Math.sqrt(3))) * Math.pow(Math.abs(alpha1), 1.5) / Math.sqrt(dv.alpha11);
+    expect(rel(devonshireCoerciveField(L, T).Ec, want)).toBeLessThan(1e-12);
+  });
+});

@@ -2,5 +2,6 @@
 export * from './conventions';
 export * from './free-energy';
 export * from './derived';
+export * from './thermal';
 export * from './paths';
 export * from './fit';
