@@ -1,0 +1,74 @@
+/**
+ * Runs ../shared/bench/reference_fits.py (SciPy / lmfit) when Debian's
+ * python3 has scipy and lmfit, and parses its JSON.
+ */
+import { spawnSync } from 'node:child_process';
+import * as path from 'node:path';
+
+export interface IBenchArgs {
+  repeats: number;
+  skipReference: boolean;
+  maxN: number;
+  jsonPart: string | null;
+}
+
+export function parseArgs(argv: string[]): IBenchArgs {
+  const out: IBenchArgs = { repeats: 5, skipReference: false, maxN: 0, jsonPart: null };
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === '--repeats') {
+      out.repeats = Math.max(1, Number(argv[++i]));
+    } else if (a === '--skip-reference') {
+      out.skipReference = true;
+    } else if (a === '--max-n') {
+      out.maxN = Number(argv[++i]);
+    } else if (a === '--json-part') {
+      out.jsonPart = argv[++i];
+    }
+  }
+  return out;
+}
+
+interface IRefFit {
+  method: string;
+  start?: number;
+  time_best_s: number | null;
+}
+
+export interface IReferenceDoc {
+  meta: unknown;
+  nist: { name: string; fits: IRefFit[] }[] | null;
+  synthetic:
+    | {
+        workload: string;
+        n: number;
+        data_sha256: { T: string; y: string };
+        dumped_files?: string[];
+        fits: IRefFit[];
+      }[]
+    | null;
+}
+
+const PYTHON = '/usr/bin/python3';
+
+/** Runs the reference script, dumping synthetic data to `dumpDir`; null when unavailable. */
+export function referenceJson(shared: string, dumpDir: string, args: IBenchArgs): IReferenceDoc | null {
+  const script = path.join(shared, 'bench', 'reference_fits.py');
+  const probe = spawnSync(PYTHON, ['-c', 'import numpy, scipy, lmfit'], { encoding: 'utf8' });
+  if (probe.status !== 0) {
+    console.log('python3-scipy / python3-lmfit not installed: reference run skipped, no ratios');
+    return null;
+  }
+  const cmd = [script, '--dump-synthetic', dumpDir, '--repeats', String(args.repeats)];
+  if (args.maxN) {
+    cmd.push('--max-n', String(args.maxN));
+  }
+  console.log(`running ${PYTHON} ${cmd.join(' ')} …`);
+  const run = spawnSync(PYTHON, cmd, { encoding: 'utf8', maxBuffer: 1 << 30 });
+  if (run.status !== 0) {
+    console.log(`reference run failed (status ${run.status}): ${run.stderr.slice(-2000)}`);
+    return null;
+  }
+  console.log(run.stderr);
+  return JSON.parse(run.stdout) as IReferenceDoc;
+}
