@@ -7,12 +7,13 @@
  *   --reference-json FILE   use SciPy results already produced by reference_fits.py in this run
  *   --synthetic-dir DIR     directory of the dumped float64 files (default: a fresh temp dir)
  *   --repeats N             best of N (default 7)
+ *   --json-part FILE        also write the figures as JSON (used by scripts/bench.mjs --json)
  * Without --reference-json the script runs reference_fits.py itself
  * (/usr/bin/python3, --skip-nist --max-n 10000) when numpy/scipy are present;
  * otherwise it prints our absolute time only and reports the ratio as unavailable.
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fitWeissMT } from '../src/core/physics/index';
@@ -145,6 +146,25 @@ export function runPhysicsBench(): boolean | null {
   }
   const ratio = best / scipyBest;
   const ok = ratio <= TARGET_RATIO;
+  const jsonPart = arg('--json-part');
+  if (jsonPart) {
+    writeFileSync(
+      jsonPart,
+      JSON.stringify({
+        workload: 'weiss_mean_field_spin_half',
+        n: T.length,
+        psiscapeBestMs: best,
+        scipyBestMs: scipyBest,
+        ratio,
+        target: TARGET_RATIO,
+        pass: ok,
+        Ms: [res.values[0], res.standardErrors[0]],
+        Tc: [res.values[1], res.standardErrors[1]],
+        iterations: res.iterations,
+        source: ref.note
+      })
+    );
+  }
   console.log(`physics.bench: ratio psiscape / fastest SciPy = ${ratio.toFixed(4)} (target ≤ ${TARGET_RATIO}) ${ok ? 'PASS' : 'FAIL'} [${ref.note}]`);
   return ok;
 }
