@@ -40,6 +40,8 @@ export default tseslint.config(
         { selector: 'interface', format: ['PascalCase'], custom: { regex: '^I[A-Z]', match: true } }
       ],
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_' }],
+      // JupyterLab's convention: a namespace named after a class holds its IOptions.
+      '@typescript-eslint/no-namespace': 'off',
       curly: ['error', 'all'],
       eqeqeq: ['error', 'smart']
     }

@@ -1,0 +1,128 @@
+/**
+ * The commands psiscape adds: analyse the table output under the context
+ * menu, or the first table output of the selected cell.
+ */
+import type { JupyterFrontEnd } from '@jupyterlab/application';
+import type { INotebookTracker, NotebookPanel } from '@jupyterlab/notebook';
+import type { ITranslator } from '@jupyterlab/translation';
+import { parseOutput } from '../core/table';
+import type { ParseResult } from '../core/table';
+import { hashBundle } from '../core/source';
+import type { ITableSource } from '../core/source';
+import { AnalysisPanel } from '../ui/analysis-panel';
+import type { ILocatedOutput } from './locate';
+import { locateOutputNode, outputAt, outputCount } from './locate';
+import { revealCell } from './reveal';
+
+/** Command ids. */
+export namespace CommandIDs {
+  export const analyseOutput = 'psiscape:analyse-output';
+  export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
+}
+
+/** What the commands need from the application. */
+export interface ICommandContext {
+  app: JupyterFrontEnd;
+  tracker: INotebookTracker;
+  translator: ITranslator;
+  /** Current settings (read on every use so changes apply at once). */
+  settings: () => { pointSize: number; placement: 'split-right' | 'tab-after' };
+}
+
+/** Register the commands; returns the panels opened so far, for tests. */
+export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[] } {
+  const { app, tracker, translator } = ctx;
+  const trans = translator.load('jupyterlab_psiscape');
+  const opened: AnalysisPanel[] = [];
+
+  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult): AnalysisPanel => {
+    const source: ITableSource | null = located
+      ? {
+          notebookPath: panel.context.path,
+          cellId: located.cell.model.id,
+          outputIndex: located.outputIndex,
+          contentHash: hashBundle(located.bundle)
+        }
+      : null;
+    const cellIndex = located ? located.cellIndex : panel.content.activeCellIndex;
+    const sourceLabel = located
+      ? trans.__('%1 · cell %2 · output %3', panel.context.path, cellIndex + 1, located.outputIndex + 1)
+      : trans.__('%1 · cell %2', panel.context.path, cellIndex + 1);
+    const cellId = source?.cellId ?? panel.content.widgets[cellIndex]?.model.id ?? '';
+    const widget = new AnalysisPanel({
+      parse,
+      notebookName: panel.title.label || panel.context.path,
+      sourceLabel,
+      pointSize: ctx.settings().pointSize,
+      translator,
+      onRevealSource: async () => {
+        await revealCell(app, tracker, panel.context.path, cellId);
+      }
+    });
+    const previous = opened.filter(p => !p.isDisposed).pop();
+    const placement = ctx.settings().placement;
+    if (previous && placement === 'tab-after') {
+      app.shell.add(widget, 'main', { mode: 'tab-after', ref: previous.id });
+    } else {
+      app.shell.add(widget, 'main', { mode: 'split-right', ref: panel.id });
+    }
+    app.shell.activateById(widget.id);
+    opened.push(widget);
+    return widget;
+  };
+
+  app.commands.addCommand(CommandIDs.analyseOutput, {
+    label: trans.__('Analyse This Table with psiscape'),
+    caption: trans.__('Open the table shown in this output in a psiscape analysis panel'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => tracker.currentWidget !== null,
+    execute: () => {
+      const node = app.contextMenuHitTest(n => n.classList.contains('jp-OutputArea-child'));
+      const located = node ? locateOutputNode(tracker, node) : null;
+      if (!located) {
+        const panel = tracker.currentWidget;
+        if (panel) {
+          open(panel, null, { ok: false, message: trans.__('No cell output was found under the pointer.') });
+        }
+        return;
+      }
+      open(located.panel, located, parseOutput(located.bundle));
+    }
+  });
+
+  app.commands.addCommand(CommandIDs.analyseSelectedCell, {
+    label: trans.__('Analyse Table in Selected Cell'),
+    caption: trans.__('Open the first table output of the selected cell in a psiscape analysis panel'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => tracker.currentWidget !== null && tracker.activeCell !== null,
+    execute: () => {
+      const panel = tracker.currentWidget;
+      if (!panel) {
+        return;
+      }
+      const cellIndex = panel.content.activeCellIndex;
+      const cell = panel.content.widgets[cellIndex];
+      const count = cell ? outputCount(cell) : 0;
+      let firstFailure: ParseResult | null = null;
+      for (let i = 0; i < count; i++) {
+        const located = outputAt(panel, cellIndex, i);
+        if (!located) {
+          continue;
+        }
+        const parse = parseOutput(located.bundle);
+        if (parse.ok) {
+          open(panel, located, parse);
+          return;
+        }
+        firstFailure = firstFailure ?? parse;
+      }
+      const message =
+        count === 0
+          ? trans.__('The selected cell has no output, so it holds no table. Run the cell first.')
+          : trans.__('No output of the selected cell holds a table. %1', firstFailure && !firstFailure.ok ? firstFailure.message : '');
+      open(panel, null, { ok: false, message });
+    }
+  });
+
+  return { panels: opened };
+}

@@ -1,0 +1,56 @@
+/**
+ * psiscape's JupyterLab plugin: wiring only. Commands live in commands.ts,
+ * widgets in src/ui, numerics in src/core.
+ *
+ * @packageDocumentation
+ */
+import type { JupyterFrontEnd, JupyterFrontEndPlugin } from '@jupyterlab/application';
+import { ICommandPalette, IThemeManager } from '@jupyterlab/apputils';
+import { INotebookTracker } from '@jupyterlab/notebook';
+import { ISettingRegistry } from '@jupyterlab/settingregistry';
+import { ITranslator, nullTranslator } from '@jupyterlab/translation';
+import { CommandIDs, registerCommands } from './commands';
+import { readSettings } from './settings';
+
+/** Plugin id; also the settings schema id (schema/plugin.json). */
+export const PLUGIN_ID = 'jupyterlab-psiscape:plugin';
+
+const plugin: JupyterFrontEndPlugin<void> = {
+  id: PLUGIN_ID,
+  description: 'Analyse tables from notebook outputs: order-parameter charts and phase-transition fits.',
+  autoStart: true,
+  requires: [INotebookTracker, ISettingRegistry],
+  optional: [ITranslator, ICommandPalette, IThemeManager],
+  activate: async (
+    app: JupyterFrontEnd,
+    tracker: INotebookTracker,
+    settingRegistry: ISettingRegistry,
+    translator: ITranslator | null,
+    palette: ICommandPalette | null,
+    themeManager: IThemeManager | null
+  ): Promise<void> => {
+    const trans = (translator ?? nullTranslator).load('jupyterlab_psiscape');
+    const settings = await settingRegistry.load(PLUGIN_ID);
+    let current = readSettings(settings.composite);
+    settings.changed.connect(() => {
+      current = readSettings(settings.composite);
+    });
+    const { panels } = registerCommands({
+      app,
+      tracker,
+      translator: translator ?? nullTranslator,
+      settings: () => current
+    });
+    if (palette) {
+      palette.addItem({ command: CommandIDs.analyseSelectedCell, category: trans.__('psiscape') });
+    }
+    if (themeManager) {
+      themeManager.themeChanged.connect(() => {
+        // Let the new theme's CSS variables apply before reading them.
+        requestAnimationFrame(() => panels.filter(p => !p.isDisposed).forEach(p => p.redraw()));
+      });
+    }
+  }
+};
+
+export default [plugin];

@@ -1,0 +1,29 @@
+/**
+ * Typed view of the user settings. Defaults live only in schema/plugin.json;
+ * the setting registry fills them in, and this module only checks the types.
+ */
+
+/** psiscape's user settings. */
+export interface IPsiscapeSettings {
+  /** Area of a data point in px². */
+  pointSize: number;
+  /** Where a new analysis panel opens: split beside the notebook, or as a tab after the previous panel. */
+  placement: 'split-right' | 'tab-after';
+}
+
+/**
+ * Settings from the registry's composite (user values over schema defaults).
+ *
+ * @throws TypeError naming the setting when a value has the wrong type, which
+ * means the composite did not come from a registry that validated it.
+ */
+export function readSettings(composite: Readonly<Record<string, unknown>>): IPsiscapeSettings {
+  const { pointSize, placement } = composite;
+  if (typeof pointSize !== 'number' || !Number.isFinite(pointSize)) {
+    throw new TypeError(`setting "pointSize" must be a finite number, got ${JSON.stringify(pointSize)}`);
+  }
+  if (placement !== 'split-right' && placement !== 'tab-after') {
+    throw new TypeError(`setting "placement" must be "split-right" or "tab-after", got ${JSON.stringify(placement)}`);
+  }
+  return { pointSize, placement };
+}

@@ -1,0 +1,250 @@
+/**
+ * The analysis panel docked beside a notebook: it names the table's source
+ * cell (with a control that selects it), lets the user choose x and y columns
+ * and draws them. Anything unusable is a message in the panel.
+ */
+import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
+import { Panel, Widget } from '@lumino/widgets';
+import { buildScatterSpec } from '../charts/scatter';
+import type { ParseResult, ITable } from '../core/table';
+import { ChartView } from './chart-view';
+import { readChartTheme } from './chart-theme';
+import type { IPlottableColumn } from './column-choice';
+import { defaultPair, plottableColumns } from './column-choice';
+
+let panelCount = 0;
+
+/** Panel showing one table taken from a notebook output. */
+export class AnalysisPanel extends Panel {
+  constructor(options: AnalysisPanel.IOptions) {
+    super();
+    this._trans = options.translator.load('jupyterlab_psiscape');
+    this._pointSize = options.pointSize;
+    this._onRevealSource = options.onRevealSource;
+    this.id = `jp-psiscape-analysis-${++panelCount}`;
+    this.addClass('jp-psiscape-AnalysisPanel');
+    this.node.setAttribute('role', 'region');
+    this.node.setAttribute('aria-label', this._trans.__('Table analysis'));
+    this.title.label = this._trans.__('Analysis: %1', options.notebookName);
+    this.title.caption = options.sourceLabel;
+    this.title.closable = true;
+
+    this._header = new Widget({ node: this._buildHeader(options.sourceLabel) });
+    this._header.addClass('jp-psiscape-AnalysisPanel-header');
+    this._notes = new Widget();
+    this._notes.addClass('jp-psiscape-AnalysisPanel-notes');
+    this._controls = new Widget({ node: this._buildControls() });
+    this._controls.addClass('jp-psiscape-AnalysisPanel-controls');
+    this._chart = new ChartView();
+    this._status = new Widget();
+    this._status.addClass('jp-psiscape-AnalysisPanel-status');
+    this._status.node.setAttribute('aria-live', 'polite');
+    this._message = new Widget();
+    this._message.addClass('jp-psiscape-AnalysisPanel-message');
+    this._message.node.setAttribute('role', 'alert');
+
+    for (const w of [this._header, this._message, this._notes, this._controls, this._chart, this._status]) {
+      this.addWidget(w);
+    }
+    this.setParseResult(options.parse);
+  }
+
+  /** The table on display, or null when the output held none. */
+  get table(): ITable | null {
+    return this._table;
+  }
+
+  /** Indices (into the table's columns) of the plotted x and y columns. */
+  get selection(): { x: number; y: number } | null {
+    return this._selection;
+  }
+
+  /** The chart widget (for tests and for overlays). */
+  get chart(): ChartView {
+    return this._chart;
+  }
+
+  /** Resolves when the latest chart has been drawn. */
+  get rendered(): Promise<void> {
+    return this._rendered;
+  }
+
+  /** Show a new parse result (a table or a message). */
+  setParseResult(result: ParseResult): void {
+    if (!result.ok) {
+      this._table = null;
+      this._selection = null;
+      this._showMessage(result.message);
+      return;
+    }
+    const table = result.table;
+    const columns = plottableColumns(table);
+    const pair = defaultPair(columns);
+    if (!pair) {
+      this._table = table;
+      this._selection = null;
+      this._showMessage(
+        this._trans.__('This table has fewer than two numeric columns, so there is nothing to plot.')
+      );
+      return;
+    }
+    this._table = table;
+    this._columns = columns;
+    this._message.node.textContent = '';
+    this._message.hide();
+    this._controls.show();
+    this._chart.show();
+    this._renderNotes(table);
+    this._fillPickers(columns, pair);
+    this.select(pair.x, pair.y);
+  }
+
+  /**
+   * Plot column `y` against column `x` (indices into the table's columns).
+   *
+   * @throws RangeError when either column is not numeric.
+   */
+  select(x: number, y: number): Promise<void> {
+    const table = this._table;
+    const cx = this._columns.find(c => c.index === x);
+    const cy = this._columns.find(c => c.index === y);
+    if (!table || !cx || !cy) {
+      throw new RangeError(`columns ${x} and ${y} are not both numeric columns of the table`);
+    }
+    this._selection = { x, y };
+    this._xSelect.value = String(x);
+    this._ySelect.value = String(y);
+    const { spec, plotted, skipped } = buildScatterSpec({
+      x: cx.column.values as Float64Array,
+      y: cy.column.values as Float64Array,
+      xTitle: cx.label,
+      yTitle: cy.label,
+      pointSize: this._pointSize,
+      theme: readChartTheme(this.node)
+    });
+    this._status.node.textContent =
+      skipped > 0
+        ? this._trans.__('%1 points plotted; %2 rows left out (missing or infinite values).', plotted, skipped)
+        : this._trans._n('%1 point plotted.', '%1 points plotted.', plotted);
+    this._rendered = this._chart
+      .render(spec, this._trans.__('Scatter of %1 against %2', cy.label, cx.label))
+      .catch(reason => {
+        this._showMessage(this._trans.__('The chart could not be drawn: %1', String(reason)));
+      });
+    return this._rendered;
+  }
+
+  /** Redraw with the current selection (after a theme change, say). */
+  redraw(): void {
+    if (this._selection) {
+      void this.select(this._selection.x, this._selection.y);
+    }
+  }
+
+  private _showMessage(text: string): void {
+    this._message.node.textContent = text;
+    this._message.show();
+    this._controls.hide();
+    this._chart.clear();
+    this._chart.hide();
+    this._status.node.textContent = '';
+    this._notes.node.textContent = '';
+  }
+
+  private _renderNotes(table: ITable): void {
+    const list = document.createElement('ul');
+    for (const note of table.notes) {
+      const item = document.createElement('li');
+      item.className = `jp-psiscape-note jp-psiscape-note-${note.kind}`;
+      item.textContent = note.message;
+      list.appendChild(item);
+    }
+    this._notes.node.replaceChildren(...(table.notes.length ? [list] : []));
+  }
+
+  private _buildHeader(sourceLabel: string): HTMLElement {
+    const node = document.createElement('div');
+    const label = document.createElement('span');
+    label.className = 'jp-psiscape-AnalysisPanel-source';
+    label.textContent = sourceLabel;
+    const button = document.createElement('button');
+    button.type = 'button';
+    button.className = 'jp-Button jp-mod-styled jp-mod-reject jp-psiscape-reveal';
+    button.textContent = this._trans.__('Show source cell');
+    button.title = this._trans.__('Select the notebook cell this table came from and scroll to it');
+    button.addEventListener('click', () => {
+      void this._onRevealSource();
+    });
+    node.append(label, button);
+    return node;
+  }
+
+  private _buildControls(): HTMLElement {
+    const node = document.createElement('div');
+    const make = (text: string, cls: string): HTMLSelectElement => {
+      const label = document.createElement('label');
+      label.className = 'jp-psiscape-picker';
+      const span = document.createElement('span');
+      span.textContent = text;
+      const select = document.createElement('select');
+      select.className = `jp-mod-styled ${cls}`;
+      select.addEventListener('change', () => {
+        void this.select(Number(this._xSelect.value), Number(this._ySelect.value));
+      });
+      label.append(span, select);
+      node.appendChild(label);
+      return select;
+    };
+    this._xSelect = make(this._trans.__('x axis'), 'jp-psiscape-x');
+    this._ySelect = make(this._trans.__('y axis'), 'jp-psiscape-y');
+    return node;
+  }
+
+  private _fillPickers(columns: IPlottableColumn[], pair: { x: number; y: number }): void {
+    for (const select of [this._xSelect, this._ySelect]) {
+      select.replaceChildren(
+        ...columns.map(c => {
+          const option = document.createElement('option');
+          option.value = String(c.index);
+          option.textContent = c.column.isIndex ? this._trans.__('%1 (index)', c.label) : c.label;
+          return option;
+        })
+      );
+    }
+    this._xSelect.value = String(pair.x);
+    this._ySelect.value = String(pair.y);
+  }
+
+  private _trans: TranslationBundle;
+  private _pointSize: number;
+  private _onRevealSource: () => void | Promise<void>;
+  private _header: Widget;
+  private _notes: Widget;
+  private _controls: Widget;
+  private _chart: ChartView;
+  private _status: Widget;
+  private _message: Widget;
+  private _xSelect!: HTMLSelectElement;
+  private _ySelect!: HTMLSelectElement;
+  private _table: ITable | null = null;
+  private _columns: IPlottableColumn[] = [];
+  private _selection: { x: number; y: number } | null = null;
+  private _rendered: Promise<void> = Promise.resolve();
+}
+
+/** Options of {@link AnalysisPanel}. */
+export namespace AnalysisPanel {
+  export interface IOptions {
+    /** Result of parsing the source output. */
+    parse: ParseResult;
+    /** Short notebook name for the tab title. */
+    notebookName: string;
+    /** Human-readable origin, e.g. "am17-demo.ipynb · cell 3 · output 1". */
+    sourceLabel: string;
+    /** Point area in px² (from settings). */
+    pointSize: number;
+    translator: ITranslator;
+    /** Select and scroll to the source cell. */
+    onRevealSource: () => void | Promise<void>;
+  }
+}

@@ -1,0 +1,43 @@
+/**
+ * Which columns of a table can be plotted, and the default x/y pair.
+ */
+import type { IColumn, ITable } from '../core/table';
+
+/** A plottable (numeric) column and its position in the table. */
+export interface IPlottableColumn {
+  index: number;
+  column: IColumn;
+  /** Header with unit, as shown on axes and in pickers. */
+  label: string;
+}
+
+/** Axis label of a column: its name with the unit in parentheses when known. */
+export function columnLabel(column: IColumn): string {
+  return column.unit ? `${column.name} (${column.unit})` : column.name;
+}
+
+/** Numeric columns of a table, in table order. */
+export function plottableColumns(table: ITable): IPlottableColumn[] {
+  const out: IPlottableColumn[] = [];
+  table.columns.forEach((column, index) => {
+    if (column.kind === 'number') {
+      out.push({ index, column, label: columnLabel(column) });
+    }
+  });
+  return out;
+}
+
+/**
+ * Default pair: x is the first numeric data column, y the next one. Index
+ * columns are used only when there are not enough data columns.
+ *
+ * @returns null when fewer than two numeric columns exist.
+ */
+export function defaultPair(columns: IPlottableColumn[]): { x: number; y: number } | null {
+  if (columns.length < 2) {
+    return null;
+  }
+  const data = columns.filter(c => !c.column.isIndex);
+  const pool = data.length >= 2 ? data : columns;
+  return { x: pool[0].index, y: pool[1].index };
+}

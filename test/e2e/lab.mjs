@@ -1,0 +1,47 @@
+// Helpers shared by the end-to-end tests: serve the demo lab, open it, and
+// reach JupyterLab objects through the page.
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { serve } from '../../demo/serve.mjs';
+import { launch } from './browser.mjs';
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+export const root = path.resolve(here, '..', '..');
+export const shotsDir = path.join(root, 'test-results', 'screenshots');
+
+/** Serve demo/dist on a free loopback port. */
+export async function startServer() {
+  const server = await serve({ root: path.join(root, 'demo', 'dist'), host: '127.0.0.1', port: 0 });
+  const { port } = server.address();
+  return { server, url: `http://127.0.0.1:${port}` };
+}
+
+/** Open the demo lab in a fresh browser profile and wait for the demo notebook. */
+export async function openLab(baseUrl, { colorScheme = 'light' } = {}) {
+  const browser = await launch({ colorScheme });
+  const page = browser.context.pages()[0] ?? (await browser.context.newPage());
+  const errors = [];
+  page.on('pageerror', e => errors.push(String(e)));
+  await page.goto(`${baseUrl}/lab/index.html`);
+  await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
+  await page.waitForSelector('.jp-Notebook .jp-OutputArea-output table.dataframe', { timeout: 60000 });
+  return { browser, page, errors };
+}
+
+/** Write a screenshot to the git-ignored results folder and return its path. */
+export async function screenshot(page, name) {
+  fs.mkdirSync(shotsDir, { recursive: true });
+  const file = path.join(shotsDir, `${name}.png`);
+  await page.screenshot({ path: file });
+  return file;
+}
+
+/** Right-click an element and choose a context-menu entry by its label. */
+export async function contextMenu(page, locator, label) {
+  await locator.scrollIntoViewIfNeeded();
+  await locator.click({ button: 'right' });
+  const item = page.locator('.lm-Menu-item', { hasText: label });
+  await item.first().waitFor({ timeout: 10000 });
+  await item.first().click();
+}

@@ -1,0 +1,23 @@
+#!/usr/bin/env node
+// End-to-end suite: builds what is missing, then runs every *.e2e.mjs file with
+// node's test runner against the built demo lab in Debian's Chromium.
+import { execFileSync, spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { requireChromium } from './browser.mjs';
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const root = path.resolve(here, '..', '..');
+requireChromium();
+
+const pkg = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8'));
+if (!fs.existsSync(path.join(root, pkg.jupyterlab.outputDir, 'package.json')) || process.env.CI) {
+  execFileSync('npm', ['run', 'build'], { stdio: 'inherit', cwd: root });
+}
+const { buildDemo } = await import('../../demo/build.mjs');
+buildDemo();
+
+const files = fs.readdirSync(here).filter(f => f.endsWith('.e2e.mjs')).map(f => path.join(here, f));
+const result = spawnSync(process.execPath, ['--test', '--test-concurrency=1', ...files], { stdio: 'inherit', cwd: root });
+process.exit(result.status ?? 1);
