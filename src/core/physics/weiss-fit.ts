@@ -45,12 +45,12 @@ export interface IWeissMTOptions {
   /** Starting values [Ms, Tc] (estimated from the data when absent). */
   start?: [number, number];
   /**
-   * Above this many points, first fit an evenly thinned subset of about
-   * `coarsePoints` points and start the full fit from its solution
+   * Above this many points, first fit about `coarsePoints` block means of the
+   * T-sorted data and start the full fit from that solution
    * (default 2000; `Infinity` disables the coarse stage).
    */
   coarseAbove?: number;
-  /** Size of the thinned subset of the coarse stage (default 400). */
+  /** Number of block means in the coarse stage (default 400). */
   coarsePoints?: number;
   /** Extra engine options (bounds, callbacks, confidence level …). */
   engine?: Partial<IFitOptions>;
@@ -86,6 +86,44 @@ export function estimateWeissStart(T: ArrayLike<number>, M: ArrayLike<number>): 
     }
   }
   return [Mmax * 1.05, Tc * 1.02];
+}
+
+/** Means of consecutive blocks of T-sorted points (σ of a mean: √Σσ²/k). */
+function coarseBlocks(
+  T: ArrayLike<number>,
+  M: ArrayLike<number>,
+  sigma: ArrayLike<number> | undefined,
+  blocks: number
+): { T: Float64Array; M: Float64Array; sigma?: Float64Array } {
+  const n = T.length;
+  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => T[a] - T[b]);
+  const size = Math.max(1, Math.floor(n / Math.max(1, blocks)));
+  const count = Math.ceil(n / size);
+  const bT = new Float64Array(count);
+  const bM = new Float64Array(count);
+  const bS = sigma ? new Float64Array(count) : undefined;
+  for (let b = 0; b < count; b++) {
+    const lo = b * size;
+    const hi = Math.min(n, lo + size);
+    let st = 0;
+    let sm = 0;
+    let ss = 0;
+    for (let j = lo; j < hi; j++) {
+      const i = order[j];
+      st += T[i];
+      sm += M[i];
+      if (sigma) {
+        ss += sigma[i] * sigma[i];
+      }
+    }
+    const k = hi - lo;
+    bT[b] = st / k;
+    bM[b] = sm / k;
+    if (bS) {
+      bS[b] = Math.sqrt(ss) / k;
+    }
+  }
+  return { T: bT, M: bM, sigma: bS };
 }
 
 /** The M(T) model as an engine model (parameters Ms, Tc[, J]). */
@@ -177,24 +215,18 @@ export function fitWeissMT(
   const coarseAbove = options.coarseAbove ?? 2000;
   let coarseNote: string | null = null;
   if (n > coarseAbove) {
-    // coarse stage: same model on an evenly thinned subset (cheap iterations far from the optimum)
-    const step = Math.max(1, Math.floor(n / (options.coarsePoints ?? 400)));
-    const idx: number[] = [];
-    for (let i = 0; i < n; i += step) {
-      idx.push(i);
-    }
+    // coarse stage: the same model fitted to block means of T-sorted data (about
+    // `coarsePoints` blocks). Block means keep nearly all the information, so the
+    // full fit starts close to its optimum and needs only a few expensive iterations.
+    const blocks = coarseBlocks(data.T, data.M, data.sigma, options.coarsePoints ?? 400);
     const coarse = fitCurve(
       weissMTModel(options.J, fitJ, field, options.momentBohr ?? 0),
-      {
-        x: Float64Array.from(idx, i => data.T[i]),
-        y: idx.map(i => data.M[i]),
-        sigma: data.sigma ? idx.map(i => (data.sigma as ArrayLike<number>)[i]) : undefined
-      },
+      { x: blocks.T, y: blocks.M, sigma: blocks.sigma },
       { ...WEISS_TOLERANCES, lower, upper, ...options.engine, onProgress: undefined, start }
     );
     if (coarse.values.every(Number.isFinite) && Number.isFinite(coarse.chi2)) {
       start = coarse.values.slice();
-      coarseNote = `started from a coarse fit of ${idx.length} evenly thinned points (${coarse.iterations} iterations, ${coarse.reason})`;
+      coarseNote = `started from a coarse fit of ${blocks.T.length} block means of the T-sorted data (${coarse.iterations} iterations, ${coarse.reason})`;
     }
   }
   const res = fitCurve(model, { x: Float64Array.from(data.T), y: data.M, sigma: data.sigma }, { ...WEISS_TOLERANCES, lower, upper, ...options.engine, start });
