@@ -14,7 +14,7 @@ import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import type { IColumn, ITable, ITableNote } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
 
-const CHUNK_CHARS = 1 << 22;
+const CHUNK_CHARS = 1 << 16;
 
 /** Float64Array that grows by doubling. */
 class GrowingFloats {
