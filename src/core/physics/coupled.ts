@@ -8,6 +8,10 @@
  */
 import { PhysicsInputError, requireFinite } from './errors';
 
+/** Convention tag stored with coupled-order-parameter results. */
+export const COUPLED_CONVENTION =
+  'F = (a1/2)(T - T1)psi^2 + (b1/4)psi^4 + (a2/2)(T - T2)phi^2 + (b2/4)phi^4 + (lambda/2)psi^2 phi^2';
+
 /** Coefficients of the coupled free energy. */
 export interface ICoupledCoefficients {
   a1: number;
@@ -45,7 +49,10 @@ function validate(k: ICoupledCoefficients): void {
 }
 
 /** All phases that exist at T, and the equilibrium (lowest F). */
-export function coupledPhases(k: ICoupledCoefficients, T: number): { states: ICoupledPhaseState[]; equilibrium: ICoupledPhaseState } {
+export function coupledPhases(
+  k: ICoupledCoefficients,
+  T: number
+): { states: ICoupledPhaseState[]; equilibrium: ICoupledPhaseState; convention: string } {
   validate(k);
   requireFinite('T', T);
   const A1 = k.a1 * (T - k.T1);
@@ -75,7 +82,7 @@ export function coupledPhases(k: ICoupledCoefficients, T: number): { states: ICo
       eq = s;
     }
   }
-  return { states, equilibrium: eq };
+  return { states, equilibrium: eq, convention: COUPLED_CONVENTION };
 }
 
 /** A boundary between equilibrium phases. */

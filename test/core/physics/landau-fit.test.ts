@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fitLandau, landauEquilibriumPsi, landauEquilibrium, PhysicsInputError } from '../../../src/core/physics/index';
+import { fitLandau, fromConventionL, landauEquilibriumPsi, landauEquilibrium, PhysicsInputError } from '../../../src/core/physics/index';
 import type { ILandauCoefficients } from '../../../src/core/physics/index';
 import { normal } from './prng';
 
@@ -72,5 +72,27 @@ describe('Landau coefficient fits (convention L)', () => {
     expect(() => fitLandau({ psi: { T: [1, 2, 3, NaN], y: [1, 0, 0, 0] } }, { start: { a: 1, b: 1, c: 0, T0: 4 } })).toThrow(
       PhysicsInputError
     );
+  });
+});
+
+describe('Landau fit reporting in another convention', () => {
+  it('re-expresses the fitted coefficients in the "no fractions" form', () => {
+    const truth = { a: 0.5, b: 2, c: 0, T0: 100 };
+    const T = grid(85, 99.5, 40);
+    const g = normal(29);
+    const y = T.map(t => landauEquilibriumPsi(truth, t) + 0.002 * g());
+    const r = fitLandau({ psi: { T, y } }, { start: { a: 0.5, b: 1.5, c: 0, T0: 99 }, sextic: false, reportIn: 'no-fractions' });
+    expect(r.converted?.convention).toBe('no-fractions');
+    if (r.converted?.convention === 'no-fractions') {
+      expect(r.converted.coefficients.B).toBeCloseTo(r.values[2] / 4, 15);
+      expect(r.converted.coefficients.A).toBeCloseTo(r.values[0] / 2, 15);
+    }
+    // a sextic term cannot be written in the Ginzburg–Landau form: flagged, not silently dropped
+    const y6 = T.map(t => landauEquilibriumPsi({ a: 0.5, b: 0.5, c: 2, T0: 100 }, t) + 0.002 * g());
+    const gl = fitLandau({ psi: { T, y: y6 } }, { start: { a: 0.5, b: 0.4, c: 1.5, T0: 99.5 }, reportIn: 'ginzburg-landau' });
+    expect(gl.values[3]).toBeGreaterThan(0.5);
+    expect(gl.converted).toBeNull();
+    expect(gl.warnings.some(w => w.includes('cannot express'))).toBe(true);
+    expect(() => fromConventionL({ a: 1, b: 1, c: 1, T0: 0 }, 'ginzburg-landau')).toThrow(PhysicsInputError);
   });
 });

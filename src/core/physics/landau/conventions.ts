@@ -105,6 +105,22 @@ export function toGinzburgLandau(k: ILandauCoefficients): IGinzburgLandauCoeffic
   return { alphaPrime: k.a / 2, Tc: k.T0, beta: k.b / 2 };
 }
 
+/** Expresses convention-L coefficients in the requested convention (tagged). */
+export function fromConventionL(k: ILandauCoefficients, convention: LandauConvention, eps0: number = PHYS.eps0): AnyLandauCoefficients {
+  switch (convention) {
+    case 'L':
+      return { convention, coefficients: { ...k, d: k.d ?? 0 } };
+    case 'no-fractions':
+      return { convention, coefficients: toNoFractions(k) };
+    case 'devonshire':
+      return { convention, coefficients: toDevonshire(k, eps0) };
+    case 'ginzburg-landau':
+      return { convention, coefficients: toGinzburgLandau(k) };
+    default:
+      throw new PhysicsInputError(`unknown Landau convention ${String(convention)}`);
+  }
+}
+
 /**
  * Validates convention-L coefficients: finite, a > 0, and F bounded below
  * (c > 0, or c = 0 with b > 0).

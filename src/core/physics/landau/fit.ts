@@ -10,7 +10,8 @@
 import { fitCurve } from '../../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
 import { PhysicsInputError } from '../errors';
-import type { ILandauCoefficients } from './conventions';
+import type { AnyLandauCoefficients, ILandauCoefficients, LandauConvention } from './conventions';
+import { fromConventionL } from './conventions';
 
 /** ψ_eq(T) ≥ 0 at h = 0 in closed form (d = 0); NaN for an unbounded F. */
 export function landauEquilibriumPsi(k: ILandauCoefficients, T: number): number {
@@ -48,6 +49,8 @@ export interface ILandauFitResult extends IFitResult {
   coefficients: ILandauCoefficients;
   /** True when only ψ(T) was given and `a` was held fixed. */
   scaleFixed: boolean;
+  /** The fitted coefficients re-expressed in `reportIn` (when requested and representable). */
+  converted: AnyLandauCoefficients | null;
 }
 
 /**
@@ -56,7 +59,13 @@ export interface ILandauFitResult extends IFitResult {
  */
 export function fitLandau(
   data: ILandauFitData,
-  options: { start: ILandauCoefficients; sextic?: boolean; engine?: Partial<IFitOptions> }
+  options: {
+    start: ILandauCoefficients;
+    sextic?: boolean;
+    /** Also report the result in this convention (the fit itself is always done in L). */
+    reportIn?: LandauConvention;
+    engine?: Partial<IFitOptions>;
+  }
 ): ILandauFitResult {
   const kinds: number[] = [];
   const Ts: number[] = [];
@@ -126,11 +135,14 @@ export function fitLandau(
   if (!joint) {
     warnings.push('only psi(T) given: a held at its start value; T0, b/a and c/a are determined, the overall scale is not');
   }
-  return {
-    ...res,
-    warnings,
-    convention: 'L',
-    coefficients: { a: res.values[0], T0: res.values[1], b: res.values[2], c: res.values[3], d: 0 },
-    scaleFixed: !joint
-  };
+  const coefficients: ILandauCoefficients = { a: res.values[0], T0: res.values[1], b: res.values[2], c: res.values[3], d: 0 };
+  let converted: AnyLandauCoefficients | null = null;
+  if (options.reportIn !== undefined) {
+    try {
+      converted = fromConventionL(coefficients, options.reportIn);
+    } catch (e) {
+      warnings.push(`cannot express the result in convention ${options.reportIn}: ${(e as Error).message}`);
+    }
+  }
+  return { ...res, warnings, convention: 'L', coefficients, scaleFixed: !joint, converted };
 }

@@ -5,7 +5,7 @@
  * until that branch ends (saddle-node), then jumps. Heating and cooling
  * sweeps in T give thermal hysteresis; sweeps in h give P–E / M–H loops.
  */
-import { requireFinite } from '../errors';
+import { PhysicsInputError, requireFinite } from '../errors';
 import type { ILandauCoefficients } from './conventions';
 import { validateLandau } from './conventions';
 import type { IStationaryResult, StationaryKind } from './free-energy';
@@ -92,7 +92,7 @@ export function followPath(
 ): ILandauPath {
   validateLandau(k);
   if (T.length !== h.length) {
-    throw new RangeError(`T and h must have equal lengths (${T.length} vs ${h.length})`);
+    throw new PhysicsInputError(`T and h must have equal lengths (${T.length} vs ${h.length})`);
   }
   const points: IPathPoint[] = [];
   const jumps: IPathJump[] = [];
@@ -120,8 +120,8 @@ export function followPath(
 
 /** Evenly spaced values from `from` to `to` inclusive. */
 export function linspace(from: number, to: number, n: number): number[] {
-  if (!(n >= 2)) {
-    throw new RangeError(`n must be >= 2, got ${n}`);
+  if (!(n >= 2) || !Number.isInteger(n) || !Number.isFinite(from) || !Number.isFinite(to)) {
+    throw new PhysicsInputError(`need finite ends and an integer n >= 2, got (${from}, ${to}, ${n})`);
   }
   return Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
 }
