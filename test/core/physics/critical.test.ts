@@ -54,6 +54,19 @@ describe('critical power law fits', () => {
     expect(Math.abs(r.values[3] - 0.05)).toBeLessThan(3 * r.standardErrors[3]);
   });
 
+  it('data spanning Tc (tail on a background) with allowTcInsideData', () => {
+    const T = grid(240, 320, 300);
+    const g = normal(41);
+    const y = T.map(t => (t < 300 ? 0.9 * Math.pow(1 - t / 300, 0.36) : 0) + 0.02 + 0.003 * g());
+    const r = fitPowerLaw({ T, y }, { background: true, allowTcInsideData: true, start: { A: 1, Tc: 297, beta: 0.4, y0: 0 } });
+    expect(r.converged).toBe(true);
+    expect(Math.abs(r.values[1] - 300)).toBeLessThan(3 * r.standardErrors[1]);
+    expect(Math.abs(r.values[2] - 0.36)).toBeLessThan(3 * r.standardErrors[2]);
+    // by default Tc is kept above the highest data temperature
+    const d = fitPowerLaw({ T, y }, { background: true, start: { A: 1, Tc: 297, beta: 0.4, y0: 0 } });
+    expect(d.values[1]).toBeGreaterThan(320);
+  });
+
   it('analytic Jacobian matches finite differences', async () => {
     const { powerLawModel } = await import('../../../src/core/physics/critical/power-law');
     const m = powerLawModel({ background: true, wegnerDelta: 0.5, proxyPower: 2 });
