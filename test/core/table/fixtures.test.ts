@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { parseMime, parseOutput } from '../../../src/core/table/index';
+import { CSV_DISPLAY_SNIPPET } from '../../../src/core/table/notes';
 import type { IColumn, ITable } from '../../../src/core/table/index';
 
 interface IFixture {
@@ -24,7 +25,7 @@ interface IFixture {
 
 const DIR = join(__dirname, 'fixtures');
 const fixtures: IFixture[] = readdirSync(DIR)
-  .filter(f => f.endsWith('.json'))
+  .filter(f => f.endsWith('.json') && f !== 'display_snippet.json')
   .map(f => JSON.parse(readFileSync(join(DIR, f), 'utf8')) as IFixture);
 
 interface ITruth {
@@ -213,6 +214,30 @@ describe('infinities lost by pandas dataresource JSON are restored from the disp
       const x = r.table.columns.find(c => c.header === 'x')?.values as Float64Array;
       expect(Array.from(x)).toEqual([1.5, NaN, Infinity, -Infinity, 0.25]);
       expect(r.table.notes.some(n => n.kind === 'info' && n.message.includes('restored'))).toBe(true);
+    }
+  });
+});
+
+describe('the remedy snippet in the notes is the one IPython was seen to publish as text/csv', () => {
+  const check = JSON.parse(readFileSync(join(DIR, 'display_snippet.json'), 'utf8')) as {
+    snippet: string;
+    ipython_version: string;
+    published: Record<string, unknown>[];
+    csv: string;
+  };
+  it('same two lines as generate.py executed under IPython', () => {
+    expect(CSV_DISPLAY_SNIPPET).toBe(check.snippet);
+    expect(check.published).toHaveLength(1);
+    expect(Object.keys(check.published[0])).toEqual(['text/csv']);
+  });
+  it('what it published parses at full precision', () => {
+    const r = parseOutput(check.published[0]);
+    expect(r.ok).toBe(true);
+    if (r.ok) {
+      expect(r.table.format).toBe('csv');
+      expect(r.table.notes).toEqual([]);
+      const third = r.table.columns.find(c => c.header === 'third')?.values as Float64Array;
+      expect(Array.from(third)).toEqual([1 / 3, 2 / 3, 1 / 7]);
     }
   });
 });
