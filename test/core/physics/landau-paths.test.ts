@@ -55,6 +55,13 @@ describe('Landau paths and hysteresis', () => {
       }
       expect(p.kind).toBe('stable');
     }
+    // the equilibrium (global) free energy is never above the occupied state of either sweep
+    hy.heating.points.forEach((p, i) => {
+      expect(hy.equilibrium[i].F).toBeLessThanOrEqual(p.F + 1e-15);
+      const c = hy.cooling.points[hy.cooling.points.length - 1 - i];
+      expect(c.T).toBeCloseTo(p.T, 12);
+      expect(hy.equilibrium[i].F).toBeLessThanOrEqual(c.F + 1e-15);
+    });
     // branches continuous away from the jumps
     expect(maxStepAwayFromJumps(hy.heating)).toBeLessThan(0.02);
     expect(maxStepAwayFromJumps(hy.cooling)).toBeLessThan(0.02);
