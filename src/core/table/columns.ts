@@ -133,7 +133,8 @@ export function displayedRounding(cells: readonly (string | null)[]): number | u
   let rounded = false;
   let maxDigits = 0;
   for (const c of cells) {
-    if (c === null || parseNumber(c) === undefined || !Number.isFinite(parseNumber(c))) {
+    const v = c === null ? undefined : parseNumber(c);
+    if (c === null || v === undefined || !Number.isFinite(v)) {
       continue;
     }
     if (decimalsShown(c) >= PANDAS_DISPLAY_PRECISION) {

@@ -11,6 +11,7 @@
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import { roundedNote, shapeFooter, truncatedNote } from './notes';
+import { parseSeriesLines, seriesFooter } from './textseries';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
 
@@ -154,6 +155,10 @@ export function parsePandasText(text: string): ITable {
   let footer: { rows: number; columns: number } | null = null;
   if (lines.length > 0 && /^\[\d+ rows x \d+ columns\]$/.test(lines[lines.length - 1].trim())) {
     footer = shapeFooter(lines.pop() as string);
+  }
+  const series = lines.length > 1 ? seriesFooter(lines[lines.length - 1]) : null;
+  if (series !== null) {
+    return parseSeriesLines(lines.slice(0, -1), series);
   }
   if (lines.length > 0 && lines[0].startsWith('Empty DataFrame')) {
     throw new TableParseError('The text shows an empty DataFrame (no rows).', 'no-table');

@@ -90,4 +90,26 @@ describe('pandas text repr', () => {
     expect(t.columns.map(c => c.header)).toEqual(['index', 'a', 'b']);
     expect(values(t.columns[2])).toEqual([3.5, 4.5]);
   });
+
+  it('reads a Series repr (pandas 1.5.3 output): name with unit, NaN, inf, rounding', () => {
+    const t = table(parseMime('text/plain', '0    0.333333\n1         NaN\n2         inf\nName: M (emu/g), dtype: float64'));
+    expect(t.columns.map(c => [c.header, c.name, c.unit, c.isIndex])).toEqual([
+      ['index', 'index', null, true],
+      ['M (emu/g)', 'M', 'emu/g', false]
+    ]);
+    expect(values(t.columns[1])).toEqual([0.333333, NaN, Infinity]);
+    expect(t.notes.map(n => n.kind)).toEqual(['rounded']);
+  });
+
+  it('reads a truncated Series repr and a datetime index with an index name', () => {
+    const lines = ['0      0.000000', '1      0.142857', '        ...    ', '98    14.000000', '99    14.142857', 'Length: 100, dtype: float64'];
+    const t = table(parseMime('text/plain', lines.join('\n')));
+    expect(t.truncation).toEqual({ shownRows: 4, totalRows: 100, shownColumns: 1, totalColumns: 1, rowGapAt: 2 });
+    expect(t.notes[0].kind).toBe('truncated');
+    const d = table(parseMime('text/plain', '2024-01-01 12:00:00    1\n2024-01-02 00:00:00    2\ndtype: int64'));
+    expect(values(d.columns[0])).toEqual(['2024-01-01T12:00:00', '2024-01-02T00:00:00']);
+    const named = table(parseMime('text/plain', 'idx\nx    a b\ny      c\ndtype: object'));
+    expect(named.columns.map(c => c.header)).toEqual(['idx', '0']);
+    expect(values(named.columns[1])).toEqual(['a b', 'c']);
+  });
 });
