@@ -6,7 +6,8 @@
  * character positions that are not blank in every data line; a run whose
  * header is blank belongs to the labelled run on its right (e.g. the date
  * and time halves of a datetime). Leading unlabelled runs are index levels.
- * Single-level columns only; a names row below the header gives index names.
+ * MultiIndex columns take several header lines (upper labels carry over to the
+ * columns on their right); a names row below the header gives index names.
  */
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
@@ -56,23 +57,30 @@ function fieldsOf(lines: readonly string[], width: number): IField[] {
   return fields;
 }
 
-function parseBlock(raw: readonly string[]): IBlock {
+/** Blank a label at the very left: it is the columns' own name (`df.columns.name`), not a column. */
+function withoutColumnsName(line: string): string {
+  return /^\S/.test(line) ? line.replace(/^\S+/, m => ' '.repeat(m.length)) : line;
+}
+
+/** Parse a block whose first `headerCount` lines are column labels (more than one for MultiIndex columns). */
+function parseBlock(raw: readonly string[], headerCount: number): IBlock {
   const lines = raw.map(l => l.replace(/\s+\\$/, '').trimEnd());
-  if (lines.length < 2) {
+  if (lines.length < headerCount + 1) {
     throw new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
   }
-  // A label at the very left is the columns' own name (`df.columns.name`); it is not a column.
-  const header = /^\S/.test(lines[0]) ? lines[0].replace(/^\S+/, m => ' '.repeat(m.length)) : lines[0];
-  let bodyStart = 1;
+  const headerLines = lines.slice(0, headerCount).map(withoutColumnsName);
+  const header = headerLines[headerCount - 1];
+  let bodyStart = headerCount;
   const firstLabel = header.search(/\S/);
-  const namesRow = lines[1].length > 0 && firstLabel > 0 && lines[1].length <= firstLabel ? lines[1] : null;
+  const candidate = lines[headerCount];
+  const namesRow = candidate.length > 0 && firstLabel > 0 && candidate.length <= firstLabel ? candidate : null;
   if (namesRow !== null) {
-    bodyStart = 2;
+    bodyStart++;
   }
   const body = lines.slice(bodyStart);
   const width = Math.max(...lines.map(l => l.length));
   const rowEnds = new Set(body.filter(l => !isEllipsisLine(l)).map(l => l.length));
-  if (body.length === 0 || rowEnds.size > 1 || !rowEnds.has(lines[0].length)) {
+  if (body.length === 0 || rowEnds.size > 1 || !rowEnds.has(lines[headerCount - 1].length)) {
     throw new TableParseError(`${NO_TABLE}: its lines are not aligned in fixed-width columns.`, 'no-table');
   }
   const fields = fieldsOf(body.filter(l => !isEllipsisLine(l)), width);
@@ -128,8 +136,14 @@ function parseBlock(raw: readonly string[]): IBlock {
   });
   let elidedColumns = 0;
   const data: IColumn[] = [];
+  const upper: string[] = headerLines.slice(0, -1).map(() => '');
   for (const f of dataFields) {
-    const label = slice(header, f);
+    const levels = upper.map((previous, h) => {
+      const t = slice(headerLines[h], f);
+      upper[h] = t === '' ? previous : t;
+      return upper[h];
+    });
+    const label = [...levels, slice(header, f)].filter(t => t !== '').join(' / ');
     const cells = rows.map(line => slice(line, f));
     if (ELLIPSIS.has(label) && cells.every(c => ELLIPSIS.has(c))) {
       elidedColumns++;
@@ -138,6 +152,22 @@ function parseBlock(raw: readonly string[]): IBlock {
     data.push(columnFromText(label, cells, { isIndex: false, displayed: true }));
   }
   return { index, data, rows: rows.length, rowGapAt, elidedColumns };
+}
+
+/** One header line, else two to four (MultiIndex columns): the first reading that fits. */
+function parseBlockAnyHeader(raw: readonly string[]): IBlock {
+  let first: unknown = null;
+  for (let h = 1; h <= Math.min(4, raw.length - 1); h++) {
+    try {
+      return parseBlock(raw, h);
+    } catch (e) {
+      if (!(e instanceof TableParseError) || e.reason !== 'no-table') {
+        throw e;
+      }
+      first ??= e;
+    }
+  }
+  throw first ?? new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
 }
 
 function isEllipsisLine(line: string): boolean {
@@ -173,7 +203,7 @@ export function parsePandasText(text: string): ITable {
       blocks[blocks.length - 1].push(line);
     }
   }
-  const parsed = blocks.filter(b => b.length > 0).map(parseBlock);
+  const parsed = blocks.filter(b => b.length > 0).map(parseBlockAnyHeader);
   if (parsed.length === 0) {
     throw new TableParseError(`${NO_TABLE}: it is empty.`, 'no-table');
   }
