@@ -13,6 +13,7 @@
  * | `centralStep` | ε^(1/3) | relative central-difference step |
  * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
  * | `svdMaxRows` | 20000 | up to this many points the trust-region step uses an SVD of the scaled Jacobian; above it, an eigen-decomposition of JᵀJ formed in a tight loop |
+ * | `normalEquationsMinRatio` | 1e-11 | the trust-region model uses the eigen-decomposition of the scaled JᵀJ when λmin/λmax ≥ this (condition of the scaled Jacobian ≤ 3e5), otherwise the SVD of the scaled Jacobian (up to `svdMaxRows` points) |
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
@@ -32,6 +33,7 @@ export const FIT_DEFAULTS = Object.freeze({
   centralStep: Math.cbrt(Number.EPSILON),
   extrapolatedStep: Math.pow(Number.EPSILON, 0.2),
   svdMaxRows: 20000,
+  normalEquationsMinRatio: 1e-11,
   singularTolerance: 1e-13,
   correlationWarning: 0.99,
   conditionWarning: 1e12,

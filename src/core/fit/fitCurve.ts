@@ -118,7 +118,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
 
   // Jacobian at the solution: analytic, or Richardson-extrapolated central differences.
   const jac = new Float64Array(n * k);
-  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'extrapolated');
+  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'central');
   const factor = finite ? inverseNormal(jac, n, k) : { inverse: null, rank: 0, condition: NaN };
   const scale = knownSigma ? 1 : reducedChi2;
   const covariance = Array.from({ length: kAll }, () => new Array<number>(kAll).fill(0));

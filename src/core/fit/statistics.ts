@@ -32,9 +32,17 @@ export function inverseNormal(jac: Float64Array, n: number, k: number): ICovaria
   if (norms.some((v) => !(v > 0) || !Number.isFinite(v))) {
     return { inverse: null, rank: norms.filter((v) => v > 0).length, condition: Infinity };
   }
-  let s2: number[];
-  let v: Matrix;
-  if (n <= FIT_DEFAULTS.svdMaxRows) {
+  // Eigen-decomposition of the equilibrated normal matrix when it is well
+  // conditioned; otherwise the SVD of the equilibrated Jacobian (accurate).
+  const cols = Array.from({ length: k }, (_, j) => j);
+  const evd = new EigenvalueDecomposition(normalMatrix(jac, n, k, cols, norms), {
+    assumeSymmetric: true
+  });
+  let s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
+  let v: Matrix = evd.eigenvectorMatrix;
+  const ratio = Math.min(...evd.realEigenvalues) / Math.max(...evd.realEigenvalues);
+  const useSvd = n <= FIT_DEFAULTS.svdMaxRows && !(ratio >= FIT_DEFAULTS.normalEquationsMinRatio);
+  if (useSvd) {
     const js = new Matrix(n, k);
     for (let i = 0; i < n; i++) {
       for (let j = 0; j < k; j++) {
@@ -48,19 +56,11 @@ export function inverseNormal(jac: Float64Array, n: number, k: number): ICovaria
     });
     s2 = svd.diagonal.map((s) => s * s);
     v = svd.rightSingularVectors;
-  } else {
-    const cols = Array.from({ length: k }, (_, j) => j);
-    const evd = new EigenvalueDecomposition(normalMatrix(jac, n, k, cols, norms), {
-      assumeSymmetric: true
-    });
-    s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
-    v = evd.eigenvectorMatrix;
   }
   const smax = Math.max(...s2);
   const smin = Math.min(...s2);
-  const tol =
-    n <= FIT_DEFAULTS.svdMaxRows
-      ? FIT_DEFAULTS.singularTolerance * FIT_DEFAULTS.singularTolerance
+  const tol = useSvd
+    ? FIT_DEFAULTS.singularTolerance * FIT_DEFAULTS.singularTolerance
       : Math.max(FIT_DEFAULTS.singularTolerance ** 2, Number.EPSILON * k);
   const rank = s2.filter((s) => s > tol * smax).length;
   const condition = smin > 0 ? Math.sqrt(smax / smin) : Infinity;

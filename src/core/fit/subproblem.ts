@@ -10,6 +10,7 @@
  * monotonically).
  */
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { FIT_DEFAULTS } from './defaults';
 
 /** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
 export interface ISpectralModel {
@@ -26,8 +27,9 @@ export interface ISpectralModel {
 /**
  * Builds the spectral model from the weighted Jacobian `jac` (row-major n×k)
  * restricted to `cols`, scaled by `diag`, for residuals `r`.
- * `useSvd` selects SVD of the n×m matrix (accurate) or eigen-decomposition of
- * the m×m normal matrix formed in a tight loop (fast for large n).
+ * The m×m normal matrix is formed in a tight loop and eigen-decomposed; when
+ * `useSvd` and its eigenvalue ratio is below `normalEquationsMinRatio`
+ * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead.
  */
 export function spectralModel(
   jac: Float64Array,
@@ -44,37 +46,6 @@ export function spectralModel(
   const s2 = new Float64Array(m);
   const c = new Float64Array(m);
   if (m === 0) {
-    return { cols, v, s2, c };
-  }
-  if (useSvd) {
-    const js = new Matrix(n, m);
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      for (let a = 0; a < m; a++) {
-        js.set(i, a, jac[row + cols[a]] / diag[cols[a]]);
-      }
-    }
-    const svd = new SingularValueDecomposition(js, {
-      computeLeftSingularVectors: true,
-      computeRightSingularVectors: true,
-      autoTranspose: false
-    });
-    const s = svd.diagonal;
-    const u = svd.leftSingularVectors;
-    const vv = svd.rightSingularVectors;
-    const smax = s[0];
-    for (let a = 0; a < m; a++) {
-      let ur = 0;
-      for (let i = 0; i < n; i++) {
-        ur += u.get(i, a) * r[i];
-      }
-      const sa = s[a] > singularTolerance * smax ? s[a] : 0;
-      s2[a] = sa * sa;
-      c[a] = sa * ur;
-      for (let b = 0; b < m; b++) {
-        v[b * m + a] = vv.get(b, a);
-      }
-    }
     return { cols, v, s2, c };
   }
   const normal = normalMatrix(jac, n, k, cols, diag);
@@ -94,6 +65,10 @@ export function spectralModel(
   const vec = evd.eigenvectorMatrix;
   const order = ev.map((_, i) => i).sort((p, q) => ev[q] - ev[p]);
   const lmax = Math.max(ev[order[0]], 0);
+  const lmin = ev[order[m - 1]];
+  if (useSvd && !(lmin >= FIT_DEFAULTS.normalEquationsMinRatio * lmax)) {
+    return svdModel(jac, n, k, cols, diag, r, singularTolerance);
+  }
   const cut = Math.max(singularTolerance * singularTolerance, Number.EPSILON * m) * lmax;
   for (let a = 0; a < m; a++) {
     const col = order[a];
@@ -106,6 +81,51 @@ export function spectralModel(
       ca += vb * g[b];
     }
     c[a] = la > 0 ? ca : 0;
+  }
+  return { cols, v, s2, c };
+}
+
+/** Spectral model from the SVD of the n×m scaled Jacobian (accurate when ill-conditioned). */
+function svdModel(
+  jac: Float64Array,
+  n: number,
+  k: number,
+  cols: number[],
+  diag: Float64Array,
+  r: Float64Array,
+  singularTolerance: number
+): ISpectralModel {
+  const m = cols.length;
+  const v = new Float64Array(m * m);
+  const s2 = new Float64Array(m);
+  const c = new Float64Array(m);
+  const js = new Matrix(n, m);
+  for (let i = 0; i < n; i++) {
+    const row = i * k;
+    for (let a = 0; a < m; a++) {
+      js.set(i, a, jac[row + cols[a]] / diag[cols[a]]);
+    }
+  }
+  const svd = new SingularValueDecomposition(js, {
+    computeLeftSingularVectors: true,
+    computeRightSingularVectors: true,
+    autoTranspose: false
+  });
+  const s = svd.diagonal;
+  const u = svd.leftSingularVectors;
+  const vv = svd.rightSingularVectors;
+  const smax = s[0];
+  for (let a = 0; a < m; a++) {
+    let ur = 0;
+    for (let i = 0; i < n; i++) {
+      ur += u.get(i, a) * r[i];
+    }
+    const sa = s[a] > singularTolerance * smax ? s[a] : 0;
+    s2[a] = sa * sa;
+    c[a] = sa * ur;
+    for (let b = 0; b < m; b++) {
+      v[b * m + a] = vv.get(b, a);
+    }
   }
   return { cols, v, s2, c };
 }
