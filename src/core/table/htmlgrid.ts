@@ -139,7 +139,13 @@ function sections(table: Element): { head: Element[][]; body: Element[][] } {
 }
 
 /** Expand one section's rows into grid rows (HTML table model for spans). */
-function expandSection(rows: Element[], firstRow: number, section: string): IGridCell[][] {
+/**
+ * Most grid cells the span expansion may fill (10 million). Spans let a few bytes of
+ * markup claim rows × columns cells, so the expansion itself is budgeted.
+ */
+export const MAX_GRID_CELLS = 10_000_000;
+
+function expandSection(rows: Element[], firstRow: number, section: string, budget: { cells: number }): IGridCell[][] {
   const grid: IGridCell[][] = rows.map(() => []);
   rows.forEach((tr, r) => {
     const out = grid[r];
@@ -159,6 +165,13 @@ function expandSection(rows: Element[], firstRow: number, section: string): IGri
       if (c + colspan > TABLE_LIMITS.maxColumns) {
         throw new TableParseError(
           `Row ${firstRow + r + 1} of the HTML table reaches column ${c + colspan}; the limit is ${TABLE_LIMITS.maxColumns} columns.`
+        );
+      }
+      budget.cells += rowspan * colspan;
+      if (budget.cells > MAX_GRID_CELLS) {
+        throw new TableParseError(
+          `The cell in ${section} row ${firstRow + r + 1}, column ${c + 1} spans ${rowspan} rows × ${colspan} columns; ` +
+            `the table would exceed ${MAX_GRID_CELLS} cells.`
         );
       }
       for (let dr = 0; dr < rowspan; dr++) {
@@ -185,9 +198,10 @@ export function htmlGrid(html: string): IHtmlGrid | null {
   }
   const table = tables.find(t => /(^|\s)dataframe(\s|$)/.test(attr(t, 'class') ?? '')) ?? tables[0];
   const { head, body } = sections(table);
+  const budget = { cells: 0 };
   const headGrid: IGridCell[][] = [];
   for (const rows of head) {
-    headGrid.push(...expandSection(rows, headGrid.length, 'header'));
+    headGrid.push(...expandSection(rows, headGrid.length, 'header', budget));
   }
   const bodyRowCount = body.reduce((n, rows) => n + rows.length, 0);
   if (bodyRowCount > TABLE_LIMITS.maxRows) {
@@ -197,7 +211,7 @@ export function htmlGrid(html: string): IHtmlGrid | null {
   }
   const bodyGrid: IGridCell[][] = [];
   for (const rows of body) {
-    bodyGrid.push(...expandSection(rows, bodyGrid.length, 'body'));
+    bodyGrid.push(...expandSection(rows, bodyGrid.length, 'body', budget));
   }
   return { head: headGrid, body: bodyGrid, outsideText: outside, tableCount: tables.length };
 }

@@ -122,6 +122,9 @@ export function parseOutput(bundle: Readonly<Record<string, unknown>>): ParseRes
       if (mime === 'application/vnd.dataresource+json') {
         crossCheckDataResource(result.table, data, (m, p) => attempt(() => parseMimeOrThrow(m, p)));
       }
+      if (refusals.length > 0) {
+        result.table.notes.push({ kind: 'info', message: `Read from ${mime}; richer types of this output could not be read. ${refusals.join(' ')}` });
+      }
       return result;
     }
     if (!('noTable' in result)) {

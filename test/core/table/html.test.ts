@@ -117,4 +117,12 @@ describe('hostile HTML is read as inert text', () => {
     expect(t.rowCount).toBe(2);
     expect(values(t.columns[0])).toEqual(['k', 'k']);
   });
+
+  it('refuses spans that would expand past the grid budget, naming row and column, quickly', () => {
+    const rows = Array.from({ length: 6000 }, () => '<tr><td>1</td></tr>').join('');
+    const t0 = performance.now();
+    const r = parseMime('text/html', `<table><tbody><tr><td rowspan="6000" colspan="${TABLE_LIMITS.maxColumns - 1}">x</td><td>1</td></tr>${rows}</tbody></table>`);
+    expect(performance.now() - t0).toBeLessThan(2000);
+    expect(!r.ok && r.message).toMatch(/^The cell in body row 1, column 1 spans \d+ rows × \d+ columns; the table would exceed \d+ cells\.$/);
+  });
 });

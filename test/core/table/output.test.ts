@@ -54,6 +54,12 @@ describe('parseOutput', () => {
     expect(values(t.columns[1])).toEqual([2]);
   });
 
+  it('notes when a richer type was refused and a poorer one read', () => {
+    const t = table(parseOutput({ 'text/csv': 'a\n1,2\n', 'text/plain': PLAIN }));
+    expect(t.format).toBe('pandas-text');
+    expect(t.notes.some(n => n.kind === 'info' && n.message.includes('text/csv: Row 1'))).toBe(true);
+  });
+
   it('reports a refusal from a table that is over a limit or malformed', () => {
     const r = parseOutput({ 'text/csv': 'a\n1,2\n' });
     expect(r).toEqual({ ok: false, message: "This output's table could not be read. text/csv: Row 1 of the CSV text has 2 cells but the header has 1 columns." });
