@@ -161,8 +161,10 @@ function tooLong(cell: string, r: number, c: number, header: readonly string[]):
 }
 
 /**
- * Parse delimited text with a header row. A first header cell that is empty is
- * taken as pandas' unnamed index (what `to_csv()` writes) and becomes an index column.
+ * Parse delimited text with a header row. Leading header cells that are empty are
+ * pandas' unnamed index levels (what `to_csv()` writes) and become index columns
+ * ('index', or 'level_0', 'level_1', … for a MultiIndex). A named index cannot be
+ * told from a column in CSV and is read as a column.
  */
 export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const format = delimiter === ',' ? 'csv' : 'tsv';
@@ -212,10 +214,13 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
       }
     });
   }
-  const hasIndex = header.length > 1 && header[0] === '';
+  let indexLevels = 0;
+  while (indexLevels < header.length - 1 && header[indexLevels] === '') {
+    indexLevels++;
+  }
   const columns: IColumn[] = header.map((h, c) => {
-    const isIndex = hasIndex && c === 0;
-    const name = isIndex ? 'index' : h;
+    const isIndex = c < indexLevels;
+    const name = !isIndex ? h : indexLevels === 1 ? 'index' : `level_${c}`;
     const col = numbers[c];
     if (col !== null) {
       return numberColumn(name, col.toArray(), isIndex);

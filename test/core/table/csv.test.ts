@@ -104,6 +104,15 @@ describe('CSV', () => {
     expect(t.columns.map(c => c.isIndex)).toEqual([false, false]);
   });
 
+  it('leading empty header cells are unnamed MultiIndex levels', () => {
+    const t = table(parseMime('text/csv', ',,M\na,1,0.5\na,2,0.25\n'));
+    expect(t.columns.map(c => [c.header, c.isIndex, c.kind])).toEqual([
+      ['level_0', true, 'string'],
+      ['level_1', true, 'number'],
+      ['M', false, 'number']
+    ]);
+  });
+
   it('accepts nbformat multi-line strings', () => {
     const t = table(parseMime('text/csv', ['a,b\n', '1,2\n']));
     expect(values(t.columns[1])).toEqual([2]);
