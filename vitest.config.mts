@@ -11,7 +11,7 @@ export default defineConfig({
         test: {
           name: 'node',
           environment: 'node',
-          include: ['test/core/**/*.test.ts', 'test/charts/**/*.test.ts'],
+          include: ['test/core/**/*.test.ts', 'test/charts/**/*.test.ts', 'test/package/**/*.test.ts'],
           testTimeout: 120000
         }
       },

@@ -29,6 +29,10 @@ relax(coreMeta.dependencies);
 relax(coreMeta.resolutions);
 fs.writeFileSync(path.join(coreDir, 'package.json'), JSON.stringify(coreMeta, null, 2));
 
+// The builder adds to its output folder; start clean so stale chunks never ship.
+const pkgJson = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8'));
+fs.rmSync(path.join(root, pkgJson.jupyterlab.outputDir), { recursive: true, force: true });
+
 const builder = require.resolve('@jupyterlab/builder/lib/build-labextension.js');
 const args = [builder, '--core-path', coreDir];
 if (process.argv.includes('--development')) {
@@ -38,8 +42,7 @@ args.push(root);
 execFileSync(process.execPath, args, { stdio: 'inherit', cwd: root });
 
 // Sanity: the output must be loadable as a federated extension.
-const pkg = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8'));
-const out = path.join(root, pkg.jupyterlab.outputDir);
+const out = path.join(root, pkgJson.jupyterlab.outputDir);
 const built = JSON.parse(fs.readFileSync(path.join(out, 'package.json'), 'utf8'));
 const load = built.jupyterlab?._build?.load;
 if (!load || !fs.existsSync(path.join(out, load))) {

@@ -13,6 +13,7 @@ import { AnalysisPanel } from '../ui/analysis-panel';
 import type { ILocatedOutput } from './locate';
 import { locateOutputNode, outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
+import type { IPsiscapeSettings } from './settings';
 
 /** Command ids. */
 export namespace CommandIDs {
@@ -26,7 +27,7 @@ export interface ICommandContext {
   tracker: INotebookTracker;
   translator: ITranslator;
   /** Current settings (read on every use so changes apply at once). */
-  settings: () => { pointSize: number; placement: 'split-right' | 'tab-after' };
+  settings: () => IPsiscapeSettings;
 }
 
 /** Register the commands; returns the panels opened so far, for tests. */
@@ -59,9 +60,12 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
         await revealCell(app, tracker, panel.context.path, cellId);
       }
     });
-    const previous = opened.filter(p => !p.isDisposed).pop();
-    const placement = ctx.settings().placement;
-    if (previous && placement === 'tab-after') {
+    // The first panel splits the main area beside the notebook; later ones
+    // join it as tabs, unless the user prefers plain tabs everywhere.
+    const previous = opened.filter(p => !p.isDisposed && p.isAttached).pop();
+    if (ctx.settings().placement === 'tab') {
+      app.shell.add(widget, 'main', { mode: 'tab-after', ref: panel.id });
+    } else if (previous) {
       app.shell.add(widget, 'main', { mode: 'tab-after', ref: previous.id });
     } else {
       app.shell.add(widget, 'main', { mode: 'split-right', ref: panel.id });

@@ -7,8 +7,8 @@
 export interface IPsiscapeSettings {
   /** Area of a data point in px². */
   pointSize: number;
-  /** Where a new analysis panel opens: split beside the notebook, or as a tab after the previous panel. */
-  placement: 'split-right' | 'tab-after';
+  /** Where a new analysis panel opens: beside the notebook (later panels as tabs there), or as a tab next to the notebook. */
+  placement: 'beside' | 'tab';
 }
 
 /**
@@ -22,8 +22,8 @@ export function readSettings(composite: Readonly<Record<string, unknown>>): IPsi
   if (typeof pointSize !== 'number' || !Number.isFinite(pointSize)) {
     throw new TypeError(`setting "pointSize" must be a finite number, got ${JSON.stringify(pointSize)}`);
   }
-  if (placement !== 'split-right' && placement !== 'tab-after') {
-    throw new TypeError(`setting "placement" must be "split-right" or "tab-after", got ${JSON.stringify(placement)}`);
+  if (placement !== 'beside' && placement !== 'tab') {
+    throw new TypeError(`setting "placement" must be "beside" or "tab", got ${JSON.stringify(placement)}`);
   }
   return { pointSize, placement };
 }

@@ -4,6 +4,7 @@
  * and draws them. Anything unusable is a message in the panel.
  */
 import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
+import type { Message } from '@lumino/messaging';
 import { Panel, Widget } from '@lumino/widgets';
 import { buildScatterSpec } from '../charts/scatter';
 import type { ParseResult, ITable } from '../core/table';
@@ -114,6 +115,10 @@ export class AnalysisPanel extends Panel {
     this._selection = { x, y };
     this._xSelect.value = String(x);
     this._ySelect.value = String(y);
+    if (!this.isAttached) {
+      // Theme colours are read from the attached node; drawn in onAfterAttach.
+      return this._rendered;
+    }
     const { spec, plotted, skipped } = buildScatterSpec({
       x: cx.column.values as Float64Array,
       y: cy.column.values as Float64Array,
@@ -139,6 +144,11 @@ export class AnalysisPanel extends Panel {
     if (this._selection) {
       void this.select(this._selection.x, this._selection.y);
     }
+  }
+
+  protected onAfterAttach(msg: Message): void {
+    super.onAfterAttach(msg);
+    this.redraw();
   }
 
   private _showMessage(text: string): void {

@@ -1,0 +1,32 @@
+/**
+ * Settings: defaults come from schema/plugin.json through a real
+ * SettingRegistry, and user values are validated by it.
+ */
+import { describe, expect, it } from 'vitest';
+import { readSettings } from '../../src/plugins/settings';
+import { settingRegistryWith } from './harness';
+
+const ID = 'jupyterlab-psiscape:plugin';
+
+describe('settings', () => {
+  it('should take every default from the schema', async () => {
+    const registry = settingRegistryWith(ID);
+    const settings = await registry.load(ID);
+    expect(readSettings(settings.composite)).toEqual({ pointSize: 40, placement: 'beside' });
+  });
+
+  it('should apply a valid user value and reject an invalid one', async () => {
+    const registry = settingRegistryWith(ID);
+    const settings = await registry.load(ID);
+    await settings.set('pointSize', 90);
+    expect(readSettings(settings.composite).pointSize).toBe(90);
+    await expect(settings.set('pointSize', 1000)).rejects.toBeTruthy();
+    await expect(settings.set('placement', 'floating')).rejects.toBeTruthy();
+    expect(readSettings(settings.composite)).toEqual({ pointSize: 90, placement: 'beside' });
+  });
+
+  it('should name the setting when given an unvalidated composite', () => {
+    expect(() => readSettings({ pointSize: 'big', placement: 'beside' })).toThrow('setting "pointSize" must be a finite number, got "big"');
+    expect(() => readSettings({ pointSize: 10, placement: 'left' })).toThrow('setting "placement" must be "beside" or "tab", got "left"');
+  });
+});
