@@ -16,6 +16,7 @@ import { TableParseError } from './types';
 export type { ColumnKind, IColumn, ITable, ITableLimits, ITableNote, ITruncation, ParseResult } from './types';
 export { TABLE_LIMITS, TableParseError } from './types';
 export { splitHeader } from './units';
+export { CSV_DISPLAY_SNIPPET } from './notes';
 export type { ISplitHeader } from './units';
 
 /** MIME types that can hold a table, richest first. */

@@ -11,8 +11,8 @@ import type { IColumn, ITableNote, ITruncation } from './types';
 export const CSV_DISPLAY_SNIPPET = "from IPython.display import display\ndisplay({'text/csv': df.to_csv()}, raw=True)";
 
 const REMEDIES =
-  'To get every row at full precision, open the underlying CSV file, or display the frame as text/csv ' +
-  `in the notebook:\n${CSV_DISPLAY_SNIPPET}`;
+  'For every row at full precision, open the underlying CSV file, or display the frame as text/csv ' +
+  `in the notebook (with your frame's name for df):\n${CSV_DISPLAY_SNIPPET}`;
 
 /** Note for a display that showed only part of the frame. */
 export function truncatedNote(t: ITruncation, source: string): ITableNote {
