@@ -16,20 +16,37 @@ import { TABLE_LIMITS, TableParseError } from './types';
 
 const CHUNK_CHARS = 1 << 16;
 
-/** Float64Array that grows by doubling. */
-class GrowingFloats {
-  private data = new Float64Array(1024);
+function countChar(text: string, ch: string): number {
+  let n = 0;
+  for (let i = text.indexOf(ch); i >= 0; i = text.indexOf(ch, i + 1)) {
+    n++;
+  }
+  return n;
+}
+
+/** Upper bound on data rows: line breaks plus one (a row spans several lines only when quoted). */
+function rowCapacity(text: string): number {
+  return Math.max(countChar(text, '\n'), countChar(text, '\r')) + 1;
+}
+
+/** A number column filled in place; sized once from the line count, so normally never copied. */
+class FloatColumn {
+  private data: Float64Array;
   length = 0;
+  constructor(capacity: number) {
+    this.data = new Float64Array(Math.max(capacity, 16));
+  }
   push(v: number): void {
     if (this.length === this.data.length) {
-      const next = new Float64Array(this.data.length * 2);
-      next.set(this.data);
-      this.data = next;
+      const grown = new Float64Array(this.data.length * 2);
+      grown.set(this.data);
+      this.data = grown;
     }
     this.data[this.length++] = v;
   }
-  toArray(): Float64Array {
-    return this.data.slice(0, this.length);
+  /** The filled part (a view on the same buffer, no copy). */
+  values(): Float64Array {
+    return this.length === this.data.length ? this.data : this.data.subarray(0, this.length);
   }
 }
 
@@ -170,10 +187,11 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const format = delimiter === ',' ? 'csv' : 'tsv';
   const what = format.toUpperCase();
   checkTextSize(text.length, `The ${what} text`);
-  let numbers: (GrowingFloats | null)[] = [];
+  const capacity = rowCapacity(text);
+  let numbers: (FloatColumn | null)[] = [];
   const first = scan(text, delimiter, what, (row, r, header) => {
     if (r === 0) {
-      numbers = header.map(() => new GrowingFloats());
+      numbers = header.map(() => new FloatColumn(capacity));
     }
     for (let c = 0; c < numbers.length; c++) {
       const col = numbers[c];
@@ -196,7 +214,7 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   });
   const { header, rows: rowCount, short } = first;
   if (numbers.length < header.length) {
-    numbers = header.map(() => new GrowingFloats());
+    numbers = header.map(() => new FloatColumn(0));
   }
   const textColumns = header.map((_, c) => numbers[c] === null);
   const cells: (string | null)[][] = header.map((_, c) => (textColumns[c] ? new Array<string | null>(rowCount) : []));
@@ -223,7 +241,7 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
     const name = !isIndex ? h : indexLevels === 1 ? 'index' : `level_${c}`;
     const col = numbers[c];
     if (col !== null) {
-      return numberColumn(name, col.toArray(), isIndex);
+      return numberColumn(name, col.values(), isIndex);
     }
     return columnFromText(name, cells[c], { isIndex, displayed: false });
   });
