@@ -28,6 +28,13 @@ export interface IExpressionModelOptions {
   parameters?: string[];
   /** Use symbolic derivatives for the Jacobian when possible; default true. */
   symbolicJacobian?: boolean;
+  /**
+   * 'generated' (default when the environment allows `new Function`): compile
+   * to a JavaScript function through the whitelist; 'mathjs': evaluate with
+   * mathjs `compile` and a scope per point (slower; used automatically when
+   * code generation is not allowed).
+   */
+  evaluation?: 'generated' | 'mathjs';
 }
 
 /** A compiled expression model. */
@@ -142,7 +149,7 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
   let evaluate: Kernel;
   let jacobian: Kernel | undefined;
   let evaluation: IExpressionModel['evaluation'];
-  if (canGenerate()) {
+  if (options.evaluation !== 'mathjs' && canGenerate()) {
     evaluate = generate(parameters.length, variables.length, Boolean(columns), [valueJs], colArrays);
     jacobian = derivativeJs
       ? generate(parameters.length, variables.length, Boolean(columns), derivativeJs, colArrays)

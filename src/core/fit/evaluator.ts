@@ -6,6 +6,9 @@
 import { FIT_DEFAULTS } from './defaults';
 import type { IFitProblem } from './problem';
 
+/** Largest relative disagreement ‖D(h) − D(h/2)‖/‖D(h/2)‖ accepted for Richardson extrapolation. */
+const RICHARDSON_AGREEMENT = 1e-3;
+
 /** Finite-difference scheme for the Jacobian. */
 export type DifferenceScheme = 'forward' | 'central' | 'extrapolated';
 
@@ -180,15 +183,23 @@ export class ResidualEvaluator {
       if (ok) {
         const inv1 = 1 / (a1 - b1);
         const inv2 = 1 / (a2 - b2);
+        let diff2 = 0;
+        let ref2 = 0;
         for (let i = 0; i < n; i++) {
-          const d1 = (this.fplus[i] - this.fminus[i]) * inv1;
-          const d2 = (this.fplus2[i] - this.fminus2[i]) * inv2;
-          jac[i * k + j] = ((4 * d2 - d1) / 3) * (w ? w[i] : 1);
+          const wi = w ? w[i] : 1;
+          const d1 = (this.fplus[i] - this.fminus[i]) * inv1 * wi;
+          const d2 = (this.fplus2[i] - this.fminus2[i]) * inv2 * wi;
+          jac[i * k + j] = (4 * d2 - d1) / 3;
+          diff2 += (d1 - d2) * (d1 - d2);
+          ref2 += d2 * d2;
         }
-        if (columnFinite(jac, n, k, j)) {
+        // D(h) and D(h/2) must agree to O(h²); if not, h is too large for this
+        // model here (e.g. a nearby singularity): use a small central step.
+        if (columnFinite(jac, n, k, j) && diff2 <= RICHARDSON_AGREEMENT * RICHARDSON_AGREEMENT * ref2) {
           return true;
         }
       }
+      return this.differenceColumn(p, f0, jac, j, 'central');
     }
     if (scheme === 'central' && pj - h >= lo && pj + h <= hi) {
       const plus = pj + h;

@@ -7,6 +7,7 @@
 import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
+import { columnNormsAndGradient, jacobianTimes, scaledTransposeTimes, secondDirectional } from './kernels';
 import { dampingForRadius, solveDamped, spectralModel, stepForMu } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 import type { IFitProgress } from './types';
@@ -127,25 +128,11 @@ export function* levenbergMarquardtSteps(
     if (!Number.isFinite(c)) {
       return 'none';
     }
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      let jv = 0;
-      for (let j = 0; j < k; j++) {
-        jv += jac[row + j] * (pT[j] - p[j]);
-      }
-      rvv[i] = ((2 / hh) * (rT[i] - r[i] - jv)) / hh;
+    for (let j = 0; j < k; j++) {
+      za[j] = pT[j] - p[j];
     }
-    rhs.fill(0);
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      const ri = rvv[i];
-      for (let a = 0; a < m.cols.length; a++) {
-        rhs[a] += jac[row + m.cols[a]] * ri;
-      }
-    }
-    for (let a = 0; a < m.cols.length; a++) {
-      rhs[a] /= diag[m.cols[a]];
-    }
+    secondDirectional(jac, za, rT, r, hh, n, k, rvv);
+    scaledTransposeTimes(jac, rvv, n, k, m.cols, diag, rhs);
     solveDamped(m, mu, rhs, za);
     let an = 0;
     let vn = 0;
@@ -219,21 +206,10 @@ export function* levenbergMarquardtSteps(
         continue;
       }
       havePrevious = false;
-      colNorm.fill(0);
-      grad.fill(0);
-      for (let i = 0; i < n; i++) {
-        const row = i * k;
-        const ri = r[i];
-        for (let j = 0; j < k; j++) {
-          const v = jac[row + j];
-          colNorm[j] += v * v;
-          grad[j] += v * ri;
-        }
-      }
+      columnNormsAndGradient(jac, r, n, k, colNorm, grad);
       const rnorm = Math.sqrt(cost);
       gcos = 0;
       for (let j = 0; j < k; j++) {
-        colNorm[j] = Math.sqrt(colNorm[j]);
         const scale = colNorm[j] > 0 ? colNorm[j] : 1;
         diag[j] = first ? scale : Math.max(diag[j], colNorm[j]);
         if (colNorm[j] > 0 && rnorm > 0) {
@@ -261,7 +237,7 @@ export function* levenbergMarquardtSteps(
       if (cols.length === 0) {
         return out(true, 'every free parameter is held at a bound by the gradient');
       }
-      model = spectralModel(jac, n, k, cols, diag, r, useSvd, FIT_DEFAULTS.singularTolerance);
+      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance);
       needJacobian = false;
     }
     const m = model!;
@@ -300,17 +276,8 @@ export function* levenbergMarquardtSteps(
       first = false;
     }
     // Predicted reduction of Σr² from the linear model.
-    let jdNorm2 = 0;
+    const jdNorm2 = jacobianTimes(jac, step, n, k, jd);
     let gStep = 0;
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      let s = 0;
-      for (let j = 0; j < k; j++) {
-        s += jac[row + j] * step[j];
-      }
-      jd[i] = s;
-      jdNorm2 += s * s;
-    }
     for (let j = 0; j < k; j++) {
       gStep += grad[j] * step[j];
     }
@@ -353,7 +320,9 @@ export function* levenbergMarquardtSteps(
     }
     progress();
     yield;
-    if (noiseSteps >= 3) {
+    // Forward differences: switch to the accurate Jacobian at the first
+    // noise-level step; then two consecutive noise-level steps end the fit.
+    if (noiseSteps >= (scheme === 'forward' ? 1 : 2)) {
       if (scheme === 'forward') {
         scheme = 'extrapolated';
         noiseSteps = 0;

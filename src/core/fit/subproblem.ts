@@ -26,7 +26,8 @@ export interface ISpectralModel {
 
 /**
  * Builds the spectral model from the weighted Jacobian `jac` (row-major n×k)
- * restricted to `cols`, scaled by `diag`, for residuals `r`.
+ * restricted to `cols`, scaled by `diag`, for residuals `r` whose unscaled
+ * gradient Jᵀr is `grad` (length k).
  * The m×m normal matrix is formed in a tight loop and eigen-decomposed; when
  * `useSvd` and its eigenvalue ratio is below `normalEquationsMinRatio`
  * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead.
@@ -38,6 +39,7 @@ export function spectralModel(
   cols: number[],
   diag: Float64Array,
   r: Float64Array,
+  grad: Float64Array,
   useSvd: boolean,
   singularTolerance: number
 ): ISpectralModel {
@@ -50,15 +52,8 @@ export function spectralModel(
   }
   const normal = normalMatrix(jac, n, k, cols, diag);
   const g = new Float64Array(m);
-  for (let i = 0; i < n; i++) {
-    const row = i * k;
-    const ri = r[i];
-    for (let a = 0; a < m; a++) {
-      g[a] += jac[row + cols[a]] * ri;
-    }
-  }
   for (let a = 0; a < m; a++) {
-    g[a] /= diag[cols[a]];
+    g[a] = grad[cols[a]] / diag[cols[a]];
   }
   const evd = new EigenvalueDecomposition(normal, { assumeSymmetric: true });
   const ev = evd.realEigenvalues;

@@ -132,3 +132,24 @@ describe('parseExpressionModel', () => {
     expect(() => parseExpressionModel('f(x) = 1')).toThrow(ExpressionError);
   });
 });
+
+describe('mathjs evaluation fallback', () => {
+  it('gives the same values and Jacobian as the generated function', () => {
+    const text = 'b1 / ((1+exp(b2-b3*x))^(1/b4))';
+    const gen = parseExpressionModel(text);
+    const mj = parseExpressionModel(text, { evaluation: 'mathjs' });
+    expect(mj.evaluation).toBe('mathjs-compiled');
+    const p = Float64Array.from([700, 5, 0.75, 1.3]);
+    const xs = Float64Array.from([1, 2.5, 4, 9]);
+    const a = new Float64Array(4);
+    const b = new Float64Array(4);
+    gen.evaluate(p, xs, a);
+    mj.evaluate(p, xs, b);
+    a.forEach((v, i) => expect(b[i]).toBeCloseTo(v, 12));
+    const ja = new Float64Array(16);
+    const jb = new Float64Array(16);
+    gen.jacobian!(p, xs, ja);
+    mj.jacobian!(p, xs, jb);
+    ja.forEach((v, i) => expect(jb[i]).toBeCloseTo(v, 10));
+  });
+});

@@ -1,0 +1,103 @@
+/**
+ * O(n·k) loops of the iteration, kept in plain functions so that they are
+ * optimised independently of the generator that drives the iteration.
+ */
+
+/** colNorm[j] = ‖J_j‖, grad[j] = (Jᵀr)_j for row-major n×k `jac`. */
+export function columnNormsAndGradient(
+  jac: Float64Array,
+  r: Float64Array,
+  n: number,
+  k: number,
+  colNorm: Float64Array,
+  grad: Float64Array
+): void {
+  colNorm.fill(0);
+  grad.fill(0);
+  for (let i = 0; i < n; i++) {
+    const row = i * k;
+    const ri = r[i];
+    for (let j = 0; j < k; j++) {
+      const v = jac[row + j];
+      colNorm[j] += v * v;
+      grad[j] += v * ri;
+    }
+  }
+  for (let j = 0; j < k; j++) {
+    colNorm[j] = Math.sqrt(colNorm[j]);
+  }
+}
+
+/** out = J·v; returns ‖J·v‖². */
+export function jacobianTimes(jac: Float64Array, v: Float64Array, n: number, k: number, out: Float64Array): number {
+  let norm2 = 0;
+  for (let i = 0; i < n; i++) {
+    const row = i * k;
+    let s = 0;
+    for (let j = 0; j < k; j++) {
+      s += jac[row + j] * v[j];
+    }
+    out[i] = s;
+    norm2 += s * s;
+  }
+  return norm2;
+}
+
+/**
+ * Second directional derivative of r along v by one extra point:
+ * out = (2/h)·((r(p + h v) − r(p))/h − J v), with `dp` = (p + h v) − p.
+ */
+export function secondDirectional(
+  jac: Float64Array,
+  dp: Float64Array,
+  rShift: Float64Array,
+  r: Float64Array,
+  h: number,
+  n: number,
+  k: number,
+  out: Float64Array
+): void {
+  const scale = 2 / (h * h);
+  for (let i = 0; i < n; i++) {
+    const row = i * k;
+    let jv = 0;
+    for (let j = 0; j < k; j++) {
+      jv += jac[row + j] * dp[j];
+    }
+    out[i] = scale * (rShift[i] - r[i] - jv);
+  }
+}
+
+/** out[a] = (Jᵀ v)_{cols[a]} / diag[cols[a]]. */
+export function scaledTransposeTimes(
+  jac: Float64Array,
+  v: Float64Array,
+  n: number,
+  k: number,
+  cols: number[],
+  diag: Float64Array,
+  out: Float64Array
+): void {
+  const m = cols.length;
+  out.fill(0);
+  if (m === k) {
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      const vi = v[i];
+      for (let a = 0; a < k; a++) {
+        out[a] += jac[row + a] * vi;
+      }
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      const vi = v[i];
+      for (let a = 0; a < m; a++) {
+        out[a] += jac[row + cols[a]] * vi;
+      }
+    }
+  }
+  for (let a = 0; a < m; a++) {
+    out[a] /= diag[cols[a]];
+  }
+}
