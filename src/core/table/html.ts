@@ -45,7 +45,12 @@ export function parsePandasHtml(html: string): ITable {
   if (head.length === 0 && body.length > 0 && body[0].every(c => c?.isHeader === true)) {
     head.push(body.shift() as IGridCell[]);
   }
-  const width = Math.max(0, ...head.map(r => r.length), ...body.map(r => r.length));
+  let width = 0;
+  for (const r of [head, body]) {
+    for (const row of r) {
+      width = Math.max(width, row.length);
+    }
+  }
   if (width === 0) {
     throw new TableParseError('The HTML table is empty: it has no cells.', 'no-table');
   }

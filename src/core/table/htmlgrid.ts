@@ -201,7 +201,9 @@ export function htmlGrid(html: string): IHtmlGrid | null {
   const budget = { cells: 0 };
   const headGrid: IGridCell[][] = [];
   for (const rows of head) {
-    headGrid.push(...expandSection(rows, headGrid.length, 'header', budget));
+    for (const row of expandSection(rows, headGrid.length, 'header', budget)) {
+      headGrid.push(row);
+    }
   }
   const bodyRowCount = body.reduce((n, rows) => n + rows.length, 0);
   if (bodyRowCount > TABLE_LIMITS.maxRows) {
@@ -211,7 +213,9 @@ export function htmlGrid(html: string): IHtmlGrid | null {
   }
   const bodyGrid: IGridCell[][] = [];
   for (const rows of body) {
-    bodyGrid.push(...expandSection(rows, bodyGrid.length, 'body', budget));
+    for (const row of expandSection(rows, bodyGrid.length, 'body', budget)) {
+      bodyGrid.push(row);
+    }
   }
   return { head: headGrid, body: bodyGrid, outsideText: outside, tableCount: tables.length };
 }

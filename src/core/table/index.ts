@@ -121,7 +121,11 @@ export function parseOutput(bundle: Readonly<Record<string, unknown>>): ParseRes
     const result = attempt(() => parseMimeOrThrow(mime, data[mime]));
     if (result.ok) {
       if (mime === 'application/vnd.dataresource+json') {
-        crossCheckDataResource(result.table, data, (m, p) => attempt(() => parseMimeOrThrow(m, p)));
+        try {
+          crossCheckDataResource(result.table, data, (m, p) => attempt(() => parseMimeOrThrow(m, p)));
+        } catch {
+          result.table.notes.push({ kind: 'info', message: 'The displays beside the dataresource could not be compared with it.' });
+        }
       }
       if (refusals.length > 0) {
         result.table.notes.push({ kind: 'info', message: `Read from ${mime}; richer types of this output could not be read. ${refusals.join(' ')}` });

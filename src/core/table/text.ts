@@ -78,7 +78,7 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
     bodyStart++;
   }
   const body = lines.slice(bodyStart);
-  const width = Math.max(...lines.map(l => l.length));
+  const width = lines.reduce((w, l) => Math.max(w, l.length), 0);
   const rowEnds = new Set(body.filter(l => !isEllipsisLine(l)).map(l => l.length));
   if (body.length === 0 || rowEnds.size > 1 || !rowEnds.has(lines[headerCount - 1].length)) {
     throw new TableParseError(`${NO_TABLE}: its lines are not aligned in fixed-width columns.`, 'no-table');

@@ -125,4 +125,11 @@ describe('hostile HTML is read as inert text', () => {
     expect(performance.now() - t0).toBeLessThan(2000);
     expect(!r.ok && r.message).toMatch(/^The cell in body row 1, column 1 spans \d+ rows × \d+ columns; the table would exceed \d+ cells\.$/);
   });
+
+  it('reads a 200 000-row table (no argument-spread limits on row lists)', () => {
+    const rows = Array.from({ length: 200_000 }, (_, i) => `<tr><th>${i}</th><td>${i / 4}</td></tr>`).join('');
+    const t = table(parseMime('text/html', `<table><thead><tr><th></th><th>x</th></tr></thead><tbody>${rows}</tbody></table>`));
+    expect(t.rowCount).toBe(200_000);
+    expect((t.columns[1].values as Float64Array)[199_999]).toBe(199_999 / 4);
+  });
 });

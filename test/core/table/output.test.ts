@@ -118,4 +118,10 @@ describe('pandas text repr', () => {
     expect(named.columns.map(c => c.header)).toEqual(['idx', '0']);
     expect(values(named.columns[1])).toEqual(['a b', 'c']);
   });
+
+  it('reads a 200 000-line text repr', () => {
+    const lines = ['        x', ...Array.from({ length: 200_000 }, (_, i) => `${String(i).padEnd(6)}  ${String(i % 10).padStart(1)}`)];
+    const t = table(parseMime('text/plain', lines.join('\n')));
+    expect(t.rowCount).toBe(200_000);
+  });
 });
