@@ -1,0 +1,77 @@
+/**
+ * Arrott plot (reference B5): M² against H/M, per-isotherm high-field
+ * straight lines, Ms(T)² (intercept on the M² axis, T < Tc), 1/χ0(T)
+ * (intercept on the H/M axis, T > Tc), Tc where the intercept crosses zero,
+ * and the Banerjee criterion as evidence.
+ */
+import type { IBanerjeeEvidence } from './banerjee';
+import { banerjeeEvidence } from './banerjee';
+import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
+import { interceptCrossing, isothermLines } from './lines';
+import { selectBranch } from './table';
+import type { Branch, IIsothermSet, ISweepConventions, IValueSigma } from './types';
+import { conventionsOf, setWarnings } from './types';
+
+/** Options of {@link arrottAnalysis}. */
+export interface IArrottOptions {
+  region?: IFitRegion;
+  branch?: Branch;
+  /** Isotherms each side of the sign change used to locate Tc (default 2). */
+  perSide?: number;
+  /** Fewest isotherms accepted without a warning (default 5). */
+  minIsotherms?: number;
+}
+
+/** A temperature-dependent value with σ. */
+export interface ITemperaturePoint {
+  T: number;
+  value: number;
+  sigma: number;
+}
+
+/** Outcome of the Arrott analysis. */
+export interface IArrottResult {
+  lines: IIsothermLine[];
+  Tc: IValueSigma;
+  TcCrossing: ICrossing;
+  /** Ms² from intercepts on the M² axis (isotherms with c0 > 0), units of M². */
+  spontaneousSquared: ITemperaturePoint[];
+  /** 1/χ0 from intercepts on the H/M axis (isotherms with c0 < 0), dimensionless for volume M. */
+  inverseChi: ITemperaturePoint[];
+  banerjee: IBanerjeeEvidence;
+  conventions: ISweepConventions;
+  warnings: string[];
+}
+
+/** Runs the Arrott analysis on a set. */
+export function arrottAnalysis(set: IIsothermSet, options: IArrottOptions = {}): IArrottResult {
+  const sel = selectBranch(set, options.branch);
+  const warnings = setWarnings(set).concat(sel.warnings);
+  const region = options.region ?? {};
+  if (sel.isotherms.length < (options.minIsotherms ?? 5)) {
+    warnings.push(`only ${sel.isotherms.length} isotherm(s): too few for a reliable Tc from the intercept crossing`);
+  }
+  const lines = isothermLines(sel.isotherms, 0.5, 1, region);
+  for (const l of lines) {
+    if (l.n < 3) {
+      warnings.push(`isotherm at ${l.T} K has ${l.n} point(s) in the high-field region: no uncertainty for its line`);
+    }
+  }
+  const crossing = interceptCrossing(lines, options.perSide ?? 2);
+  if (!crossing.converged) {
+    warnings.push(`Tc not found: ${crossing.reason}`);
+  }
+  const spontaneousSquared: ITemperaturePoint[] = [];
+  const inverseChi: ITemperaturePoint[] = [];
+  for (const l of lines) {
+    if (l.intercept.value > 0) {
+      spontaneousSquared.push({ T: l.T, value: l.intercept.value, sigma: l.intercept.sigma });
+    } else if (Number.isFinite(l.inverseChi.value)) {
+      inverseChi.push({ T: l.T, value: l.inverseChi.value, sigma: l.inverseChi.sigma });
+    }
+  }
+  const banerjee = banerjeeEvidence(sel.isotherms);
+  const notes = ['Arrott plot: y = M^2 against x = H/M; high-field straight line y = c0 + c1 x per isotherm'];
+  notes.push(region.hMin !== undefined ? `high-field region: H >= ${region.hMin} A/m` : `high-field region: upper ${(region.topFraction ?? 0.5) * 100}% of each isotherm's field range`);
+  return { lines, Tc: crossing.Tc, TcCrossing: crossing, spontaneousSquared, inverseChi, banerjee, conventions: conventionsOf(set, notes), warnings };
+}

@@ -1,0 +1,17 @@
+/**
+ * Field-sweep (M(H) isotherm) analyses: isotherm families from long-format
+ * tables, demagnetisation, Arrott and modified Arrott plots, Kouvel–Fisher,
+ * critical isotherm, scaling collapse, exponents against the fit window and
+ * the magnetic entropy change. SI inside; every result states its conventions.
+ */
+export * from './types';
+export * from './demag';
+export * from './table';
+export * from './linear';
+export * from './lines';
+export * from './banerjee';
+export * from './arrott';
+export * from './powerfit';
+export * from './map';
+export * from './global';
+export * from './eos';

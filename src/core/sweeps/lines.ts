@@ -1,0 +1,124 @@
+/**
+ * High-field straight lines of (modified) Arrott isotherms:
+ * y = M^(1/β) against x = (H/M)^(1/γ), fitted as y = c0 + c1·x on the
+ * high-field part of each isotherm. β = ½, γ = 1 is the Arrott plot (B5).
+ * c0 > 0 gives Ms = c0^β; x0 = −c0/c1 > 0 gives 1/χ0 = x0^γ (B5, B6).
+ */
+import type { ILineFit } from './linear';
+import { fitLine, lineRoot } from './linear';
+import type { IIsotherm, IValueSigma } from './types';
+
+/** Which points of an isotherm enter its high-field line. */
+export interface IFitRegion {
+  /** Lowest field used, A/m (default: set by `topFraction`). */
+  hMin?: number;
+  /** Upper fraction of each isotherm's field range used when hMin is absent (default 0.5). */
+  topFraction?: number;
+}
+
+/** One isotherm's line and the quantities read from it. */
+export interface IIsothermLine {
+  T: number;
+  /** Intercept on the y axis, c0 (Ms^(1/β) when > 0). */
+  intercept: IValueSigma;
+  /** Slope c1. */
+  slope: IValueSigma;
+  /** Spontaneous magnetisation Ms = c0^β (NaN when c0 ≤ 0). */
+  Ms: IValueSigma;
+  /** Inverse initial susceptibility 1/χ0 = x0^γ (NaN when x0 ≤ 0). */
+  inverseChi: IValueSigma;
+  /** Points used. */
+  n: number;
+  fit: ILineFit;
+}
+
+/** Indices of the points of an isotherm inside the region (H > 0, M > 0 only). */
+export function regionMask(iso: IIsotherm, region: IFitRegion): boolean[] {
+  let hLo = Infinity;
+  let hHi = -Infinity;
+  for (let i = 0; i < iso.H.length; i++) {
+    if (iso.H[i] > 0 && iso.M[i] > 0) {
+      hLo = Math.min(hLo, iso.H[i]);
+      hHi = Math.max(hHi, iso.H[i]);
+    }
+  }
+  const frac = region.topFraction ?? 0.5;
+  const cut = region.hMin ?? hHi - frac * (hHi - hLo);
+  const out: boolean[] = [];
+  for (let i = 0; i < iso.H.length; i++) {
+    out.push(iso.H[i] > 0 && iso.M[i] > 0 && iso.H[i] >= cut);
+  }
+  return out;
+}
+
+/** Fits the line of one isotherm for exponents (β, γ). */
+export function isothermLine(iso: IIsotherm, beta: number, gamma: number, region: IFitRegion): IIsothermLine {
+  const mask = regionMask(iso, region);
+  const n = iso.H.length;
+  const x = new Float64Array(n);
+  const y = new Float64Array(n);
+  const ib = 1 / beta;
+  const ig = 1 / gamma;
+  for (let i = 0; i < n; i++) {
+    if (mask[i]) {
+      x[i] = Math.pow(iso.H[i] / iso.M[i], ig);
+      y[i] = Math.pow(iso.M[i], ib);
+    }
+  }
+  const f = fitLine(x, y, i => mask[i]);
+  const c0 = f.intercept;
+  const sc0 = Math.sqrt(f.varIntercept);
+  const Ms = c0 > 0 ? { value: Math.pow(c0, beta), sigma: beta * Math.pow(c0, beta - 1) * sc0 } : { value: NaN, sigma: NaN };
+  const root = lineRoot(f);
+  const inverseChi = root.value > 0 ? { value: Math.pow(root.value, gamma), sigma: gamma * Math.pow(root.value, gamma - 1) * root.sigma } : { value: NaN, sigma: NaN };
+  return { T: iso.T, intercept: { value: c0, sigma: sc0 }, slope: { value: f.slope, sigma: Math.sqrt(f.varSlope) }, Ms, inverseChi, n: f.n, fit: f };
+}
+
+/** Lines of every isotherm. */
+export function isothermLines(isotherms: readonly IIsotherm[], beta: number, gamma: number, region: IFitRegion): IIsothermLine[] {
+  return isotherms.map(iso => isothermLine(iso, beta, gamma, region));
+}
+
+/** Temperature where the intercept c0(T) crosses zero. */
+export interface ICrossing {
+  Tc: IValueSigma;
+  converged: boolean;
+  reason: string;
+  /** Temperatures of the isotherms either side of the crossing. */
+  bracket: [number, number] | null;
+}
+
+/**
+ * Tc where c0(T) changes sign (from + below to − above): a straight line through
+ * up to `perSide` isotherms either side of the first sign change, σ by
+ * propagation of the line covariance.
+ */
+export function interceptCrossing(lines: readonly IIsothermLine[], perSide = 2): ICrossing {
+  const pts = lines.filter(l => Number.isFinite(l.intercept.value)).sort((a, b) => a.T - b.T);
+  let k = -1;
+  for (let i = 0; i + 1 < pts.length; i++) {
+    if (pts[i].intercept.value > 0 && pts[i + 1].intercept.value <= 0) {
+      k = i;
+      break;
+    }
+  }
+  if (k < 0) {
+    const allPos = pts.every(p => p.intercept.value > 0);
+    const reason = pts.length < 2 ? 'fewer than two usable isotherms' : allPos ? 'no zero crossing: every isotherm is below Tc (all intercepts > 0)' : 'no zero crossing: every isotherm is above Tc (all intercepts <= 0)';
+    return { Tc: { value: NaN, sigma: NaN }, converged: false, reason, bracket: null };
+  }
+  const lo = Math.max(0, k - perSide + 1);
+  const hi = Math.min(pts.length - 1, k + perSide);
+  const T = pts.slice(lo, hi + 1).map(p => p.T);
+  const c = pts.slice(lo, hi + 1).map(p => p.intercept.value);
+  const f = fitLine(T, c);
+  let root = lineRoot(f);
+  if (!Number.isFinite(root.value) || root.value < pts[k].T || root.value > pts[k + 1].T) {
+    // linear interpolation between the two bracketing isotherms
+    const a = pts[k];
+    const b = pts[k + 1];
+    const v = a.T + (a.intercept.value * (b.T - a.T)) / (a.intercept.value - b.intercept.value);
+    root = { value: v, sigma: Number.isFinite(root.sigma) ? root.sigma : NaN };
+  }
+  return { Tc: root, converged: Number.isFinite(root.value), reason: `line through ${T.length} isotherms around the sign change`, bracket: [pts[k].T, pts[k + 1].T] };
+}

@@ -1,0 +1,210 @@
+/**
+ * Modified Arrott plot by iteration (reference B6): from trial exponents,
+ * straight high-field lines of M^(1/β) against (H/M)^(1/γ) give Ms(T) and
+ * 1/χ0(T); power laws with Tc free give new β, γ, Tc; repeat until stable.
+ */
+import { UNIVERSALITY_CLASSES } from '../physics/universality';
+import type { ITemperaturePoint } from './arrott';
+import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
+import { interceptCrossing, isothermLines } from './lines';
+import type { IPowerFit } from './powerfit';
+import { fitCriticalPower } from './powerfit';
+import { selectBranch } from './table';
+import type { Branch, IIsotherm, IIsothermSet, ISweepConventions, IValueSigma } from './types';
+import { conventionsOf, setWarnings } from './types';
+
+/** Options of {@link modifiedArrottIteration}. */
+export interface IModifiedArrottOptions {
+  /** Trial exponents (default: 3D Heisenberg, table C2). */
+  start?: { beta: number; gamma: number };
+  region?: IFitRegion;
+  /** Largest |t| of isotherms entering the power-law fits (default 0.1). */
+  tMax?: number;
+  /** Smallest |t| (default 0). */
+  tMin?: number;
+  maxIterations?: number;
+  /** Stop when β, γ and Tc/Tc change by less than this (default 1e-6). */
+  tolerance?: number;
+  branch?: Branch;
+}
+
+/** One step of the iteration. */
+export interface IIterationStep {
+  beta: number;
+  gamma: number;
+  Tc: number;
+}
+
+/** Outcome of the modified Arrott iteration. */
+export interface IModifiedArrottResult {
+  beta: IValueSigma;
+  gamma: IValueSigma;
+  /** δ = 1 + γ/β (Widom) with propagated σ (β, γ taken as independent). */
+  deltaWidom: IValueSigma;
+  /** Tc: σ-weighted mean of the two power-law Tc. */
+  Tc: IValueSigma;
+  TcFromMs: IValueSigma;
+  TcFromChi: IValueSigma;
+  /** Tc where the final lines' intercept crosses zero. */
+  TcCrossing: ICrossing;
+  MsFit: IPowerFit;
+  chiFit: IPowerFit;
+  lines: IIsothermLine[];
+  spontaneous: ITemperaturePoint[];
+  inverseChi: ITemperaturePoint[];
+  history: IIterationStep[];
+  iterations: number;
+  converged: boolean;
+  reason: string;
+  conventions: ISweepConventions;
+  warnings: string[];
+}
+
+const HEIS = UNIVERSALITY_CLASSES.find(c => c.id === '3d-heisenberg');
+
+/** σ-weighted mean of two values (plain mean when a σ is missing). */
+export function combine(a: IValueSigma, b: IValueSigma): IValueSigma {
+  if (!Number.isFinite(a.value)) {
+    return b;
+  }
+  if (!Number.isFinite(b.value)) {
+    return a;
+  }
+  if (a.sigma > 0 && b.sigma > 0) {
+    const wa = 1 / (a.sigma * a.sigma);
+    const wb = 1 / (b.sigma * b.sigma);
+    const v = (wa * a.value + wb * b.value) / (wa + wb);
+    // add the half-difference as a systematic part when the two disagree
+    const stat = Math.sqrt(1 / (wa + wb));
+    return { value: v, sigma: Math.max(stat, Math.abs(a.value - b.value) / 2) };
+  }
+  return { value: 0.5 * (a.value + b.value), sigma: Math.abs(a.value - b.value) / 2 };
+}
+
+function inWindow(T: number, Tc: number, tMin: number, tMax: number): boolean {
+  const t = Math.abs(T - Tc) / Tc;
+  return t <= tMax && t >= tMin;
+}
+
+/** Reads Ms and 1/χ0 points of the lines inside the window. */
+export function windowPoints(lines: readonly IIsothermLine[], Tc: number, tMin: number, tMax: number) {
+  const ms: ITemperaturePoint[] = [];
+  const chi: ITemperaturePoint[] = [];
+  for (const l of lines) {
+    if (!inWindow(l.T, Tc, tMin, tMax)) {
+      continue;
+    }
+    if (l.T < Tc && Number.isFinite(l.Ms.value)) {
+      ms.push({ T: l.T, value: l.Ms.value, sigma: l.Ms.sigma });
+    } else if (l.T > Tc && Number.isFinite(l.inverseChi.value)) {
+      chi.push({ T: l.T, value: l.inverseChi.value, sigma: l.inverseChi.sigma });
+    }
+  }
+  return { ms, chi };
+}
+
+/** The iteration on given isotherms (no branch selection, no set warnings). */
+export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: IModifiedArrottOptions = {}) {
+  let beta = options.start?.beta ?? HEIS?.beta.value ?? 0.3689;
+  let gamma = options.start?.gamma ?? HEIS?.gamma.value ?? 1.396;
+  const region = options.region ?? {};
+  const tMax = options.tMax ?? 0.1;
+  const tMin = options.tMin ?? 0;
+  const maxIt = options.maxIterations ?? 100;
+  const tol = options.tolerance ?? 1e-6;
+  let lines = isothermLines(isotherms, beta, gamma, region);
+  const first = interceptCrossing(lines);
+  let Tc = first.converged ? first.Tc.value : isotherms.length > 0 ? isotherms[Math.floor(isotherms.length / 2)].T : NaN;
+  const history: IIterationStep[] = [{ beta, gamma, Tc }];
+  let MsFit: IPowerFit | null = null;
+  let chiFit: IPowerFit | null = null;
+  let converged = false;
+  let reason = 'iteration limit reached';
+  let it = 0;
+  for (it = 1; it <= maxIt; it++) {
+    const pts = windowPoints(lines, Tc, tMin, tMax);
+    const fm = fitCriticalPower(pts.ms.map(p => p.T), pts.ms.map(p => p.value), 'below', { Tc, exponent: beta }, pts.ms.map(p => p.sigma));
+    const fc = fitCriticalPower(pts.chi.map(p => p.T), pts.chi.map(p => p.value), 'above', { Tc, exponent: gamma }, pts.chi.map(p => p.sigma));
+    if (!Number.isFinite(fm.exponent.value) || !Number.isFinite(fc.exponent.value)) {
+      reason = `stopped: ${!Number.isFinite(fm.exponent.value) ? `Ms fit failed (${fm.reason})` : `1/chi0 fit failed (${fc.reason})`}`;
+      MsFit = MsFit ?? fm;
+      chiFit = chiFit ?? fc;
+      break;
+    }
+    MsFit = fm;
+    chiFit = fc;
+    const nb = Math.min(Math.max(fm.exponent.value, 0.05), 3);
+    const ng = Math.min(Math.max(fc.exponent.value, 0.2), 5);
+    const nTc = combine(fm.Tc, fc.Tc).value;
+    const change = Math.max(Math.abs(nb - beta), Math.abs(ng - gamma), Math.abs(nTc - Tc) / Math.abs(Tc));
+    beta = nb;
+    gamma = ng;
+    Tc = nTc;
+    history.push({ beta, gamma, Tc });
+    lines = isothermLines(isotherms, beta, gamma, region);
+    if (change < tol) {
+      converged = true;
+      reason = `exponents and Tc changed by less than ${tol} (relative for Tc)`;
+      break;
+    }
+  }
+  return { beta, gamma, Tc, lines, MsFit, chiFit, history, iterations: Math.min(it, maxIt), converged, reason, region, tMin, tMax };
+}
+
+/** Runs the modified Arrott iteration on a set. */
+export function modifiedArrottIteration(set: IIsothermSet, options: IModifiedArrottOptions = {}): IModifiedArrottResult {
+  const sel = selectBranch(set, options.branch);
+  const warnings = setWarnings(set).concat(sel.warnings);
+  const r = iterateModifiedArrott(sel.isotherms, options);
+  const nan: IValueSigma = { value: NaN, sigma: NaN };
+  const fm = r.MsFit;
+  const fc = r.chiFit;
+  const beta = fm ? fm.exponent : nan;
+  const gamma = fc ? fc.exponent : nan;
+  const delta = {
+    value: 1 + gamma.value / beta.value,
+    sigma: Math.sqrt((gamma.sigma / beta.value) ** 2 + ((gamma.value * beta.sigma) / (beta.value * beta.value)) ** 2)
+  };
+  const TcFromMs = fm ? fm.Tc : nan;
+  const TcFromChi = fc ? fc.Tc : nan;
+  if (Number.isFinite(TcFromMs.value) && Number.isFinite(TcFromChi.value)) {
+    const s = Math.hypot(TcFromMs.sigma, TcFromChi.sigma);
+    if (Math.abs(TcFromMs.value - TcFromChi.value) > 3 * s) {
+      warnings.push(`Tc from Ms(T) (${TcFromMs.value}) and from 1/chi0(T) (${TcFromChi.value}) differ by more than 3 sigma`);
+    }
+  }
+  if (!r.converged) {
+    warnings.push(`modified Arrott iteration did not converge: ${r.reason}`);
+  }
+  const pts = windowPoints(r.lines, r.Tc, r.tMin, r.tMax);
+  if (pts.ms.length < 4 || pts.chi.length < 4) {
+    warnings.push(`too few isotherms in the window |t| <= ${r.tMax}: ${pts.ms.length} below and ${pts.chi.length} above Tc`);
+  }
+  if (fm && Number.isFinite(fm.correlationTcExponent)) {
+    warnings.push(`Tc and beta are correlated (r = ${fm.correlationTcExponent.toFixed(3)}); quote them together`);
+  }
+  const notes = [
+    'modified Arrott plot: y = M^(1/beta) against x = (H/M)^(1/gamma); Ms = c0^beta, 1/chi0 = (-c0/c1)^gamma',
+    `power laws Ms = M0(-t)^beta and 1/chi0 = G t^gamma fitted with Tc free over ${r.tMin} <= |t| <= ${r.tMax}`
+  ];
+  return {
+    beta,
+    gamma,
+    deltaWidom: delta,
+    Tc: combine(TcFromMs, TcFromChi),
+    TcFromMs,
+    TcFromChi,
+    TcCrossing: interceptCrossing(r.lines),
+    MsFit: fm ?? fitCriticalPower([], [], 'below', { Tc: NaN, exponent: NaN }),
+    chiFit: fc ?? fitCriticalPower([], [], 'above', { Tc: NaN, exponent: NaN }),
+    lines: r.lines,
+    spontaneous: pts.ms,
+    inverseChi: pts.chi,
+    history: r.history,
+    iterations: r.iterations,
+    converged: r.converged,
+    reason: r.reason,
+    conventions: conventionsOf(set, notes),
+    warnings
+  };
+}
