@@ -4,7 +4,7 @@
  * quantity between two units of the private mathjs instance.
  */
 import { PHYS } from '../physics/constants';
-import { normaliseUnitText, parseMathUnit } from './mathUnits';
+import { normaliseUnitText, parseMathUnit, unitMath } from './mathUnits';
 
 /** Error for an invalid unit or sample parameter at the boundary. */
 export class UnitInputError extends Error {
@@ -46,12 +46,11 @@ export function massFromMolar(values: ArrayLike<number>, molarMassKgPerMol: numb
  * converted as absolute temperatures.
  */
 export function convertQuantity(value: number, from: string, to: string): number {
-  const u = parseMathUnit(normaliseUnitText(from));
-  if (u === null) {
+  if (parseMathUnit(normaliseUnitText(from)) === null) {
     throw new UnitInputError(`unknown unit "${from}"`);
   }
   try {
-    return u.multiply(value).to(normaliseUnitText(to)).toNumber();
+    return unitMath().unit(value, normaliseUnitText(from)).to(normaliseUnitText(to)).toNumber();
   } catch (e) {
     throw new UnitInputError(`cannot convert "${from}" to "${to}": ${(e as Error).message}`);
   }

@@ -1,0 +1,87 @@
+/**
+ * Kouvel–Fisher method (reference B7): X = Ms/(dMs/dT) = (T − Tc)/β below Tc,
+ * Y = χ0⁻¹/(dχ0⁻¹/dT) = (T − Tc)/γ above Tc. Derivatives come from local
+ * quadratic fits (smoothed, reference D13); straight lines through X(T) and
+ * Y(T) give 1/β, 1/γ and Tc with σ from the line covariance. Local slopes
+ * give effective exponents at each T.
+ */
+import type { ITemperaturePoint } from './arrott';
+import { fitLine, lineRoot, smoothedDerivative } from './linear';
+import type { IValueSigma } from './types';
+
+/** One side of the Kouvel–Fisher analysis. */
+export interface IKouvelFisherSide {
+  /** X (or Y) at each temperature, K. */
+  points: { T: number; value: number }[];
+  exponent: IValueSigma;
+  Tc: IValueSigma;
+  /** Effective exponent from the local slope (two-point) between neighbours, at their mid temperature. */
+  effective: { T: number; exponent: number }[];
+  n: number;
+  reason: string;
+}
+
+/** Kouvel–Fisher exponents on both sides. */
+export interface IKouvelFisherResult {
+  below: IKouvelFisherSide;
+  above: IKouvelFisherSide;
+  /** σ-weighted combination of both Tc (half the difference added when they disagree). */
+  Tc: IValueSigma;
+  /** Points in each local quadratic. */
+  span: number;
+  warnings: string[];
+}
+
+function side(points: readonly ITemperaturePoint[], span: number): IKouvelFisherSide {
+  const pts = points.filter(p => Number.isFinite(p.value) && p.value > 0).slice().sort((a, b) => a.T - b.T);
+  const nan = { value: NaN, sigma: NaN };
+  if (pts.length < 3) {
+    return { points: [], exponent: nan, Tc: nan, effective: [], n: pts.length, reason: `only ${pts.length} point(s): at least 3 are needed` };
+  }
+  const T = pts.map(p => p.T);
+  const d = smoothedDerivative(T, pts.map(p => p.value), span);
+  const X = pts.map((p, i) => p.value / d[i]);
+  const f = fitLine(T, X);
+  // X = (T − Tc)/e: slope 1/e, Tc = root
+  const e = 1 / f.slope;
+  const eSigma = Math.sqrt(f.varSlope) / (f.slope * f.slope);
+  const root = lineRoot(f);
+  const effective: { T: number; exponent: number }[] = [];
+  for (let i = 0; i + 1 < T.length; i++) {
+    const s = (X[i + 1] - X[i]) / (T[i + 1] - T[i]);
+    effective.push({ T: 0.5 * (T[i] + T[i + 1]), exponent: 1 / s });
+  }
+  return {
+    points: T.map((t, i) => ({ T: t, value: X[i] })),
+    exponent: { value: e, sigma: eSigma },
+    Tc: root,
+    effective,
+    n: pts.length,
+    reason: pts.length < 5 ? 'fewer than 5 points: σ from very few degrees of freedom' : 'straight-line fit of X(T)'
+  };
+}
+
+/**
+ * Kouvel–Fisher from Ms(T) (below Tc) and 1/χ0(T) (above Tc), which should come
+ * from Arrott / modified Arrott extrapolation, not finite-field M(T) (D4).
+ */
+export function kouvelFisher(Ms: readonly ITemperaturePoint[], inverseChi: readonly ITemperaturePoint[], span = 5): IKouvelFisherResult {
+  const below = side(Ms, span);
+  const above = side(inverseChi, span);
+  const warnings: string[] = [];
+  if (below.n < 5 || above.n < 5) {
+    warnings.push(`Kouvel-Fisher: ${below.n} point(s) below and ${above.n} above Tc; five or more on each side are advisable`);
+  }
+  let Tc: IValueSigma = { value: NaN, sigma: NaN };
+  const a = below.Tc;
+  const b = above.Tc;
+  if (Number.isFinite(a.value) && Number.isFinite(b.value)) {
+    const wa = a.sigma > 0 ? 1 / (a.sigma * a.sigma) : 1;
+    const wb = b.sigma > 0 ? 1 / (b.sigma * b.sigma) : 1;
+    const v = (wa * a.value + wb * b.value) / (wa + wb);
+    Tc = { value: v, sigma: Math.max(Math.sqrt(1 / (wa + wb)), Math.abs(a.value - b.value) / 2) };
+  } else {
+    Tc = Number.isFinite(a.value) ? a : b;
+  }
+  return { below, above, Tc, span, warnings };
+}
