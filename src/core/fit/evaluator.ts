@@ -20,6 +20,11 @@ export class ResidualEvaluator {
   evaluations = 0;
   /** Analytic Jacobian evaluations so far. */
   jacobianEvaluations = 0;
+  /**
+   * ‖e‖² of the rounding error of the last residual vector,
+   * eᵢ ≈ 4ε·wᵢ(|fᵢ| + |yᵢ|) (binary64 evaluation of one residual).
+   */
+  lastRoundingNorm2 = 0;
   /** Message of the last model exception, if any. */
   lastError: string | null = null;
   private readonly problem: IFitProblem;
@@ -86,19 +91,28 @@ export class ResidualEvaluator {
     }
     const { y, weights } = this.problem;
     let sum = 0;
+    let e2 = 0;
     if (weights) {
       for (let i = 0; i < this.n; i++) {
         const ri = (f[i] - y[i]) * weights[i];
         r[i] = ri;
         sum += ri * ri;
+        const ei = (Math.abs(f[i]) + Math.abs(y[i])) * weights[i];
+        e2 += ei * ei;
       }
     } else {
       for (let i = 0; i < this.n; i++) {
-        const ri = f[i] - y[i];
+        const fi = f[i];
+        const yi = y[i];
+        const ri = fi - yi;
         r[i] = ri;
         sum += ri * ri;
+        const ei = Math.abs(fi) + Math.abs(yi);
+        e2 += ei * ei;
       }
     }
+    const scale = 4 * Number.EPSILON;
+    this.lastRoundingNorm2 = e2 * scale * scale;
     return Number.isFinite(sum) ? sum : Number.NaN;
   }
 
@@ -114,13 +128,14 @@ export class ResidualEvaluator {
     if (this.jfull) {
       this.jacobianEvaluations++;
       const kAll = this.problem.kAll;
+      const direct = !weights && k === kAll;
       try {
-        this.problem.model.jacobian!(this.full, this.problem.x, this.jfull);
+        this.problem.model.jacobian!(this.full, this.problem.x, direct ? jac : this.jfull);
       } catch (err) {
         this.lastError = err instanceof Error ? err.message : String(err);
-        this.jfull.fill(Number.NaN);
+        (direct ? jac : this.jfull).fill(Number.NaN);
       }
-      for (let i = 0; i < n; i++) {
+      for (let i = 0; !direct && i < n; i++) {
         const w = weights ? weights[i] : 1;
         for (let j = 0; j < k; j++) {
           jac[i * k + j] = this.jfull[i * kAll + free[j]] * w;

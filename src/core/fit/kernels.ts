@@ -1,3 +1,5 @@
+import { gradientKernel, timesKernel } from './unrolled';
+
 /**
  * O(n·k) loops of the iteration, kept in plain functions so that they are
  * optimised independently of the generator that drives the iteration.
@@ -12,6 +14,14 @@ export function columnNormsAndGradient(
   colNorm: Float64Array,
   grad: Float64Array
 ): void {
+  const fast = gradientKernel(k);
+  if (fast) {
+    fast(jac, r, n, colNorm, grad);
+    for (let j = 0; j < k; j++) {
+      colNorm[j] = Math.sqrt(colNorm[j]);
+    }
+    return;
+  }
   colNorm.fill(0);
   grad.fill(0);
   for (let i = 0; i < n; i++) {
@@ -30,6 +40,10 @@ export function columnNormsAndGradient(
 
 /** out = J·v; returns ‖J·v‖². */
 export function jacobianTimes(jac: Float64Array, v: Float64Array, n: number, k: number, out: Float64Array): number {
+  const fast = timesKernel(k);
+  if (fast) {
+    return fast(jac, v, n, out);
+  }
   let norm2 = 0;
   for (let i = 0; i < n; i++) {
     const row = i * k;

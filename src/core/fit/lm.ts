@@ -36,20 +36,9 @@ export interface ILmHooks {
   shouldStop?: () => boolean;
 }
 
-/**
- * Rounding-noise level of Σr²: 2‖r‖‖e‖ + ‖e‖², with eᵢ ≈ 4ε·wᵢ(|fᵢ| + |yᵢ|)
- * the error of one residual evaluated in binary64.
- */
-function costNoise(problem: IFitProblem, r: Float64Array, f: Float64Array): number {
-  const { y, weights } = problem;
-  let e2 = 0;
-  let r2 = 0;
-  for (let i = 0; i < r.length; i++) {
-    const ei = 4 * Number.EPSILON * (Math.abs(f[i]) + Math.abs(y[i])) * (weights ? weights[i] : 1);
-    e2 += ei * ei;
-    r2 += r[i] * r[i];
-  }
-  return 2 * Math.sqrt(r2 * e2) + e2;
+/** Rounding-noise level of Σr²: 2‖r‖‖e‖ + ‖e‖² for ‖e‖² = `e2` (see `ResidualEvaluator.lastRoundingNorm2`). */
+function costNoise(cost: number, e2: number): number {
+  return 2 * Math.sqrt(cost * e2) + e2;
 }
 
 /** χ² reduction predicted by the full Gauss–Newton step of the model: Σ cᵢ²/sᵢ². */
@@ -174,7 +163,8 @@ export function* levenbergMarquardtSteps(
   let first = true;
   let delta = 0;
   let model: ISpectralModel | null = null;
-  let noise = costNoise(problem, r, f);
+  let noise = costNoise(cost, ev.lastRoundingNorm2);
+  let noisePrevious = noise;
   let noiseSteps = 0;
   let costPrevious = cost;
   let havePrevious = false;
@@ -200,7 +190,7 @@ export function* levenbergMarquardtSteps(
         [r, rT] = [rT, r];
         [f, fT] = [fT, f];
         cost = costPrevious;
-        noise = costNoise(problem, r, f);
+        noise = noisePrevious;
         havePrevious = false;
         delta *= 0.1;
         continue;
@@ -284,6 +274,7 @@ export function* levenbergMarquardtSteps(
     const dnorm2 = pnorm * pnorm;
     const pred = clipped || accelerated ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
     const costT = ev.residuals(pT, rT, fT);
+    const roundingT = ev.lastRoundingNorm2;
     const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
     const rho = pred > 0 ? actual / pred : actual > 0 ? 1 : -1;
     const costBefore = cost;
@@ -314,7 +305,8 @@ export function* levenbergMarquardtSteps(
       [r, rT] = [rT, r];
       [f, fT] = [fT, f];
       cost = costT;
-      noise = costNoise(problem, r, f);
+      noisePrevious = noise;
+      noise = costNoise(costT, roundingT);
       needJacobian = true;
       iterations++;
     }

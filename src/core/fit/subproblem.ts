@@ -11,6 +11,7 @@
  */
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { FIT_DEFAULTS } from './defaults';
+import { normalKernel } from './unrolled';
 
 /** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
 export interface ISpectralModel {
@@ -135,24 +136,21 @@ export function normalMatrix(
 ): Matrix {
   const m = cols.length;
   const acc = new Float64Array(m * m);
-  if (m === k) {
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      for (let a = 0; a < m; a++) {
-        const ja = jac[row + a];
-        for (let b = a; b < m; b++) {
-          acc[a * m + b] += ja * jac[row + b];
-        }
-      }
-    }
+  const fast = m === k ? normalKernel(k) : null;
+  if (fast) {
+    fast(jac, n, acc);
   } else {
-    for (let i = 0; i < n; i++) {
-      const row = i * k;
-      for (let a = 0; a < m; a++) {
-        const ja = jac[row + cols[a]];
-        for (let b = a; b < m; b++) {
-          acc[a * m + b] += ja * jac[row + cols[b]];
+    // one pass per column pair with a scalar accumulator
+    for (let a = 0; a < m; a++) {
+      const ca = cols[a];
+      for (let b = a; b < m; b++) {
+        const cb = cols[b];
+        let sum = 0;
+        for (let i = 0; i < n; i++) {
+          const row = i * k;
+          sum += jac[row + ca] * jac[row + cb];
         }
+        acc[a * m + b] = sum;
       }
     }
   }

@@ -1,0 +1,116 @@
+/**
+ * Loop kernels unrolled over the number of columns k, generated once per k
+ * from fixed internal templates (no user input reaches the source). Scalar
+ * accumulators instead of typed-array stores make them several times faster
+ * for large n. When code generation is not allowed (strict CSP), the
+ * generic loops are used.
+ */
+
+/** Upper triangle of JᵀJ (row-major k×k, all columns) into `out`. */
+export type NormalKernel = (jac: Float64Array, n: number, out: Float64Array) => void;
+/** Column norms² and Jᵀr into `norm2`, `grad`. */
+export type GradientKernel = (jac: Float64Array, r: Float64Array, n: number, norm2: Float64Array, grad: Float64Array) => void;
+
+const normalCache = new Map<number, NormalKernel | null>();
+const gradientCache = new Map<number, GradientKernel | null>();
+
+/** Largest k for which unrolled kernels are generated. */
+export const MAX_UNROLLED_COLUMNS = 10;
+
+function compile<T>(params: string[], body: string): T | null {
+  try {
+    return new Function(...params, body) as T;
+  } catch {
+    return null;
+  }
+}
+
+/** Unrolled JᵀJ kernel for k columns, or null. */
+export function normalKernel(k: number): NormalKernel | null {
+  if (k > MAX_UNROLLED_COLUMNS) {
+    return null;
+  }
+  if (!normalCache.has(k)) {
+    const decl: string[] = [];
+    const load: string[] = [];
+    const acc: string[] = [];
+    const store: string[] = [];
+    for (let a = 0; a < k; a++) {
+      load.push(`const j${a} = jac[o + ${a}];`);
+      for (let b = a; b < k; b++) {
+        decl.push(`let s${a}_${b} = 0;`);
+        acc.push(`s${a}_${b} += j${a} * j${b};`);
+        store.push(`out[${a * k + b}] = s${a}_${b};`);
+      }
+    }
+    const body = `"use strict";
+${decl.join('\n')}
+for (let i = 0; i < n; i++) {
+  const o = i * ${k};
+  ${load.join(' ')}
+  ${acc.join(' ')}
+}
+${store.join('\n')}`;
+    normalCache.set(k, compile<NormalKernel>(['jac', 'n', 'out'], body));
+  }
+  return normalCache.get(k) ?? null;
+}
+
+/** Unrolled column-norm / gradient kernel for k columns, or null. */
+export function gradientKernel(k: number): GradientKernel | null {
+  if (k > MAX_UNROLLED_COLUMNS) {
+    return null;
+  }
+  if (!gradientCache.has(k)) {
+    const decl: string[] = [];
+    const loop: string[] = [];
+    const store: string[] = [];
+    for (let a = 0; a < k; a++) {
+      decl.push(`let c${a} = 0; let g${a} = 0;`);
+      loop.push(`const j${a} = jac[o + ${a}]; c${a} += j${a} * j${a}; g${a} += j${a} * ri;`);
+      store.push(`norm2[${a}] = c${a}; grad[${a}] = g${a};`);
+    }
+    const body = `"use strict";
+${decl.join('\n')}
+for (let i = 0; i < n; i++) {
+  const o = i * ${k};
+  const ri = r[i];
+  ${loop.join(' ')}
+}
+${store.join('\n')}`;
+    gradientCache.set(k, compile<GradientKernel>(['jac', 'r', 'n', 'norm2', 'grad'], body));
+  }
+  return gradientCache.get(k) ?? null;
+}
+
+/** out = J·v for k columns; returns ‖J·v‖². */
+export type TimesKernel = (jac: Float64Array, v: Float64Array, n: number, out: Float64Array) => number;
+
+const timesCache = new Map<number, TimesKernel | null>();
+
+/** Unrolled J·v kernel for k columns, or null. */
+export function timesKernel(k: number): TimesKernel | null {
+  if (k > MAX_UNROLLED_COLUMNS) {
+    return null;
+  }
+  if (!timesCache.has(k)) {
+    const load: string[] = [];
+    const terms: string[] = [];
+    for (let a = 0; a < k; a++) {
+      load.push(`const v${a} = v[${a}];`);
+      terms.push(`jac[o + ${a}] * v${a}`);
+    }
+    const body = `"use strict";
+${load.join(' ')}
+let norm2 = 0;
+for (let i = 0; i < n; i++) {
+  const o = i * ${k};
+  const s = ${terms.join(' + ')};
+  out[i] = s;
+  norm2 += s * s;
+}
+return norm2;`;
+    timesCache.set(k, compile<TimesKernel>(['jac', 'v', 'n', 'out'], body));
+  }
+  return timesCache.get(k) ?? null;
+}
