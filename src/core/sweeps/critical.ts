@@ -74,27 +74,40 @@ export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, op
     M = nearest.M;
     temperatures = [nearest.T];
   } else {
-    const below = sorted.filter(i => i.T < Tc).pop();
-    const above = sorted.find(i => i.T > Tc);
-    if (below === undefined || above === undefined) {
+    const below = sorted.filter(i => i.T < Tc);
+    const above = sorted.filter(i => i.T > Tc);
+    if (below.length === 0 || above.length === 0) {
       return fail(`critical isotherm: Tc = ${Tc} is not bracketed by isotherms and none lies within |t| <= ${tol}`);
     }
     source = 'interpolated';
-    temperatures = [below.T, above.T];
-    const w = (Tc - below.T) / (above.T - below.T);
+    // up to two isotherms each side: Lagrange polynomial in T of ln M at fixed H
+    const used = [...below.slice(-2), ...above.slice(0, 2)];
+    temperatures = used.map(i => i.T);
+    const ref = below[below.length - 1];
     const h: number[] = [];
     const m: number[] = [];
-    for (let i = 0; i < below.H.length; i++) {
-      const mu = interpolate(above.H, above.M, below.H[i]);
-      if (below.M[i] > 0 && mu > 0) {
-        h.push(below.H[i]);
-        m.push(Math.exp((1 - w) * Math.log(below.M[i]) + w * Math.log(mu)));
+    for (let i = 0; i < ref.H.length; i++) {
+      const lnM = used.map(u => Math.log(interpolate(u.H, u.M, ref.H[i])));
+      if (!(ref.H[i] > 0) || lnM.some(v => !Number.isFinite(v))) {
+        continue;
       }
+      let v = 0;
+      for (let a = 0; a < used.length; a++) {
+        let w = 1;
+        for (let b = 0; b < used.length; b++) {
+          if (b !== a) {
+            w *= (Tc - used[b].T) / (used[a].T - used[b].T);
+          }
+        }
+        v += w * lnM[a];
+      }
+      h.push(ref.H[i]);
+      m.push(Math.exp(v));
     }
     H = Float64Array.from(h);
     M = Float64Array.from(m);
     warnings.push(
-      `critical isotherm interpolated in T at fixed H (ln M linear in T) between ${below.T} K and ${above.T} K, across Tc; ` +
+      `critical isotherm interpolated in T at fixed H (ln M, Lagrange polynomial through the isotherms at ${temperatures.join(', ')} K), across Tc; ` +
         'if the transition is discontinuous between them this is invalid (reference D18), and an isotherm slightly off Tc biases delta (B8)'
     );
   }
