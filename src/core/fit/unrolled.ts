@@ -65,10 +65,15 @@ export function gradientKernel(k: number): GradientKernel | null {
     const decl: string[] = [];
     const loop: string[] = [];
     const store: string[] = [];
+    // Jᵀr is summed with Neumaier compensation: at the solution its terms
+    // cancel, and the compensated sum keeps the stationary point accurate.
     for (let a = 0; a < k; a++) {
-      decl.push(`let c${a} = 0; let g${a} = 0;`);
-      loop.push(`const j${a} = jac[o + ${a}]; c${a} += j${a} * j${a}; g${a} += j${a} * ri;`);
-      store.push(`norm2[${a}] = c${a}; grad[${a}] = g${a};`);
+      decl.push(`let c${a} = 0; let g${a} = 0; let e${a} = 0;`);
+      loop.push(
+        `const j${a} = jac[o + ${a}]; c${a} += j${a} * j${a}; const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; ` +
+          `e${a} += Math.abs(g${a}) >= Math.abs(t${a}) ? (g${a} - u${a}) + t${a} : (t${a} - u${a}) + g${a}; g${a} = u${a};`
+      );
+      store.push(`norm2[${a}] = c${a}; grad[${a}] = g${a} + e${a};`);
     }
     const body = `"use strict";
 ${decl.join('\n')}
