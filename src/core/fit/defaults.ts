@@ -8,7 +8,7 @@
  * | `gtol` | 1e-15 | stop when the largest cosine between the residual vector and a Jacobian column is below `gtol` |
  * | `maxEvaluationsPerParameter` | 400 | default `maxEvaluations` = 400·(k+1), k = free parameters (Jacobian columns by finite differences count) |
  * | `confidenceLevel` | 0.6827 | Student-t intervals cover ±1σ for a normal variable |
- * | `initialStepFactor` | 100 | first trust radius = factor·‖D·p₀‖ (or factor when that is 0), as in MINPACK |
+ * | `initialStepFactor` | 1 | first trust radius = factor·‖D·p₀‖ (or factor when that is 0); MINPACK uses 100, 1 avoids first steps onto plateaus (e.g. exp(−b·x) → 0) |
  * | `forwardStep` | √ε | relative forward-difference step |
  * | `centralStep` | ε^(1/3) | relative central-difference step |
  * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
@@ -19,8 +19,24 @@
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
  * | `restartReductionThreshold` | 1e-10 | a stop on a small step while the Gauss–Newton model still predicts a relative χ² reduction above this restarts from the best point (a reduction of 1e-10·χ² moves parameters by ≈ 1e-5·√dof standard errors) |
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
- * | `geodesicAcceleration` | true | add second-order geodesic acceleration to accepted trial steps |
- * | `geodesicAlpha` | 0.75 | the acceleration is used only when ‖a‖ ≤ α‖v‖ (scaled norms) |
+ * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
+ * | `geodesicAlpha` | 0.75 | when ‖a‖ > α‖v‖ (scaled norms) the path curves too much: the step is not tried and the radius is halved |
+ *
+ * Stopping rules (first met wins; `converged` is true only for 1–4 and only
+ * when the Jacobian at the solution has full rank):
+ * 1. two consecutive Gauss–Newton steps (μ = 0) whose predicted and actual
+ *    χ² changes are within the rounding noise of χ² (2‖r‖‖e‖ + ‖e‖²,
+ *    eᵢ = 4ε·wᵢ(|fᵢ| + |yᵢ|)), with the accurate Jacobian;
+ * 2. `ftol` test (MINPACK form), 3. `xtol` test on the trust radius — a stop
+ *    on 3 while the Gauss–Newton model still predicts a relative reduction
+ *    above `restartReductionThreshold` restarts from the best point instead;
+ * 4. `gtol` test, or zero residual;
+ * otherwise: maximum evaluations, cancellation, non-finite values — all
+ * with `converged: false` and the best point so far.
+ * Finite differences start forward; at the first stop signal the Jacobian
+ * switches to Richardson-extrapolated central differences (falling back to
+ * small-step central ones where D(h) and D(h/2) disagree) and the iteration
+ * continues until a rule is met again with that Jacobian.
  */
 export const FIT_DEFAULTS = Object.freeze({
   ftol: 1e-15,
