@@ -1,15 +1,13 @@
 #!/usr/bin/env node
 // `npm start`: build what is missing (extension, host, demo site) and serve the
 // kernel-free demo lab on 127.0.0.1. Port: --port N, or PSISCAPE_PORT, else 8900.
-import { execFileSync } from 'node:child_process';
-import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildDemo } from './build.mjs';
 import { serve } from './serve.mjs';
+import { ensureExtensionBuilt } from '../scripts/ensure-built.mjs';
 
 const demoDir = path.dirname(fileURLToPath(import.meta.url));
-const root = path.resolve(demoDir, '..');
 
 function option(name) {
   const i = process.argv.indexOf(`--${name}`);
@@ -23,23 +21,8 @@ if (!Number.isInteger(port) || port <= 0 || port > 65535) {
 }
 const host = '127.0.0.1';
 
-function newestMtime(dir) {
-  let newest = 0;
-  for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {
-    const full = path.join(dir, entry.name);
-    newest = Math.max(newest, entry.isDirectory() ? newestMtime(full) : fs.statSync(full).mtimeMs);
-  }
-  return newest;
-}
-
 const t0 = Date.now();
-const pkg = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8'));
-const built = path.join(root, pkg.jupyterlab.outputDir, 'package.json');
-const sources = Math.max(newestMtime(path.join(root, 'src')), newestMtime(path.join(root, 'style')), newestMtime(path.join(root, 'schema')));
-if (!fs.existsSync(built) || fs.statSync(built).mtimeMs < sources) {
-  console.log('[demo] building the extension (npm run build)');
-  execFileSync('npm', ['run', 'build'], { stdio: 'inherit', cwd: root });
-}
+ensureExtensionBuilt();
 buildDemo();
 const server = await serve({ root: path.join(demoDir, 'dist'), host, port });
 console.log(`[demo] ready in ${((Date.now() - t0) / 1000).toFixed(1)} s`);

@@ -1,20 +1,18 @@
 #!/usr/bin/env node
 // End-to-end suite: builds what is missing, then runs every *.e2e.mjs file with
 // node's test runner against the built demo lab in Debian's Chromium.
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { requireChromium } from './browser.mjs';
+import { ensureExtensionBuilt } from '../../scripts/ensure-built.mjs';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const root = path.resolve(here, '..', '..');
 requireChromium();
 
-const pkg = JSON.parse(fs.readFileSync(path.join(root, 'package.json'), 'utf8'));
-if (!fs.existsSync(path.join(root, pkg.jupyterlab.outputDir, 'package.json'))) {
-  execFileSync('npm', ['run', 'build'], { stdio: 'inherit', cwd: root });
-}
+ensureExtensionBuilt();
 const { buildDemo } = await import('../../demo/build.mjs');
 buildDemo();
 
