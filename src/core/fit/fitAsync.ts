@@ -10,7 +10,21 @@ import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
 /** Default time slice between yields to the event loop, in milliseconds. */
 export const DEFAULT_SLICE_MS = 20;
 
+/**
+ * Lets queued messages run. A MessageChannel round trip is used where
+ * available (browsers clamp nested setTimeout(0) to ≥ 4 ms).
+ */
 function yieldToEventLoop(): Promise<void> {
+  if (typeof MessageChannel !== 'undefined') {
+    return new Promise((resolve) => {
+      const channel = new MessageChannel();
+      channel.port1.onmessage = () => {
+        channel.port1.close();
+        resolve();
+      };
+      channel.port2.postMessage(null);
+    });
+  }
   return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
