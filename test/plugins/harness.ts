@@ -6,7 +6,8 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { JupyterLab, LabShell, LayoutRestorer } from '@jupyterlab/application';
+import { JupyterLab, LayoutRestorer } from '@jupyterlab/application';
+import type { LabShell } from '@jupyterlab/application';
 import type { JupyterFrontEndPlugin } from '@jupyterlab/application';
 import { CodeMirrorEditorFactory, EditorExtensionRegistry, EditorLanguageRegistry, ybinding } from '@jupyterlab/codemirror';
 import { Context } from '@jupyterlab/docregistry';
