@@ -17,7 +17,7 @@ import { kouvelFisher } from './kouvel';
 import type { IFitRegion } from './lines';
 import type { IModifiedArrottResult } from './map';
 import { modifiedArrottIteration } from './map';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf } from './types';
 

@@ -8,7 +8,7 @@ import type { IBanerjeeEvidence } from './banerjee';
 import { banerjeeEvidence } from './banerjee';
 import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
 import { interceptCrossing, isothermLines } from './lines';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions, IValueSigma } from './types';
 import { conventionsOf, setWarnings } from './types';
 

@@ -10,7 +10,7 @@
 import { PHYS } from '../physics/constants';
 import type { IIsotherm, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf, setWarnings, SweepInputError } from './types';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch } from './types';
 
 /** ΔS_M at one mid temperature. */

@@ -7,7 +7,7 @@ import type { IEquationOfStateStart, IGlobalFit } from './global';
 import { fitEquationOfState } from './global';
 import type { IFitRegion } from './lines';
 import { iterateModifiedArrott } from './map';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch, IIsotherm, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf, setWarnings } from './types';
 

@@ -7,6 +7,7 @@
 export * from './types';
 export * from './demag';
 export * from './table';
+export * from './sets';
 export * from './linear';
 export * from './lines';
 export * from './banerjee';
@@ -22,3 +23,4 @@ export * from './collapse';
 export * from './window';
 export * from './entropy';
 export * from './analysis';
+export * from './display';

@@ -29,6 +29,8 @@ export interface IKouvelFisherResult {
   Tc: IValueSigma;
   /** Points in each local quadratic. */
   span: number;
+  /** Definitions used (X, Y, derivative smoothing). */
+  convention: string;
   warnings: string[];
 }
 
@@ -83,5 +85,6 @@ export function kouvelFisher(Ms: readonly ITemperaturePoint[], inverseChi: reado
   } else {
     Tc = Number.isFinite(a.value) ? a : b;
   }
-  return { below, above, Tc, span, warnings };
+  const convention = `X = Ms/(dMs/dT) = (T - Tc)/beta, Y = (1/chi0)/(d(1/chi0)/dT) = (T - Tc)/gamma; derivatives from local quadratics through ${span} points; T in K`;
+  return { below, above, Tc, span, convention, warnings };
 }

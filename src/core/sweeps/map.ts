@@ -9,7 +9,7 @@ import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
 import { interceptCrossing, isothermLines } from './lines';
 import type { IPowerFit } from './powerfit';
 import { fitCriticalPower } from './powerfit';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch, IIsotherm, IIsothermSet, ISweepConventions, IValueSigma } from './types';
 import { conventionsOf, setWarnings } from './types';
 
@@ -113,7 +113,23 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
   const maxIt = options.maxIterations ?? 100;
   const tol = options.tolerance ?? 1e-6;
   let lines = isothermLines(isotherms, beta, gamma, region);
-  const first = interceptCrossing(lines);
+  let first = interceptCrossing(lines);
+  let startNote: string | null = null;
+  if (!first.converged && options.start === undefined) {
+    // the default trial exponents give no intercept crossing: try the other classes of table C2
+    for (const c of UNIVERSALITY_CLASSES) {
+      const trial = isothermLines(isotherms, c.beta.value, c.gamma.value, region);
+      const cross = interceptCrossing(trial);
+      if (cross.converged) {
+        beta = c.beta.value;
+        gamma = c.gamma.value;
+        lines = trial;
+        first = cross;
+        startNote = `no intercept crossing with 3D Heisenberg trial exponents; started from ${c.name} (beta = ${beta}, gamma = ${gamma})`;
+        break;
+      }
+    }
+  }
   let Tc = first.converged ? first.Tc.value : isotherms.length > 0 ? isotherms[Math.floor(isotherms.length / 2)].T : NaN;
   const history: IIterationStep[] = [{ beta, gamma, Tc }];
   let MsFit: IPowerFit | null = null;
@@ -148,7 +164,7 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
       break;
     }
   }
-  return { beta, gamma, Tc, lines, MsFit, chiFit, history, iterations: Math.min(it, maxIt), converged, reason, region, tMin, tMax };
+  return { beta, gamma, Tc, lines, MsFit, chiFit, history, iterations: Math.min(it, maxIt), converged, reason, region, tMin, tMax, startNote };
 }
 
 /** Runs the modified Arrott iteration on a set. */
@@ -172,6 +188,9 @@ export function modifiedArrottIteration(set: IIsothermSet, options: IModifiedArr
     if (Math.abs(TcFromMs.value - TcFromChi.value) > 3 * s) {
       warnings.push(`Tc from Ms(T) (${TcFromMs.value}) and from 1/chi0(T) (${TcFromChi.value}) differ by more than 3 sigma`);
     }
+  }
+  if (r.startNote !== null) {
+    warnings.push(r.startNote);
   }
   if (!r.converged) {
     warnings.push(`modified Arrott iteration did not converge: ${r.reason}`);

@@ -113,8 +113,11 @@ function detectBranches(rows: number[], H: Float64Array): Branch[] {
     }
     out[k] = dir;
   }
-  // the first row takes the direction of the first step
-  out[0] = rows.length > 1 ? out[1] : 'unspecified';
+  // rows before the first field change take the direction of the first change
+  const firstDir = out.find(b => b !== 'unspecified') ?? 'unspecified';
+  for (let k = 0; k < out.length && out[k] === 'unspecified'; k++) {
+    out[k] = firstDir;
+  }
   return out;
 }
 
@@ -253,47 +256,4 @@ export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer 
       warnings
     }
   };
-}
-
-/** Options of {@link isothermSetFromArrays}. */
-export interface IArraySetOptions {
-  fieldKind?: 'internal' | 'applied';
-  magnetisationUnit?: 'A/m' | 'A m^2/kg';
-}
-
-/** Builds a set from SI arrays (simulations, tests); points are sorted by H. */
-export function isothermSetFromArrays(list: readonly { T: number; H: ArrayLike<number>; M: ArrayLike<number>; branch?: Branch }[], options: IArraySetOptions = {}): IIsothermSet {
-  const fieldKind = options.fieldKind ?? 'internal';
-  const isotherms: IIsotherm[] = list.map(it => {
-    if (it.H.length !== it.M.length) {
-      throw new SweepInputError(`isotherm at T = ${it.T}: H and M lengths differ`);
-    }
-    const order = Array.from({ length: it.H.length }, (_v, i) => i).sort((a, b) => it.H[a] - it.H[b]);
-    return { T: it.T, TSpread: 0, branch: it.branch ?? 'unspecified', H: Float64Array.from(order, i => it.H[i]), M: Float64Array.from(order, i => it.M[i]), rows: [] };
-  });
-  isotherms.sort((a, b) => a.T - b.T);
-  return {
-    isotherms,
-    fieldKind,
-    magnetisationUnit: options.magnetisationUnit ?? 'A/m',
-    demagnetisingFactorSI: null,
-    display: { temperature: 'K', field: 'A/m', magnetisation: options.magnetisationUnit ?? 'A/m' },
-    conventions: ['built from SI arrays'],
-    warnings: fieldKind === 'applied' ? [DEMAG_UNSET_WARNING] : []
-  };
-}
-
-/**
- * Isotherms of one branch for an analysis. Without `branch`, when a set mixes
- * up and down sweeps, the 'up' branch is used and a warning says so.
- */
-export function selectBranch(set: IIsothermSet, branch?: Branch): { isotherms: IIsotherm[]; warnings: string[] } {
-  if (branch !== undefined) {
-    return { isotherms: set.isotherms.filter(i => i.branch === branch), warnings: [] };
-  }
-  const kinds = new Set(set.isotherms.map(i => i.branch));
-  if (kinds.size > 1 && kinds.has('up')) {
-    return { isotherms: set.isotherms.filter(i => i.branch === 'up'), warnings: ['the table has both field-up and field-down branches: the up branch was analysed'] };
-  }
-  return { isotherms: set.isotherms.slice(), warnings: [] };
 }

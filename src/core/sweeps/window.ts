@@ -6,7 +6,7 @@
 import { fitEquationOfState } from './global';
 import { equationOfStateStart } from './eos';
 import { iterateModifiedArrott, windowPoints } from './map';
-import { selectBranch } from './table';
+import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions, IValueSigma } from './types';
 import { conventionsOf, setWarnings, SweepInputError } from './types';
 
