@@ -1,9 +1,12 @@
 /**
- * A cheap scan of HTML text that estimates element nesting depth before the
- * text reaches the HTML parser. Tree construction checks the stack of open
- * elements on many steps, so thousands of nested elements cost time that grows
- * with the square of the depth; markup nested deeper than the limit is refused
- * up front, with the table row and cell where it happens.
+ * A linear scan of HTML text, run before the text reaches the HTML parser, that
+ * refuses markup whose shape would make tree building slow: nesting deeper than
+ * the limit (tree construction checks the stack of open elements on many steps,
+ * so cost grows with depth × elements) and tags with a huge number of attributes
+ * (duplicate-attribute checks grow with their square). The scan follows the HTML
+ * tokenizer closely enough for this (tag names run to whitespace, '/' or '>';
+ * quoted attribute values may hold '>'), visits every character a bounded number
+ * of times, and names the table row and cell where a limit is hit.
  */
 import { TABLE_LIMITS, TableParseError } from './types';
 
@@ -16,7 +19,9 @@ const SELF_CLOSING_SIBLINGS = new Set([
 /** Elements whose content is raw text, not markup. */
 const RAW_TEXT = new Set(['script', 'style', 'textarea', 'title', 'xmp', 'iframe', 'noembed', 'noframes', 'plaintext']);
 
-const TAG = /<!--[\s\S]*?(?:-->|$)|<(\/?)([a-zA-Z][^\s/>]*)[^>]*?(\/?)>/g;
+/** Most attributes one tag may carry. */
+export const MAX_ATTRIBUTES = 256;
+
 const rawEnd = new Map<string, RegExp>();
 
 /** Position of the end tag closing a raw-text element, or the end of the text. */
@@ -31,47 +36,131 @@ function skipRawText(html: string, name: string, from: number): number {
   return m === null ? html.length : m.index;
 }
 
-/** Refuse HTML whose estimated nesting depth exceeds `limit`, naming the table row and cell where it does. */
+function isSpace(c: number): boolean {
+  return c === 32 || c === 9 || c === 10 || c === 12 || c === 13;
+}
+
+function isLetter(c: number): boolean {
+  return (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
+}
+
+interface ITag {
+  name: string;
+  closing: boolean;
+  selfClosing: boolean;
+  attributes: number;
+  /** Index just after the tag's '>'; -1 when the text ends inside the tag. */
+  end: number;
+}
+
+/** Read the tag starting at `i` (html[i] === '<', followed by a letter or '/' + letter). */
+function readTag(html: string, i: number): ITag {
+  const n = html.length;
+  const closing = html.charCodeAt(i + 1) === 47;
+  let j = i + (closing ? 2 : 1);
+  const nameStart = j;
+  while (j < n && !isSpace(html.charCodeAt(j)) && html.charCodeAt(j) !== 47 && html.charCodeAt(j) !== 62) {
+    j++;
+  }
+  const name = html.slice(nameStart, j).toLowerCase();
+  let attributes = 0;
+  let selfClosing = false;
+  while (j < n) {
+    const c = html.charCodeAt(j);
+    if (c === 62) {
+      return { name, closing, selfClosing, attributes, end: j + 1 };
+    }
+    if (isSpace(c)) {
+      j++;
+      continue;
+    }
+    if (c === 47) {
+      selfClosing = html.charCodeAt(j + 1) === 62;
+      j++;
+      continue;
+    }
+    attributes++;
+    // The first character always belongs to the name (even '='), so the scan always advances.
+    j++;
+    while (j < n && !isSpace(html.charCodeAt(j)) && html.charCodeAt(j) !== 47 && html.charCodeAt(j) !== 62 && html.charCodeAt(j) !== 61) {
+      j++;
+    }
+    while (j < n && isSpace(html.charCodeAt(j))) {
+      j++;
+    }
+    if (html.charCodeAt(j) !== 61) {
+      continue;
+    }
+    j++;
+    while (j < n && isSpace(html.charCodeAt(j))) {
+      j++;
+    }
+    const q = html.charCodeAt(j);
+    if (q === 34 || q === 39) {
+      const close = html.indexOf(q === 34 ? '"' : "'", j + 1);
+      if (close < 0) {
+        return { name, closing, selfClosing, attributes, end: -1 };
+      }
+      j = close + 1;
+    } else {
+      while (j < n && !isSpace(html.charCodeAt(j)) && html.charCodeAt(j) !== 62) {
+        j++;
+      }
+    }
+  }
+  return { name, closing, selfClosing, attributes, end: -1 };
+}
+
+/** Refuse HTML nested deeper than `limit` or with an over-long attribute list, naming the table row and cell. */
 export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDepth): void {
   const open: string[] = [];
   let rows = 0;
   let cells = 0;
-  TAG.lastIndex = 0;
-  let m: RegExpExecArray | null;
-  while ((m = TAG.exec(html)) !== null) {
-    if (m[2] === undefined) {
-      continue;
-    }
-    const name = m[2].toLowerCase();
-    const closing = m[1] === '/';
-    if (!closing && name === 'tr') {
-      rows++;
-      cells = 0;
-    } else if (!closing && (name === 'td' || name === 'th')) {
-      cells++;
-    }
-    // In HTML `<div/>` still opens a div; only SVG and MathML content has self-closing tags.
-    const selfClosing = m[3] === '/' && (open.includes('svg') || open.includes('math') || name === 'svg' || name === 'math');
-    if (VOID.has(name) || SELF_CLOSING_SIBLINGS.has(name) || selfClosing) {
-      continue;
-    }
-    if (closing) {
-      const at = open.lastIndexOf(name);
-      if (at >= 0) {
-        open.length = at;
+  const where = () => (rows === 0 ? 'before the first table row' : `in table row ${rows}, column ${Math.max(cells, 1)}`);
+  let i = html.indexOf('<');
+  while (i >= 0 && i < html.length - 1) {
+    const next = html.charCodeAt(i + 1);
+    let resume: number;
+    if (next === 33 || next === 63) {
+      // Comment (<!-- ... -->), doctype or bogus comment (<!x ...>, <?x ...>).
+      const isComment = html.startsWith('<!--', i);
+      const close = isComment ? html.indexOf('-->', i + 4) : html.indexOf('>', i + 2);
+      resume = close < 0 ? html.length : close + (isComment ? 3 : 1);
+    } else if (isLetter(next) || (next === 47 && isLetter(html.charCodeAt(i + 2)))) {
+      const tag = readTag(html, i);
+      if (tag.attributes > MAX_ATTRIBUTES) {
+        throw new TableParseError(`A <${tag.name.slice(0, 20)}> tag ${where()} has ${tag.attributes} attributes; the limit is ${MAX_ATTRIBUTES}.`);
       }
-      continue;
+      if (tag.end < 0) {
+        return;
+      }
+      resume = tag.end;
+      if (!tag.closing && tag.name === 'tr') {
+        rows++;
+        cells = 0;
+      } else if (!tag.closing && (tag.name === 'td' || tag.name === 'th')) {
+        cells++;
+      }
+      // In HTML `<div/>` still opens a div; only SVG and MathML content has self-closing tags.
+      const foreign = tag.selfClosing && (open.includes('svg') || open.includes('math') || tag.name === 'svg' || tag.name === 'math');
+      if (tag.closing) {
+        const at = open.lastIndexOf(tag.name);
+        if (at >= 0) {
+          open.length = at;
+        }
+      } else if (RAW_TEXT.has(tag.name)) {
+        resume = skipRawText(html, tag.name, resume);
+      } else if (!VOID.has(tag.name) && !SELF_CLOSING_SIBLINGS.has(tag.name) && !foreign) {
+        open.push(tag.name);
+        if (open.length > limit) {
+          throw new TableParseError(
+            `The HTML is nested more than ${limit} elements deep (at character ${i}, ${where()}); a table needs far fewer.`
+          );
+        }
+      }
+    } else {
+      resume = i + 1;
     }
-    if (RAW_TEXT.has(name)) {
-      TAG.lastIndex = skipRawText(html, name, TAG.lastIndex);
-      continue;
-    }
-    open.push(name);
-    if (open.length > limit) {
-      const where = rows === 0 ? 'before the first table row' : `in table row ${rows}, column ${Math.max(cells, 1)}`;
-      throw new TableParseError(
-        `The HTML is nested more than ${limit} elements deep (at character ${m.index}, ${where}); a table needs far fewer.`
-      );
-    }
+    i = html.indexOf('<', resume);
   }
 }

@@ -152,7 +152,13 @@ describe('hostile and malformed input: no throw, nothing run, bounded time, loca
     { weight: 6, arbitrary: fc.constantFrom('<table>', '</table>', '<thead>', '<tbody>', '<tr>', '</tr>', '<th>', '<td>', '</td>', '<td colspan="7">', '<th rowspan="70000">', '<td colspan="99999">', '<p>12 rows × 3 columns</p>', '...', '<td>...</td>', '1.000000', 'inf', 'NaN', '&nbsp;') },
     { weight: 2, arbitrary: fc.string({ maxLength: 20 }) },
     { weight: 1, arbitrary: fc.integer({ min: 1, max: 3000 }).map(n => `${'<div>'.repeat(n)}x`) },
-    { weight: 1, arbitrary: fc.integer({ min: 60, max: 400 }).map(n => `<td>${'<b><i>'.repeat(n)}y`) }
+    { weight: 1, arbitrary: fc.integer({ min: 60, max: 400 }).map(n => `<td>${'<b><i>'.repeat(n)}y`) },
+    {
+      weight: 1,
+      arbitrary: fc
+        .tuple(fc.constantFrom('<a', '<a ', '<!-', '</', '<', ' y', '="', '<div title="<">', '<td x=1 ', '<table>'), fc.integer({ min: 1000, max: 30_000 }))
+        .map(([f, n]) => f.repeat(n))
+    }
   );
 
   it('random HTML soup', () => {
@@ -183,6 +189,26 @@ describe('hostile and malformed input: no throw, nothing run, bounded time, loca
       }),
       { numRuns: 800 }
     );
+  });
+
+  it('pathological tag soup (unterminated tags, attribute floods, span bombs) stays fast', () => {
+    const n = 200_000;
+    const cases = [
+      `<table>${'<a'.repeat(n)}`,
+      `<table>${'<a '.repeat(n)}`,
+      `<table>${'<!-'.repeat(n)}`,
+      `<table>${'</'.repeat(n)}`,
+      `<table><tr><td x${' y'.repeat(n)}>1</td></tr></table>`,
+      `<table><div x="${'y'.repeat(n)}`,
+      `<table>${'<div title="<">'.repeat(n)}`,
+      `<table>${'<tr><td rowspan="65534" colspan="2000">x'.repeat(20)}`
+    ];
+    for (const html of cases) {
+      const r = timed(() => parseMime('text/html', html));
+      if (!r.ok && !/^The HTML (holds no table|table is empty)/.test(r.message)) {
+        expectLocatedRefusal(r);
+      }
+    }
   });
 
   it('table-shaped HTML with huge cells and deep nesting is refused by row and column', () => {
