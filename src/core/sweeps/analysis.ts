@@ -57,7 +57,8 @@ export function analyseIsotherms(set: IIsothermSet, options: IIsothermAnalysisOp
   const tMax = options.tMax ?? 0.1;
   const arrott = arrottAnalysis(set, { region: options.region, branch: options.branch });
   const map = modifiedArrottIteration(set, { region: options.region, tMax, start: options.start, branch: options.branch });
-  const kf = kouvelFisher(map.spontaneous, map.inverseChi, options.kouvelFisherSpan ?? 5);
+  const powers = Number.isFinite(map.beta.value) && Number.isFinite(map.gamma.value) && map.beta.value > 0 && map.gamma.value > 0 ? { below: 1 / map.beta.value, above: 1 / map.gamma.value } : undefined;
+  const kf = kouvelFisher(map.spontaneous, map.inverseChi, options.kouvelFisherSpan ?? 5, powers);
   const iso = selectBranch(set, options.branch).isotherms;
   const crit = criticalIsotherm(iso, map.Tc.value, { hMin: options.criticalHMin, hMax: options.criticalHMax });
   const checks = scalingChecks({

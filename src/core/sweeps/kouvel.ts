@@ -1,13 +1,15 @@
 /**
  * Kouvel–Fisher method (reference B7): X = Ms/(dMs/dT) = (T − Tc)/β below Tc,
  * Y = χ0⁻¹/(dχ0⁻¹/dT) = (T − Tc)/γ above Tc. Derivatives come from local
- * quadratic fits (smoothed, reference D13); straight lines through X(T) and
+ * quadratic fits (smoothed, reference D13), optionally of Ms^p and
+ * (1/χ0)^q with powers that make them nearly linear in T; straight lines through X(T) and
  * Y(T) give 1/β, 1/γ and Tc with σ from the line covariance. Local slopes
  * give effective exponents at each T.
  */
 import type { ITemperaturePoint } from './arrott';
 import { fitLine, lineRoot, smoothedDerivative } from './linear';
 import type { IValueSigma } from './types';
+import { SweepInputError } from './types';
 
 /** One side of the Kouvel–Fisher analysis. */
 export interface IKouvelFisherSide {
@@ -34,15 +36,18 @@ export interface IKouvelFisherResult {
   warnings: string[];
 }
 
-function side(points: readonly ITemperaturePoint[], span: number): IKouvelFisherSide {
+function side(points: readonly ITemperaturePoint[], span: number, power: number): IKouvelFisherSide {
   const pts = points.filter(p => Number.isFinite(p.value) && p.value > 0).slice().sort((a, b) => a.T - b.T);
   const nan = { value: NaN, sigma: NaN };
   if (pts.length < 3) {
     return { points: [], exponent: nan, Tc: nan, effective: [], n: pts.length, reason: `only ${pts.length} point(s): at least 3 are needed` };
   }
   const T = pts.map(p => p.T);
-  const d = smoothedDerivative(T, pts.map(p => p.value), span);
-  const X = pts.map((p, i) => p.value / d[i]);
+  // X = Ms/(dMs/dT) = p·y/(dy/dT) with y = Ms^p exactly; a p that makes y nearly linear in T
+  // only makes the local-quadratic derivative more accurate
+  const y = pts.map(p => Math.pow(p.value, power));
+  const d = smoothedDerivative(T, y, span);
+  const X = pts.map((_p, i) => (power * y[i]) / d[i]);
   const f = fitLine(T, X);
   // X = (T − Tc)/e: slope 1/e, Tc = root
   const e = 1 / f.slope;
@@ -67,9 +72,19 @@ function side(points: readonly ITemperaturePoint[], span: number): IKouvelFisher
  * Kouvel–Fisher from Ms(T) (below Tc) and 1/χ0(T) (above Tc), which should come
  * from Arrott / modified Arrott extrapolation, not finite-field M(T) (D4).
  */
-export function kouvelFisher(Ms: readonly ITemperaturePoint[], inverseChi: readonly ITemperaturePoint[], span = 5): IKouvelFisherResult {
-  const below = side(Ms, span);
-  const above = side(inverseChi, span);
+export function kouvelFisher(
+  Ms: readonly ITemperaturePoint[],
+  inverseChi: readonly ITemperaturePoint[],
+  span = 5,
+  powers: { below: number; above: number } = { below: 1, above: 1 }
+): IKouvelFisherResult {
+  for (const v of [powers.below, powers.above]) {
+    if (!(v > 0) || !Number.isFinite(v)) {
+      throw new SweepInputError(`Kouvel-Fisher smoothing powers must be finite and > 0, got ${v}`);
+    }
+  }
+  const below = side(Ms, span, powers.below);
+  const above = side(inverseChi, span, powers.above);
   const warnings: string[] = [];
   if (below.n < 5 || above.n < 5) {
     warnings.push(`Kouvel-Fisher: ${below.n} point(s) below and ${above.n} above Tc; five or more on each side are advisable`);
@@ -85,6 +100,8 @@ export function kouvelFisher(Ms: readonly ITemperaturePoint[], inverseChi: reado
   } else {
     Tc = Number.isFinite(a.value) ? a : b;
   }
-  const convention = `X = Ms/(dMs/dT) = (T - Tc)/beta, Y = (1/chi0)/(d(1/chi0)/dT) = (T - Tc)/gamma; derivatives from local quadratics through ${span} points; T in K`;
+  const convention =
+    `X = Ms/(dMs/dT) = (T - Tc)/beta, Y = (1/chi0)/(d(1/chi0)/dT) = (T - Tc)/gamma; derivatives from local quadratics through ${span} points ` +
+    `of Ms^${powers.below} and (1/chi0)^${powers.above} (X = p y/(dy/dT) for y = Ms^p, exact for any p); T in K`;
   return { below, above, Tc, span, convention, warnings };
 }
