@@ -1,3 +1,4 @@
+import type { ISpectralModel } from './subproblem';
 import { gradientKernel, timesKernel } from './unrolled';
 
 /**
@@ -114,4 +115,30 @@ export function scaledTransposeTimes(
   for (let a = 0; a < m; a++) {
     out[a] /= diag[cols[a]];
   }
+}
+
+/** Rounding-noise level of Σr²: 2‖r‖‖e‖ + ‖e‖² for ‖e‖² = `e2` (see `ResidualEvaluator.lastRoundingNorm2`). */
+export function costNoise(cost: number, e2: number): number {
+  return 2 * Math.sqrt(cost * e2) + e2;
+}
+
+/** χ² reduction predicted by the full Gauss–Newton step of the model: Σ cᵢ²/sᵢ². */
+export function gaussNewtonReduction(m: ISpectralModel): number {
+  let sum = 0;
+  for (let a = 0; a < m.s2.length; a++) {
+    if (m.s2[a] > 0) {
+      sum += (m.c[a] * m.c[a]) / m.s2[a];
+    }
+  }
+  return sum;
+}
+
+/** ‖D·v‖ for the diagonal scaling D. */
+export function scaledNorm(diag: Float64Array, v: Float64Array): number {
+  let s = 0;
+  for (let j = 0; j < v.length; j++) {
+    const t = diag[j] * v[j];
+    s += t * t;
+  }
+  return Math.sqrt(s);
 }

@@ -1,14 +1,17 @@
 /**
- * Levenberg–Marquardt trust-region iteration with Moré column scaling,
- * projected box bounds with an active set, forward differences switching to
- * central ones before convergence is declared, and a restart from the best
- * point when the step collapses while the gradient is not small.
+ * Levenberg–Marquardt trust-region iteration: Moré column scaling, projected
+ * box bounds with an active set, geodesic acceleration, forward differences
+ * switching to Richardson-extrapolated ones before convergence is declared,
+ * rounding-noise-aware acceptance near the solution, and a restart from the
+ * best point when the step collapses while the Gauss–Newton model still
+ * predicts progress. Stopping rules: see `defaults.ts`.
  */
 import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
-import { columnNormsAndGradient, jacobianTimes, scaledTransposeTimes, secondDirectional } from './kernels';
-import { dampingForRadius, solveDamped, spectralModel, stepForMu } from './subproblem';
+import { accelerate, geodesicWork } from './geodesic';
+import { columnNormsAndGradient, costNoise, gaussNewtonReduction, jacobianTimes, scaledNorm } from './kernels';
+import { dampingForRadius, spectralModel, stepForMu } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 import type { IFitProgress } from './types';
 
@@ -34,31 +37,6 @@ export interface ILmOutcome {
 export interface ILmHooks {
   onProgress?: (p: IFitProgress) => void;
   shouldStop?: () => boolean;
-}
-
-/** Rounding-noise level of Σr²: 2‖r‖‖e‖ + ‖e‖² for ‖e‖² = `e2` (see `ResidualEvaluator.lastRoundingNorm2`). */
-function costNoise(cost: number, e2: number): number {
-  return 2 * Math.sqrt(cost * e2) + e2;
-}
-
-/** χ² reduction predicted by the full Gauss–Newton step of the model: Σ cᵢ²/sᵢ². */
-function gaussNewtonReduction(m: ISpectralModel): number {
-  let sum = 0;
-  for (let a = 0; a < m.s2.length; a++) {
-    if (m.s2[a] > 0) {
-      sum += (m.c[a] * m.c[a]) / m.s2[a];
-    }
-  }
-  return sum;
-}
-
-function scaledNorm(diag: Float64Array, v: Float64Array): number {
-  let s = 0;
-  for (let j = 0; j < v.length; j++) {
-    const t = diag[j] * v[j];
-    s += t * t;
-  }
-  return Math.sqrt(s);
 }
 
 /** Runs the iteration from `problem.start` to the end. Never throws for model failures. */
@@ -100,43 +78,7 @@ export function* levenbergMarquardtSteps(
   const step = new Float64Array(k);
   const useSvd = n <= FIT_DEFAULTS.svdMaxRows;
   const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
-  const rvv = new Float64Array(n);
-  const za = new Float64Array(k);
-  const rhs = new Float64Array(k);
-
-  /**
-   * Geodesic acceleration (second directional derivative of r along the
-   * velocity by one extra evaluation): adds ½a to `step` when ‖a‖ ≤ α‖v‖.
-   */
-  const accelerate = (m: ISpectralModel, mu: number): 'used' | 'rejected' | 'none' => {
-    const hh = 0.1;
-    for (let j = 0; j < k; j++) {
-      pT[j] = Math.min(upper[j], Math.max(lower[j], p[j] + hh * step[j]));
-    }
-    const c = ev.residuals(pT, rT, fT);
-    if (!Number.isFinite(c)) {
-      return 'none';
-    }
-    for (let j = 0; j < k; j++) {
-      za[j] = pT[j] - p[j];
-    }
-    secondDirectional(jac, za, rT, r, hh, n, k, rvv);
-    scaledTransposeTimes(jac, rvv, n, k, m.cols, diag, rhs);
-    solveDamped(m, mu, rhs, za);
-    let an = 0;
-    let vn = 0;
-    for (let a = 0; a < m.cols.length; a++) {
-      an += za[a] * za[a];
-      vn += z[a] * z[a];
-    }
-    if (!(Math.sqrt(an) <= FIT_DEFAULTS.geodesicAlpha * Math.sqrt(vn))) {
-      return 'rejected';
-    }
-    for (let a = 0; a < m.cols.length; a++) {
-      step[m.cols[a]] += (0.5 * za[a]) / diag[m.cols[a]];
-    }
-    return 'used';
-  };
+  const work = geodesicWork(n, k);
   let scheme: DifferenceScheme = ev.analytic ? 'extrapolated' : 'forward';
 
   const out = (converged: boolean, reason: string): ILmOutcome => ({
@@ -237,7 +179,10 @@ export function* levenbergMarquardtSteps(
     for (let a = 0; a < m.cols.length; a++) {
       step[m.cols[a]] = z[a] / diag[m.cols[a]];
     }
-    const acceleration = useGeodesic && mu > 0 ? accelerate(m, mu) : 'none';
+    const acceleration =
+      useGeodesic && mu > 0
+        ? accelerate(ev, m, mu, { n, k, p, r, jac, diag, lower, upper, z, step, pT, rT, fT }, work)
+        : 'none';
     if (acceleration === 'rejected') {
       // The path curves too much within this radius: shrink it.
       delta *= 0.5;
