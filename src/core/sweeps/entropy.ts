@@ -115,16 +115,22 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
   if (ok.length < 3) {
     warnings.push(`only ${ok.length} isotherm(s) reach this field change: too few for a ΔS_M(T) curve`);
   }
-  for (let k = 1; k + 1 < points.length; k++) {
-    const a = Math.abs(points[k].dS);
-    if (a > 3 * Math.max(Math.abs(points[k - 1].dS), Math.abs(points[k + 1].dS))) {
-      warnings.push(`|ΔS_M| at ${points[k].T} K is over 3x its neighbours: the finite difference may span a discontinuity (first-order jump); interpolation across it is not valid (reference D18)`);
-    }
-  }
   let peak: IEntropyPoint | null = null;
   for (const p of points) {
     if (peak === null || Math.abs(p.dS) > Math.abs(peak.dS)) {
       peak = p;
+    }
+  }
+  // a step by more than 3x between neighbouring values near the peak: a jump of M between isotherms
+  const big = peak === null ? Infinity : 0.25 * Math.abs(peak.dS);
+  for (let k = 0; k + 1 < points.length; k++) {
+    const a = Math.abs(points[k].dS);
+    const b = Math.abs(points[k + 1].dS);
+    if (Math.max(a, b) > big && Math.max(a, b) > 3 * Math.min(a, b)) {
+      warnings.push(
+        `|ΔS_M| changes more than 3x between ${points[k].T} K and ${points[k + 1].T} K: the isotherms may straddle a discontinuity ` +
+          '(first-order jump), and the finite difference across it is not a derivative (reference D18); measure more isotherms there'
+      );
     }
   }
   let fwhm = NaN;

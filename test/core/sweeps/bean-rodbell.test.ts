@@ -4,7 +4,7 @@
  * negative Arrott slopes must be flagged; η = 0.5 is second order, none flagged.
  */
 import { describe, expect, it } from 'vitest';
-import { arrottAnalysis, banerjeeEvidence, isothermSetFromArrays } from '../../../src/core/sweeps/index';
+import { arrottAnalysis, banerjeeEvidence, isothermSetFromArrays, magneticEntropyChange } from '../../../src/core/sweeps/index';
 import { beanRodbellSet, linspace, normal } from './generators';
 
 const hs = linspace(0.002, 0.1, 50);
@@ -50,5 +50,16 @@ describe('Banerjee criterion as evidence', () => {
     });
     const ev = banerjeeEvidence(isothermSetFromArrays([{ T: 1, H, M }]).isotherms);
     expect(ev.negativeCount).toBe(0);
+  });
+
+  it('entropy change across the first-order jump (eta = 2, Tc/T0 = 1.0557369245, C5) is flagged; eta = 0.5 is not', () => {
+    const taus = linspace(1.0, 1.1, 21);
+    const fields = linspace(0, 0.02, 41);
+    const first = magneticEntropyChange(beanRodbellSet(2, taus, fields), [0.02]).curves[0];
+    const flagged = first.warnings.filter(w => w.includes('straddle a discontinuity'));
+    expect(flagged.length).toBeGreaterThan(0);
+    expect(flagged[0]).toContain('1.0525');
+    const second = magneticEntropyChange(beanRodbellSet(0.5, taus, fields), [0.02]).curves[0];
+    expect(second.warnings.filter(w => w.includes('discontinuity'))).toEqual([]);
   });
 });
