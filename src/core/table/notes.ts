@@ -53,6 +53,7 @@ export function roundedNote(columns: readonly IColumn[], how: string): ITableNot
 
 /** Read pandas' "N rows × M columns" / "[N rows x M columns]" footer, if present. */
 export function shapeFooter(text: string): { rows: number; columns: number } | null {
-  const m = /\[?(\d+)\s+rows?\s*[×x]\s*(\d+)\s+columns?\]?/.exec(text);
+  // Bounded repeats and a digit lookbehind keep this linear on long runs of digits or spaces.
+  const m = /(?<!\d)(\d{1,15})[ \t]{1,4}rows?[ \t]{0,4}[×x][ \t]{0,4}(\d{1,15})[ \t]{1,4}columns?/.exec(text);
   return m ? { rows: Number(m[1]), columns: Number(m[2]) } : null;
 }

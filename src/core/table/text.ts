@@ -64,7 +64,7 @@ function withoutColumnsName(line: string): string {
 
 /** Parse a block whose first `headerCount` lines are column labels (more than one for MultiIndex columns). */
 function parseBlock(raw: readonly string[], headerCount: number): IBlock {
-  const lines = raw.map(l => l.replace(/\s+\\$/, '').trimEnd());
+  const lines = raw.map(l => (l.endsWith('\\') ? l.slice(0, -1) : l).trimEnd());
   if (lines.length < headerCount + 1) {
     throw new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
   }

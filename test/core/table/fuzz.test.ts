@@ -209,6 +209,11 @@ describe('hostile and malformed input: no throw, nothing run, bounded time, loca
         expectLocatedRefusal(r);
       }
     }
+    // Long runs that trip backtracking regular expressions: digits after a table, spaces in text.
+    timed(() => parseMime('text/html', `<table><tr><th>a</th></tr><tr><td>1</td></tr></table>${'9'.repeat(n)}`));
+    timed(() => parseMime('text/plain', `     a\n${' '.repeat(n)}x\n0  1`));
+    timed(() => parseMime('text/plain', `0    1\nName: ${'a, '.repeat(n)}dtype: int64`));
+    timed(() => parseOutput({ 'application/vnd.dataresource+json': { schema: { fields: [{ name: 'a' }] }, data: [{ a: null }] }, 'text/html': `<table></table>${'1'.repeat(n)}` }));
   });
 
   it('table-shaped HTML with huge cells and deep nesting is refused by row and column', () => {
