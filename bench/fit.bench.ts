@@ -238,7 +238,24 @@ function main(): void {
     if (args.jsonPart) {
       writeFileSync(
         args.jsonPart,
-        JSON.stringify({ repeats: args.repeats, reference: ref ? ref.meta : null, nist, synthetic }, null, 1)
+        JSON.stringify(
+          {
+            repeats: args.repeats,
+            reference: ref ? ref.meta : null,
+            nist: nist.map((r) => ({
+              ...r,
+              curveFitTimeS: refNistTime(ref, r.name, r.start, 'curve_fit'),
+              leastSquaresTimeS: refNistTime(ref, r.name, r.start, 'least_squares_lm')
+            })),
+            synthetic: synthetic.map((r) => ({
+              ...r,
+              leastSquaresTimeS: refSynthTime(ref, r.workload, r.n, 'least_squares_lm'),
+              curveFitTimeS: refSynthTime(ref, r.workload, r.n, 'curve_fit')
+            }))
+          },
+          null,
+          1
+        )
       );
     }
   } finally {
