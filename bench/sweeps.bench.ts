@@ -68,7 +68,7 @@ function makeSet(): IIsothermSet {
 function analyse(set: IIsothermSet) {
   const arrott = arrottAnalysis(set);
   const map = modifiedArrottIteration(set, { start: { beta: 0.5, gamma: 1 } });
-  const kf = kouvelFisher(map.spontaneous, map.inverseChi);
+  const kf = kouvelFisher(map.spontaneous, map.inverseChi, 5, { below: 1 / map.beta.value, above: 1 / map.gamma.value });
   return { arrott, map, kf };
 }
 
