@@ -6,12 +6,16 @@
 import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
 import type { Message } from '@lumino/messaging';
 import { Panel, Widget } from '@lumino/widgets';
+import { buildFitOverlaySpec } from '../charts/fit-overlay';
 import { buildScatterSpec } from '../charts/scatter';
+import type { IAnalysisOutcome } from '../core/analysis';
 import type { ParseResult, ITable } from '../core/table';
 import { ChartView } from './chart-view';
 import { readChartTheme } from './chart-theme';
 import type { IPlottableColumn } from './column-choice';
-import { defaultPair, plottableColumns } from './column-choice';
+import { defaultPair, guessSigmaColumn, plottableColumns } from './column-choice';
+import type { AnalysisRunner } from './analysis-runner';
+import { FitSection } from './fit-section';
 
 let panelCount = 0;
 
@@ -43,8 +47,10 @@ export class AnalysisPanel extends Panel {
     this._message = new Widget();
     this._message.addClass('jp-psiscape-AnalysisPanel-message');
     this._message.node.setAttribute('role', 'alert');
+    this._fit = new FitSection({ trans: this._trans, runner: options.runner });
+    this._fit.outcomeChanged.connect(this._onOutcome, this);
 
-    for (const w of [this._header, this._message, this._notes, this._controls, this._chart, this._status]) {
+    for (const w of [this._header, this._message, this._notes, this._controls, this._chart, this._status, this._fit]) {
       this.addWidget(w);
     }
     this.setParseResult(options.parse);
@@ -63,6 +69,11 @@ export class AnalysisPanel extends Panel {
   /** The chart widget (for tests and for overlays). */
   get chart(): ChartView {
     return this._chart;
+  }
+
+  /** The fit controls and results. */
+  get fitSection(): FitSection {
+    return this._fit;
   }
 
   /** Resolves when the latest chart has been drawn. */
@@ -95,6 +106,7 @@ export class AnalysisPanel extends Panel {
     this._message.hide();
     this._controls.show();
     this._chart.show();
+    this._fit.show();
     this._renderNotes(table);
     this._fillPickers(columns, pair);
     this.select(pair.x, pair.y);
@@ -105,28 +117,75 @@ export class AnalysisPanel extends Panel {
    *
    * @throws RangeError when either column is not numeric.
    */
-  select(x: number, y: number): Promise<void> {
+  select(x: number, y: number, sigma: number | null = guessSigmaColumn(this._columns, y)): Promise<void> {
     const table = this._table;
     const cx = this._columns.find(c => c.index === x);
     const cy = this._columns.find(c => c.index === y);
     if (!table || !cx || !cy) {
       throw new RangeError(`columns ${x} and ${y} are not both numeric columns of the table`);
     }
+    const cs = sigma === null ? undefined : this._columns.find(c => c.index === sigma);
     this._selection = { x, y };
+    this._sigma = cs ? cs.index : null;
     this._xSelect.value = String(x);
     this._ySelect.value = String(y);
-    if (!this.isAttached) {
+    this._sSelect.value = cs ? String(cs.index) : '';
+    this._fit.setInput({
+      x: Array.from(cx.column.values as Float64Array),
+      y: Array.from(cy.column.values as Float64Array),
+      sigma: cs ? Array.from(cs.column.values as Float64Array) : undefined
+    });
+    return this._draw();
+  }
+
+  /** Index of the column used as σ of y, or null. */
+  get sigmaColumn(): number | null {
+    return this._sigma;
+  }
+
+  private _draw(): Promise<void> {
+    const cx = this._columns.find(c => c.index === this._selection?.x);
+    const cy = this._columns.find(c => c.index === this._selection?.y);
+    if (!cx || !cy || !this.isAttached) {
       // Theme colours are read from the attached node; drawn in onAfterAttach.
       return this._rendered;
     }
-    const { spec, plotted, skipped } = buildScatterSpec({
-      x: cx.column.values as Float64Array,
-      y: cy.column.values as Float64Array,
-      xTitle: cx.label,
-      yTitle: cy.label,
-      pointSize: this._pointSize,
-      theme: readChartTheme(this.node)
-    });
+    const xs = cx.column.values as Float64Array;
+    const ys = cy.column.values as Float64Array;
+    const theme = readChartTheme(this.node);
+    const outcome = this._fit.outcome;
+    let plotted = 0;
+    let skipped = 0;
+    let spec;
+    if (outcome) {
+      spec = buildFitOverlaySpec({
+        x: xs,
+        y: ys,
+        xTitle: cx.label,
+        yTitle: cy.label,
+        window: outcome.window,
+        curve: outcome.curve,
+        curveLabel: this._trans.__('fitted model'),
+        pointSize: this._pointSize,
+        theme
+      });
+      for (let i = 0; i < xs.length; i++) {
+        if (Number.isFinite(xs[i]) && Number.isFinite(ys[i])) {
+          plotted++;
+        } else {
+          skipped++;
+        }
+      }
+    } else {
+      ({ spec, plotted, skipped } = buildScatterSpec({
+        x: xs,
+        y: ys,
+        xTitle: cx.label,
+        yTitle: cy.label,
+        pointSize: this._pointSize,
+        theme
+      }));
+    }
     this._status.node.textContent =
       skipped > 0
         ? this._trans.__('%1 points plotted; %2 rows left out (missing or infinite values).', plotted, skipped)
@@ -139,11 +198,21 @@ export class AnalysisPanel extends Panel {
     return this._rendered;
   }
 
+  private _onOutcome(_sender: FitSection, _outcome: IAnalysisOutcome | null): void {
+    void this._draw();
+  }
+
   /** Redraw with the current selection (after a theme change, say). */
   redraw(): void {
-    if (this._selection) {
-      void this.select(this._selection.x, this._selection.y);
+    void this._draw();
+  }
+
+  dispose(): void {
+    if (this.isDisposed) {
+      return;
     }
+    this._fit.outcomeChanged.disconnect(this._onOutcome, this);
+    super.dispose();
   }
 
   protected onAfterAttach(msg: Message): void {
@@ -157,6 +226,8 @@ export class AnalysisPanel extends Panel {
     this._controls.hide();
     this._chart.clear();
     this._chart.hide();
+    this._fit.setInput(null);
+    this._fit.hide();
     this._status.node.textContent = '';
     this._notes.node.textContent = '';
   }
@@ -199,7 +270,13 @@ export class AnalysisPanel extends Panel {
       const select = document.createElement('select');
       select.className = `jp-mod-styled ${cls}`;
       select.addEventListener('change', () => {
-        void this.select(Number(this._xSelect.value), Number(this._ySelect.value));
+        const s = this._sSelect.value;
+        const ySelectChanged = select === this._ySelect;
+        void this.select(
+          Number(this._xSelect.value),
+          Number(this._ySelect.value),
+          ySelectChanged ? guessSigmaColumn(this._columns, Number(this._ySelect.value)) : s === '' ? null : Number(s)
+        );
       });
       label.append(span, select);
       node.appendChild(label);
@@ -207,6 +284,7 @@ export class AnalysisPanel extends Panel {
     };
     this._xSelect = make(this._trans.__('x axis'), 'jp-psiscape-x');
     this._ySelect = make(this._trans.__('y axis'), 'jp-psiscape-y');
+    this._sSelect = make(this._trans.__('σ of y'), 'jp-psiscape-sigma');
     return node;
   }
 
@@ -221,6 +299,18 @@ export class AnalysisPanel extends Panel {
         })
       );
     }
+    const none = document.createElement('option');
+    none.value = '';
+    none.textContent = this._trans.__('none (errors from the scatter)');
+    this._sSelect.replaceChildren(
+      none,
+      ...columns.map(c => {
+        const option = document.createElement('option');
+        option.value = String(c.index);
+        option.textContent = c.label;
+        return option;
+      })
+    );
     this._xSelect.value = String(pair.x);
     this._ySelect.value = String(pair.y);
   }
@@ -236,6 +326,9 @@ export class AnalysisPanel extends Panel {
   private _message: Widget;
   private _xSelect!: HTMLSelectElement;
   private _ySelect!: HTMLSelectElement;
+  private _sSelect!: HTMLSelectElement;
+  private _sigma: number | null = null;
+  private _fit: FitSection;
   private _table: ITable | null = null;
   private _columns: IPlottableColumn[] = [];
   private _selection: { x: number; y: number } | null = null;
@@ -256,5 +349,7 @@ export namespace AnalysisPanel {
     translator: ITranslator;
     /** Select and scroll to the source cell. */
     onRevealSource: () => void | Promise<void>;
+    /** Runs fits (a worker-backed runner by default). */
+    runner?: AnalysisRunner;
   }
 }

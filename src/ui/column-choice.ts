@@ -41,3 +41,23 @@ export function defaultPair(columns: IPlottableColumn[]): { x: number; y: number
   const pool = data.length >= 2 ? data : columns;
   return { x: pool[0].index, y: pool[1].index };
 }
+
+/**
+ * The column most likely to hold the standard deviations of column `y`:
+ * `sigma_<y>`, `<y>_err`, `<y>_sigma`, `d<y>`, `err_<y>`, or a lone `sigma`/`err`/`error`
+ * column. Returns its index, or null.
+ */
+export function guessSigmaColumn(columns: IPlottableColumn[], y: number): number | null {
+  const target = columns.find(c => c.index === y);
+  if (!target) {
+    return null;
+  }
+  const name = target.column.name.toLowerCase();
+  const wanted = new Set([`sigma_${name}`, `${name}_err`, `${name}_sigma`, `d${name}`, `err_${name}`, `${name}_error`]);
+  const named = columns.find(c => c.index !== y && wanted.has(c.column.name.toLowerCase()));
+  if (named) {
+    return named.index;
+  }
+  const generic = columns.filter(c => c.index !== y && ['sigma', 'err', 'error', 'std'].includes(c.column.name.toLowerCase()));
+  return generic.length === 1 ? generic[0].index : null;
+}

@@ -1,0 +1,167 @@
+/**
+ * The panel's analysis jobs: known-parameter recovery through each model,
+ * reference values, the fit window, and precise refusals for bad input.
+ */
+import { describe, expect, it } from 'vitest';
+import { AnalysisInputError, formatWithError, handleAnalysisMessage, parseStarts, runAnalysisJob } from '../../../src/core/analysis';
+import type { AnalysisResponse, IAnalysisJob } from '../../../src/core/analysis';
+import { weissMagnetisation } from '../../../src/core/physics/weiss';
+import { normal } from '../physics/prng';
+
+function weissData(seed: number, n = 120, Tc = 287.4, Ms = 92.3, noise = 0.4) {
+  const rnd = normal(seed);
+  const T = Array.from({ length: n }, (_, i) => 20 + (320 * i) / (n - 1));
+  const m = weissMagnetisation(0.5, T.map(t => t / Tc));
+  return { T, M: T.map((_, i) => Ms * m[i] + noise * rnd()) };
+}
+
+describe('runAnalysisJob', () => {
+  it('should recover Tc and Ms of a spin-½ Weiss curve within a few standard errors', () => {
+    // Known-parameter recovery: data from the Weiss model itself (REFERENCE.md B1) plus seeded noise.
+    const { T, M } = weissData(11);
+    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
+    expect(out.fit.converged).toBe(true);
+    const Tc = out.derived.find(d => d.name === 'Tc')!;
+    const Ms = out.derived.find(d => d.name === 'Ms')!;
+    expect(Math.abs(Tc.value - 287.4)).toBeLessThan(4 * Tc.sigma);
+    expect(Math.abs(Ms.value - 92.3)).toBeLessThan(4 * Ms.sigma);
+    expect(Tc.sigma).toBeGreaterThan(0);
+    expect(out.fit.errorScaling).toBe('scaled-by-reduced-chi2');
+    expect(out.used).toBe(120);
+    expect(out.curve.x).toHaveLength(300);
+    expect(out.convention).toMatch(/tau|T\/Tc/i);
+  });
+
+  it('should use σ from a column and say so', () => {
+    const { T, M } = weissData(12);
+    const sigma = T.map(() => 0.4);
+    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, sigma, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
+    expect(out.fit.errorScaling).toBe('from-sigma');
+    // χ²_red ≈ 1 when σ matches the noise (120 points: 1 ± 0.13 at 1σ, common practice, no source).
+    expect(out.fit.reducedChi2).toBeGreaterThan(0.6);
+    expect(out.fit.reducedChi2).toBeLessThan(1.4);
+  });
+
+  it('should recover β and Tc of a power law, through data that run through Tc', () => {
+    const rnd = normal(5);
+    const T = Array.from({ length: 90 }, (_, i) => 200 + i);
+    const y = T.map(t => (t < 280 ? 1.7 * Math.pow(1 - t / 280, 0.3265) : 0) + 0.002 * rnd());
+    const out = runAnalysisJob({ model: 'power-law', x: T, y, window: { min: 200, max: 289 }, options: { proxyPower: 1 } });
+    expect(out.fit.converged).toBe(true);
+    const beta = out.derived.find(d => d.name === 'β')!;
+    const Tc = out.derived.find(d => d.name === 'Tc')!;
+    expect(Math.abs(beta.value - 0.3265)).toBeLessThan(4 * beta.sigma);
+    expect(Math.abs(Tc.value - 280)).toBeLessThan(4 * Tc.sigma);
+    expect(out.cautions.join(' ')).toMatch(/correlated/);
+    expect(out.cautions.join(' ')).toMatch(/window runs through Tc/);
+  });
+
+  it('should report β of the order parameter when the data are an intensity ∝ ψ²', () => {
+    // Proxy exponent (REFERENCE.md Part D item 10): I ∝ ψ² falls as (−t)^(2β); the fit must report β.
+    const T = Array.from({ length: 60 }, (_, i) => 100 + 2.5 * i);
+    const I = T.map(t => 5000 * Math.pow(1 - t / 260, 2 * 0.5));
+    const out = runAnalysisJob({ model: 'power-law', x: T, y: I, window: { min: 100, max: 250 }, options: { proxyPower: 2 } });
+    expect(out.derived.find(d => d.name === 'β')!.value).toBeCloseTo(0.5, 6);
+  });
+
+  it('should reproduce the Gd³⁺ effective moment from its Curie constant', () => {
+    // REFERENCE.md C4 [computed here]: C_mol = 7.878110 emu K/mol/Oe gives p_eff = √63 = 7.93725393319 (7 digits given in C).
+    const T = Array.from({ length: 40 }, (_, i) => 100 + 5 * i);
+    const chi = T.map(t => 0.001 + 7.87811 / (t - 15));
+    const out = runAnalysisJob({ model: 'curie-weiss', x: T, y: chi, window: { min: 100, max: 400 }, options: { units: 'cgs-emu' } });
+    const p = out.derived.find(d => d.name === 'p_eff')!;
+    expect(p.value).toBeCloseTo(7.937254, 5);
+    expect(out.derived.find(d => d.name === 'θ')!.value).toBeCloseTo(15, 6);
+  });
+
+  it('should fit a user expression from given start values', () => {
+    const x = Array.from({ length: 50 }, (_, i) => i * 10);
+    const y = x.map(v => 3 * Math.exp(-v / 120) + 0.5);
+    const out = runAnalysisJob(
+      { model: 'expression', x, y, window: { min: 0, max: 500 }, options: { expression: 'A*exp(-x/T0) + c' } },
+      {},
+      parseStarts('A = 2, T0 = 100, c = 0')
+    );
+    expect(out.fit.converged).toBe(true);
+    expect(out.fit.parameters).toEqual(['A', 'T0', 'c']);
+    expect(out.fit.values[1]).toBeCloseTo(120, 6);
+  });
+
+  it('should fit only the points inside the window and count skipped missing values', () => {
+    const { T, M } = weissData(3);
+    M[10] = Number.NaN;
+    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, window: { min: 30, max: 200 }, options: { J: 0.5 } });
+    const inside = T.filter(t => t >= 30 && t <= 200).length;
+    expect(out.used + out.skipped).toBe(inside);
+    expect(out.skipped).toBe(1);
+    expect(Math.min(...out.curve.x)).toBeGreaterThanOrEqual(30);
+    expect(Math.max(...out.curve.x)).toBeLessThanOrEqual(200);
+    expect(out.window).toEqual({ min: 30, max: 200 });
+  });
+
+  describe('bad input', () => {
+    const base: IAnalysisJob = { model: 'weiss', x: [1, 2, 3, 4, 5], y: [5, 4, 3, 2, 1], window: { min: 0, max: 10 }, options: {} };
+    it.each([
+      [{ ...base, y: [1, 2] }, 'the x column has 5 values but the y column has 2'],
+      [{ ...base, window: { min: 5, max: 1 } }, 'the fit window is empty: from 5 to 1'],
+      [{ ...base, sigma: [1, 1, 0, 1, 1] }, 'σ must be > 0, but row 3 has σ = 0'],
+      [{ ...base, window: { min: 0, max: 2.5 } }, 'The Weiss mean-field fit needs at least 4 points in the fit window, but the window holds 2. Widen the window.'],
+      [{ ...base, x: [], y: [] }, 'The Weiss mean-field fit needs at least 4 points in the fit window, but the window holds 0. Widen the window.'],
+      [{ ...base, x: [-5, 2, 3, 4, 5], window: { min: -10, max: 10 } }, 'The Weiss fit needs absolute temperatures (K > 0) in the x column; convert °C to K first.'],
+      [{ ...base, model: 'expression', options: { expression: '' } }, 'Write a model expression in x, e.g. A*exp(-x/T0) + c.']
+    ] as [IAnalysisJob, string][])('should refuse %#: %s', (job, message) => {
+      expect(() => runAnalysisJob(job)).toThrow(message);
+      expect(() => runAnalysisJob(job)).toThrow(AnalysisInputError);
+    });
+
+    it('should name a start value the expression does not use', () => {
+      const job: IAnalysisJob = { ...base, model: 'expression', options: { expression: 'a*x + b' } };
+      expect(() => runAnalysisJob(job, {}, { c: 1 })).toThrow('start values name c, which the expression does not use (its parameters: a, b)');
+    });
+
+    it('should refuse unreadable start values', () => {
+      expect(() => parseStarts('A = one')).toThrow('cannot read the start value "A = one"');
+      expect(parseStarts(' A=1.5e3 ; b = -2\n')).toEqual({ A: 1500, b: -2 });
+    });
+  });
+});
+
+describe('handleAnalysisMessage', () => {
+  it('should reply with progress and the same outcome as a direct run', () => {
+    const { T, M } = weissData(21);
+    const job: IAnalysisJob = { model: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } };
+    const replies: AnalysisResponse[] = [];
+    let clock = 0;
+    handleAnalysisMessage({ id: 7, kind: 'run', job }, r => replies.push(r), () => (clock += 1000));
+    const done = replies.at(-1)!;
+    expect(done.kind).toBe('done');
+    expect(replies.every(r => r.id === 7)).toBe(true);
+    expect(replies.some(r => r.kind === 'progress')).toBe(true);
+    const direct = runAnalysisJob(job);
+    expect(done.kind === 'done' && done.outcome.fit.values).toEqual(direct.fit.values);
+  });
+
+  it('should turn bad requests and bad jobs into failed replies', () => {
+    const replies: AnalysisResponse[] = [];
+    handleAnalysisMessage('nonsense', r => replies.push(r));
+    handleAnalysisMessage({ id: 2, kind: 'run', job: { model: 'weiss', x: [1], y: [], window: { min: 0, max: 1 }, options: {} } }, r => replies.push(r));
+    expect(replies).toEqual([
+      { id: -1, kind: 'failed', message: 'malformed analysis request' },
+      { id: 2, kind: 'failed', message: 'the x column has 1 values but the y column has 0' }
+    ]);
+  });
+});
+
+describe('formatWithError', () => {
+  it.each([
+    [287.4123, 0.0512, '287.412 ± 0.051'],
+    [0.32651, 0.0042, '0.3265 ± 0.0042'],
+    [92.3, 1.7, '92.3 ± 1.7'],
+    [12345.6, 230, '12346 ± 230'],
+    [1.2e-5, 3e-7, '1.200e-5 ± 0.030e-5'],
+    [5, 0, '5 ± ?'],
+    [5, Number.NaN, '5 ± ?']
+  ])('should write %s ± %s as %s (common practice, no source)', (value, sigma, text) => {
+    expect(formatWithError(value, sigma)).toBe(text);
+  });
+});
