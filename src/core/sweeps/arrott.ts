@@ -7,7 +7,7 @@
 import type { IBanerjeeEvidence } from './banerjee';
 import { banerjeeEvidence } from './banerjee';
 import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
-import { interceptCrossing, isothermLines } from './lines';
+import { interceptCrossing, isothermLines, validateWindow } from './lines';
 import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions, IValueSigma } from './types';
 import { conventionsOf, setWarnings } from './types';
@@ -45,6 +45,7 @@ export interface IArrottResult {
 
 /** Runs the Arrott analysis on a set. */
 export function arrottAnalysis(set: IIsothermSet, options: IArrottOptions = {}): IArrottResult {
+  validateWindow(options.region);
   const sel = selectBranch(set, options.branch);
   const warnings = setWarnings(set).concat(sel.warnings);
   const region = options.region ?? {};

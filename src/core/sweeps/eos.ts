@@ -6,6 +6,7 @@
 import type { IEquationOfStateStart, IGlobalFit } from './global';
 import { fitEquationOfState } from './global';
 import type { IFitRegion } from './lines';
+import { validateWindow } from './lines';
 import { iterateModifiedArrott } from './map';
 import { selectBranch } from './sets';
 import type { Branch, IIsotherm, IIsothermSet, ISweepConventions } from './types';
@@ -52,6 +53,7 @@ export function globalEquationOfStateFit(set: IIsothermSet, options: IGlobalOpti
   const sel = selectBranch(set, options.branch);
   const warnings = setWarnings(set).concat(sel.warnings);
   const tMax = options.tMax ?? 0.1;
+  validateWindow(options.region, tMax);
   const start = options.start ?? equationOfStateStart(sel.isotherms, tMax, options.region);
   const notes = [
     'Arrott-Noakes equation of state (H/M)^(1/gamma) = (T - Tc)/T1 + (M/M1)^(1/beta), fitted to ln M of every point',

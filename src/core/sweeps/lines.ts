@@ -7,6 +7,7 @@
 import type { ILineFit } from './linear';
 import { fitLine, lineRoot } from './linear';
 import type { IIsotherm, IValueSigma } from './types';
+import { SweepInputError } from './types';
 
 /** Which points of an isotherm enter its high-field line. */
 export interface IFitRegion {
@@ -30,6 +31,19 @@ export interface IIsothermLine {
   /** Points used. */
   n: number;
   fit: ILineFit;
+}
+
+/** Throws `SweepInputError` for a region or window that cannot select points. */
+export function validateWindow(region: IFitRegion | undefined, tMax?: number): void {
+  if (region?.topFraction !== undefined && !(region.topFraction > 0 && region.topFraction <= 1)) {
+    throw new SweepInputError(`region.topFraction must lie in (0, 1], got ${String(region.topFraction)}`);
+  }
+  if (region?.hMin !== undefined && !Number.isFinite(region.hMin)) {
+    throw new SweepInputError(`region.hMin must be a finite field in A/m, got ${String(region.hMin)}`);
+  }
+  if (tMax !== undefined && !(tMax > 0 && Number.isFinite(tMax))) {
+    throw new SweepInputError(`tMax must be a finite number > 0, got ${String(tMax)}`);
+  }
 }
 
 /** Indices of the points of an isotherm inside the region (H > 0, M > 0 only). */

@@ -6,12 +6,12 @@
 import { UNIVERSALITY_CLASSES } from '../physics/universality';
 import type { ITemperaturePoint } from './arrott';
 import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
-import { interceptCrossing, isothermLines } from './lines';
+import { interceptCrossing, isothermLines, validateWindow } from './lines';
 import type { IPowerFit } from './powerfit';
 import { fitCriticalPower } from './powerfit';
 import { selectBranch } from './sets';
 import type { Branch, IIsotherm, IIsothermSet, ISweepConventions, IValueSigma } from './types';
-import { conventionsOf, setWarnings } from './types';
+import { conventionsOf, setWarnings, SweepInputError } from './types';
 
 /** Options of {@link modifiedArrottIteration}. */
 export interface IModifiedArrottOptions {
@@ -169,6 +169,10 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
 
 /** Runs the modified Arrott iteration on a set. */
 export function modifiedArrottIteration(set: IIsothermSet, options: IModifiedArrottOptions = {}): IModifiedArrottResult {
+  validateWindow(options.region, options.tMax);
+  if (options.start !== undefined && !(options.start.beta > 0 && options.start.gamma > 0)) {
+    throw new SweepInputError(`trial exponents must be > 0, got beta = ${options.start.beta}, gamma = ${options.start.gamma}`);
+  }
   const sel = selectBranch(set, options.branch);
   const warnings = setWarnings(set).concat(sel.warnings);
   const r = iterateModifiedArrott(sel.isotherms, options);

@@ -5,7 +5,7 @@
  * β = 1/8, γ = 7/4 — Stanley 1971, Griffiths 1970); display units; duplicates.
  */
 import { describe, expect, it } from 'vitest';
-import { buildIsothermSet, modifiedArrottIteration, toDisplayUnits } from '../../../src/core/sweeps/index';
+import { arrottAnalysis, buildIsothermSet, globalEquationOfStateFit, modifiedArrottIteration, SweepInputError, toDisplayUnits } from '../../../src/core/sweeps/index';
 import { anSet, linspace } from './generators';
 
 const Ts = linspace(285, 315, 31);
@@ -65,3 +65,17 @@ describe('display in the user units', () => {
     expect(a.status === 'ok' && a.set.isotherms.length === 1 && a.set.isotherms[0].H.length === 4).toBe(true);
   });
 });
+
+describe('boundary validation', () => {
+  const set = anSet({ Tc: 300, beta: 0.5, gamma: 1, T1: 5, M1: 1e5 }, Ts, linspace(1e3, 1e5, 20), 0, 1);
+  it('rejects windows and trial exponents that cannot work, with typed errors', () => {
+    expect(() => arrottAnalysis(set, { region: { topFraction: 0 } })).toThrow(SweepInputError);
+    expect(() => arrottAnalysis(set, { region: { topFraction: 1.5 } })).toThrow(SweepInputError);
+    expect(() => arrottAnalysis(set, { region: { hMin: NaN } })).toThrow(SweepInputError);
+    expect(() => modifiedArrottIteration(set, { tMax: 0 })).toThrow(SweepInputError);
+    expect(() => modifiedArrottIteration(set, { tMax: Infinity })).toThrow(SweepInputError);
+    expect(() => modifiedArrottIteration(set, { start: { beta: -0.3, gamma: 1 } })).toThrow(SweepInputError);
+    expect(() => globalEquationOfStateFit(set, { tMax: -1 })).toThrow(SweepInputError);
+  });
+});
+
