@@ -8,7 +8,7 @@ import type { ISweepChart } from './common';
 import { finite, frame } from './common';
 
 /** Which exponent to draw. */
-export type WindowExponent = 'beta' | 'gamma' | 'delta' | 'Tc';
+export type WindowExponent = 'beta' | 'gamma' | 'delta' | 'Tc' | 'deltaCriticalIsotherm' | 'kouvelFisherBeta' | 'kouvelFisherGamma';
 
 /** Builds the exponent-against-window chart. */
 export function buildExponentWindowSpec(cells: readonly IExponentWindowCell[], exponent: WindowExponent, theme: IChartTheme, fieldUnit = 'A/m'): ISweepChart {
@@ -20,7 +20,16 @@ export function buildExponentWindowSpec(cells: readonly IExponentWindowCell[], e
       rows.push({ tMax: c.tMax, value: v.value, lo: v.value - s, hi: v.value + s, hMin: `${c.hMin} ${fieldUnit}`, method: c.method });
     }
   }
-  const name = exponent === 'Tc' ? 'Tc (K)' : `${exponent}_eff`;
+  const names: Record<WindowExponent, string> = {
+    beta: 'beta_eff',
+    gamma: 'gamma_eff',
+    delta: 'delta_eff = 1 + gamma/beta',
+    Tc: 'Tc (K)',
+    deltaCriticalIsotherm: 'delta_eff (critical isotherm)',
+    kouvelFisherBeta: 'beta_eff (Kouvel-Fisher)',
+    kouvelFisherGamma: 'gamma_eff (Kouvel-Fisher)'
+  };
+  const name = names[exponent];
   const color = { field: 'hMin', type: 'nominal', title: 'H_min' };
   const layer: unknown[] = [
     {

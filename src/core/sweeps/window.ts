@@ -3,7 +3,9 @@
  * Arrott iteration and/or the global equation-of-state fit repeated over a
  * grid of (t_max, H_min), each cell with σ, convergence and reason.
  */
+import { criticalIsotherm } from './critical';
 import { fitEquationOfState } from './global';
+import { kouvelFisher } from './kouvel';
 import { equationOfStateStart } from './eos';
 import { iterateModifiedArrott, windowPoints } from './map';
 import { selectBranch } from './sets';
@@ -20,6 +22,11 @@ export interface IExponentWindowCell {
   Tc: IValueSigma;
   /** δ = 1 + γ/β. */
   delta: IValueSigma;
+  /** δ from the critical isotherm at this cell's Tc with H ≥ H_min (B8). */
+  deltaCriticalIsotherm: IValueSigma;
+  /** Kouvel–Fisher β and γ on this cell's Ms(T), 1/χ0(T) (iteration cells only; NaN otherwise). */
+  kouvelFisherBeta: IValueSigma;
+  kouvelFisherGamma: IValueSigma;
   /** Isotherms (iteration) or points (global) used. */
   n: number;
   converged: boolean;
@@ -74,15 +81,32 @@ export function exponentWindowScan(set: IIsothermSet, options: IWindowScanOption
         const gamma = r.chiFit?.exponent ?? nan;
         const pts = windowPoints(r.lines, r.Tc, 0, tMax);
         const TcS = Math.hypot(r.MsFit?.Tc.sigma ?? NaN, r.chiFit?.Tc.sigma ?? NaN) / 2;
-        cells.push({ tMax, hMin, method: 'iteration', beta, gamma, Tc: { value: r.Tc, sigma: TcS }, delta: widom(beta, gamma), n: pts.ms.length + pts.chi.length, converged: r.converged, reason: r.reason });
+        const powers = beta.value > 0 && gamma.value > 0 ? { below: 1 / beta.value, above: 1 / gamma.value } : undefined;
+        const kf = kouvelFisher(pts.ms, pts.chi, 5, powers);
+        cells.push({
+          tMax,
+          hMin,
+          method: 'iteration',
+          beta,
+          gamma,
+          Tc: { value: r.Tc, sigma: TcS },
+          delta: widom(beta, gamma),
+          deltaCriticalIsotherm: criticalIsotherm(sel.isotherms, r.Tc, { hMin }).delta,
+          kouvelFisherBeta: kf.below.exponent,
+          kouvelFisherGamma: kf.above.exponent,
+          n: pts.ms.length + pts.chi.length,
+          converged: r.converged,
+          reason: r.reason
+        });
       }
       if (methods.includes('global')) {
         const start = equationOfStateStart(sel.isotherms, tMax, region);
         if (start === null) {
-          cells.push({ tMax, hMin, method: 'global', beta: nan, gamma: nan, Tc: nan, delta: nan, n: 0, converged: false, reason: 'no starting values from the iteration' });
+          cells.push({ tMax, hMin, method: 'global', beta: nan, gamma: nan, Tc: nan, delta: nan, deltaCriticalIsotherm: nan, kouvelFisherBeta: nan, kouvelFisherGamma: nan, n: 0, converged: false, reason: 'no starting values from the iteration' });
         } else {
           const g = fitEquationOfState(sel.isotherms, start, { tMax, hMin });
-          cells.push({ tMax, hMin, method: 'global', beta: g.beta, gamma: g.gamma, Tc: g.Tc, delta: g.delta, n: g.n, converged: g.converged, reason: g.reason });
+          const dCrit = Number.isFinite(g.Tc.value) ? criticalIsotherm(sel.isotherms, g.Tc.value, { hMin }).delta : nan;
+          cells.push({ tMax, hMin, method: 'global', beta: g.beta, gamma: g.gamma, Tc: g.Tc, delta: g.delta, deltaCriticalIsotherm: dCrit, kouvelFisherBeta: nan, kouvelFisherGamma: nan, n: g.n, converged: g.converged, reason: g.reason });
         }
       }
     }

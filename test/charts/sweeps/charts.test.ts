@@ -96,9 +96,9 @@ describe('sweep chart builders', () => {
 
   it('exponent against window: one row per finite cell, error bars from sigma, NaN cells left out', () => {
     const cells: IExponentWindowCell[] = [
-      { tMax: 0.01, hMin: 0, method: 'iteration', beta: { value: 0.36, sigma: 0.01 }, gamma: { value: 1.3, sigma: 0.02 }, Tc: { value: 300, sigma: 0.1 }, delta: { value: 4.6, sigma: 0.1 }, n: 10, converged: true, reason: '' },
-      { tMax: 0.05, hMin: 0, method: 'iteration', beta: { value: 0.38, sigma: 0.005 }, gamma: { value: 1.35, sigma: 0.02 }, Tc: { value: 300.1, sigma: 0.1 }, delta: { value: 4.5, sigma: 0.1 }, n: 20, converged: true, reason: '' },
-      { tMax: 0.1, hMin: 1e4, method: 'global', beta: { value: NaN, sigma: NaN }, gamma: { value: NaN, sigma: NaN }, Tc: { value: NaN, sigma: NaN }, delta: { value: NaN, sigma: NaN }, n: 0, converged: false, reason: 'x' }
+      { tMax: 0.01, hMin: 0, method: 'iteration', beta: { value: 0.36, sigma: 0.01 }, gamma: { value: 1.3, sigma: 0.02 }, Tc: { value: 300, sigma: 0.1 }, delta: { value: 4.6, sigma: 0.1 }, deltaCriticalIsotherm: { value: 4.7, sigma: 0.1 }, kouvelFisherBeta: { value: 0.37, sigma: 0.01 }, kouvelFisherGamma: { value: 1.3, sigma: 0.1 }, n: 10, converged: true, reason: '' },
+      { tMax: 0.05, hMin: 0, method: 'iteration', beta: { value: 0.38, sigma: 0.005 }, gamma: { value: 1.35, sigma: 0.02 }, Tc: { value: 300.1, sigma: 0.1 }, delta: { value: 4.5, sigma: 0.1 }, deltaCriticalIsotherm: { value: 4.7, sigma: 0.1 }, kouvelFisherBeta: { value: 0.37, sigma: 0.01 }, kouvelFisherGamma: { value: 1.3, sigma: 0.1 }, n: 20, converged: true, reason: '' },
+      { tMax: 0.1, hMin: 1e4, method: 'global', beta: { value: NaN, sigma: NaN }, gamma: { value: NaN, sigma: NaN }, Tc: { value: NaN, sigma: NaN }, delta: { value: NaN, sigma: NaN }, deltaCriticalIsotherm: { value: NaN, sigma: NaN }, kouvelFisherBeta: { value: NaN, sigma: NaN }, kouvelFisherGamma: { value: NaN, sigma: NaN }, n: 0, converged: false, reason: 'x' }
     ];
     const copy = JSON.stringify(cells);
     const { spec } = buildExponentWindowSpec(cells, 'beta', theme);

@@ -80,6 +80,11 @@ describe('Arrott–Noakes equation of state', () => {
       expect(Number.isFinite(c.beta.sigma)).toBe(true);
       expect(Math.abs(c.beta.value - P.beta)).toBeLessThan(0.03);
       expect(Math.abs(c.gamma.value - P.gamma)).toBeLessThan(0.06);
+      expect(Number.isFinite(c.deltaCriticalIsotherm.value)).toBe(true);
+      if (c.method === 'iteration') {
+        expect(Math.abs(c.kouvelFisherBeta.value - P.beta)).toBeLessThan(0.03);
+        expect(c.kouvelFisherGamma.sigma).toBeGreaterThan(0);
+      }
     }
     expect(() => exponentWindowScan(set, { tMaxs: [], hMins: [0] })).toThrow();
     expect(() => exponentWindowScan(set, { tMaxs: [-1], hMins: [0] })).toThrow();
