@@ -24,3 +24,5 @@ export * from './window';
 export * from './entropy';
 export * from './analysis';
 export * from './display';
+export * from './bootstrap';
+export * from './hysteresis';

@@ -5,7 +5,7 @@
  * Material constants Tc = 300 K, T1 = 5 K, M1 = 1e5 A/m are arbitrary.
  */
 import { describe, expect, it } from 'vitest';
-import { collapseCost, exponentWindowScan, globalEquationOfStateFit, modifiedArrottIteration, scalingCollapse, solveEquationOfState } from '../../../src/core/sweeps/index';
+import { bootstrapModifiedArrott, collapseCost, exponentWindowScan, globalEquationOfStateFit, modifiedArrottIteration, scalingCollapse, solveEquationOfState } from '../../../src/core/sweeps/index';
 import { anField, anSet, linspace } from './generators';
 
 const P = { Tc: 300, beta: 0.3689, gamma: 1.396, T1: 5, M1: 1e5 };
@@ -89,4 +89,18 @@ describe('Arrott–Noakes equation of state', () => {
     expect(() => exponentWindowScan(set, { tMaxs: [], hMins: [0] })).toThrow();
     expect(() => exponentWindowScan(set, { tMaxs: [-1], hMins: [0] })).toThrow();
   });
+
+  it('bootstrap over isotherms: seeded, reproducible, spread comparable to the scatter of the estimate', () => {
+    const set = anSet(P, Ts, Hs, 1e-3, 3);
+    const a = bootstrapModifiedArrott(set, { samples: 12, seed: 9, start: { beta: 0.5, gamma: 1 } });
+    const b = bootstrapModifiedArrott(set, { samples: 12, seed: 9, start: { beta: 0.5, gamma: 1 } });
+    expect(a.beta).toEqual(b.beta);
+    expect(a.failed).toBeLessThan(4);
+    expect(a.beta.sd).toBeGreaterThan(0);
+    expect(a.beta.sd).toBeLessThan(0.02);
+    expect(Math.abs(a.beta.mean - P.beta)).toBeLessThan(0.015);
+    expect(Math.abs(a.Tc.mean - P.Tc)).toBeLessThan(1);
+    expect(() => bootstrapModifiedArrott(set, { samples: 1 })).toThrow();
+  });
 });
+

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildIsothermSet, DEMAG_UNSET_WARNING, selectBranch, SweepInputError } from '../../../src/core/sweeps/index';
+import { branchHysteresis, buildIsothermSet, DEMAG_UNSET_WARNING, isothermSetFromArrays, selectBranch, SweepInputError } from '../../../src/core/sweeps/index';
 import type { IIsothermSet, ISweepColumn } from '../../../src/core/sweeps/index';
 import { mulberry32 } from './generators';
 
@@ -151,4 +151,17 @@ describe('long-format M(H, T) tables (REFERENCE.md A3)', () => {
     buildIsothermSet({ temperature: col('T', 'K', T), field: col('H', 'Oe', t.H), magnetisation: col('M', 'emu/g', t.M), demag: undefined });
     expect(Array.from(T)).toEqual(Array.from(copy));
   });
+
+  it('branch hysteresis: the down branch offset (0.5 emu/g = 0.5 A m^2/kg, C7) is found at every temperature', () => {
+    const t = longTable();
+    const set = okSet(buildIsothermSet({ temperature: col('T', 'K', t.T), field: col('H', 'Oe', t.H), magnetisation: col('M', 'emu/g', t.M) }));
+    const h = branchHysteresis(set);
+    expect(h.map(x => Math.round(x.T))).toEqual([40, 50, 60]);
+    for (const x of h) {
+      expect(x.maxDifference).toBeCloseTo(0.5, 10);
+      expect(x.compared).toBe(10);
+    }
+    expect(branchHysteresis(isothermSetFromArrays([{ T: 1, H: [1, 2], M: [1, 2] }]))).toEqual([]);
+  });
 });
+
