@@ -1,0 +1,71 @@
+// Fitting in the browser: the Weiss model fitted to the demo's M(T) table in
+// a Web Worker, the result table with Tc ± σ, the model curve drawn over the
+// points, and a refusal shown as a message.
+import assert from 'node:assert/strict';
+import { after, before, test } from 'node:test';
+import { contextMenu, openLab, screenshot, startServer } from './lab.mjs';
+
+let server;
+let lab;
+
+before(async () => {
+  const started = await startServer();
+  server = started.server;
+  lab = await openLab(started.url);
+  const { page } = lab;
+  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
+  await contextMenu(page, output, 'Analyse This Table with psiscape');
+  await page.locator('.jp-psiscape-AnalysisPanel .jp-psiscape-ChartView svg').first().waitFor({ timeout: 30000 });
+});
+
+after(async () => {
+  await lab?.browser.close();
+  await new Promise(resolve => server?.close(resolve));
+});
+
+test('a Weiss fit runs in a worker and reports Tc with its standard error', async () => {
+  const { page } = lab;
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  assert.equal(await panel.locator('select.jp-psiscape-sigma option:checked').textContent(), 'sigma_M (emu/g)');
+  await panel.locator('select.jp-psiscape-fit-model').selectOption('weiss');
+  const workers = [];
+  page.on('worker', w => workers.push(w.url()));
+  await panel.locator('button.jp-psiscape-fit-run').click();
+  await panel.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  assert.ok(workers.length >= 1, 'the fit ran in a Web Worker');
+  assert.match(await panel.locator('.jp-psiscape-fit-ok').textContent(), /^Converged/);
+  const tc = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+  // The demo notebook draws its data from a spin-½ Weiss curve with Tc = 287.4 K (demo/generate_notebooks.py).
+  const m = /^([\d.]+) ± ([\d.]+)$/.exec(tc);
+  assert.ok(m, `Tc row reads "${tc}"`);
+  assert.ok(Math.abs(Number(m[1]) - 287.4) < 5 * Number(m[2]) + 0.5, `Tc ${m[1]} ± ${m[2]} is near 287.4`);
+  await panel.locator('.jp-psiscape-ChartView svg .mark-line path').first().waitFor({ timeout: 10000 });
+  await panel.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
+  await screenshot(page, 'fit-weiss-light');
+});
+
+test('a window too narrow gives a message and keeps the controls usable', async () => {
+  const { page } = lab;
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await panel.locator('select.jp-psiscape-fit-model').selectOption('power-law');
+  await panel.locator('input.jp-psiscape-fit-min').fill('100');
+  await panel.locator('input.jp-psiscape-fit-max').fill('105');
+  await panel.locator('button.jp-psiscape-fit-run').click();
+  const error = panel.locator('.jp-psiscape-fit-error');
+  await error.waitFor({ state: 'visible', timeout: 30000 });
+  assert.match(await error.textContent(), /needs at least 5 points in the fit window, but the window holds 2/);
+  assert.equal(await panel.locator('button.jp-psiscape-fit-run').isEnabled(), true);
+});
+
+test('the fit controls are reachable with the keyboard', async () => {
+  const { page } = lab;
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await panel.locator('select.jp-psiscape-fit-model').focus();
+  const order = [];
+  for (let i = 0; i < 6; i++) {
+    await page.keyboard.press('Tab');
+    order.push(await page.evaluate(() => document.activeElement?.className ?? ''));
+  }
+  assert.ok(order.some(c => c.includes('jp-psiscape-fit-min')), `Tab reaches the window inputs: ${order.join(' | ')}`);
+  assert.ok(order.some(c => c.includes('jp-psiscape-fit-run')), 'Tab reaches the Fit button');
+});
