@@ -6,3 +6,4 @@ export { buildKouvelFisherSpec } from './kouvel';
 export { buildExponentWindowSpec } from './window';
 export type { WindowExponent } from './window';
 export { buildEntropySpec } from './entropy';
+export { buildCollapseSpec } from './collapse';

@@ -62,7 +62,7 @@ export interface IModifiedArrottResult {
 
 const HEIS = UNIVERSALITY_CLASSES.find(c => c.id === '3d-heisenberg');
 
-/** σ-weighted mean of two values (plain mean when a σ is missing). */
+/** σ-weighted mean of two values (plain mean when a σ is missing); σ is the larger of the statistical σ and half their difference. */
 export function combine(a: IValueSigma, b: IValueSigma): IValueSigma {
   if (!Number.isFinite(a.value)) {
     return b;

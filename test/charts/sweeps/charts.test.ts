@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
 import type { TopLevelSpec } from 'vega-lite';
-import { buildArrottSpec, buildEntropySpec, buildExponentWindowSpec, buildKouvelFisherSpec, buildModifiedArrottSpec } from '../../../src/charts/sweeps/index';
+import { buildArrottSpec, buildCollapseSpec, buildEntropySpec, buildExponentWindowSpec, buildKouvelFisherSpec, buildModifiedArrottSpec } from '../../../src/charts/sweeps/index';
 import type { IChartTheme } from '../../../src/charts/theme';
 import { arrottAnalysis, isothermLines, isothermSetFromArrays, kouvelFisher, magneticEntropyChange, modifiedArrottIteration } from '../../../src/core/sweeps/index';
 import type { IEntropyResult, IExponentWindowCell, IIsothermSet } from '../../../src/core/sweeps/index';
@@ -125,6 +125,26 @@ describe('sweep chart builders', () => {
     expect(line.data.values.length).toBe(r.curves.reduce((s, c) => s + c.points.length, 0));
     expect(line.data.values[0].minusDS).toBeCloseTo(-r.curves[0].points[0].dS, 12);
     expect(JSON.stringify(r)).toBe(copy);
+  });
+
+  it('scaling plot: m = M|t|^-beta against h = H|t|^-(beta+gamma), two branches, isotherm at Tc left out', () => {
+    const set = family();
+    const copy = JSON.stringify(set.isotherms.map(i => Array.from(i.M)));
+    const { spec, rows } = buildCollapseSpec(set.isotherms, { Tc: 10, beta: 0.5, gamma: 1 }, theme);
+    compiles(spec);
+    const [pts] = layers(spec);
+    expect(pts.encoding.x.field).toBe('h');
+    expect(pts.encoding.y.field).toBe('m');
+    expect(new Set(pts.data.values.map(v => v.branch))).toEqual(new Set(['t < 0', 't > 0']));
+    expect(pts.data.values.some(v => v.T === 10)).toBe(false);
+    const iso = set.isotherms[set.isotherms.length - 1];
+    const t = (iso.T - 10) / 10;
+    const p = pts.data.values.find(v => v.T === iso.T) as { h: number; m: number };
+    expect(p.h).toBeCloseTo(iso.H[0] * Math.pow(t, -1.5), 10);
+    expect(p.m).toBeCloseTo(iso.M[0] * Math.pow(t, -0.5), 10);
+    expect(rows).toBe(pts.data.values.length);
+    expect(JSON.stringify(set.isotherms.map(i => Array.from(i.M)))).toBe(copy);
+    expect(() => buildCollapseSpec(set.isotherms, { Tc: 10, beta: 0, gamma: 1 }, theme)).toThrow(RangeError);
   });
 
   it('empty inputs still give valid specs', () => {
