@@ -6,4 +6,5 @@
 export { unitMath, parseMathUnit, normaliseUnitText } from './mathUnits';
 export { readColumnUnit, toSI, fromSI } from './columnUnits';
 export type { ColumnRole, MagnetisationBasis, IUnitConversion, INeedsUnit, IUnitRefusal, UnitAnswer } from './columnUnits';
-export { muBPerFormulaUnit, massFromMolar, convertQuantity, UnitInputError } from './magnetic';
+export { muBPerFormulaUnit, massFromMolar, convertQuantity, UnitInputError, susceptibilityCgsToSI, magnetisationFromFourPiMGauss } from './magnetic';
+export type { SusceptibilityKind } from './magnetic';

@@ -55,3 +55,20 @@ export function convertQuantity(value: number, from: string, to: string): number
     throw new UnitInputError(`cannot convert "${from}" to "${to}": ${(e as Error).message}`);
   }
 }
+
+/** Which normalisation a susceptibility carries. */
+export type SusceptibilityKind = 'volume' | 'mass' | 'molar';
+
+/**
+ * cgs-emu susceptibility to SI (reference C7, NBS SP 696): volume χ_SI = 4π χ_cgs
+ * (dimensionless); mass 1 cm³/g = 4π·1e-3 m³/kg; molar 1 cm³/mol = 4π·1e-6 m³/mol.
+ */
+export function susceptibilityCgsToSI(value: number, kind: SusceptibilityKind): number {
+  const f = kind === 'volume' ? 4 * Math.PI : kind === 'mass' ? 4 * Math.PI * 1e-3 : 4 * Math.PI * 1e-6;
+  return value * f;
+}
+
+/** Volume magnetisation in A/m from 4πM given in gauss (reference C7: × 1e3/(4π)). */
+export function magnetisationFromFourPiMGauss(fourPiM: number): number {
+  return (fourPiM * 1e3) / (4 * Math.PI);
+}

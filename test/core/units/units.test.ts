@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import * as mathjs from 'mathjs';
-import { convertQuantity, fromSI, muBPerFormulaUnit, readColumnUnit, toSI, UnitInputError } from '../../../src/core/units/index';
+import { PHYS } from '../../../src/core/physics/index';
+import { convertQuantity, fromSI, magnetisationFromFourPiMGauss, muBPerFormulaUnit, readColumnUnit, susceptibilityCgsToSI, toSI, UnitInputError } from '../../../src/core/units/index';
 import type { IUnitConversion } from '../../../src/core/units/index';
 
 function ok(a: ReturnType<typeof readColumnUnit>): IUnitConversion {
@@ -45,6 +46,21 @@ describe('unit conversions against REFERENCE.md C7', () => {
     }
     expect(ok(readColumnUnit('M', 'A/m', 'magnetisation')).basis).toBe('volume');
     expect(ok(readColumnUnit('M', 'kA/m', 'magnetisation')).factor).toBeCloseTo(1000, 9);
+  });
+
+  it('volume magnetisation: 4 pi M (G) x 1e3/(4 pi) = M (A/m); mu0 M (T) = 4 pi 1e-4 x M (emu/cm^3) (C7, NBS SP 696)', () => {
+    expect(magnetisationFromFourPiMGauss(4 * Math.PI)).toBeCloseTo(1e3, 10);
+    const Msi = convertQuantity(1, 'emu/cm^3', 'A/m');
+    // CODATA 2018 mu0 differs from 4 pi 1e-7 by 5e-10 relative (C7)
+    expect(rel(PHYS.mu0 * Msi, 4 * Math.PI * 1e-4)).toBeLessThan(1e-9);
+  });
+
+  it('susceptibilities: volume x 4 pi, mass 1 cm^3/g = 4 pi 1e-3 m^3/kg, molar 1 cm^3/mol = 4 pi 1e-6 m^3/mol (C7)', () => {
+    expect(susceptibilityCgsToSI(1, 'volume')).toBeCloseTo(4 * Math.PI, 14);
+    expect(rel(susceptibilityCgsToSI(1, 'mass'), 4 * Math.PI * 1e-3)).toBeLessThan(1e-15);
+    expect(rel(susceptibilityCgsToSI(1, 'molar'), 4 * Math.PI * 1e-6)).toBeLessThan(1e-15);
+    // the cm^3/g part of the factor is the plain volume/mass ratio
+    expect(rel(convertQuantity(1, 'cm^3/g', 'm^3/kg'), 1e-3)).toBeLessThan(1e-12);
   });
 
   it('muB = 9.2740100783e-21 emu (C7, CODATA 2018, computed here)', () => {
