@@ -7,7 +7,9 @@ import { DEMAG_UNSET_WARNING, SweepInputError } from './types';
 
 /** Options of {@link isothermSetFromArrays}. */
 export interface IArraySetOptions {
+  /** Default 'internal' (simulated fields are internal by construction); 'applied' adds the N_d warning. */
   fieldKind?: 'internal' | 'applied';
+  /** Default 'A/m'. */
   magnetisationUnit?: 'A/m' | 'A m^2/kg';
 }
 
