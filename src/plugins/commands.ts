@@ -13,6 +13,7 @@ import { AnalysisPanel } from '../ui/analysis-panel';
 import type { ILocatedOutput } from './locate';
 import { locateOutputNode, outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
+import { SourceFollower } from './follow-source';
 import type { IPsiscapeSettings } from './settings';
 
 /** Command ids. */
@@ -30,11 +31,12 @@ export interface ICommandContext {
   settings: () => IPsiscapeSettings;
 }
 
-/** Register the commands; returns the panels opened so far, for tests. */
-export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[] } {
+/** Register the commands; returns the panels opened so far and their source followers. */
+export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[]; followers: Map<AnalysisPanel, SourceFollower> } {
   const { app, tracker, translator } = ctx;
   const trans = translator.load('jupyterlab_psiscape');
   const opened: AnalysisPanel[] = [];
+  const followers = new Map<AnalysisPanel, SourceFollower>();
 
   const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult): AnalysisPanel => {
     const source: ITableSource | null = located
@@ -72,6 +74,10 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
     }
     app.shell.activateById(widget.id);
     opened.push(widget);
+    if (source) {
+      followers.set(widget, new SourceFollower(panel, widget, source, trans));
+      widget.disposed.connect(() => followers.delete(widget));
+    }
     return widget;
   };
 
@@ -128,5 +134,5 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
     }
   });
 
-  return { panels: opened };
+  return { panels: opened, followers };
 }

@@ -47,10 +47,14 @@ export class AnalysisPanel extends Panel {
     this._message = new Widget();
     this._message.addClass('jp-psiscape-AnalysisPanel-message');
     this._message.node.setAttribute('role', 'alert');
+    this._banner = new Widget();
+    this._banner.addClass('jp-psiscape-AnalysisPanel-banner');
+    this._banner.node.setAttribute('role', 'status');
+    this._banner.hide();
     this._fit = new FitSection({ trans: this._trans, runner: options.runner });
     this._fit.outcomeChanged.connect(this._onOutcome, this);
 
-    for (const w of [this._header, this._message, this._notes, this._controls, this._chart, this._status, this._fit]) {
+    for (const w of [this._header, this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit]) {
       this.addWidget(w);
     }
     this.setParseResult(options.parse);
@@ -117,7 +121,7 @@ export class AnalysisPanel extends Panel {
    *
    * @throws RangeError when either column is not numeric.
    */
-  select(x: number, y: number, sigma: number | null = guessSigmaColumn(this._columns, y)): Promise<void> {
+  select(x: number, y: number, sigma: number | null = guessSigmaColumn(this._columns, y), keepWindow = false): Promise<void> {
     const table = this._table;
     const cx = this._columns.find(c => c.index === x);
     const cy = this._columns.find(c => c.index === y);
@@ -134,8 +138,67 @@ export class AnalysisPanel extends Panel {
       x: Array.from(cx.column.values as Float64Array),
       y: Array.from(cy.column.values as Float64Array),
       sigma: cs ? Array.from(cs.column.values as Float64Array) : undefined
-    });
+    }, keepWindow);
     return this._draw();
+  }
+
+  /**
+   * Take a new parse of the source output (the cell was re-run). The plotted
+   * columns are found again by header; the fit window is kept and a previous
+   * fit is run again on the new data.
+   *
+   * @returns null when applied, else why not (the panel keeps its last data).
+   */
+  refreshFromSource(result: ParseResult): string | null {
+    if (!result.ok) {
+      return result.message;
+    }
+    const old = this._table;
+    const sel = this._selection;
+    if (!old || !sel) {
+      this.setParseResult(result);
+      return null;
+    }
+    const header = (i: number | null) => (i === null ? null : old.columns[i].header);
+    const wanted = [header(sel.x), header(sel.y), header(this._sigma)];
+    const columns = plottableColumns(result.table);
+    const find = (h: string | null) => (h === null ? null : (columns.find(c => c.column.header === h)?.index ?? -1));
+    const [x, y, sigma] = wanted.map(find);
+    const missing = wanted.filter((h, i) => h !== null && [x, y, sigma][i] === -1);
+    if (missing.length) {
+      return this._trans.__('the source output no longer has the column(s) %1', missing.join(', '));
+    }
+    const refit = this._fit.outcome !== null;
+    this._table = result.table;
+    this._columns = columns;
+    this._renderNotes(result.table);
+    this._fillPickers(columns, { x: x!, y: y! });
+    void this.select(x!, y!, sigma, true);
+    if (refit) {
+      void this._fit.fit();
+    }
+    return null;
+  }
+
+  /**
+   * Say how the panel relates to its source: live (nothing shown), or a
+   * message when the data are a kept snapshot (stale or source lost).
+   */
+  setSourceState(state: 'live' | 'stale' | 'lost' | 'waiting', message = ''): void {
+    this._sourceState = state;
+    this.node.dataset.sourceState = state;
+    if (state === 'live') {
+      this._banner.node.textContent = '';
+      this._banner.hide();
+    } else {
+      this._banner.node.textContent = message;
+      this._banner.show();
+    }
+  }
+
+  /** How the panel relates to its source. */
+  get sourceState(): 'live' | 'stale' | 'lost' | 'waiting' {
+    return this._sourceState;
   }
 
   /** Index of the column used as σ of y, or null. */
@@ -328,6 +391,8 @@ export class AnalysisPanel extends Panel {
   private _ySelect!: HTMLSelectElement;
   private _sSelect!: HTMLSelectElement;
   private _sigma: number | null = null;
+  private _banner: Widget;
+  private _sourceState: 'live' | 'stale' | 'lost' | 'waiting' = 'live';
   private _fit: FitSection;
   private _table: ITable | null = null;
   private _columns: IPlottableColumn[] = [];

@@ -65,8 +65,11 @@ export class FitSection extends Widget {
     return this._settled;
   }
 
-  /** New data (after the user picks other columns): clears the result and resets the window. */
-  setInput(input: IFitInput | null): void {
+  /**
+   * New data: clears the result and, unless `keepWindow`, resets the window
+   * to the data range (new columns) — a refreshed source keeps the user's window.
+   */
+  setInput(input: IFitInput | null, keepWindow = false): void {
     this._runner.cancel();
     this._input = input;
     let min = Infinity;
@@ -78,8 +81,10 @@ export class FitSection extends Widget {
       }
     }
     this._range = { min, max };
-    this._min.value = Number.isFinite(min) ? formatPlain(min) : '';
-    this._max.value = Number.isFinite(max) ? formatPlain(max) : '';
+    if (!keepWindow) {
+      this._min.value = Number.isFinite(min) ? formatPlain(min) : '';
+      this._max.value = Number.isFinite(max) ? formatPlain(max) : '';
+    }
     this._setOutcome(null);
     this._status.textContent = '';
   }
