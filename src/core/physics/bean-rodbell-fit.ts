@@ -70,7 +70,7 @@ export function fitBeanRodbell(
   const tr = beanRodbellTransition(J, res.values[2]);
   return {
     ...res,
-    convention: 'Bean-Rodbell (reference B11): M = Ms*sigma(T/T0), sigma = B_J((3J/(J+1))(T0/T)(sigma + kappa_J eta sigma^3))',
+    convention: 'Bean-Rodbell: M = Ms*sigma(T/T0), sigma = B_J((3J/(J+1))(T0/T)(sigma + kappa_J eta sigma^3))',
     J,
     Tc: res.values[1] * tr.tauC,
     firstOrder: tr.firstOrder

@@ -129,7 +129,7 @@ export interface IBeanRodbellTransition {
 
 /** Tc/T0 and the σ jump: = 1 for η ≤ 1; for η > 1 from G_ordered(τ) = G(0). */
 export function beanRodbellTransition(J: number, eta: number): IBeanRodbellTransition {
-  const convention = 'Bean-Rodbell reduced: tau = T/T0, sigma = M/Ms (reference B11)';
+  const convention = 'Bean-Rodbell reduced: tau = T/T0, sigma = M/Ms';
   if (!(eta > 1)) {
     beanRodbellState(J, eta, 1); // validates
     return { convention, firstOrder: false, tauC: 1, sigmaJump: 0, converged: true };

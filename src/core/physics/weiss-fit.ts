@@ -13,7 +13,7 @@ import { solveWeiss } from './weiss';
 
 /** Convention tag stored with every Weiss fit. */
 export const WEISS_CONVENTION =
-  'Weiss mean field (reference B1): M = Ms*B_J(x), x = (3J/(J+1) m + h)/tau, tau = T/Tc, h = mu*muB*B/(kB*Tc), mu = g*J in Bohr magnetons';
+  'Weiss mean field: M = Ms*B_J(x), x = (3J/(J+1) m + h)/tau, tau = T/Tc, h = mu*muB*B/(kB*Tc), mu = g*J in Bohr magnetons';
 
 /**
  * Stopping tolerances of the Weiss fits (override through `engine`): the

@@ -27,8 +27,8 @@ export interface IBanerjeeEvidence {
 }
 
 const CAVEATS = [
-  'The Banerjee criterion is necessary rather than sufficient (reference B10).',
-  'Negative or S-shaped Arrott slopes can also come from demagnetisation, sample inhomogeneity, antiferromagnetic or metamagnetic components, and non-mean-field exponents (reference D8).',
+  'The Banerjee criterion is necessary rather than sufficient.',
+  'Negative or S-shaped Arrott slopes can also come from demagnetisation, sample inhomogeneity, antiferromagnetic or metamagnetic components, and non-mean-field exponents.',
   'Corroborate with thermal hysteresis, latent heat and a volume discontinuity before calling the transition first order.'
 ];
 

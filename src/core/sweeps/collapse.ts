@@ -115,7 +115,7 @@ export function scalingCollapse(isotherms: readonly IIsotherm[], start: { Tc: nu
   const f = (x: number[]): number => (x[1] > 0.01 && x[2] > 0.05 && x[0] > 0 ? cost(prep, x[0], x[1], x[2], tMin, tMax, k).cost : Infinity);
   const x0 = [start.Tc, start.beta, start.gamma];
   const startCost = f(x0);
-  const warnings = ['a collapse that looks good on log axes is weak evidence on its own (reference B9, D8); the cost quantifies it'];
+  const warnings = ['a collapse that looks good on log axes is weak evidence on its own; the cost quantifies it'];
   const r = nelderMead(f, x0, [2e-3 * start.Tc, 0.02, 0.05], 3000, 1e-10, 1e-7);
   const best = cost(prep, r.x[0], r.x[1], r.x[2], tMin, tMax, k);
   const steps = [1e-4 * r.x[0], 2e-3, 5e-3];

@@ -108,7 +108,7 @@ export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, op
     M = Float64Array.from(m);
     warnings.push(
       `critical isotherm interpolated in T at fixed H (ln M, Lagrange polynomial through the isotherms at ${temperatures.join(', ')} K), across Tc; ` +
-        'if the transition is discontinuous between them this is invalid (reference D18), and an isotherm slightly off Tc biases delta (B8)'
+        'if the transition is discontinuous between them this is invalid, and an isotherm slightly off Tc biases delta'
     );
   }
   const lnH: number[] = [];

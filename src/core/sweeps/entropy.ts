@@ -129,7 +129,7 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
     if (Math.max(a, b) > big && Math.max(a, b) > 3 * Math.min(a, b)) {
       warnings.push(
         `|ΔS_M| changes more than 3x between ${points[k].T} K and ${points[k + 1].T} K: the isotherms may straddle a discontinuity ` +
-          '(first-order jump), and the finite difference across it is not a derivative (reference D18); measure more isotherms there'
+          '(first-order jump), and the finite difference across it is not a derivative; measure more isotherms there'
       );
     }
   }

@@ -82,7 +82,7 @@ export function conventionsOf(set: IIsothermSet, notes: string[] = []): ISweepCo
 /** The plain warning every Arrott-type analysis carries while N_d is unset. */
 export const DEMAG_UNSET_WARNING =
   'demagnetising factor N_d is not set: the field is the applied field, not the internal field. ' +
-  'Low-field curvature of Arrott isotherms, a shifted Tc and a wrong delta can follow (reference A5.1, D1).';
+  'Low-field curvature of Arrott isotherms, a shifted Tc and a wrong delta can follow.';
 
 /** Warnings inherited by every analysis of a set. */
 export function setWarnings(set: IIsothermSet): string[] {
