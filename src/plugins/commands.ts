@@ -5,7 +5,7 @@
 import type { JupyterFrontEnd } from '@jupyterlab/application';
 import type { INotebookTracker, NotebookPanel } from '@jupyterlab/notebook';
 import type { ITranslator } from '@jupyterlab/translation';
-import { parseOutput } from '../core/table';
+import { parseMime, parseOutput } from '../core/table';
 import type { ParseResult } from '../core/table';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
@@ -20,6 +20,7 @@ import type { IPsiscapeSettings } from './settings';
 export namespace CommandIDs {
   export const analyseOutput = 'psiscape:analyse-output';
   export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
+  export const analyseFile = 'psiscape:analyse-file';
 }
 
 /** What the commands need from the application. */
@@ -27,6 +28,8 @@ export interface ICommandContext {
   app: JupyterFrontEnd;
   tracker: INotebookTracker;
   translator: ITranslator;
+  /** Path of the file selected in the file browser, or null. */
+  selectedFile: () => string | null;
   /** Current settings (read on every use so changes apply at once). */
   settings: () => IPsiscapeSettings;
 }
@@ -37,6 +40,23 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
   const trans = translator.load('jupyterlab_psiscape');
   const opened: AnalysisPanel[] = [];
   const followers = new Map<AnalysisPanel, SourceFollower>();
+
+  /**
+   * Dock a new analysis: the first one splits the main area beside `refId`
+   * (the notebook, or the file browser's current document); later ones join
+   * it as tabs, unless the user prefers plain tabs everywhere.
+   */
+  const place = (widget: AnalysisPanel, refId: string | null): void => {
+    const previous = opened.filter(p => !p.isDisposed && p.isAttached).pop();
+    const ref = refId ?? undefined;
+    if (ctx.settings().placement === 'tab') {
+      app.shell.add(widget, 'main', { mode: 'tab-after', ref });
+    } else if (previous) {
+      app.shell.add(widget, 'main', { mode: 'tab-after', ref: previous.id });
+    } else {
+      app.shell.add(widget, 'main', { mode: 'split-right', ref });
+    }
+  };
 
   const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult): AnalysisPanel => {
     const source: ITableSource | null = located
@@ -62,16 +82,7 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
         await revealCell(app, tracker, panel.context.path, cellId);
       }
     });
-    // The first panel splits the main area beside the notebook; later ones
-    // join it as tabs, unless the user prefers plain tabs everywhere.
-    const previous = opened.filter(p => !p.isDisposed && p.isAttached).pop();
-    if (ctx.settings().placement === 'tab') {
-      app.shell.add(widget, 'main', { mode: 'tab-after', ref: panel.id });
-    } else if (previous) {
-      app.shell.add(widget, 'main', { mode: 'tab-after', ref: previous.id });
-    } else {
-      app.shell.add(widget, 'main', { mode: 'split-right', ref: panel.id });
-    }
+    place(widget, panel.id);
     app.shell.activateById(widget.id);
     opened.push(widget);
     if (source) {
@@ -131,6 +142,37 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
           ? trans.__('The selected cell has no output, so it holds no table. Run the cell first.')
           : trans.__('No output of the selected cell holds a table. %1', firstFailure && !firstFailure.ok ? firstFailure.message : '');
       open(panel, null, { ok: false, message });
+    }
+  });
+
+  app.commands.addCommand(CommandIDs.analyseFile, {
+    label: trans.__('Analyse with psiscape'),
+    caption: trans.__('Open this CSV or TSV file in a psiscape analysis panel, at full precision'),
+    describedBy: { args: { type: 'object', properties: { path: { type: 'string', description: trans.__('File path; default: the selected file') } } } },
+    isVisible: () => ctx.selectedFile() !== null,
+    execute: async args => {
+      const path = typeof args.path === 'string' ? args.path : ctx.selectedFile();
+      if (!path) {
+        return;
+      }
+      const mime = /\.tsv$/i.test(path) ? 'text/tab-separated-values' : 'text/csv';
+      let parse: ParseResult;
+      try {
+        const model = await app.serviceManager.contents.get(path, { content: true, format: 'text' });
+        parse = typeof model.content === 'string' ? parseMime(mime, model.content) : { ok: false, message: trans.__('%1 is not a text file.', path) };
+      } catch (reason) {
+        parse = { ok: false, message: trans.__('%1 could not be read: %2', path, String(reason)) };
+      }
+      const widget = new AnalysisPanel({
+        parse,
+        notebookName: path.split('/').pop() ?? path,
+        sourceLabel: trans.__('file %1', path),
+        pointSize: ctx.settings().pointSize,
+        translator
+      });
+      place(widget, app.shell.currentWidget?.id ?? null);
+      app.shell.activateById(widget.id);
+      opened.push(widget);
     }
   });
 

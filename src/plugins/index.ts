@@ -6,6 +6,7 @@
  */
 import type { JupyterFrontEnd, JupyterFrontEndPlugin } from '@jupyterlab/application';
 import { ICommandPalette, IThemeManager } from '@jupyterlab/apputils';
+import { IDefaultFileBrowser } from '@jupyterlab/filebrowser';
 import { INotebookTracker } from '@jupyterlab/notebook';
 import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { ITranslator, nullTranslator } from '@jupyterlab/translation';
@@ -20,14 +21,15 @@ const plugin: JupyterFrontEndPlugin<void> = {
   description: 'Analyse tables from notebook outputs: order-parameter charts and phase-transition fits.',
   autoStart: true,
   requires: [INotebookTracker, ISettingRegistry],
-  optional: [ITranslator, ICommandPalette, IThemeManager],
+  optional: [ITranslator, ICommandPalette, IThemeManager, IDefaultFileBrowser],
   activate: async (
     app: JupyterFrontEnd,
     tracker: INotebookTracker,
     settingRegistry: ISettingRegistry,
     translator: ITranslator | null,
     palette: ICommandPalette | null,
-    themeManager: IThemeManager | null
+    themeManager: IThemeManager | null,
+    fileBrowser: IDefaultFileBrowser | null
   ): Promise<void> => {
     const trans = (translator ?? nullTranslator).load('jupyterlab_psiscape');
     const settings = await settingRegistry.load(PLUGIN_ID);
@@ -39,7 +41,11 @@ const plugin: JupyterFrontEndPlugin<void> = {
       app,
       tracker,
       translator: translator ?? nullTranslator,
-      settings: () => current
+      settings: () => current,
+      selectedFile: () => {
+        const item = fileBrowser ? fileBrowser.selectedItems().next() : null;
+        return item && !item.done && item.value.type !== 'directory' ? item.value.path : null;
+      }
     });
     if (palette) {
       palette.addItem({ command: CommandIDs.analyseSelectedCell, category: trans.__('psiscape') });

@@ -25,7 +25,7 @@ export class AnalysisPanel extends Panel {
     super();
     this._trans = options.translator.load('jupyterlab_psiscape');
     this._pointSize = options.pointSize;
-    this._onRevealSource = options.onRevealSource;
+    this._onRevealSource = options.onRevealSource ?? null;
     this.id = `jp-psiscape-analysis-${++panelCount}`;
     this.addClass('jp-psiscape-AnalysisPanel');
     this.node.setAttribute('role', 'region');
@@ -311,15 +311,19 @@ export class AnalysisPanel extends Panel {
     const label = document.createElement('span');
     label.className = 'jp-psiscape-AnalysisPanel-source';
     label.textContent = sourceLabel;
+    node.append(label);
+    if (!this._onRevealSource) {
+      return node;
+    }
     const button = document.createElement('button');
     button.type = 'button';
     button.className = 'jp-Button jp-mod-styled jp-mod-reject jp-psiscape-reveal';
     button.textContent = this._trans.__('Show source cell');
     button.title = this._trans.__('Select the notebook cell this table came from and scroll to it');
     button.addEventListener('click', () => {
-      void this._onRevealSource();
+      void this._onRevealSource?.();
     });
-    node.append(label, button);
+    node.append(button);
     return node;
   }
 
@@ -380,7 +384,7 @@ export class AnalysisPanel extends Panel {
 
   private _trans: TranslationBundle;
   private _pointSize: number;
-  private _onRevealSource: () => void | Promise<void>;
+  private _onRevealSource: (() => void | Promise<void>) | null;
   private _header: Widget;
   private _notes: Widget;
   private _controls: Widget;
@@ -405,15 +409,15 @@ export namespace AnalysisPanel {
   export interface IOptions {
     /** Result of parsing the source output. */
     parse: ParseResult;
-    /** Short notebook name for the tab title. */
+    /** Short name of the notebook (or file) for the tab title. */
     notebookName: string;
     /** Human-readable origin, e.g. "am17-demo.ipynb · cell 3 · output 1". */
     sourceLabel: string;
     /** Point area in px² (from settings). */
     pointSize: number;
     translator: ITranslator;
-    /** Select and scroll to the source cell. */
-    onRevealSource: () => void | Promise<void>;
+    /** Select and scroll to the source cell; omitted when the table did not come from a cell (a file). */
+    onRevealSource?: () => void | Promise<void>;
     /** Runs fits (a worker-backed runner by default). */
     runner?: AnalysisRunner;
   }

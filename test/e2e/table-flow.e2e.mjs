@@ -113,3 +113,17 @@ test('dark theme: the chart follows the theme colours', async () => {
   await screenshot(page, 'table-flow-dark');
   assert.deepEqual(lab.errors, [], 'no uncaught page errors');
 });
+
+test('a CSV file in the file browser opens at full precision', async () => {
+  const { page } = lab;
+  await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Light' }));
+  const item = page.locator('.jp-DirListing-item[data-file-type="csv"]', { hasText: 'am17_MT.csv' });
+  await item.click();
+  await contextMenu(page, item, 'Analyse with psiscape');
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').first().waitFor({ timeout: 30000 });
+  assert.equal(await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').count(), 81);
+  assert.equal(await panel.locator('.jp-psiscape-AnalysisPanel-source').textContent(), 'file am17_MT.csv');
+  assert.equal(await panel.locator('button.jp-psiscape-reveal').count(), 0, 'a file has no source cell to show');
+  assert.equal(await panel.locator('.jp-psiscape-note-rounded').count(), 0, 'the CSV holds full precision');
+});
