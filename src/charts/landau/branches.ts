@@ -1,0 +1,222 @@
+/**
+ * Order parameter against temperature at one field h: every stationary
+ * branch (stable solid, metastable dashed, unstable dotted), the heating and
+ * cooling paths as wide bands with their jumps, vertical rules at the
+ * characteristic temperatures (T0, T1, T**) and at the chosen T.
+ */
+import type { IChartTheme } from '../theme';
+import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours } from './common';
+import type { IBranchPoint } from './trace';
+import { traceBranches } from './trace';
+
+/** A quasi-static path: occupied states and the jumps between them. */
+export interface IBranchesPath {
+  points: readonly { T: number; psi: number }[];
+  /** `index` is the first state after the jump. */
+  jumps: readonly { index: number; T: number; psiBefore: number; psiAfter: number }[];
+}
+
+/** A labelled vertical rule. */
+export interface ITemperatureMarker {
+  T: number;
+  label: string;
+}
+
+/** Texts of the branches chart (translated by the caller). */
+export interface IBranchesLabels {
+  title: string;
+  T: string;
+  psi: string;
+  /** Legend title of the branch kinds. */
+  kind: string;
+  kinds: IKindLabels;
+  heating: string;
+  cooling: string;
+}
+
+/** Input of {@link buildBranchesSpec}. */
+export interface IBranchesChartOptions {
+  /** Stationary points over a T grid (any order; several per T). */
+  branches: readonly IBranchPoint[];
+  heating?: IBranchesPath;
+  cooling?: IBranchesPath;
+  /** Characteristic temperatures, e.g. T0, T1, T**. */
+  markers?: readonly ITemperatureMarker[];
+  /** The temperature of the landscape chart. */
+  current?: ITemperatureMarker;
+  h: number;
+  theme: IChartTheme;
+  labels?: Partial<IBranchesLabels>;
+}
+
+const DASH: Record<LandauPointKind, number[]> = { stable: [1, 0], metastable: [7, 4], unstable: [2, 3], inflection: [1, 3] };
+
+
+function fmt(v: number): string {
+  return finite(v) ? String(Number(v.toPrecision(6))) : String(v);
+}
+
+interface IPathRow {
+  T: number;
+  psi: number;
+  part: string;
+  order: number;
+}
+
+/** Rows of a path cut at its jumps, plus the jump rows. */
+function pathRows(path: IBranchesPath | undefined, name: string, label: string): { line: IPathRow[]; jumps: Record<string, unknown>[] } {
+  const line: IPathRow[] = [];
+  const jumps: Record<string, unknown>[] = [];
+  if (!path) {
+    return { line, jumps };
+  }
+  const cuts = new Set(path.jumps.map(j => j.index));
+  let part = 0;
+  path.points.forEach((p, i) => {
+    if (cuts.has(i)) {
+      part++;
+    }
+    if (finite(p.T) && finite(p.psi)) {
+      line.push({ T: p.T, psi: p.psi, part: `${name}${part}`, order: i });
+    }
+  });
+  for (const j of path.jumps) {
+    if (finite(j.T) && finite(j.psiBefore) && finite(j.psiAfter)) {
+      const up = j.psiAfter > j.psiBefore;
+      jumps.push({ T: j.T, psi: j.psiBefore, psi2: j.psiAfter, mid: 0.5 * (j.psiBefore + j.psiAfter), shape: up ? 'triangle-up' : 'triangle-down', text: label });
+    }
+  }
+  return { line, jumps };
+}
+
+/**
+ * Layered ψ(T) spec. Non-finite points, jumps and markers are left out;
+ * inputs are not changed.
+ */
+export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart {
+  const { theme } = options;
+  const kinds = { ...DEFAULT_KIND_LABELS, ...options.labels?.kinds };
+  const labels: IBranchesLabels = {
+    title: `ψ(T) at h = ${fmt(options.h)}`,
+    T: 'T',
+    psi: 'ψ',
+    kind: 'branch',
+    heating: 'heating',
+    cooling: 'cooling',
+    ...options.labels,
+    kinds
+  };
+  // An inflection point exists only at isolated temperatures (where a minimum
+  // and a maximum merge); it is not a branch of its own.
+  const segments = traceBranches(options.branches.filter(p => p.kind !== 'inflection')).map(p => ({ T: p.T, psi: p.psi, kind: kinds[p.kind], segment: p.segment, order: p.order }));
+  const heating = pathRows(options.heating, 'h', labels.heating);
+  const cooling = pathRows(options.cooling, 'c', labels.cooling);
+  const paths = [...heating.line, ...cooling.line];
+  const jumps = [...heating.jumps, ...cooling.jumps];
+  const markers = (options.markers ?? []).filter(m => finite(m.T));
+  const current = options.current && finite(options.current.T) ? [options.current] : [];
+
+  const shown = KIND_ORDER.filter(k => k !== 'inflection');
+  const colours = kindColours(theme);
+  const x = { field: 'T', type: 'quantitative', title: labels.T, scale: { zero: false, nice: false } };
+  const y = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false } };
+  const layer: unknown[] = [];
+  if (paths.length) {
+    layer.push({
+      name: 'branches_paths',
+      data: { name: 'paths', values: paths },
+      mark: { type: 'line', color: theme.text, opacity: 0.16, strokeWidth: 9, strokeCap: 'round', clip: true },
+      encoding: { x, y, detail: { field: 'part', type: 'nominal' }, order: { field: 'order', type: 'quantitative' } }
+    });
+  }
+  if (jumps.length) {
+    layer.push(
+      {
+        name: 'branches_jumps',
+        data: { name: 'jumps', values: jumps },
+        mark: { type: 'rule', color: theme.text, opacity: 0.5, strokeWidth: 1.5, strokeDash: [3, 2] },
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'psi', type: 'quantitative' }, y2: { field: 'psi2' } }
+      },
+      {
+        name: 'branches_jump_arrows',
+        data: { name: 'jump_arrows', values: jumps },
+        mark: { type: 'point', filled: true, size: 70, color: theme.text, opacity: 0.8 },
+        encoding: {
+          x: { field: 'T', type: 'quantitative' },
+          y: { field: 'mid', type: 'quantitative' },
+          shape: { field: 'shape', type: 'nominal', scale: null },
+          tooltip: [
+            { field: 'text', type: 'nominal' },
+            { field: 'T', type: 'quantitative', title: labels.T, format: '.6~g' }
+          ]
+        }
+      },
+      {
+        name: 'branches_jump_text',
+        data: { name: 'jump_text', values: jumps },
+        mark: { type: 'text', align: 'left', dx: 8, color: theme.text, opacity: 0.8 },
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'mid', type: 'quantitative' }, text: { field: 'text' } }
+      }
+    );
+  }
+  layer.push({
+    name: 'branches_lines',
+    data: { name: 'branches', values: segments },
+    mark: { type: 'line', strokeWidth: 2, clip: true },
+    encoding: {
+      x,
+      y,
+      detail: { field: 'segment', type: 'nominal' },
+      order: { field: 'order', type: 'quantitative' },
+      color: {
+        field: 'kind',
+        type: 'nominal',
+        title: labels.kind,
+        scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => colours[k]) },
+        legend: { orient: 'bottom' }
+      },
+      strokeDash: {
+        field: 'kind',
+        type: 'nominal',
+        title: labels.kind,
+        scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => DASH[k]) }
+      }
+    }
+  });
+  if (markers.length) {
+    layer.push({
+      name: 'branches_markers',
+      data: { name: 'markers', values: markers.map(m => ({ T: m.T, label: m.label })) },
+      mark: { type: 'rule', color: theme.text, opacity: 0.45, strokeDash: [4, 4] },
+      encoding: { x: { field: 'T', type: 'quantitative' } }
+    });
+    markers.forEach((m, i) => {
+      layer.push({
+        name: `branches_marker_text_${i}`,
+        data: { values: [{ T: m.T, label: m.label }] },
+        mark: { type: 'text', baseline: 'top', align: 'left', dx: 3, dy: 2 + 13 * i, color: theme.text },
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: 0 }, text: { field: 'label' } }
+      });
+    });
+  }
+  if (current.length) {
+    layer.push(
+      {
+        name: 'branches_current',
+        data: { name: 'current', values: current },
+        mark: { type: 'rule', color: theme.accent, strokeWidth: 1.5 },
+        encoding: { x: { field: 'T', type: 'quantitative' } }
+      },
+      {
+        name: 'branches_current_text',
+        data: { values: current },
+        mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -2, color: theme.accent },
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: 300 }, text: { field: 'label' } }
+      }
+    );
+  }
+  const spec = frame(`${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, layer, theme);
+  (spec as unknown as Record<string, unknown>).title = labels.title;
+  return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length };
+}

@@ -1,0 +1,5 @@
+/** Landau free-energy charts: the landscape F(ψ) and the branches ψ(T). */
+export * from './common';
+export * from './trace';
+export * from './landscape';
+export * from './branches';

@@ -1,0 +1,167 @@
+/**
+ * Free-energy landscape F(ψ) at one (T, h): the curve, its stationary points
+ * marked by kind (shape and colour), and the global minimum ringed and named.
+ */
+import type { IChartTheme } from '../theme';
+import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours } from './common';
+
+/** A stationary point to mark. */
+export interface ILandscapePoint {
+  psi: number;
+  F: number;
+  kind: LandauPointKind;
+}
+
+/** Texts of the landscape chart (translated by the caller). */
+export interface ILandscapeLabels {
+  /** Chart title, e.g. "F(ψ) at T = 100.4, h = 0". */
+  title: string;
+  psi: string;
+  F: string;
+  /** Legend title of the kinds. */
+  kind: string;
+  kinds: IKindLabels;
+  /** Text beside the global minimum. */
+  globalMinimum: string;
+}
+
+/** Input of {@link buildLandscapeSpec}. */
+export interface ILandscapeChartOptions {
+  /** ψ grid of the curve. */
+  psi: ArrayLike<number>;
+  /** F(ψ) on the grid (same length). */
+  F: ArrayLike<number>;
+  /** Stationary points at (T, h). */
+  points: readonly ILandscapePoint[];
+  /** Index into `points` of the global minimum, or −1 for none. */
+  global: number;
+  T: number;
+  h: number;
+  theme: IChartTheme;
+  labels?: Partial<ILandscapeLabels>;
+  /**
+   * Zoom the F axis onto the stationary points when there are two or more
+   * with different F (default true); the curve is clipped outside.
+   */
+  focus?: boolean;
+}
+
+const SHAPES: Record<LandauPointKind, string> = { stable: 'circle', metastable: 'square', unstable: 'triangle-up', inflection: 'diamond' };
+
+function fmt(v: number): string {
+  return finite(v) ? String(Number(v.toPrecision(6))) : String(v);
+}
+
+/** The F range the axis shows when focusing on the stationary points, or null. */
+export function landscapeFocus(points: readonly ILandscapePoint[]): [number, number] | null {
+  const F = points.filter(p => finite(p.psi) && finite(p.F)).map(p => p.F);
+  if (F.length < 2) {
+    return null;
+  }
+  const lo = Math.min(...F);
+  const hi = Math.max(...F);
+  const span = hi - lo;
+  if (!(span > 1e-12 * Math.max(1, Math.abs(lo), Math.abs(hi)))) {
+    return null;
+  }
+  return [lo - 0.3 * span, hi + 0.8 * span];
+}
+
+/**
+ * Layered spec: line for F(ψ), one symbol per stationary point (legend by
+ * kind), a ring and text on the global minimum. Non-finite curve samples and
+ * points are left out; inputs are not changed.
+ *
+ * @throws RangeError when `psi` and `F` differ in length.
+ */
+export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChart {
+  const { psi, F, points, theme } = options;
+  if (psi.length !== F.length) {
+    throw new RangeError(`psi has ${psi.length} values but F has ${F.length}`);
+  }
+  const kinds = { ...DEFAULT_KIND_LABELS, ...options.labels?.kinds };
+  const labels: ILandscapeLabels = {
+    title: `F(ψ) at T = ${fmt(options.T)}, h = ${fmt(options.h)}`,
+    psi: 'ψ',
+    F: 'F − F0',
+    kind: 'stationary point',
+    globalMinimum: 'global minimum',
+    ...options.labels,
+    kinds
+  };
+  const curve: { psi: number; F: number }[] = [];
+  for (let i = 0; i < psi.length; i++) {
+    if (finite(psi[i]) && finite(F[i])) {
+      curve.push({ psi: psi[i], F: F[i] });
+    }
+  }
+  const marks: { psi: number; F: number; kind: string }[] = [];
+  for (const p of points) {
+    if (finite(p.psi) && finite(p.F)) {
+      marks.push({ psi: p.psi, F: p.F, kind: kinds[p.kind] });
+    }
+  }
+  const g = options.global >= 0 && options.global < points.length ? points[options.global] : null;
+  const globalRow = g && finite(g.psi) && finite(g.F) ? [{ psi: g.psi, F: g.F, text: labels.globalMinimum }] : [];
+
+  const present = new Set(points.map(p => p.kind));
+  const shown = KIND_ORDER.filter(k => k !== 'inflection' || present.has(k));
+  const colours = kindColours(theme);
+  const focus = options.focus === false ? null : landscapeFocus(points);
+  const x = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, nice: false } };
+  const y = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false } };
+  const layer: unknown[] = [
+    {
+      name: 'landscape_curve',
+      data: { name: 'curve', values: curve },
+      mark: { type: 'line', color: theme.text, opacity: 0.65, strokeWidth: 2, clip: true },
+      encoding: { x, y }
+    },
+    {
+      name: 'landscape_points',
+      data: { name: 'stationary', values: marks },
+      mark: { type: 'point', filled: true, size: 110, stroke: theme.background, strokeWidth: 1, opacity: 1, clip: true, tooltip: true },
+      encoding: {
+        x: { field: 'psi', type: 'quantitative' },
+        y: { field: 'F', type: 'quantitative' },
+        color: {
+          field: 'kind',
+          type: 'nominal',
+          title: labels.kind,
+          scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => colours[k]) },
+          legend: { orient: 'bottom' }
+        },
+        shape: {
+          field: 'kind',
+          type: 'nominal',
+          scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => SHAPES[k]) }
+        },
+        tooltip: [
+          { field: 'kind', type: 'nominal', title: labels.kind },
+          { field: 'psi', type: 'quantitative', title: labels.psi, format: '.6~g' },
+          { field: 'F', type: 'quantitative', title: labels.F, format: '.6~g' }
+        ]
+      }
+    }
+  ];
+  if (globalRow.length) {
+    layer.push(
+      {
+        name: 'landscape_global',
+        data: { name: 'global', values: globalRow },
+        mark: { type: 'point', filled: false, size: 420, stroke: theme.accent, strokeWidth: 2.5, clip: true },
+        encoding: { x: { field: 'psi', type: 'quantitative' }, y: { field: 'F', type: 'quantitative' } }
+      },
+      {
+        name: 'landscape_global_text',
+        data: { name: 'global_text', values: globalRow },
+        mark: { type: 'text', dy: -18, color: theme.accent, fontWeight: 'bold', clip: true },
+        encoding: { x: { field: 'psi', type: 'quantitative' }, y: { field: 'F', type: 'quantitative' }, text: { field: 'text' } }
+      }
+    );
+  }
+  const spec = frame(`${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, layer, theme);
+  (spec as unknown as Record<string, unknown>).title = labels.title;
+  return { spec, rows: curve.length + marks.length + globalRow.length };
+}
