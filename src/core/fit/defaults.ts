@@ -12,8 +12,9 @@
  * | `forwardStep` | √ε | relative forward-difference step |
  * | `centralStep` | ε^(1/3) | relative central-difference step |
  * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
- * | `svdMaxRows` | 20000 | up to this many points the trust-region step uses an SVD of the scaled Jacobian; above it, an eigen-decomposition of JᵀJ formed in a tight loop |
- * | `normalEquationsMinRatio` | 1e-11 | the trust-region model uses the eigen-decomposition of the scaled JᵀJ when λmin/λmax ≥ this (condition of the scaled Jacobian ≤ 3e5), otherwise the SVD of the scaled Jacobian (up to `svdMaxRows` points) |
+ * | `largeRows` | 20000 | large-problem threshold n. Up to this many points the trust-region step may use an SVD of the scaled Jacobian (accuracy on small ill-conditioned problems such as NIST StRD). Above it: the eigen-decomposition of the k×k JᵀJ only (formed in one tight pass; for n ≫ k the statistical error dwarfs its rounding), and stopping rule 1b |
+ * | `normalEquationsMinRatio` | 1e-11 | the trust-region model uses the eigen-decomposition of the scaled JᵀJ when λmin/λmax ≥ this (condition of the scaled Jacobian ≤ 3e5), otherwise the SVD of the scaled Jacobian (up to `largeRows` points) |
+ * | `stationaryNoiseFraction` | 1e-4 | rule 1b: the full Gauss–Newton step predicts a χ² reduction below this fraction of the rounding noise of χ² |
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
@@ -27,6 +28,12 @@
  * 1. two consecutive Gauss–Newton steps (μ = 0) whose predicted and actual
  *    χ² changes are within the rounding noise of χ² (2‖r‖‖e‖ + ‖e‖²,
  *    eᵢ = 4ε·wᵢ(|fᵢ| + |yᵢ|)), with the accurate Jacobian;
+ * 1b. only above `largeRows` points: after an accepted undamped, unclipped
+ *    step whose actual χ² change matched the prediction (|ρ − 1| ≤ 0.1, or
+ *    at noise level), the Jacobian at the new point (accurate scheme) gives
+ *    a full Gauss–Newton step predicting a χ² reduction ≤
+ *    `stationaryNoiseFraction` × noise (the point is stationary far inside
+ *    the rounding noise; this saves the two confirming steps of rule 1);
  * 2. `ftol` test (MINPACK form), 3. `xtol` test on the trust radius — a stop
  *    on 3 while the Gauss–Newton model still predicts a relative reduction
  *    above `restartReductionThreshold` restarts from the best point instead;
@@ -48,8 +55,9 @@ export const FIT_DEFAULTS = Object.freeze({
   forwardStep: Math.sqrt(Number.EPSILON),
   centralStep: Math.cbrt(Number.EPSILON),
   extrapolatedStep: Math.pow(Number.EPSILON, 0.2),
-  svdMaxRows: 20000,
+  largeRows: 20000,
   normalEquationsMinRatio: 1e-11,
+  stationaryNoiseFraction: 1e-4,
   singularTolerance: 1e-13,
   correlationWarning: 0.99,
   conditionWarning: 1e12,

@@ -76,7 +76,8 @@ export function* levenbergMarquardtSteps(
   const grad = new Float64Array(k);
   const z = new Float64Array(k);
   const step = new Float64Array(k);
-  const useSvd = n <= FIT_DEFAULTS.svdMaxRows;
+  const large = n > FIT_DEFAULTS.largeRows;
+  const useSvd = !large;
   const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
   const work = geodesicWork(n, k);
   let scheme: DifferenceScheme = ev.analytic ? 'extrapolated' : 'forward';
@@ -110,6 +111,9 @@ export function* levenbergMarquardtSteps(
   let noiseSteps = 0;
   let costPrevious = cost;
   let havePrevious = false;
+  // The last accepted step was an undamped, unclipped step whose actual χ²
+  // reduction matched the prediction (0.9 ≤ ρ ≤ 1.1) or was at noise level.
+  let lastGaussNewton = false;
   const progress = (): void => {
     hooks.onProgress?.({ iteration: iterations, evaluations: ev.evaluations, cost });
   };
@@ -171,6 +175,17 @@ export function* levenbergMarquardtSteps(
       }
       model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance);
       needJacobian = false;
+      // Large problems: after an accepted Gauss–Newton step that the linear
+      // model predicted well, the full Gauss–Newton step from here (accurate
+      // Jacobian) promises a χ² reduction below 1e-4 of its rounding noise.
+      if (
+        large &&
+        lastGaussNewton &&
+        scheme !== 'forward' &&
+        gaussNewtonReduction(model) <= FIT_DEFAULTS.stationaryNoiseFraction * noise
+      ) {
+        return out(true, 'the Gauss–Newton step from the solution predicts a χ² reduction below the rounding noise');
+      }
     }
     const m = model!;
     const mu = dampingForRadius(m, delta);
@@ -244,6 +259,7 @@ export function* levenbergMarquardtSteps(
     const accepted = atNoise || (rho >= 1e-4 && Number.isFinite(costT) && costT <= cost);
     noiseSteps = atNoise ? noiseSteps + 1 : accepted ? 0 : noiseSteps;
     if (accepted) {
+      lastGaussNewton = mu === 0 && !clipped && !accelerated && (atNoise || Math.abs(rho - 1) <= 0.1);
       costPrevious = cost;
       havePrevious = true;
       [p, pT] = [pT, p];

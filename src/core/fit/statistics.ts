@@ -41,7 +41,7 @@ export function inverseNormal(jac: Float64Array, n: number, k: number): ICovaria
   let s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
   let v: Matrix = evd.eigenvectorMatrix;
   const ratio = Math.min(...evd.realEigenvalues) / Math.max(...evd.realEigenvalues);
-  const useSvd = n <= FIT_DEFAULTS.svdMaxRows && !(ratio >= FIT_DEFAULTS.normalEquationsMinRatio);
+  const useSvd = n <= FIT_DEFAULTS.largeRows && !(ratio >= FIT_DEFAULTS.normalEquationsMinRatio);
   if (useSvd) {
     const js = new Matrix(n, k);
     for (let i = 0; i < n; i++) {
