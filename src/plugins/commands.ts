@@ -14,6 +14,9 @@ import type { ILocatedOutput } from './locate';
 import { locateOutputNode, outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
 import { SourceFollower } from './follow-source';
+import { removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
+import type { ISavedAnalysis } from '../core/saved';
+import { UUID } from '@lumino/coreutils';
 import type { IPsiscapeSettings } from './settings';
 
 /** Command ids. */
@@ -21,6 +24,7 @@ export namespace CommandIDs {
   export const analyseOutput = 'psiscape:analyse-output';
   export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
   export const analyseFile = 'psiscape:analyse-file';
+  export const reopenSaved = 'psiscape:reopen-saved-analyses';
 }
 
 /** What the commands need from the application. */
@@ -35,11 +39,16 @@ export interface ICommandContext {
 }
 
 /** Register the commands; returns the panels opened so far and their source followers. */
-export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[]; followers: Map<AnalysisPanel, SourceFollower> } {
+export function registerCommands(ctx: ICommandContext): {
+  panels: AnalysisPanel[];
+  followers: Map<AnalysisPanel, SourceFollower>;
+  restore: (panel: NotebookPanel) => number;
+} {
   const { app, tracker, translator } = ctx;
   const trans = translator.load('jupyterlab_psiscape');
   const opened: AnalysisPanel[] = [];
   const followers = new Map<AnalysisPanel, SourceFollower>();
+  const openIds = new Set<string>();
 
   /**
    * Dock a new analysis: the first one splits the main area beside `refId`
@@ -58,38 +67,94 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
     }
   };
 
-  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult): AnalysisPanel => {
-    const source: ITableSource | null = located
-      ? {
-          notebookPath: panel.context.path,
-          cellId: located.cell.model.id,
-          outputIndex: located.outputIndex,
-          contentHash: hashBundle(located.bundle)
-        }
-      : null;
+  /**
+   * Open an analysis of a notebook output. With `saved`, the analysis is one
+   * the notebook holds: same id, columns and fit, and its snapshot stands in
+   * for the output when that is gone.
+   */
+  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis): AnalysisPanel => {
+    const source: ITableSource | null = saved
+      ? { ...saved.source }
+      : located
+        ? {
+            notebookPath: panel.context.path,
+            cellId: located.cell.model.id,
+            outputIndex: located.outputIndex,
+            contentHash: hashBundle(located.bundle)
+          }
+        : null;
     const cellIndex = located ? located.cellIndex : panel.content.activeCellIndex;
-    const sourceLabel = located
-      ? trans.__('%1 · cell %2 · output %3', panel.context.path, cellIndex + 1, located.outputIndex + 1)
-      : trans.__('%1 · cell %2', panel.context.path, cellIndex + 1);
+    const outputNumber = located ? located.outputIndex + 1 : (saved?.source.outputIndex ?? 0) + 1;
+    const sourceLabel =
+      located || saved
+        ? trans.__('%1 · cell %2 · output %3', panel.context.path, located ? cellIndex + 1 : '?', outputNumber)
+        : trans.__('%1 · cell %2', panel.context.path, cellIndex + 1);
     const cellId = source?.cellId ?? panel.content.widgets[cellIndex]?.model.id ?? '';
+    const id = saved?.id ?? UUID.uuid4();
     const widget = new AnalysisPanel({
-      parse,
+      parse: saved ? { ok: false, message: trans.__('Restoring the saved analysis…') } : parse,
       notebookName: panel.title.label || panel.context.path,
       sourceLabel,
       pointSize: ctx.settings().pointSize,
       translator,
       onRevealSource: async () => {
         await revealCell(app, tracker, panel.context.path, cellId);
-      }
+      },
+      onForget: source
+        ? () => {
+            removeAnalysis(panel, id);
+            widget.dispose();
+          }
+        : undefined
     });
     place(widget, panel.id);
     app.shell.activateById(widget.id);
     opened.push(widget);
+    openIds.add(id);
+    widget.disposed.connect(() => openIds.delete(id));
+    if (saved) {
+      const reason = widget.applySaved(saved, located ? parse : null);
+      if (!located) {
+        widget.setSourceState('lost', trans.__('The source output of this saved analysis is not in the notebook; showing the saved copy of its data.'));
+      } else if (reason) {
+        widget.setSourceState('stale', trans.__('Showing the saved copy of the data: %1.', reason));
+      } else if (source) {
+        source.contentHash = hashBundle(located.bundle);
+      }
+    }
     if (source) {
-      followers.set(widget, new SourceFollower(panel, widget, source, trans));
+      const follower = new SourceFollower(panel, widget, source, trans);
+      followers.set(widget, follower);
+      const save = () => {
+        const state = widget.savedState();
+        if (state && !panel.isDisposed && !widget.isDisposed) {
+          upsertAnalysis(panel, { id, source: { ...follower.source }, ...state });
+        }
+      };
+      widget.stateChanged.connect(save);
       widget.disposed.connect(() => followers.delete(widget));
+      save();
     }
     return widget;
+  };
+
+  /** Reopen the analyses a notebook holds that are not open yet. */
+  const restore = (panel: NotebookPanel): number => {
+    const { analyses, problems } = savedAnalysesOf(panel);
+    if (problems.length) {
+      console.warn(`psiscape: ${panel.context.path}: ${problems.join('; ')}`);
+    }
+    let count = 0;
+    for (const saved of analyses) {
+      if (openIds.has(saved.id)) {
+        continue;
+      }
+      const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
+      const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
+      open(panel, located, located ? parseOutput(located.bundle) : { ok: false, message: '' }, saved);
+      count++;
+    }
+    return count;
   };
 
   app.commands.addCommand(CommandIDs.analyseOutput, {
@@ -176,5 +241,16 @@ export function registerCommands(ctx: ICommandContext): { panels: AnalysisPanel[
     }
   });
 
-  return { panels: opened, followers };
+  app.commands.addCommand(CommandIDs.reopenSaved, {
+    label: trans.__('Reopen Saved Analyses'),
+    caption: trans.__('Open the psiscape analyses saved in this notebook that are not open'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => tracker.currentWidget !== null,
+    execute: () => {
+      const panel = tracker.currentWidget;
+      return panel ? restore(panel) : 0;
+    }
+  });
+
+  return { panels: opened, followers, restore };
 }

@@ -8,6 +8,7 @@ import type { JupyterFrontEnd, JupyterFrontEndPlugin } from '@jupyterlab/applica
 import { ICommandPalette, IThemeManager } from '@jupyterlab/apputils';
 import { IDefaultFileBrowser } from '@jupyterlab/filebrowser';
 import { INotebookTracker } from '@jupyterlab/notebook';
+import type { NotebookPanel } from '@jupyterlab/notebook';
 import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { ITranslator, nullTranslator } from '@jupyterlab/translation';
 import { CommandIDs, registerCommands } from './commands';
@@ -37,7 +38,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
     settings.changed.connect(() => {
       current = readSettings(settings.composite);
     });
-    const { panels } = registerCommands({
+    const { panels, restore } = registerCommands({
       app,
       tracker,
       translator: translator ?? nullTranslator,
@@ -48,8 +49,20 @@ const plugin: JupyterFrontEndPlugin<void> = {
       }
     });
     if (palette) {
-      palette.addItem({ command: CommandIDs.analyseSelectedCell, category: trans.__('psiscape') });
+      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved]) {
+        palette.addItem({ command, category: trans.__('psiscape') });
+      }
     }
+    // Analyses saved in a notebook reopen with it.
+    const restoreWhenReady = (notebook: NotebookPanel): void => {
+      void Promise.all([notebook.context.ready, app.restored]).then(() => {
+        if (!notebook.isDisposed) {
+          restore(notebook);
+        }
+      });
+    };
+    tracker.forEach(restoreWhenReady);
+    tracker.widgetAdded.connect((_, notebook) => restoreWhenReady(notebook));
     if (themeManager) {
       themeManager.themeChanged.connect(() => {
         // Let the new theme's CSS variables apply before reading them.

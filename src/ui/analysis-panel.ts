@@ -5,11 +5,15 @@
  */
 import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
 import type { Message } from '@lumino/messaging';
+import { Signal } from '@lumino/signaling';
+import type { ISignal } from '@lumino/signaling';
 import { Panel, Widget } from '@lumino/widgets';
 import { buildFitOverlaySpec } from '../charts/fit-overlay';
 import { buildScatterSpec } from '../charts/scatter';
 import type { IAnalysisOutcome } from '../core/analysis';
-import type { ParseResult, ITable } from '../core/table';
+import type { ISavedAnalysis } from '../core/saved';
+import type { IColumn, ParseResult, ITable } from '../core/table';
+import { splitHeader } from '../core/table';
 import { ChartView } from './chart-view';
 import { readChartTheme } from './chart-theme';
 import type { IPlottableColumn } from './column-choice';
@@ -26,6 +30,7 @@ export class AnalysisPanel extends Panel {
     this._trans = options.translator.load('jupyterlab_psiscape');
     this._pointSize = options.pointSize;
     this._onRevealSource = options.onRevealSource ?? null;
+    this._onForget = options.onForget ?? null;
     this.id = `jp-psiscape-analysis-${++panelCount}`;
     this.addClass('jp-psiscape-AnalysisPanel');
     this.node.setAttribute('role', 'region');
@@ -73,6 +78,66 @@ export class AnalysisPanel extends Panel {
   /** The chart widget (for tests and for overlays). */
   get chart(): ChartView {
     return this._chart;
+  }
+
+  /** Emitted when what would be saved changes: columns picked, a fit finished. */
+  get stateChanged(): ISignal<this, void> {
+    return this._stateChanged;
+  }
+
+  /** What a notebook saves of this analysis (null when there is no table to save). */
+  savedState(): Pick<ISavedAnalysis, 'columns' | 'snapshot' | 'fit'> | null {
+    const table = this._table;
+    const sel = this._selection;
+    if (!table || !sel) {
+      return null;
+    }
+    const used = [sel.x, sel.y, ...(this._sigma === null ? [] : [this._sigma])].map(i => table.columns[i]);
+    return {
+      columns: { x: used[0].header, y: used[1].header, sigma: used[2]?.header ?? null },
+      snapshot: {
+        headers: used.map(c => c.header),
+        units: used.map(c => c.unit),
+        values: used.map(c => Array.from(c.values as Float64Array, v => (Number.isFinite(v) ? v : null)))
+      },
+      fit: this._fit.outcome ? this._fit.controls : null
+    };
+  }
+
+  /**
+   * Show a saved analysis: its columns picked again by header in `result`
+   * (the live source output) or, when that is unusable, in the saved
+   * snapshot; then its fit controls, and the fit run again.
+   *
+   * @returns null, or why the saved snapshot is shown instead of the source.
+   */
+  applySaved(saved: ISavedAnalysis, result: ParseResult | null): string | null {
+    let reason: string | null = null;
+    const live = result && result.ok ? this._findColumns(result.table, saved.columns) : null;
+    if (result && live && result.ok) {
+      this.setParseResult(result);
+    } else {
+      reason = result === null ? null : result.ok ? this._trans.__('the source output no longer has the saved columns') : result.message;
+      this.setParseResult({ ok: true, table: snapshotTable(saved, this._trans.__('Data from the copy saved in the notebook (the plotted columns only).')) });
+    }
+    const found = this._table ? this._findColumns(this._table, saved.columns) : null;
+    if (found) {
+      this._fillPickers(this._columns, { x: found.x, y: found.y });
+      void this.select(found.x, found.y, found.sigma);
+    }
+    if (saved.fit) {
+      this._fit.setControls(saved.fit);
+      void this._fit.fit();
+    }
+    return reason;
+  }
+
+  private _findColumns(table: ITable, columns: ISavedAnalysis['columns']): { x: number; y: number; sigma: number | null } | null {
+    const idx = (h: string) => table.columns.findIndex(c => c.header === h && c.kind === 'number');
+    const x = idx(columns.x);
+    const y = idx(columns.y);
+    const sigma = columns.sigma === null ? null : idx(columns.sigma);
+    return x < 0 || y < 0 || sigma === -1 ? null : { x, y, sigma };
   }
 
   /** The fit controls and results. */
@@ -134,6 +199,7 @@ export class AnalysisPanel extends Panel {
     this._xSelect.value = String(x);
     this._ySelect.value = String(y);
     this._sSelect.value = cs ? String(cs.index) : '';
+    this._stateChanged.emit();
     this._fit.setInput({
       x: Array.from(cx.column.values as Float64Array),
       y: Array.from(cy.column.values as Float64Array),
@@ -263,6 +329,7 @@ export class AnalysisPanel extends Panel {
 
   private _onOutcome(_sender: FitSection, _outcome: IAnalysisOutcome | null): void {
     void this._draw();
+    this._stateChanged.emit();
   }
 
   /** Redraw with the current selection (after a theme change, say). */
@@ -312,6 +379,15 @@ export class AnalysisPanel extends Panel {
     label.className = 'jp-psiscape-AnalysisPanel-source';
     label.textContent = sourceLabel;
     node.append(label);
+    if (this._onForget) {
+      const forget = document.createElement('button');
+      forget.type = 'button';
+      forget.className = 'jp-Button jp-mod-styled jp-mod-reject jp-psiscape-forget';
+      forget.textContent = this._trans.__('Remove from notebook');
+      forget.title = this._trans.__('Delete this analysis from the notebook and close it');
+      forget.addEventListener('click', () => this._onForget?.());
+      node.append(forget);
+    }
     if (!this._onRevealSource) {
       return node;
     }
@@ -385,6 +461,7 @@ export class AnalysisPanel extends Panel {
   private _trans: TranslationBundle;
   private _pointSize: number;
   private _onRevealSource: (() => void | Promise<void>) | null;
+  private _onForget: (() => void) | null;
   private _header: Widget;
   private _notes: Widget;
   private _controls: Widget;
@@ -396,6 +473,7 @@ export class AnalysisPanel extends Panel {
   private _sSelect!: HTMLSelectElement;
   private _sigma: number | null = null;
   private _banner: Widget;
+  private _stateChanged = new Signal<this, void>(this);
   private _sourceState: 'live' | 'stale' | 'lost' | 'waiting' = 'live';
   private _fit: FitSection;
   private _table: ITable | null = null;
@@ -418,7 +496,31 @@ export namespace AnalysisPanel {
     translator: ITranslator;
     /** Select and scroll to the source cell; omitted when the table did not come from a cell (a file). */
     onRevealSource?: () => void | Promise<void>;
+    /** Delete the analysis from its notebook (a button shows when given). */
+    onForget?: () => void;
     /** Runs fits (a worker-backed runner by default). */
     runner?: AnalysisRunner;
   }
+}
+
+/** A table made from a saved snapshot (the plotted columns as last seen). */
+export function snapshotTable(saved: ISavedAnalysis, note: string): ITable {
+  const { headers, values } = saved.snapshot;
+  const columns: IColumn[] = headers.map((header, i) => {
+    const { name, unit } = splitHeader(header);
+    return {
+      name,
+      unit: saved.snapshot.units[i] ?? unit,
+      header,
+      kind: 'number',
+      isIndex: false,
+      values: Float64Array.from(values[i], v => (v === null ? Number.NaN : v))
+    };
+  });
+  return {
+    columns,
+    rowCount: values[0]?.length ?? 0,
+    format: 'json',
+    notes: [{ kind: 'info', message: note }]
+  };
 }

@@ -9,6 +9,7 @@ import type { ISignal } from '@lumino/signaling';
 import { Widget } from '@lumino/widgets';
 import type { AnalysisModel, IAnalysisJob, IAnalysisOutcome } from '../core/analysis';
 import { formatPlain, formatWithError, parseStarts } from '../core/analysis';
+import type { ISavedFit } from '../core/saved';
 import { AnalysisCancelled, AnalysisRunner } from './analysis-runner';
 
 /** The data a fit runs on. */
@@ -139,6 +140,31 @@ export class FitSection extends Widget {
     return this._settled;
   }
 
+  /** The controls as saved in a notebook. */
+  get controls(): ISavedFit {
+    const job = this._job({ x: [], y: [] });
+    return { model: job.model, options: job.options, window: job.window, starts: this._starts.value };
+  }
+
+  /** Set the controls from a saved analysis (does not run the fit). */
+  setControls(c: ISavedFit): void {
+    this.setModel(c.model);
+    this._min.value = Number.isFinite(c.window.min) ? formatPlain(c.window.min) : '';
+    this._max.value = Number.isFinite(c.window.max) ? formatPlain(c.window.max) : '';
+    if (c.options.J !== undefined) {
+      this._spin.value = String(c.options.J);
+    }
+    if (c.options.proxyPower !== undefined) {
+      this._proxy.value = String(c.options.proxyPower);
+    }
+    this._background.checked = c.options.background === true;
+    if (c.options.units) {
+      this._units.value = c.options.units;
+    }
+    this._expression.value = c.options.expression ?? '';
+    this._starts.value = c.starts;
+  }
+
   /** Cancel a running fit. */
   cancel(): void {
     this._runner.cancel();
@@ -149,7 +175,6 @@ export class FitSection extends Widget {
       return;
     }
     this._runner.dispose();
-    Signal.clearData(this);
     super.dispose();
   }
 

@@ -27,29 +27,58 @@ export class ResidualEvaluator {
   lastRoundingNorm2 = 0;
   /** Message of the last model exception, if any. */
   lastError: string | null = null;
+  /** Whether the Jacobian written by the last `residualsWithJacobian` is finite. */
+  lastJacobianFinite = false;
   private readonly problem: IFitProblem;
   private readonly full: Float64Array;
-  private readonly fplus: Float64Array;
-  private readonly fminus: Float64Array;
-  private readonly fplus2: Float64Array;
-  private readonly fminus2: Float64Array;
-  private readonly jfull: Float64Array | null;
+  /** Analytic Jacobian supplied by the model. */
+  private readonly hasJacobian: boolean;
+  /** Analytic Jacobian written straight into the n×k buffer (no weights, nothing fixed). */
+  private readonly direct: boolean;
+  // Allocated on first use: difference buffers and the all-parameter Jacobian.
+  private fplusBuf: Float64Array | null = null;
+  private fminusBuf: Float64Array | null = null;
+  private fplus2Buf: Float64Array | null = null;
+  private fminus2Buf: Float64Array | null = null;
+  private jfullBuf: Float64Array | null = null;
 
   constructor(problem: IFitProblem) {
     this.problem = problem;
     this.n = problem.n;
     this.k = problem.free.length;
     this.full = Float64Array.from(problem.start);
-    this.fplus = new Float64Array(this.n);
-    this.fminus = new Float64Array(this.n);
-    this.fplus2 = new Float64Array(this.n);
-    this.fminus2 = new Float64Array(this.n);
-    this.jfull = problem.model.jacobian ? new Float64Array(this.n * problem.kAll) : null;
+    this.hasJacobian = typeof problem.model.jacobian === 'function';
+    this.direct = !problem.weights && this.k === problem.kAll;
   }
 
   /** True when the model supplies an analytic Jacobian. */
   get analytic(): boolean {
-    return this.jfull !== null;
+    return this.hasJacobian;
+  }
+
+  /** True when the model computes values and Jacobian in one pass (`evaluateWithJacobian` and `jacobian`). */
+  get combined(): boolean {
+    return this.hasJacobian && typeof this.problem.model.evaluateWithJacobian === 'function';
+  }
+
+  private get fplus(): Float64Array {
+    return (this.fplusBuf ??= new Float64Array(this.n));
+  }
+
+  private get fminus(): Float64Array {
+    return (this.fminusBuf ??= new Float64Array(this.n));
+  }
+
+  private get fplus2(): Float64Array {
+    return (this.fplus2Buf ??= new Float64Array(this.n));
+  }
+
+  private get fminus2(): Float64Array {
+    return (this.fminus2Buf ??= new Float64Array(this.n));
+  }
+
+  private get jfull(): Float64Array {
+    return (this.jfullBuf ??= new Float64Array(this.n * this.problem.kAll));
   }
 
   /** Full parameter vector (fixed values included) for free values `p`. */
@@ -89,6 +118,49 @@ export class ResidualEvaluator {
     if (!this.callModel(f)) {
       return Number.NaN;
     }
+    return this.weighResiduals(r, f);
+  }
+
+  /**
+   * Like `residuals`, and writes the weighted Jacobian (row-major n×k over
+   * free parameters) at `p` into `jac` from the same model pass; sets
+   * `lastJacobianFinite`. Only for `combined` models.
+   */
+  residualsWithJacobian(p: Float64Array, r: Float64Array, f: Float64Array, jac: Float64Array): number {
+    this.setFree(p);
+    this.evaluations++;
+    this.jacobianEvaluations++;
+    this.lastJacobianFinite = false;
+    const target = this.direct ? jac : this.jfull;
+    try {
+      this.problem.model.evaluateWithJacobian!(this.full, this.problem.x, f, target);
+    } catch (err) {
+      this.lastError = err instanceof Error ? err.message : String(err);
+      return Number.NaN;
+    }
+    const cost = this.weighResiduals(r, f);
+    if (!this.direct) {
+      this.selectColumns(jac);
+    }
+    this.lastJacobianFinite = allFinite(jac, this.n * this.k);
+    return cost;
+  }
+
+  /** jac = weighted free columns of the all-parameter Jacobian `jfull`. */
+  private selectColumns(jac: Float64Array): void {
+    const { n, k } = this;
+    const { weights, free, kAll } = this.problem;
+    const jfull = this.jfull;
+    for (let i = 0; i < n; i++) {
+      const w = weights ? weights[i] : 1;
+      for (let j = 0; j < k; j++) {
+        jac[i * k + j] = jfull[i * kAll + free[j]] * w;
+      }
+    }
+  }
+
+  /** r = w(f − y); returns Σr² (NaN when not finite) and sets the rounding norm. */
+  private weighResiduals(r: Float64Array, f: Float64Array): number {
     const { y, weights } = this.problem;
     let sum = 0;
     let e2 = 0;
@@ -122,24 +194,20 @@ export class ResidualEvaluator {
    */
   jacobian(p: Float64Array, f0: Float64Array, jac: Float64Array, requested: DifferenceScheme): boolean {
     const { n, k } = this;
-    const { weights, free } = this.problem;
     this.setFree(p);
     let scheme = requested;
-    if (this.jfull) {
+    if (this.hasJacobian) {
       this.jacobianEvaluations++;
-      const kAll = this.problem.kAll;
-      const direct = !weights && k === kAll;
+      const direct = this.direct;
+      const target = direct ? jac : this.jfull;
       try {
-        this.problem.model.jacobian!(this.full, this.problem.x, direct ? jac : this.jfull);
+        this.problem.model.jacobian!(this.full, this.problem.x, target);
       } catch (err) {
         this.lastError = err instanceof Error ? err.message : String(err);
-        (direct ? jac : this.jfull).fill(Number.NaN);
+        target.fill(Number.NaN);
       }
-      for (let i = 0; !direct && i < n; i++) {
-        const w = weights ? weights[i] : 1;
-        for (let j = 0; j < k; j++) {
-          jac[i * k + j] = this.jfull[i * kAll + free[j]] * w;
-        }
+      if (!direct) {
+        this.selectColumns(jac);
       }
       if (allFinite(jac, n * k)) {
         return true;
@@ -272,13 +340,19 @@ export class ResidualEvaluator {
   }
 }
 
+/** True when a[0..len) are all finite (x·0 is 0 for finite x, NaN otherwise: no branch per element). */
 function allFinite(a: Float64Array, len: number): boolean {
-  for (let i = 0; i < len; i++) {
-    if (!Number.isFinite(a[i])) {
-      return false;
-    }
+  let s0 = 0;
+  let s1 = 0;
+  let i = 0;
+  for (; i + 1 < len; i += 2) {
+    s0 += a[i] * 0;
+    s1 += a[i + 1] * 0;
   }
-  return true;
+  if (i < len) {
+    s0 += a[i] * 0;
+  }
+  return s0 + s1 === 0;
 }
 
 function columnFinite(jac: Float64Array, n: number, k: number, j: number): boolean {

@@ -7,7 +7,7 @@
  */
 import { FIT_DEFAULTS } from './defaults';
 import type { ResidualEvaluator } from './evaluator';
-import { scaledTransposeTimes, secondDirectional } from './kernels';
+import { geodesicRightHandSide } from './kernels';
 import { solveDamped } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 
@@ -33,14 +33,22 @@ export interface IGeodesicState {
 
 /** Preallocated work arrays. */
 export interface IGeodesicWork {
-  rvv: Float64Array;
+  /** r_vv (length n), allocated only when no unrolled kernel exists for k. */
+  rvv: () => Float64Array;
   za: Float64Array;
   rhs: Float64Array;
+  full: Float64Array;
 }
 
 /** Allocates work arrays for n points and k parameters. */
 export function geodesicWork(n: number, k: number): IGeodesicWork {
-  return { rvv: new Float64Array(n), za: new Float64Array(k), rhs: new Float64Array(k) };
+  let rvv: Float64Array | null = null;
+  return {
+    rvv: () => (rvv ??= new Float64Array(n)),
+    za: new Float64Array(k),
+    rhs: new Float64Array(k),
+    full: new Float64Array(k)
+  };
 }
 
 /** Finite-difference step along v for the second directional derivative. */
@@ -65,8 +73,7 @@ export function accelerate(
   for (let j = 0; j < k; j++) {
     w.za[j] = pT[j] - p[j];
   }
-  secondDirectional(s.jac, w.za, s.rT, s.r, h, n, k, w.rvv);
-  scaledTransposeTimes(s.jac, w.rvv, n, k, m.cols, s.diag, w.rhs);
+  geodesicRightHandSide(s.jac, w.za, s.rT, s.r, h, n, k, m.cols, s.diag, w.rhs, w.full, w.rvv);
   solveDamped(m, mu, w.rhs, w.za);
   let an = 0;
   let vn = 0;

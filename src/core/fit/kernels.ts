@@ -1,5 +1,5 @@
 import type { ISpectralModel } from './subproblem';
-import { gradientKernel, timesKernel } from './unrolled';
+import { geodesicKernel, gradientKernel, normalGradientKernel, timesKernel } from './unrolled';
 
 /**
  * O(n·k) loops of the iteration, kept in plain functions so that they are
@@ -141,4 +141,92 @@ export function scaledNorm(diag: Float64Array, v: Float64Array): number {
     s += t * t;
   }
   return Math.sqrt(s);
+}
+
+/**
+ * One pass over the row-major n×k `jac`: upper triangle of JᵀJ into
+ * `normal` (k×k row-major) and compensated Jᵀr into `grad`. Returns false
+ * when a sum is not finite (then `jac` has a non-finite entry, or entries
+ * whose squares overflow).
+ */
+export function normalAndGradient(
+  jac: Float64Array,
+  r: Float64Array,
+  n: number,
+  k: number,
+  normal: Float64Array,
+  grad: Float64Array
+): boolean {
+  const fast = normalGradientKernel(k);
+  if (fast) {
+    fast(jac, r, n, normal, grad);
+  } else {
+    normal.fill(0);
+    grad.fill(0);
+    for (let i = 0; i < n; i++) {
+      const row = i * k;
+      const ri = r[i];
+      for (let a = 0; a < k; a++) {
+        const ja = jac[row + a];
+        grad[a] += ja * ri;
+        for (let b = a; b < k; b++) {
+          normal[a * k + b] += ja * jac[row + b];
+        }
+      }
+    }
+  }
+  let check = 0;
+  for (let a = 0; a < k; a++) {
+    check += normal[a * k + a] * 0 + grad[a] * 0;
+    for (let b = 0; b < a; b++) {
+      normal[a * k + b] = normal[b * k + a];
+    }
+  }
+  return check === 0;
+}
+
+/** vᵀ·N·v for the symmetric k×k `normal` (= ‖J·v‖² when N = JᵀJ). */
+export function quadraticForm(normal: Float64Array, k: number, v: Float64Array): number {
+  let sum = 0;
+  for (let a = 0; a < k; a++) {
+    let row = 0;
+    for (let b = 0; b < k; b++) {
+      row += normal[a * k + b] * v[b];
+    }
+    sum += v[a] * row;
+  }
+  return Math.max(sum, 0);
+}
+
+/**
+ * Right-hand side of the geodesic acceleration over `cols`, scaled:
+ * out[a] = (Jᵀ r_vv)_{cols[a]} / diag[cols[a]], with the second directional
+ * derivative r_vv = (2/h²)(r(p + dp) − r(p) − J·dp) (dp = h·v), in one pass
+ * when an unrolled kernel exists. `full` is scratch of length k.
+ */
+export function geodesicRightHandSide(
+  jac: Float64Array,
+  dp: Float64Array,
+  rShift: Float64Array,
+  r: Float64Array,
+  h: number,
+  n: number,
+  k: number,
+  cols: number[],
+  diag: Float64Array,
+  out: Float64Array,
+  full: Float64Array,
+  rvv: () => Float64Array
+): void {
+  const fast = geodesicKernel(k);
+  if (fast) {
+    fast(jac, dp, rShift, r, 2 / (h * h), n, full);
+    for (let a = 0; a < cols.length; a++) {
+      out[a] = full[cols[a]] / diag[cols[a]];
+    }
+    return;
+  }
+  const buf = rvv();
+  secondDirectional(jac, dp, rShift, r, h, n, k, buf);
+  scaledTransposeTimes(jac, buf, n, k, cols, diag, out);
 }

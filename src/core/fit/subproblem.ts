@@ -32,6 +32,8 @@ export interface ISpectralModel {
  * The m×m normal matrix is formed in a tight loop and eigen-decomposed; when
  * `useSvd` and its eigenvalue ratio is below `normalEquationsMinRatio`
  * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead.
+ * `normal`, when given, is the unscaled k×k JᵀJ (symmetric, row-major)
+ * already formed, and saves the pass over `jac`.
  */
 export function spectralModel(
   jac: Float64Array,
@@ -42,7 +44,8 @@ export function spectralModel(
   r: Float64Array,
   grad: Float64Array,
   useSvd: boolean,
-  singularTolerance: number
+  singularTolerance: number,
+  normalFull: Float64Array | null = null
 ): ISpectralModel {
   const m = cols.length;
   const v = new Float64Array(m * m);
@@ -51,7 +54,7 @@ export function spectralModel(
   if (m === 0) {
     return { cols, v, s2, c };
   }
-  const normal = normalMatrix(jac, n, k, cols, diag);
+  const normal = normalFull ? scaledNormal(normalFull, k, cols, diag) : normalMatrix(jac, n, k, cols, diag);
   const g = new Float64Array(m);
   for (let a = 0; a < m; a++) {
     g[a] = grad[cols[a]] / diag[cols[a]];
@@ -158,6 +161,20 @@ export function normalMatrix(
   for (let a = 0; a < m; a++) {
     for (let b = a; b < m; b++) {
       const val = acc[a * m + b] / (diag[cols[a]] * diag[cols[b]]);
+      out.set(a, b, val);
+      out.set(b, a, val);
+    }
+  }
+  return out;
+}
+
+/** The m×m scaled normal matrix over `cols` from the unscaled k×k JᵀJ `normal`. */
+export function scaledNormal(normal: Float64Array, k: number, cols: number[], diag: Float64Array): Matrix {
+  const m = cols.length;
+  const out = new Matrix(m, m);
+  for (let a = 0; a < m; a++) {
+    for (let b = a; b < m; b++) {
+      const val = normal[cols[a] * k + cols[b]] / (diag[cols[a]] * diag[cols[b]]);
       out.set(a, b, val);
       out.set(b, a, val);
     }

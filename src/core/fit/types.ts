@@ -17,6 +17,16 @@ export interface IFitModel {
    * When absent, finite differences are used.
    */
   jacobian?(p: Float64Array, x: Float64Array, out: Float64Array): void;
+  /**
+   * Optional single pass writing what `evaluate` writes into `out` and what
+   * `jacobian` writes into `jac` (row-major n×k), sharing the work of both
+   * (e.g. one power per point for the value and its derivatives). When
+   * present (with `jacobian`), the engine computes the Jacobian at every
+   * trial point in the same pass as the values, so an accepted step needs
+   * no separate Jacobian evaluation. Results must equal those of
+   * `evaluate` and `jacobian`.
+   */
+  evaluateWithJacobian?(p: Float64Array, x: Float64Array, out: Float64Array, jac: Float64Array): void;
 }
 
 /** Observations. `sigma` (optional) are per-point standard uncertainties of `y`. */

@@ -119,3 +119,96 @@ return norm2;`;
   }
   return timesCache.get(k) ?? null;
 }
+
+/** Upper triangle of JᵀJ (row-major k×k) and compensated Jᵀr, in one pass. */
+export type NormalGradientKernel = (jac: Float64Array, r: Float64Array, n: number, normal: Float64Array, grad: Float64Array) => void;
+
+const normalGradientCache = new Map<number, NormalGradientKernel | null>();
+
+/** Unrolled fused JᵀJ / Jᵀr kernel for k columns, or null. */
+export function normalGradientKernel(k: number): NormalGradientKernel | null {
+  if (k > MAX_UNROLLED_COLUMNS) {
+    return null;
+  }
+  if (!normalGradientCache.has(k)) {
+    const decl: string[] = [];
+    const load: string[] = [];
+    const acc: string[] = [];
+    const store: string[] = [];
+    for (let a = 0; a < k; a++) {
+      decl.push(`let g${a} = 0; let e${a} = 0;`);
+      load.push(`const j${a} = jac[o + ${a}];`);
+      // Jᵀr with Neumaier compensation, as in the gradient kernel.
+      acc.push(
+        `const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; ` +
+          `e${a} += Math.abs(g${a}) >= Math.abs(t${a}) ? (g${a} - u${a}) + t${a} : (t${a} - u${a}) + g${a}; g${a} = u${a};`
+      );
+      store.push(`grad[${a}] = g${a} + e${a};`);
+      for (let b = a; b < k; b++) {
+        decl.push(`let s${a}_${b} = 0;`);
+        acc.push(`s${a}_${b} += j${a} * j${b};`);
+        store.push(`normal[${a * k + b}] = s${a}_${b};`);
+      }
+    }
+    const body = `"use strict";
+${decl.join('\n')}
+for (let i = 0; i < n; i++) {
+  const o = i * ${k};
+  const ri = r[i];
+  ${load.join(' ')}
+  ${acc.join(' ')}
+}
+${store.join('\n')}`;
+    normalGradientCache.set(k, compile<NormalGradientKernel>(['jac', 'r', 'n', 'normal', 'grad'], body));
+  }
+  return normalGradientCache.get(k) ?? null;
+}
+
+/**
+ * out = Jᵀ·(scale·(rShift − r − J·dp)) over all k columns, in one pass
+ * (the right-hand side of the geodesic acceleration).
+ */
+export type GeodesicKernel = (
+  jac: Float64Array,
+  dp: Float64Array,
+  rShift: Float64Array,
+  r: Float64Array,
+  scale: number,
+  n: number,
+  out: Float64Array
+) => void;
+
+const geodesicCache = new Map<number, GeodesicKernel | null>();
+
+/** Unrolled geodesic right-hand-side kernel for k columns, or null. */
+export function geodesicKernel(k: number): GeodesicKernel | null {
+  if (k > MAX_UNROLLED_COLUMNS) {
+    return null;
+  }
+  if (!geodesicCache.has(k)) {
+    const decl: string[] = [];
+    const load: string[] = [];
+    const terms: string[] = [];
+    const acc: string[] = [];
+    const store: string[] = [];
+    for (let a = 0; a < k; a++) {
+      decl.push(`const d${a} = dp[${a}]; let s${a} = 0;`);
+      load.push(`const j${a} = jac[o + ${a}];`);
+      terms.push(`j${a} * d${a}`);
+      acc.push(`s${a} += j${a} * v;`);
+      store.push(`out[${a}] = s${a};`);
+    }
+    const body = `"use strict";
+${decl.join('\n')}
+for (let i = 0; i < n; i++) {
+  const o = i * ${k};
+  ${load.join(' ')}
+  const jv = ${terms.join(' + ')};
+  const v = scale * (rShift[i] - r[i] - jv);
+  ${acc.join(' ')}
+}
+${store.join('\n')}`;
+    geodesicCache.set(k, compile<GeodesicKernel>(['jac', 'dp', 'rShift', 'r', 'scale', 'n', 'out'], body));
+  }
+  return geodesicCache.get(k) ?? null;
+}

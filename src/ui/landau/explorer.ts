@@ -1,0 +1,318 @@
+/**
+ * The Landau free-energy explorer: sliders for the coefficients (in the
+ * chosen convention), the temperature and the field; the landscape F(ψ) at
+ * (T, h) and the branches ψ(T) at h; and the derived zero-field values.
+ * Redraws at most once per animation frame; bad values show a message and
+ * leave the last good picture in place.
+ */
+import type { TranslationBundle } from '@jupyterlab/translation';
+import { Panel, Widget } from '@lumino/widgets';
+import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
+import { validateLandau } from '../../core/physics/landau/index';
+import { ChartView } from '../chart-view';
+import { readChartTheme } from '../chart-theme';
+import type { IBranchesData, IExplorerDerived } from './compute';
+import { branchesData, explorerDerived, landscapeData } from './compute';
+import { formatValue, renderDerivedTable } from './derived-table';
+import { ExplorerControls } from './controls';
+import { FrameThrottle } from './frame';
+import { coefficientsFrom, valuesIn } from './fields';
+import { stateRanges, temperatureScale } from './ranges';
+import { branchesSpec, landscapeSpec } from './specs';
+
+/** Starting coefficients (convention L) and state. */
+export interface ILandauExplorerInitial {
+  a: number;
+  b: number;
+  c: number;
+  T0: number;
+  d?: number;
+  T?: number;
+  h?: number;
+}
+
+/** First-order example of the domain reference (C5): a = 0.5, b = −2, c = 4, T0 = 100. */
+export const DEFAULT_LANDAU_INITIAL: ILandauExplorerInitial = { a: 0.5, b: -2, c: 4, T0: 100 };
+
+/** Interactive Landau landscape with sliders, two charts and a table. */
+export class LandauExplorer extends Panel {
+  constructor(options: LandauExplorer.IOptions) {
+    super();
+    const trans = (this._trans = options.trans);
+    this.addClass('jp-psiscape-LandauExplorer');
+    this.node.setAttribute('role', 'region');
+    this.node.setAttribute('aria-label', trans.__('Landau free-energy explorer'));
+    this._controls = new ExplorerControls({
+      trans,
+      onCoefficient: (key, v) => this._onCoefficient(key, v),
+      onState: (key, v) => this._onState(key, v),
+      onInvalid: (label, text) => {
+        this._badText = trans.__('%1: “%2” is not a finite number.', label, text);
+        this._schedule();
+      },
+      onConvention: c => this._onConvention(c)
+    });
+    this._message = new Widget({ node: document.createElement('p') });
+    this._message.addClass('jp-psiscape-landau-message');
+    this._message.node.setAttribute('role', 'alert');
+    this._message.node.hidden = true;
+    const charts = new Panel();
+    charts.addClass('jp-psiscape-landau-charts');
+    this._landscape.addClass('jp-psiscape-landau-landscape');
+    this._branches.addClass('jp-psiscape-landau-branches');
+    charts.addWidget(this._landscape);
+    charts.addWidget(this._branches);
+    this._table = document.createElement('table');
+    this._table.className = 'jp-psiscape-landau-derived';
+    this._stateLine = document.createElement('p');
+    this._stateLine.className = 'jp-psiscape-landau-state';
+    this._stateLine.setAttribute('aria-live', 'polite');
+    const derived = new Widget();
+    derived.addClass('jp-psiscape-landau-derived-section');
+    derived.node.append(this._stateLine, this._table);
+    this.addWidget(this._controls);
+    this.addWidget(this._message);
+    this.addWidget(charts);
+    this.addWidget(derived);
+    const init = options.initial ?? DEFAULT_LANDAU_INITIAL;
+    this.setCoefficients({ a: init.a, b: init.b, c: init.c, T0: init.T0, d: init.d ?? 0 }, { T: init.T, h: init.h });
+  }
+
+  /** Derived zero-field values of the last coefficients drawn, or null before the first good picture. */
+  get derived(): IExplorerDerived | null {
+    return this._derived;
+  }
+
+  /** Coefficients (convention L) currently entered, or null when they cannot be converted. */
+  get coefficients(): ILandauCoefficients | null {
+    return this._k ? { ...this._k } : null;
+  }
+
+  /** Convention the coefficients are displayed in. */
+  get convention(): LandauConvention {
+    return this._controls.convention;
+  }
+
+  /** Temperature and field of the landscape. */
+  get state(): { T: number; h: number } {
+    return { T: this._T, h: this._h };
+  }
+
+  /** Resolves when the scheduled redraw (if any) has finished. */
+  get rendered(): Promise<void> {
+    return this._throttle.settled;
+  }
+
+  /** Number of redraws run so far (at most one per animation frame). */
+  get redraws(): number {
+    return this._throttle.runs;
+  }
+
+  /**
+   * Shows new coefficients (convention L), e.g. from a fit, in the current
+   * convention (or in L when that form cannot hold them). T defaults to T1
+   * for a first-order transition and to T0 − S/2 otherwise; h to 0.
+   */
+  setCoefficients(k: ILandauCoefficients, state: { T?: number; h?: number } = {}): Promise<void> {
+    this._k = { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0 };
+    this._conversionError = null;
+    this._badText = null;
+    let convention = this._controls.convention;
+    let values: Record<string, number>;
+    try {
+      values = valuesIn(this._k, convention);
+    } catch {
+      convention = 'L';
+      values = valuesIn(this._k, convention);
+    }
+    this._values = values;
+    this._controls.showCoefficients(convention, values);
+    this._T = Number.isFinite(state.T) ? (state.T as number) : this._defaultT(this._k);
+    this._h = Number.isFinite(state.h) ? (state.h as number) : 0;
+    this._rangesKey = '';
+    this._controls.setState('T', this._T);
+    this._controls.setState('h', this._h);
+    return this._schedule();
+  }
+
+  /** Redraw with the current theme colours. */
+  redraw(): Promise<void> {
+    return this._schedule();
+  }
+
+  dispose(): void {
+    if (this.isDisposed) {
+      return;
+    }
+    this._throttle.cancel();
+    super.dispose();
+  }
+
+  private _defaultT(k: ILandauCoefficients): number {
+    try {
+      validateLandau(k);
+      const d = explorerDerived(k);
+      if (d.regime === 'first-order') {
+        return d.T1;
+      }
+      return k.T0 - 0.5 * temperatureScale(k, d.Tsuperheat ?? k.T0);
+    } catch {
+      return Number.isFinite(k.T0) ? k.T0 : 0;
+    }
+  }
+
+  private _onCoefficient(key: string, value: number): void {
+    this._badText = null;
+    this._notice = null;
+    this._values = { ...this._values, [key]: value };
+    const before = this._k;
+    try {
+      this._k = coefficientsFrom(this._controls.convention, this._values);
+      this._conversionError = null;
+    } catch (e) {
+      this._k = null;
+      this._conversionError = (e as Error).message;
+    }
+    if (before && this._k && before.T0 !== this._k.T0 && Number.isFinite(this._k.T0) && Number.isFinite(before.T0)) {
+      // keep T − T0: the landscape keeps its shape when T0 moves
+      this._T += this._k.T0 - before.T0;
+      this._controls.setState('T', this._T);
+    }
+    this._schedule();
+  }
+
+  private _onState(key: 'T' | 'h', value: number): void {
+    this._badText = null;
+    this._notice = null;
+    if (key === 'T') {
+      this._T = value;
+    } else {
+      this._h = value;
+    }
+    this._schedule();
+  }
+
+  private _onConvention(next: LandauConvention): void {
+    const trans = this._trans;
+    if (!this._k) {
+      this._controls.revertConvention();
+      this._showMessage(trans.__('Enter valid coefficients before changing the convention.'));
+      return;
+    }
+    let values: Record<string, number>;
+    try {
+      values = valuesIn(this._k, next);
+    } catch (e) {
+      this._controls.revertConvention();
+      this._notice = trans.__('The %1 form cannot hold these coefficients: %2.', this._controls.conventionName(next), (e as Error).message);
+      this._showMessage(this._notice);
+      return;
+    }
+    this._values = values;
+    this._controls.showCoefficients(next, values);
+    this._schedule();
+  }
+
+  private _showMessage(text: string | null): void {
+    this._message.node.textContent = text ?? '';
+    this._message.node.hidden = text === null;
+  }
+
+  /** What prevents a picture, or null. */
+  private _problem(): string | null {
+    const trans = this._trans;
+    const keep = trans.__('The charts and the table still show the last valid values.');
+    if (this._badText) {
+      return `${this._badText} ${keep}`;
+    }
+    if (this._conversionError !== null || !this._k) {
+      return trans.__('These coefficients cannot be converted to convention L: %1. %2', this._conversionError ?? '', keep);
+    }
+    try {
+      validateLandau(this._k);
+      if (!Number.isFinite(this._T) || !Number.isFinite(this._h)) {
+        throw new Error(trans.__('T and h must be finite numbers'));
+      }
+    } catch (e) {
+      return trans.__('No landscape for these values: %1. %2', (e as Error).message, keep);
+    }
+    return null;
+  }
+
+  private _schedule(): Promise<void> {
+    return this._throttle.request();
+  }
+
+  private async _draw(): Promise<void> {
+    if (this.isDisposed) {
+      return;
+    }
+    const problem = this._problem();
+    if (problem !== null) {
+      this._showMessage(problem);
+      return;
+    }
+    const k = { ...(this._k as ILandauCoefficients) };
+    const T = this._T;
+    const h = this._h;
+    const derived = explorerDerived(k);
+    const key = JSON.stringify(k);
+    if (key !== this._rangesKey) {
+      const r = stateRanges(k, derived.Tsuperheat ?? k.T0, derived.criticalEndPoint?.h ?? Number.NaN);
+      this._controls.setStateRange('T', r.T);
+      this._controls.setStateRange('h', r.h);
+      this._rangesKey = key;
+    }
+    const bounds = this._controls.stateBounds('T');
+    const bkey = JSON.stringify([k, h, bounds.min, bounds.max]);
+    if (bkey !== this._branchesKey || !this._branchesData) {
+      this._branchesData = branchesData(k, bounds.min, bounds.max, h);
+      this._branchesKey = bkey;
+    }
+    const land = landscapeData(k, T, h, 1.25 * this._branchesData.psiMax);
+    const theme = readChartTheme(this.node);
+    const trans = this._trans;
+    const ls = landscapeSpec(land, T, h, theme, trans);
+    const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans);
+    this._derived = derived;
+    renderDerivedTable(this._table, derived, this._controls.conventionName(this._controls.convention), trans);
+    const g = land.global >= 0 ? land.points[land.global] : null;
+    this._stateLine.textContent = g
+      ? trans.__('Equilibrium at T = %1, h = %2: ψ = %3, F − F0 = %4, %5 stationary points.', formatValue(T), formatValue(h), formatValue(g.psi), formatValue(g.F), land.points.length)
+      : '';
+    this._showMessage(this._notice);
+    await Promise.all([this._landscape.render(ls.spec, ls.label), this._branches.render(bs.spec, bs.label)]);
+  }
+
+  private _trans: TranslationBundle;
+  private _controls: ExplorerControls;
+  private _message: Widget;
+  private _landscape = new ChartView();
+  private _branches = new ChartView();
+  private _table: HTMLTableElement;
+  private _stateLine: HTMLParagraphElement;
+  private _k: ILandauCoefficients | null = null;
+  private _values: Record<string, number> = {};
+  private _T = Number.NaN;
+  private _h = 0;
+  private _derived: IExplorerDerived | null = null;
+  private _conversionError: string | null = null;
+  private _badText: string | null = null;
+  private _notice: string | null = null;
+  private _rangesKey = '';
+  private _branchesKey = '';
+  private _branchesData: IBranchesData | null = null;
+  private _throttle = new FrameThrottle(
+    () => this._draw(),
+    e => this._showMessage(this._trans.__('The charts could not be drawn: %1', (e as Error).message))
+  );
+}
+
+/** Options of {@link LandauExplorer}. */
+export namespace LandauExplorer {
+  export interface IOptions {
+    trans: TranslationBundle;
+    /** Starting values; default the first-order example a = 0.5, b = −2, c = 4, T0 = 100. */
+    initial?: ILandauExplorerInitial;
+  }
+}

@@ -1,0 +1,81 @@
+/**
+ * The explorer's two chart specs with translated texts: the landscape at the
+ * chosen (T, h) and the branches ψ(T) with T0, T1, T** marked.
+ */
+import type { TranslationBundle } from '@jupyterlab/translation';
+import type { TopLevelSpec } from 'vega-lite';
+import type { IKindLabels, ITemperatureMarker } from '../../charts/landau/index';
+import { buildBranchesSpec, buildLandscapeSpec } from '../../charts/landau/index';
+import type { IChartTheme } from '../../charts/theme';
+import type { IBranchesData, IExplorerDerived, ILandscapeData } from './compute';
+import { formatValue } from './derived-table';
+
+/** A spec with its accessible label. */
+export interface ILabelledSpec {
+  spec: TopLevelSpec;
+  label: string;
+}
+
+function kindLabels(trans: TranslationBundle): IKindLabels {
+  return {
+    stable: trans.__('stable'),
+    metastable: trans.__('metastable'),
+    unstable: trans.__('unstable'),
+    inflection: trans.__('inflection')
+  };
+}
+
+/** Landscape spec at (T, h). */
+export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme: IChartTheme, trans: TranslationBundle): ILabelledSpec {
+  const title = trans.__('Free energy at T = %1, h = %2', formatValue(T), formatValue(h));
+  const { spec } = buildLandscapeSpec({
+    psi: data.psi,
+    F: data.F,
+    points: data.points,
+    global: data.global,
+    T,
+    h,
+    theme,
+    labels: {
+      title,
+      psi: trans.__('order parameter ψ'),
+      F: trans.__('F − F0'),
+      kind: trans.__('stationary point'),
+      kinds: kindLabels(trans),
+      globalMinimum: trans.__('global minimum')
+    }
+  });
+  const n = data.points.length;
+  return { spec, label: trans._n('%2: %1 stationary point', '%2: %1 stationary points', n, title) };
+}
+
+/** Branches spec at field h with markers at the characteristic temperatures. */
+export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: number, h: number, theme: IChartTheme, trans: TranslationBundle): ILabelledSpec {
+  const markers: ITemperatureMarker[] = [{ T: derived.T0, label: 'T0' }];
+  if (derived.regime === 'first-order') {
+    markers.push({ T: derived.T1, label: 'T1' });
+    if (derived.Tsuperheat !== null) {
+      markers.push({ T: derived.Tsuperheat, label: 'T**' });
+    }
+  }
+  const title = trans.__('Order parameter against temperature at h = %1', formatValue(h));
+  const { spec } = buildBranchesSpec({
+    branches: data.branches,
+    heating: data.heating,
+    cooling: data.cooling,
+    markers,
+    current: { T, label: trans.__('T = %1', formatValue(T)) },
+    h,
+    theme,
+    labels: {
+      title,
+      T: trans.__('temperature T'),
+      psi: trans.__('order parameter ψ'),
+      kind: trans.__('branch'),
+      kinds: kindLabels(trans),
+      heating: trans.__('heating'),
+      cooling: trans.__('cooling')
+    }
+  });
+  return { spec, label: trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) };
+}
