@@ -34,6 +34,7 @@ export class AnalysisPanel extends Panel {
     this.id = `jp-psiscape-analysis-${++panelCount}`;
     this.addClass('jp-psiscape-AnalysisPanel');
     this.node.setAttribute('role', 'region');
+    this.node.dataset.sourceState = 'live';
     this.node.setAttribute('aria-label', this._trans.__('Table analysis'));
     this.title.label = this._trans.__('Analysis: %1', options.notebookName);
     this.title.caption = options.sourceLabel;

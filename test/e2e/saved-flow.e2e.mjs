@@ -1,0 +1,47 @@
+// Saved analyses survive a reload: the analysis (columns and fit) is written
+// to the notebook, the notebook is saved to the browser's storage, and after
+// a reload the analysis reopens by itself with its fit.
+import assert from 'node:assert/strict';
+import { after, before, test } from 'node:test';
+import { contextMenu, openLab, screenshot, startServer } from './lab.mjs';
+
+let server;
+let lab;
+let url;
+
+before(async () => {
+  const started = await startServer();
+  server = started.server;
+  url = started.url;
+  lab = await openLab(url);
+});
+
+after(async () => {
+  await lab?.browser.close();
+  await new Promise(resolve => server?.close(resolve));
+});
+
+test('an analysis saved with the notebook reopens, with its fit, after a reload', async () => {
+  const { page } = lab;
+  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
+  await contextMenu(page, output, 'Analyse This Table with psiscape');
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await panel.locator('select.jp-psiscape-fit-model').selectOption('weiss');
+  await panel.locator('button.jp-psiscape-fit-run').click();
+  await panel.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  const before = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+
+  // Save the notebook (to the browser's storage) and reload the page.
+  await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
+  await page.evaluate(() => window.jupyterapp.commands.execute('docmanager:save'));
+  await page.waitForFunction(() => !document.querySelector('.jp-NotebookPanel .jp-mod-dirty, .lm-TabBar-tab.jp-mod-dirty'));
+  await page.reload();
+  await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
+  const restored = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await restored.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  const after = await restored.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+  assert.equal(after, before, 'the reopened analysis reruns the same fit');
+  assert.equal(await restored.getAttribute('data-source-state'), 'live');
+  assert.equal(await restored.locator('select.jp-psiscape-fit-model').inputValue(), 'weiss');
+  await screenshot(page, 'saved-after-reload');
+});
