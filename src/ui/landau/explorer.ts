@@ -117,6 +117,7 @@ export class LandauExplorer extends Panel {
     this._k = { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0 };
     this._conversionError = null;
     this._badText = null;
+    this._notice = null;
     let convention = this._controls.convention;
     let values: Record<string, number>;
     try {
@@ -208,6 +209,7 @@ export class LandauExplorer extends Panel {
       this._showMessage(this._notice);
       return;
     }
+    this._notice = null;
     this._values = values;
     this._controls.showCoefficients(next, values);
     this._schedule();
