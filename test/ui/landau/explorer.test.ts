@@ -5,7 +5,7 @@
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { ChartView } from '../../../src/ui/chart-view';
-import { chartsMarkup, derivedCell, explorer, message, numberField, range, slide, stationaryMarks, type } from './helpers';
+import { derivedCell, explorer, message, numberField, range, slide, stationaryMarks, type } from './helpers';
 
 describe('LandauExplorer', () => {
   afterEach(() => {
