@@ -22,6 +22,34 @@ export const powerLaw: IFitModel = {
 
 export const powerLawAnalytic: IFitModel = {
   ...powerLaw,
+  // One log and one exp per point give the value and all three derivatives.
+  evaluateWithJacobian(p, T, out, jac) {
+    const A = p[0];
+    const Tc = p[1];
+    const beta = p[2];
+    const invTc = 1 / Tc;
+    const c1 = A * beta * invTc * invTc;
+    for (let i = 0; i < T.length; i++) {
+      const Ti = T[i];
+      const t = 1 - Ti * invTc;
+      const a = Math.abs(t);
+      const o = i * 3;
+      if (a === 0) {
+        out[i] = 0;
+        jac[o] = 0;
+        jac[o + 1] = 0;
+        jac[o + 2] = 0;
+        continue;
+      }
+      const la = Math.log(a);
+      const pw = Math.exp(beta * la);
+      const spw = t >= 0 ? pw : -pw;
+      out[i] = A * spw;
+      jac[o] = spw;
+      jac[o + 1] = (c1 * pw * Ti) / a;
+      jac[o + 2] = A * spw * la;
+    }
+  },
   jacobian(p, T, out) {
     const A = p[0];
     const Tc = p[1];

@@ -93,6 +93,8 @@ function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknow
     r,
     f,
     cost,
+    jacobian: null,
+    normal: null,
     iterations: 0,
     converged: false,
     reason: `aborted: ${msg}`,
@@ -116,10 +118,14 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
   const evaluationsBeforeStats = ev.evaluations;
   const jacobiansBeforeStats = ev.jacobianEvaluations;
 
-  // Jacobian at the solution: analytic, or Richardson-extrapolated central differences.
-  const jac = new Float64Array(n * k);
-  const finite = Number.isFinite(chi2) && ev.jacobian(o.p, o.f, jac, 'central');
-  const factor = finite ? inverseNormal(jac, n, k) : { inverse: null, rank: 0, condition: NaN };
+  // Jacobian at the solution: analytic (reused from the iteration when it
+  // holds it there), or central differences.
+  const reuse = ev.analytic && o.jacobian !== null;
+  const jac = reuse ? o.jacobian! : new Float64Array(n * k);
+  const finite = Number.isFinite(chi2) && (reuse || ev.jacobian(o.p, o.f, jac, 'central'));
+  const factor = finite
+    ? inverseNormal(jac, n, k, reuse ? o.normal : null)
+    : { inverse: null, rank: 0, condition: NaN };
   const scale = knownSigma ? 1 : reducedChi2;
   const covariance = Array.from({ length: kAll }, () => new Array<number>(kAll).fill(0));
   if (factor.inverse) {
@@ -185,7 +191,10 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
     (v, j) => [v - q * standardErrors[j], v + q * standardErrors[j]] as [number, number]
   );
   const criteria = informationCriteria(chi2, n, k, knownSigma);
-  const residuals = Array.from(o.f, (fi, i) => problem.y[i] - fi);
+  const residuals: number[] = [];
+  for (let i = 0; i < n; i++) {
+    residuals.push(problem.y[i] - o.f[i]);
+  }
   if (o.restarts > 0) {
     warnings.push(`restarted ${o.restarts} time(s) from the best point after the step collapsed`);
   }

@@ -10,7 +10,15 @@ import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
 import { accelerate, geodesicWork } from './geodesic';
-import { columnNormsAndGradient, costNoise, gaussNewtonReduction, jacobianTimes, scaledNorm } from './kernels';
+import {
+  columnNormsAndGradient,
+  costNoise,
+  gaussNewtonReduction,
+  jacobianTimes,
+  normalAndGradient,
+  quadraticForm,
+  scaledNorm
+} from './kernels';
 import { dampingForRadius, spectralModel, stepForMu } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 import type { IFitProgress } from './types';
@@ -25,6 +33,10 @@ export interface ILmOutcome {
   f: Float64Array;
   /** Σr² at `p`. */
   cost: number;
+  /** Weighted Jacobian (row-major n×k) at `p` when the iteration holds it, else null. */
+  jacobian: Float64Array | null;
+  /** Unscaled JᵀJ (k×k, symmetric) at `p` when formed there (large problems), else null. */
+  normal: Float64Array | null;
   iterations: number;
   converged: boolean;
   reason: string;
@@ -69,14 +81,19 @@ export function* levenbergMarquardtSteps(
   let pT = new Float64Array(k);
   let rT = new Float64Array(n);
   let fT = new Float64Array(n);
-  const jac = new Float64Array(n * k);
-  const jd = new Float64Array(n);
+  let jac = new Float64Array(n * k);
+  // Combined models: the Jacobian at each trial point comes with its values.
+  const combined = ev.combined;
+  let jacT = combined ? new Float64Array(n * k) : null;
+  const large = n > FIT_DEFAULTS.largeRows;
+  // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
+  const normal = large ? new Float64Array(k * k) : null;
+  const jd = large ? null : new Float64Array(n);
   const diag = new Float64Array(k);
   const colNorm = new Float64Array(k);
   const grad = new Float64Array(k);
   const z = new Float64Array(k);
   const step = new Float64Array(k);
-  const large = n > FIT_DEFAULTS.largeRows;
   const useSvd = !large;
   const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
   const work = geodesicWork(n, k);
@@ -87,6 +104,8 @@ export function* levenbergMarquardtSteps(
     r,
     f,
     cost,
+    jacobian: jacAtP ? jac : null,
+    normal: normalAtP ? normal : null,
     iterations,
     converged,
     reason,
@@ -94,7 +113,10 @@ export function* levenbergMarquardtSteps(
     restarts
   });
 
-  let cost = ev.residuals(p, r, f);
+  let cost = combined ? ev.residualsWithJacobian(p, r, f, jac) : ev.residuals(p, r, f);
+  // jac holds the Jacobian at p; normal holds JᵀJ at p.
+  let jacAtP = combined && ev.lastJacobianFinite;
+  let normalAtP = false;
   let iterations = 0;
   let gcos = Number.NaN;
   let restarts = 0;
@@ -126,7 +148,13 @@ export function* levenbergMarquardtSteps(
       return out(false, `maximum number of evaluations (${problem.maxEvaluations}) reached`);
     }
     if (needJacobian) {
-      if (!ev.jacobian(p, f, jac, scheme)) {
+      const ok = jacAtP || ev.jacobian(p, f, jac, scheme);
+      jacAtP = ok;
+      if (ok && normal) {
+        normalAtP = normalAndGradient(jac, r, n, k, normal, grad);
+      }
+      if (!ok || (normal && !normalAtP)) {
+        jacAtP = false;
         if (iterations === 0 || !havePrevious) {
           const why = ev.lastError ? `: ${ev.lastError}` : '';
           return out(false, `Jacobian is not finite at the current point${why}`);
@@ -137,12 +165,19 @@ export function* levenbergMarquardtSteps(
         [f, fT] = [fT, f];
         cost = costPrevious;
         noise = noisePrevious;
+        jacAtP = false;
         havePrevious = false;
         delta *= 0.1;
         continue;
       }
       havePrevious = false;
-      columnNormsAndGradient(jac, r, n, k, colNorm, grad);
+      if (normal) {
+        for (let j = 0; j < k; j++) {
+          colNorm[j] = Math.sqrt(normal[j * k + j]);
+        }
+      } else {
+        columnNormsAndGradient(jac, r, n, k, colNorm, grad);
+      }
       const rnorm = Math.sqrt(cost);
       gcos = 0;
       for (let j = 0; j < k; j++) {
@@ -173,7 +208,7 @@ export function* levenbergMarquardtSteps(
       if (cols.length === 0) {
         return out(true, 'every free parameter is held at a bound by the gradient');
       }
-      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance);
+      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal);
       needJacobian = false;
       // Large problems: after an accepted Gauss–Newton step that the linear
       // model predicted well, the full Gauss–Newton step from here (accurate
@@ -226,14 +261,15 @@ export function* levenbergMarquardtSteps(
       first = false;
     }
     // Predicted reduction of Σr² from the linear model.
-    const jdNorm2 = jacobianTimes(jac, step, n, k, jd);
+    const jdNorm2 = normal ? quadraticForm(normal, k, step) : jacobianTimes(jac, step, n, k, jd!);
     let gStep = 0;
     for (let j = 0; j < k; j++) {
       gStep += grad[j] * step[j];
     }
     const dnorm2 = pnorm * pnorm;
     const pred = clipped || accelerated ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
-    const costT = ev.residuals(pT, rT, fT);
+    const costT = jacT ? ev.residualsWithJacobian(pT, rT, fT, jacT) : ev.residuals(pT, rT, fT);
+    const jacTFinite = jacT !== null && ev.lastJacobianFinite;
     const roundingT = ev.lastRoundingNorm2;
     const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
     const rho = pred > 0 ? actual / pred : actual > 0 ? 1 : -1;
@@ -265,6 +301,11 @@ export function* levenbergMarquardtSteps(
       [p, pT] = [pT, p];
       [r, rT] = [rT, r];
       [f, fT] = [fT, f];
+      if (jacT) {
+        [jac, jacT] = [jacT, jac];
+      }
+      jacAtP = jacTFinite;
+      normalAtP = false;
       cost = costT;
       noisePrevious = noise;
       noise = costNoise(costT, roundingT);
@@ -278,6 +319,7 @@ export function* levenbergMarquardtSteps(
     if (noiseSteps >= (scheme === 'forward' ? 1 : 2)) {
       if (scheme === 'forward') {
         scheme = 'extrapolated';
+        jacAtP = false;
         noiseSteps = 0;
         needJacobian = true;
         continue;
@@ -293,6 +335,7 @@ export function* levenbergMarquardtSteps(
     if (ftolHit || xtolHit || machineHit) {
       if (scheme === 'forward') {
         scheme = 'extrapolated';
+        jacAtP = false;
         needJacobian = true;
         const pn = scaledNorm(diag, p);
         delta = Math.max(delta, pn > 0 ? pn : 1);

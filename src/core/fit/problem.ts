@@ -37,6 +37,9 @@ function toFloat64(name: string, values: ArrayLike<number>, length?: number): Fl
   if (length !== undefined && values.length !== length) {
     throw new FitInputError(`${name} has length ${values.length}, expected ${length}`);
   }
+  if (values instanceof Float64Array) {
+    return values.slice();
+  }
   const out = new Float64Array(values.length);
   for (let i = 0; i < values.length; i++) {
     const v = values[i];

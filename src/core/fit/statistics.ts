@@ -6,7 +6,7 @@
  */
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { FIT_DEFAULTS } from './defaults';
-import { normalMatrix } from './subproblem';
+import { normalMatrix, scaledNormal } from './subproblem';
 
 /** Covariance of the free parameters, unscaled: (JᵀJ)⁻¹. */
 export interface ICovarianceFactor {
@@ -18,12 +18,28 @@ export interface ICovarianceFactor {
   condition: number;
 }
 
-/** (JᵀJ)⁻¹ for the weighted row-major n×k Jacobian `jac`, via column equilibration. */
-export function inverseNormal(jac: Float64Array, n: number, k: number): ICovarianceFactor {
+/**
+ * (JᵀJ)⁻¹ for the weighted row-major n×k Jacobian `jac`, via column
+ * equilibration. `normal`, when given, is JᵀJ (k×k, symmetric) already
+ * formed from `jac`; it is used above `largeRows` points.
+ */
+export function inverseNormal(
+  jac: Float64Array,
+  n: number,
+  k: number,
+  normal: Float64Array | null = null
+): ICovarianceFactor {
+  const formed = normal !== null && n > FIT_DEFAULTS.largeRows ? normal : null;
   const norms = new Float64Array(k);
-  for (let i = 0; i < n; i++) {
+  if (formed) {
     for (let j = 0; j < k; j++) {
-      norms[j] += jac[i * k + j] * jac[i * k + j];
+      norms[j] = formed[j * k + j];
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < k; j++) {
+        norms[j] += jac[i * k + j] * jac[i * k + j];
+      }
     }
   }
   for (let j = 0; j < k; j++) {
@@ -35,7 +51,8 @@ export function inverseNormal(jac: Float64Array, n: number, k: number): ICovaria
   // Eigen-decomposition of the equilibrated normal matrix when it is well
   // conditioned; otherwise the SVD of the equilibrated Jacobian (accurate).
   const cols = Array.from({ length: k }, (_, j) => j);
-  const evd = new EigenvalueDecomposition(normalMatrix(jac, n, k, cols, norms), {
+  const scaled = formed ? scaledNormal(formed, k, cols, norms) : normalMatrix(jac, n, k, cols, norms);
+  const evd = new EigenvalueDecomposition(scaled, {
     assumeSymmetric: true
   });
   let s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
