@@ -211,8 +211,8 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       {
         name: 'branches_current_text',
         data: { values: current },
-        mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -2, color: theme.accent },
-        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: 300 }, text: { field: 'label' } }
+        mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -3, color: theme.accent },
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: { expr: 'height' } }, text: { field: 'label' } }
       }
     );
   }

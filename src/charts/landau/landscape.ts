@@ -110,7 +110,7 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
   const colours = kindColours(theme);
   const focus = options.focus === false ? null : landscapeFocus(points);
   const x = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, nice: false } };
-  const y = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false } };
+  const y = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false, padding: 14 } };
   const layer: unknown[] = [
     {
       name: 'landscape_curve',
