@@ -115,3 +115,20 @@ describe('LandauExplorer', () => {
     expect(w.node.getAttribute('role')).toBe('region');
   });
 });
+
+describe('LandauExplorer theme', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    document.body.removeAttribute('style');
+  });
+
+  it('should take new theme colours on redraw()', async () => {
+    const w = explorer();
+    await w.rendered;
+    const fills = () => [...w.node.querySelectorAll('.jp-psiscape-landau-landscape svg .landscape_points_marks path')].map(p => p.getAttribute('fill'));
+    expect(fills()).not.toContain('#123456');
+    w.node.style.setProperty('--jp-brand-color1', '#123456');
+    await w.redraw();
+    expect(fills()).toContain('#123456');
+  });
+});
