@@ -41,8 +41,10 @@ DEMO_CELLS = [
 magnetisation of the fictitious compound **AM-17** on warming in a small field.
 The numbers below come from a seeded mean-field curve plus noise; they are not real data.
 
-Right-click the table output below and choose **Analyse this table with psiscape**,
-or select the cell and run *psiscape: Analyse Table in Selected Cell* from the command palette."""),
+Right-click the table output below and choose **Analyse This Table with psiscape**,
+or select the cell and run *Analyse Table in Selected Cell* from the command palette.
+In the panel, pick a model under **Fit** (try *Weiss mean field*) and press **Fit**;
+the analysis is saved in the notebook when you save it."""),
     ("code", SETUP),
     ("code", """\
 rng = np.random.default_rng(1717)
@@ -90,11 +92,13 @@ def build(cells, path, cwd):
     nb = nbformat.v4.new_notebook()
     nb.metadata["kernelspec"] = {"name": "python3", "display_name": "Python 3", "language": "python"}
     nb.metadata["language_info"] = {"name": "python"}
-    for kind, source in cells:
+    for i, (kind, source) in enumerate(cells):
         if kind == "markdown":
-            nb.cells.append(nbformat.v4.new_markdown_cell(source))
+            cell = nbformat.v4.new_markdown_cell(source)
         else:
-            nb.cells.append(nbformat.v4.new_code_cell(source))
+            cell = nbformat.v4.new_code_cell(source)
+        cell["id"] = f"cell-{i + 1}"  # stable ids: regenerating gives the same notebook
+        nb.cells.append(cell)
     NotebookClient(nb, kernel_name="python3", timeout=120, resources={"metadata": {"path": cwd}}).execute()
     for cell in nb.cells:
         cell.get("metadata", {}).pop("execution", None)

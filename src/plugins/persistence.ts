@@ -39,6 +39,12 @@ export function upsertAnalysis(notebook: NotebookPanel, entry: ISavedAnalysis): 
     return false;
   }
   const i = analyses.findIndex(a => a.id === entry.id);
+  const same = (a: ISavedAnalysis) =>
+    JSON.stringify(toJsonSafe({ version: SAVED_VERSION, analyses: [a] })) === JSON.stringify(toJsonSafe({ version: SAVED_VERSION, analyses: [entry] }));
+  if (i >= 0 && same(analyses[i])) {
+    // Unchanged: leave the notebook clean.
+    return true;
+  }
   if (i >= 0) {
     analyses[i] = entry;
   } else {
