@@ -6,7 +6,8 @@
  */
 import type { IBranchPoint, ILandscapePoint } from '../../charts/landau/index';
 import type { ILandauCoefficients, ILandauPath, IStationaryResult, LandauRegime } from '../../core/physics/landau/index';
-import { landauDerived, landauF, landauThermalHysteresis, landauTransitionNumeric, linspace, stationaryUnchecked } from '../../core/physics/landau/index';
+import { landauDerived, landauF, landauThermalHysteresis, landauTransitionNumeric, linspace, stationaryUnchecked, validateLandau } from '../../core/physics/landau/index';
+import { temperatureScale } from './ranges';
 
 /** Zero-field quantities shown in the derived-values table (convention L). */
 export interface IExplorerDerived {
@@ -158,4 +159,22 @@ export function branchesData(k: ILandauCoefficients, Tmin: number, Tmax: number,
   }
   const hyst = landauThermalHysteresis(k, Tmin, Tmax, n, h);
   return { branches, heating: hyst.heating, cooling: hyst.cooling, psiMax: psiMax > 0 ? psiMax : 1 };
+}
+
+/**
+ * Temperature the landscape opens at: T1 for a first-order transition (the
+ * coexisting minima), T0 − S/2 otherwise (S from `temperatureScale`); T0 for
+ * coefficients that give no landscape.
+ */
+export function defaultTemperature(k: ILandauCoefficients): number {
+  try {
+    validateLandau(k);
+    const d = explorerDerived(k);
+    if (d.regime === 'first-order') {
+      return d.T1;
+    }
+    return k.T0 - 0.5 * temperatureScale(k, d.Tsuperheat ?? k.T0);
+  } catch {
+    return Number.isFinite(k.T0) ? k.T0 : 0;
+  }
 }

@@ -12,12 +12,12 @@ import { validateLandau } from '../../core/physics/landau/index';
 import { ChartView } from '../chart-view';
 import { readChartTheme } from '../chart-theme';
 import type { IBranchesData, IExplorerDerived } from './compute';
-import { branchesData, explorerDerived, landscapeData } from './compute';
-import { formatValue, renderDerivedTable } from './derived-table';
+import { branchesData, defaultTemperature, explorerDerived, landscapeData } from './compute';
+import { DerivedSection } from './derived-section';
 import { ExplorerControls } from './controls';
 import { FrameThrottle } from './frame';
 import { coefficientsFrom, valuesIn } from './fields';
-import { stateRanges, temperatureScale } from './ranges';
+import { stateRanges } from './ranges';
 import { branchesSpec, landscapeSpec } from './specs';
 
 /** Starting coefficients (convention L) and state. */
@@ -42,12 +42,14 @@ export class LandauExplorer extends Panel {
     this.addClass('jp-psiscape-LandauExplorer');
     this.node.setAttribute('role', 'region');
     this.node.setAttribute('aria-label', trans.__('Landau free-energy explorer'));
+    this.title.label = trans.__('Landau explorer');
+    this.title.closable = true;
     this._controls = new ExplorerControls({
       trans,
       onCoefficient: (key, v) => this._onCoefficient(key, v),
       onState: (key, v) => this._onState(key, v),
       onInvalid: (label, text) => {
-        this._badText = trans.__('%1: “%2” is not a finite number.', label, text);
+        this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
         this._schedule();
       },
       onConvention: c => this._onConvention(c)
@@ -62,18 +64,11 @@ export class LandauExplorer extends Panel {
     this._branches.addClass('jp-psiscape-landau-branches');
     charts.addWidget(this._landscape);
     charts.addWidget(this._branches);
-    this._table = document.createElement('table');
-    this._table.className = 'jp-psiscape-landau-derived';
-    this._stateLine = document.createElement('p');
-    this._stateLine.className = 'jp-psiscape-landau-state';
-    this._stateLine.setAttribute('aria-live', 'polite');
-    const derived = new Widget();
-    derived.addClass('jp-psiscape-landau-derived-section');
-    derived.node.append(this._stateLine, this._table);
+    this._derivedSection = new DerivedSection(trans);
     this.addWidget(this._controls);
     this.addWidget(this._message);
     this.addWidget(charts);
-    this.addWidget(derived);
+    this.addWidget(this._derivedSection);
     const init = options.initial ?? DEFAULT_LANDAU_INITIAL;
     this.setCoefficients({ a: init.a, b: init.b, c: init.c, T0: init.T0, d: init.d ?? 0 }, { T: init.T, h: init.h });
   }
@@ -122,13 +117,14 @@ export class LandauExplorer extends Panel {
     let values: Record<string, number>;
     try {
       values = valuesIn(this._k, convention);
-    } catch {
+    } catch (e) {
+      this._notice = this._trans.__('Shown in convention L: the %1 form cannot hold these coefficients (%2).', this._controls.conventionName(convention), (e as Error).message);
       convention = 'L';
       values = valuesIn(this._k, convention);
     }
     this._values = values;
     this._controls.showCoefficients(convention, values);
-    this._T = Number.isFinite(state.T) ? (state.T as number) : this._defaultT(this._k);
+    this._T = Number.isFinite(state.T) ? (state.T as number) : defaultTemperature(this._k);
     this._h = Number.isFinite(state.h) ? (state.h as number) : 0;
     this._rangesKey = '';
     this._controls.setState('T', this._T);
@@ -147,19 +143,6 @@ export class LandauExplorer extends Panel {
     }
     this._throttle.cancel();
     super.dispose();
-  }
-
-  private _defaultT(k: ILandauCoefficients): number {
-    try {
-      validateLandau(k);
-      const d = explorerDerived(k);
-      if (d.regime === 'first-order') {
-        return d.T1;
-      }
-      return k.T0 - 0.5 * temperatureScale(k, d.Tsuperheat ?? k.T0);
-    } catch {
-      return Number.isFinite(k.T0) ? k.T0 : 0;
-    }
   }
 
   private _onCoefficient(key: string, value: number): void {
@@ -277,11 +260,7 @@ export class LandauExplorer extends Panel {
     const ls = landscapeSpec(land, T, h, theme, trans);
     const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans);
     this._derived = derived;
-    renderDerivedTable(this._table, derived, this._controls.conventionName(this._controls.convention), trans);
-    const g = land.global >= 0 ? land.points[land.global] : null;
-    this._stateLine.textContent = g
-      ? trans.__('Equilibrium at T = %1, h = %2: ψ = %3, F − F0 = %4, %5 stationary points.', formatValue(T), formatValue(h), formatValue(g.psi), formatValue(g.F), land.points.length)
-      : '';
+    this._derivedSection.present(derived, this._controls.conventionName(this._controls.convention), T, h, land);
     this._showMessage(this._notice);
     await Promise.all([this._landscape.render(ls.spec, ls.label), this._branches.render(bs.spec, bs.label)]);
   }
@@ -291,8 +270,7 @@ export class LandauExplorer extends Panel {
   private _message: Widget;
   private _landscape = new ChartView();
   private _branches = new ChartView();
-  private _table: HTMLTableElement;
-  private _stateLine: HTMLParagraphElement;
+  private _derivedSection: DerivedSection;
   private _k: ILandauCoefficients | null = null;
   private _values: Record<string, number> = {};
   private _T = Number.NaN;

@@ -74,6 +74,12 @@ describe('LandauExplorer conventions', () => {
     expect(numberField(w, 'alphaPrime').value).toBe('0.25');
     expect(numberField(w, 'beta').value).toBe('1');
     expect(numberField(w, 'Tc').value).toBe('100');
+    // a fit result with c ≠ 0 arriving while the Ginzburg–Landau form is shown opens in convention L, and says so
+    await w.setCoefficients({ a: 0.5, b: -2, c: 4, T0: 100 });
+    expect(w.convention).toBe('L');
+    expect(numberField(w, 'c').value).toBe('4');
+    expect(message(w)).toMatch(/^Shown in convention L: the Ginzburg–Landau form cannot hold these coefficients/);
+    expect(derivedCell(w, 'T1')).toBe('100.375');
   });
 });
 
@@ -111,7 +117,7 @@ describe('LandauExplorer bad input', () => {
     const charts = chartsMarkup(w);
     type(w, 'a', '');
     await w.rendered;
-    expect(message(w)).toMatch(/a: “” is not a finite number/);
+    expect(message(w)).toMatch(/^a: enter a finite number\. The charts and the table still show the last valid values\.$/);
     expect(chartsMarkup(w)).toBe(charts);
     type(w, 'a', '0');
     await w.rendered;

@@ -1,0 +1,36 @@
+/**
+ * The part of the explorer under the charts: the equilibrium at the chosen
+ * (T, h) in one line, and the table of derived zero-field values.
+ */
+import type { TranslationBundle } from '@jupyterlab/translation';
+import { Widget } from '@lumino/widgets';
+import type { IExplorerDerived, ILandscapeData } from './compute';
+import { formatValue, renderDerivedTable } from './derived-table';
+
+/** Equilibrium line + derived-values table. */
+export class DerivedSection extends Widget {
+  constructor(trans: TranslationBundle) {
+    super();
+    this._trans = trans;
+    this.addClass('jp-psiscape-landau-derived-section');
+    this._state = document.createElement('p');
+    this._state.className = 'jp-psiscape-landau-state';
+    this._table = document.createElement('table');
+    this._table.className = 'jp-psiscape-landau-derived';
+    this.node.append(this._state, this._table);
+  }
+
+  /** Shows the values of one good picture. */
+  present(derived: IExplorerDerived, conventionName: string, T: number, h: number, land: ILandscapeData): void {
+    const trans = this._trans;
+    renderDerivedTable(this._table, derived, conventionName, trans);
+    const g = land.global >= 0 ? land.points[land.global] : null;
+    this._state.textContent = g
+      ? trans.__('Equilibrium at T = %1, h = %2: ψ = %3, F − F0 = %4; %5 stationary points.', formatValue(T), formatValue(h), formatValue(g.psi), formatValue(g.F), land.points.length)
+      : '';
+  }
+
+  private _trans: TranslationBundle;
+  private _state: HTMLParagraphElement;
+  private _table: HTMLTableElement;
+}
