@@ -67,6 +67,25 @@ bragg"""),
     ("code", """\
 pd.set_option("display.html.table_schema", False)
 print("Sample AM-17, mass 12.4 mg, measured on warming at 0.05 T")"""),
+    ("markdown", """\
+Field sweeps: M(H) isotherms every kelvin from 275 K to 300 K, in long format
+(one row per point; the temperature reads a little off its setpoint, as real thermometers do).
+Right-click the table and use **Isotherms M(H) at several temperatures** in the panel."""),
+    ("code", """\
+rng = np.random.default_rng(42)
+rows = []
+for T_set in np.arange(275.0, 300.5, 1.0):
+    tau = T_set / Tc
+    ms = weiss_half(np.array([tau]))[0]
+    m = ms + np.linspace(0.01, 0.25, 30)            # magnetisation grid above the spontaneous value
+    h = tau * np.arctanh(m) - m                     # exact spin-1/2 mean-field isotherm
+    keep = h > 0
+    T_read = T_set + rng.normal(0.0, 0.02, keep.sum())
+    rows.append(pd.DataFrame({"T (K)": T_read, "H (Oe)": 2.0e4 * h[keep], "M (emu/g)": Ms * m[keep]}))
+iso = pd.concat(rows, ignore_index=True)
+iso.to_csv("am17_MH.csv", index=False)
+pd.set_option("display.max_rows", 2000)
+iso"""),
 ]
 
 FIXTURE_CELLS = [

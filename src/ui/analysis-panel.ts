@@ -20,6 +20,7 @@ import type { IPlottableColumn } from './column-choice';
 import { defaultPair, guessSigmaColumn, plottableColumns } from './column-choice';
 import type { AnalysisRunner } from './analysis-runner';
 import { FitSection } from './fit-section';
+import { IsothermSection } from './isotherm-section';
 
 let panelCount = 0;
 
@@ -59,8 +60,9 @@ export class AnalysisPanel extends Panel {
     this._banner.hide();
     this._fit = new FitSection({ trans: this._trans, runner: options.runner });
     this._fit.outcomeChanged.connect(this._onOutcome, this);
+    this._isotherms = new IsothermSection({ trans: this._trans });
 
-    for (const w of [this._header, this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit]) {
+    for (const w of [this._header, this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
       this.addWidget(w);
     }
     this.setParseResult(options.parse);
@@ -141,6 +143,11 @@ export class AnalysisPanel extends Panel {
     return x < 0 || y < 0 || sigma === -1 ? null : { x, y, sigma };
   }
 
+  /** The isotherm (field sweep) analysis. */
+  get isothermSection(): IsothermSection {
+    return this._isotherms;
+  }
+
   /** The fit controls and results. */
   get fitSection(): FitSection {
     return this._fit;
@@ -153,6 +160,7 @@ export class AnalysisPanel extends Panel {
 
   /** Show a new parse result (a table or a message). */
   setParseResult(result: ParseResult): void {
+    this._isotherms.setTable(result.ok ? result.table : null);
     if (!result.ok) {
       this._table = null;
       this._selection = null;
@@ -236,6 +244,11 @@ export class AnalysisPanel extends Panel {
       return this._trans.__('the source output no longer has the column(s) %1', missing.join(', '));
     }
     const refit = this._fit.outcome !== null;
+    const reanalyse = this._isotherms.analysis !== null;
+    this._isotherms.setTable(result.table);
+    if (reanalyse) {
+      this._isotherms.run();
+    }
     this._table = result.table;
     this._columns = columns;
     this._renderNotes(result.table);
@@ -336,6 +349,7 @@ export class AnalysisPanel extends Panel {
   /** Redraw with the current selection (after a theme change, say). */
   redraw(): void {
     void this._draw();
+    this._isotherms.redraw();
   }
 
   dispose(): void {
@@ -477,6 +491,7 @@ export class AnalysisPanel extends Panel {
   private _stateChanged = new Signal<this, void>(this);
   private _sourceState: 'live' | 'stale' | 'lost' | 'waiting' = 'live';
   private _fit: FitSection;
+  private _isotherms: IsothermSection;
   private _table: ITable | null = null;
   private _columns: IPlottableColumn[] = [];
   private _selection: { x: number; y: number } | null = null;

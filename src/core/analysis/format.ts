@@ -3,10 +3,10 @@
  * significant digits and the value to the same decimal place.
  */
 
-/** "287.41 ± 0.05"; "1.2e-5 ± 3.0e-7"; falls back to plain values when σ is not usable. */
+/** "287.41 ± 0.05"; "1.2e-5 ± 3.0e-7"; "—" when there is no value; "± ?" when σ is not usable. */
 export function formatWithError(value: number, sigma: number): string {
   if (!Number.isFinite(value)) {
-    return String(value);
+    return '—';
   }
   if (!(Number.isFinite(sigma) && sigma > 0)) {
     return `${formatPlain(value)} ± ?`;

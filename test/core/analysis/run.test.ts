@@ -160,7 +160,8 @@ describe('formatWithError', () => {
     [12345.6, 230, '12346 ± 230'],
     [1.2e-5, 3e-7, '1.200e-5 ± 0.030e-5'],
     [5, 0, '5 ± ?'],
-    [5, Number.NaN, '5 ± ?']
+    [5, Number.NaN, '5 ± ?'],
+    [Number.NaN, 1, '—']
   ])('should write %s ± %s as %s (common practice, no source)', (value, sigma, text) => {
     expect(formatWithError(value, sigma)).toBe(text);
   });
