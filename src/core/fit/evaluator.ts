@@ -124,9 +124,16 @@ export class ResidualEvaluator {
   /**
    * Like `residuals`, and writes the weighted Jacobian (row-major n×k over
    * free parameters) at `p` into `jac` from the same model pass; sets
-   * `lastJacobianFinite`. Only for `combined` models.
+   * `lastJacobianFinite` (without checking the entries when `checkFinite`
+   * is false: the caller checks them in its own pass). Only for `combined` models.
    */
-  residualsWithJacobian(p: Float64Array, r: Float64Array, f: Float64Array, jac: Float64Array): number {
+  residualsWithJacobian(
+    p: Float64Array,
+    r: Float64Array,
+    f: Float64Array,
+    jac: Float64Array,
+    checkFinite = true
+  ): number {
     this.setFree(p);
     this.evaluations++;
     this.jacobianEvaluations++;
@@ -142,7 +149,7 @@ export class ResidualEvaluator {
     if (!this.direct) {
       this.selectColumns(jac);
     }
-    this.lastJacobianFinite = allFinite(jac, this.n * this.k);
+    this.lastJacobianFinite = !checkFinite || allFinite(jac, this.n * this.k);
     return cost;
   }
 

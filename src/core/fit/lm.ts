@@ -113,7 +113,7 @@ export function* levenbergMarquardtSteps(
     restarts
   });
 
-  let cost = combined ? ev.residualsWithJacobian(p, r, f, jac) : ev.residuals(p, r, f);
+  let cost = combined ? ev.residualsWithJacobian(p, r, f, jac, !large) : ev.residuals(p, r, f);
   // jac holds the Jacobian at p; normal holds JᵀJ at p.
   let jacAtP = combined && ev.lastJacobianFinite;
   let normalAtP = false;
@@ -148,13 +148,16 @@ export function* levenbergMarquardtSteps(
       return out(false, `maximum number of evaluations (${problem.maxEvaluations}) reached`);
     }
     if (needJacobian) {
-      const ok = jacAtP || ev.jacobian(p, f, jac, scheme);
-      jacAtP = ok;
-      if (ok && normal) {
-        normalAtP = normalAndGradient(jac, r, n, k, normal, grad);
+      // Large problems check the entries of a Jacobian from a combined pass
+      // through the sums of JᵀJ; a non-finite one is evaluated again alone
+      // (with the difference fallback of the evaluator).
+      let ok = jacAtP && (!normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad)));
+      if (!ok && ev.jacobian(p, f, jac, scheme)) {
+        ok = !normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad));
       }
-      if (!ok || (normal && !normalAtP)) {
-        jacAtP = false;
+      jacAtP = ok;
+      if (!ok) {
+        normalAtP = false;
         if (iterations === 0 || !havePrevious) {
           const why = ev.lastError ? `: ${ev.lastError}` : '';
           return out(false, `Jacobian is not finite at the current point${why}`);
@@ -268,7 +271,7 @@ export function* levenbergMarquardtSteps(
     }
     const dnorm2 = pnorm * pnorm;
     const pred = clipped || accelerated ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
-    const costT = jacT ? ev.residualsWithJacobian(pT, rT, fT, jacT) : ev.residuals(pT, rT, fT);
+    const costT = jacT ? ev.residualsWithJacobian(pT, rT, fT, jacT, !large) : ev.residuals(pT, rT, fT);
     const jacTFinite = jacT !== null && ev.lastJacobianFinite;
     const roundingT = ev.lastRoundingNorm2;
     const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
