@@ -54,7 +54,8 @@ export class IsothermSection extends Panel {
     this._chart.hide();
     this._error.hidden = true;
     const numeric = (table?.columns ?? []).map((c, i) => ({ c, i })).filter(({ c }) => c.kind === 'number');
-    this.setHidden(numeric.length < 3);
+    // Shown for tables that look like field sweeps: three numeric columns, one of them a field.
+    this.setHidden(numeric.length < 3 || !numeric.some(({ c }) => GUESS.field.test(c.name)));
     for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
       const select = this._pickers[role];
       select.replaceChildren(

@@ -27,40 +27,40 @@ test('a Weiss fit runs in a worker and reports Tc with its standard error', asyn
   const { page } = lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   assert.equal(await panel.locator('select.jp-psiscape-sigma option:checked').textContent(), 'sigma_M (emu/g)');
-  await panel.locator('select.jp-psiscape-fit-model').selectOption('weiss');
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('weiss');
   const workers = [];
   page.on('worker', w => workers.push(w.url()));
-  await panel.locator('button.jp-psiscape-fit-run').click();
-  await panel.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
+  await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
   assert.ok(workers.length >= 1, 'the fit ran in a Web Worker');
-  assert.match(await panel.locator('.jp-psiscape-fit-ok').textContent(), /^Converged/);
-  const tc = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+  assert.match(await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-ok').textContent(), /^Converged/);
+  const tc = await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
   // The demo notebook draws its data from a spin-½ Weiss curve with Tc = 287.4 K (demo/generate_notebooks.py).
   const m = /^([\d.]+) ± ([\d.]+)$/.exec(tc);
   assert.ok(m, `Tc row reads "${tc}"`);
   assert.ok(Math.abs(Number(m[1]) - 287.4) < 5 * Number(m[2]) + 0.5, `Tc ${m[1]} ± ${m[2]} is near 287.4`);
   await panel.locator('.jp-psiscape-ChartView svg .mark-line path').first().waitFor({ timeout: 10000 });
-  await panel.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
+  await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-result').scrollIntoViewIfNeeded();
   await screenshot(page, 'fit-weiss-light');
 });
 
 test('a window too narrow gives a message and keeps the controls usable', async () => {
   const { page } = lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('select.jp-psiscape-fit-model').selectOption('power-law');
-  await panel.locator('input.jp-psiscape-fit-min').fill('100');
-  await panel.locator('input.jp-psiscape-fit-max').fill('105');
-  await panel.locator('button.jp-psiscape-fit-run').click();
-  const error = panel.locator('.jp-psiscape-fit-error');
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('power-law');
+  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('100');
+  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').fill('105');
+  await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
+  const error = panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-error');
   await error.waitFor({ state: 'visible', timeout: 30000 });
   assert.match(await error.textContent(), /needs at least 5 points in the fit window, but the window holds 2/);
-  assert.equal(await panel.locator('button.jp-psiscape-fit-run').isEnabled(), true);
+  assert.equal(await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').isEnabled(), true);
 });
 
 test('the fit controls are reachable with the keyboard', async () => {
   const { page } = lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('select.jp-psiscape-fit-model').focus();
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').focus();
   const order = [];
   for (let i = 0; i < 6; i++) {
     await page.keyboard.press('Tab');

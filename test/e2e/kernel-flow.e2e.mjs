@@ -29,7 +29,7 @@ function frameSource({ rows, tMin, tMax, amplitude, yColumn = 'M (emu/g)' }) {
 
 const skipReason = missingPython();
 if (skipReason) {
-  console.log(`# kernel-flow skipped: ${skipReason}`);
+  console.log(`kernel-flow: skipped, ${skipReason}`);
   test('kernel flow with a real Jupyter server', { skip: skipReason }, () => {});
 } else {
   defineSuite();

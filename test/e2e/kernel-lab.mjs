@@ -181,10 +181,15 @@ export async function openNotebook(baseUrl, name) {
   const page = browser.context.pages()[0] ?? (await browser.context.newPage());
   const errors = [];
   page.on('pageerror', e => errors.push(String(e)));
-  await page.goto(`${baseUrl}/lab/tree/${encodeURIComponent(name)}`);
-  await page.waitForSelector('body[data-lab-ready="true"]', { state: 'attached', timeout: 120000 });
-  await page.waitForSelector('.jp-NotebookPanel .jp-Notebook .jp-Cell', { timeout: 60000 });
-  await waitKernelIdle(page, 120000);
+  try {
+    await page.goto(`${baseUrl}/lab/tree/${encodeURIComponent(name)}`);
+    await page.waitForSelector('body[data-lab-ready="true"]', { state: 'attached', timeout: 120000 });
+    await page.waitForSelector('.jp-NotebookPanel .jp-Notebook .jp-Cell', { timeout: 60000 });
+    await waitKernelIdle(page, 120000);
+  } catch (reason) {
+    await browser.close();
+    throw reason;
+  }
   return { browser, page, errors };
 }
 
@@ -225,11 +230,12 @@ export async function editCell(page, index, source) {
  */
 export async function runCell(page, index, timeout = 60000) {
   const before = await page.evaluate(i => window.jupyterapp.shell.currentWidget.content.model.cells.get(i).executionCount, index);
-  await page.evaluate(async i => {
+  // Not awaited in the page: a hung run must end in the wait's timeout below.
+  await page.evaluate(i => {
     const panel = window.jupyterapp.shell.currentWidget;
     panel.content.activeCellIndex = i;
     panel.content.deselectAll();
-    await window.jupyterapp.commands.execute('notebook:run-cell');
+    void window.jupyterapp.commands.execute('notebook:run-cell');
   }, index);
   const handle = await page.waitForFunction(
     ([i, prev]) => {

@@ -28,8 +28,8 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('select.jp-psiscape-fit-model').selectOption('weiss');
   await panel.locator('button.jp-psiscape-fit-run').click();
-  await panel.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
-  const before = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+  await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  const before = await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
 
   // Save the notebook (to the browser's storage) and reload the page.
   await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
@@ -38,8 +38,8 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   await page.reload();
   await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
   const restored = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await restored.locator('.jp-psiscape-fit-table').waitFor({ timeout: 60000 });
-  const after = await restored.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
+  await restored.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  const after = await restored.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
   assert.equal(after, before, 'the reopened analysis reruns the same fit');
   assert.equal(await restored.getAttribute('data-source-state'), 'live');
   assert.equal(await restored.locator('select.jp-psiscape-fit-model').inputValue(), 'weiss');
