@@ -201,20 +201,22 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
     });
   }
   if (current.length) {
-    layer.push(
-      {
-        name: 'branches_current',
-        data: { name: 'current', values: current },
-        mark: { type: 'rule', color: theme.accent, strokeWidth: 1.5 },
-        encoding: { x: { field: 'T', type: 'quantitative' } }
-      },
-      {
-        name: 'branches_current_text',
-        data: { values: current },
-        mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -3, color: theme.accent },
-        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: { expr: 'height' } }, text: { field: 'label' } }
-      }
-    );
+    // one named dataset for the rule and its label, so a view can move both by replacing 'current'
+    layer.push({
+      data: { name: 'current', values: current.map(c => ({ T: c.T, label: c.label })) },
+      layer: [
+        {
+          name: 'branches_current',
+          mark: { type: 'rule', color: theme.accent, strokeWidth: 1.5 },
+          encoding: { x: { field: 'T', type: 'quantitative' } }
+        },
+        {
+          name: 'branches_current_text',
+          mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -3, color: theme.accent },
+          encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: { expr: 'height' } }, text: { field: 'label' } }
+        }
+      ]
+    });
   }
   const spec = frame(`${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, layer, theme);
   (spec as unknown as Record<string, unknown>).title = labels.title;

@@ -26,7 +26,15 @@ export class DerivedSection extends Widget {
     renderDerivedTable(this._table, derived, conventionName, trans);
     const g = land.global >= 0 ? land.points[land.global] : null;
     this._state.textContent = g
-      ? trans.__('Equilibrium at T = %1, h = %2: ψ = %3, F − F0 = %4; %5 stationary points.', formatValue(T), formatValue(h), formatValue(g.psi), formatValue(g.F), land.points.length)
+      ? trans._n(
+          'Equilibrium at T = %2, h = %3: ψ = %4, F − F0 = %5; %1 stationary point.',
+          'Equilibrium at T = %2, h = %3: ψ = %4, F − F0 = %5; %1 stationary points.',
+          land.points.length,
+          formatValue(T),
+          formatValue(h),
+          formatValue(g.psi),
+          formatValue(g.F)
+        )
       : '';
   }
 

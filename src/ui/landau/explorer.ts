@@ -9,11 +9,12 @@ import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
 import { validateLandau } from '../../core/physics/landau/index';
-import { ChartView } from '../chart-view';
 import { readChartTheme } from '../chart-theme';
 import type { IBranchesData, IExplorerDerived } from './compute';
 import { branchesData, defaultTemperature, explorerDerived, landscapeData } from './compute';
 import { DerivedSection } from './derived-section';
+import { formatValue } from './derived-table';
+import { PatchableChartView } from './patchable-view';
 import { ExplorerControls } from './controls';
 import { FrameThrottle } from './frame';
 import { coefficientsFrom, valuesIn } from './fields';
@@ -262,14 +263,30 @@ export class LandauExplorer extends Panel {
     this._derived = derived;
     this._derivedSection.present(derived, this._controls.conventionName(this._controls.convention), T, h, land);
     this._showMessage(this._notice);
-    await Promise.all([this._landscape.render(ls.spec, ls.label), this._branches.render(bs.spec, bs.label)]);
+    // Only the current-T rule of the branches chart follows T: move it in place when nothing else changed.
+    const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention]);
+    const current = [{ T, label: trans.__('T = %1', formatValue(T)) }];
+    const full = (): Promise<void> => {
+      this._branchesBusy++;
+      return this._branches.render(bs.spec, bs.label).finally(() => this._branchesBusy--);
+    };
+    const branches =
+      drawnKey === this._branchesDrawn && this._branchesBusy === 0
+        ? this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : full()))
+        : full();
+    this._branchesDrawn = drawnKey;
+    await Promise.all([this._landscape.render(ls.spec, ls.label), branches]);
   }
 
   private _trans: TranslationBundle;
   private _controls: ExplorerControls;
   private _message: Widget;
-  private _landscape = new ChartView();
-  private _branches = new ChartView();
+  private _landscape = new PatchableChartView();
+  private _branches = new PatchableChartView();
+  /** What the branches chart was last fully drawn from (all but T). */
+  private _branchesDrawn = '';
+  /** Full renders of the branches chart in flight (no in-place moves meanwhile). */
+  private _branchesBusy = 0;
   private _derivedSection: DerivedSection;
   private _k: ILandauCoefficients | null = null;
   private _values: Record<string, number> = {};

@@ -26,6 +26,11 @@ function layer(spec: TopLevelSpec, name: string): ILayer | undefined {
   return (spec as unknown as { layer: ILayer[] }).layer.find(l => l.name === name);
 }
 
+/** The nested layer holding the current-T rule and its label. */
+function currentGroup(spec: TopLevelSpec): { data: unknown; layer: ILayer[] } | undefined {
+  return (spec as unknown as { layer: { data: { name?: string }; layer?: ILayer[] }[] }).layer.find(l => l.data?.name === 'current') as { data: unknown; layer: ILayer[] } | undefined;
+}
+
 function example(n = 101) {
   const T = linspace(99, 101.5, n);
   const branches = landauBranches(
@@ -139,10 +144,15 @@ describe('buildBranchesSpec', () => {
     ]);
     expect(layer(spec, 'branches_marker_text_1')!.data.values[0].label).toBe('T1');
     expect(layer(spec, 'branches_marker_text_2')).toBeUndefined();
-    expect(layer(spec, 'branches_current')!.mark.color).toBe('#66aaff');
+    const cur = currentGroup(spec)!;
+    expect(cur.data).toEqual({ name: 'current', values: [{ T: 100.2, label: 'T = 100.2' }] });
+    expect(cur.layer.map(l => l.name)).toEqual(['branches_current', 'branches_current_text']);
+    expect(cur.layer[0].mark.color).toBe('#66aaff');
+    const vega = compile(spec).spec;
+    expect(vega.data?.find(d => d.name === 'current')).toBeTruthy();
     expect(() => compile(spec)).not.toThrow();
     const none = buildBranchesSpec({ branches, current: { T: Number.POSITIVE_INFINITY, label: 'T' }, h: 0, theme });
-    expect(layer(none.spec, 'branches_current')).toBeUndefined();
+    expect(currentGroup(none.spec)).toBeUndefined();
   });
 
   it('should not change its inputs', () => {

@@ -5,6 +5,7 @@
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { ChartView } from '../../../src/ui/chart-view';
+import { PatchableChartView } from '../../../src/ui/landau/patchable-view';
 import { derivedCell, explorer, message, numberField, range, slide, stationaryMarks, type } from './helpers';
 
 describe('LandauExplorer', () => {
@@ -57,14 +58,33 @@ describe('LandauExplorer', () => {
     const w = explorer();
     await w.rendered;
     const render = vi.spyOn(ChartView.prototype, 'render');
+    const patch = vi.spyOn(PatchableChartView.prototype, 'patch');
     const before = w.redraws;
     for (const T of [99.2, 99.4, 99.6, 99.8, 100.1]) {
       slide(w, 'T', T);
     }
     await w.rendered;
     expect(w.redraws).toBe(before + 1);
-    expect(render).toHaveBeenCalledTimes(2); // landscape and branches, once each
+    // T alone moved: a new landscape, and the current-T rule of the branches chart moved in place
+    expect(render).toHaveBeenCalledTimes(1);
+    expect(patch).toHaveBeenCalledTimes(1);
     expect(w.state.T).toBe(100.1);
+    const labels = [...w.node.querySelectorAll('.jp-psiscape-landau-branches svg text')].map(t => t.textContent);
+    expect(labels).toContain('T = 100.1');
+    expect(labels).not.toContain('T = 100.375');
+  });
+
+  it('should draw both charts anew when a coefficient changes', async () => {
+    const w = explorer();
+    await w.rendered;
+    const render = vi.spyOn(ChartView.prototype, 'render');
+    const patch = vi.spyOn(PatchableChartView.prototype, 'patch');
+    slide(w, 'b', -1.5);
+    await w.rendered;
+    expect(render).toHaveBeenCalledTimes(2);
+    expect(patch).not.toHaveBeenCalled();
+    // T1 = T0 + 3b²/(16ac) = 100 + 6.75/32 (REFERENCE.md B3 ii, by hand)
+    expect(w.derived!.T1).toBeCloseTo(100 + 6.75 / 32, 12);
   });
 
   it('should show the second-order example with "—" where a quantity does not apply', async () => {

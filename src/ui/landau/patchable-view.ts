@@ -1,0 +1,30 @@
+/**
+ * A chart view that can also replace the rows of a named dataset in the view
+ * it already shows, which is much cheaper than compiling and building a new
+ * view (used to move the current-T rule while the temperature slider moves).
+ */
+import { ChartView } from '../chart-view';
+
+/** ChartView with in-place dataset updates. */
+export class PatchableChartView extends ChartView {
+  /**
+   * Replaces the rows of `name` in the current view and re-runs it.
+   *
+   * @returns false, changing nothing, when there is no view or no such dataset.
+   */
+  async patch(name: string, rows: object[], label: string): Promise<boolean> {
+    const view = this.view;
+    if (!view) {
+      return false;
+    }
+    try {
+      view.data(name);
+    } catch {
+      return false;
+    }
+    view.data(name, rows);
+    this.node.setAttribute('aria-label', label);
+    await view.runAsync();
+    return true;
+  }
+}
