@@ -8,13 +8,13 @@
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
-import { validateLandau } from '../../core/physics/landau/index';
 import { readChartTheme } from '../chart-theme';
 import type { IBranchesData, IExplorerDerived } from './compute';
 import { branchesData, defaultTemperature, explorerDerived, landscapeData } from './compute';
 import { DerivedSection } from './derived-section';
 import { formatValue } from './derived-table';
 import { PatchableChartView } from './patchable-view';
+import { explorerProblem } from './problems';
 import { ExplorerControls } from './controls';
 import { FrameThrottle } from './frame';
 import { coefficientsFrom, valuesIn } from './fields';
@@ -204,27 +204,6 @@ export class LandauExplorer extends Panel {
     this._message.node.hidden = text === null;
   }
 
-  /** What prevents a picture, or null. */
-  private _problem(): string | null {
-    const trans = this._trans;
-    const keep = trans.__('The charts and the table still show the last valid values.');
-    if (this._badText) {
-      return `${this._badText} ${keep}`;
-    }
-    if (this._conversionError !== null || !this._k) {
-      return trans.__('These coefficients cannot be converted to convention L: %1. %2', this._conversionError ?? '', keep);
-    }
-    try {
-      validateLandau(this._k);
-      if (!Number.isFinite(this._T) || !Number.isFinite(this._h)) {
-        throw new Error(trans.__('T and h must be finite numbers'));
-      }
-    } catch (e) {
-      return trans.__('No landscape for these values: %1. %2', (e as Error).message, keep);
-    }
-    return null;
-  }
-
   private _schedule(): Promise<void> {
     return this._throttle.request();
   }
@@ -233,7 +212,7 @@ export class LandauExplorer extends Panel {
     if (this.isDisposed) {
       return;
     }
-    const problem = this._problem();
+    const problem = explorerProblem({ badText: this._badText, conversionError: this._conversionError, k: this._k, T: this._T, h: this._h }, this._trans);
     if (problem !== null) {
       this._showMessage(problem);
       return;
