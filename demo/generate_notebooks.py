@@ -68,16 +68,16 @@ bragg"""),
 pd.set_option("display.html.table_schema", False)
 print("Sample AM-17, mass 12.4 mg, measured on warming at 0.05 T")"""),
     ("markdown", """\
-Field sweeps: M(H) isotherms every kelvin from 275 K to 300 K, in long format
+Field sweeps: M(H) isotherms every 0.8 K from 281.4 K to 293.4 K, in long format
 (one row per point; the temperature reads a little off its setpoint, as real thermometers do).
 Right-click the table and use **Isotherms M(H) at several temperatures** in the panel."""),
     ("code", """\
 rng = np.random.default_rng(42)
 rows = []
-for T_set in np.arange(275.0, 300.5, 1.0):
+for T_set in np.arange(281.4, 293.5, 0.8):
     tau = T_set / Tc
     ms = weiss_half(np.array([tau]))[0]
-    m = ms + np.linspace(0.01, 0.25, 30)            # magnetisation grid above the spontaneous value
+    m = ms + np.linspace(0.005, 0.2, 30)            # magnetisation grid above the spontaneous value
     h = tau * np.arctanh(m) - m                     # exact spin-1/2 mean-field isotherm
     keep = h > 0
     T_read = T_set + rng.normal(0.0, 0.02, keep.sum())

@@ -84,7 +84,7 @@ test('isotherms M(H) at several temperatures give an Arrott plot and Tc', async 
   const m = /^([\d.]+) ± ([\d.]+)$/.exec(tc);
   // The demo isotherms are exact spin-½ mean-field isotherms with Tc = 287.4 K (demo/generate_notebooks.py).
   assert.ok(m && Math.abs(Number(m[1]) - 287.4) < 1, `Arrott Tc reads "${tc}"`);
-  assert.match(await section.textContent(), /26 isotherms/);
+  assert.match(await section.textContent(), /16 isotherms/);
   assert.match(await section.textContent(), /demagnetising factor N_d is not set/);
   await section.scrollIntoViewIfNeeded();
   await screenshot(page, 'isotherms-light');
