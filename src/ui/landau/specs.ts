@@ -28,6 +28,8 @@ function kindLabels(trans: TranslationBundle): IKindLabels {
 /** Landscape spec at (T, h). */
 export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme: IChartTheme, trans: TranslationBundle): ILabelledSpec {
   const title = trans.__('Free energy at T = %1, h = %2', formatValue(T), formatValue(h));
+  // minima as low as the global one (±ψ at h = 0, three at T1) are all labelled stable
+  const equal = data.points.filter(p => p.kind === 'stable').length;
   const { spec } = buildLandscapeSpec({
     psi: data.psi,
     F: data.F,
@@ -42,7 +44,7 @@ export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme:
       F: trans.__('F − F0'),
       kind: trans.__('stationary point'),
       kinds: kindLabels(trans),
-      globalMinimum: trans.__('global minimum')
+      globalMinimum: equal > 1 ? trans.__('global minimum (one of %1 equal minima)', equal) : trans.__('global minimum')
     }
   });
   const n = data.points.length;
@@ -58,7 +60,10 @@ export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: 
       markers.push({ T: derived.Tsuperheat, label: 'T**' });
     }
   }
-  const title = trans.__('Order parameter against temperature at h = %1', formatValue(h));
+  const title =
+    h === 0
+      ? trans.__('Order parameter against temperature at h = 0')
+      : trans.__('Order parameter against temperature at h = %1 (T0, T1, T** of h = 0 marked)', formatValue(h));
   const { spec } = buildBranchesSpec({
     branches: data.branches,
     heating: data.heating,

@@ -4,6 +4,7 @@
  * handling of bad input.
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { landauEquilibrium } from '../../../src/core/physics/landau/index';
 import { ChartView } from '../../../src/ui/chart-view';
 import { PatchableChartView } from '../../../src/ui/landau/patchable-view';
 import { derivedCell, explorer, message, numberField, range, slide, stationaryMarks, type } from './helpers';
@@ -121,6 +122,32 @@ describe('LandauExplorer', () => {
     expect(w.derived!.T1).toBeLessThan(w.derived!.Tsuperheat!);
     expect(w.node.querySelector('table.jp-psiscape-landau-derived caption')!.textContent).toMatch(/numerically/);
     expect(message(w)).toBe('');
+  });
+
+  it('should name equal minima and say which field the temperature markers belong to', async () => {
+    const w = explorer();
+    await w.rendered;
+    const texts = (cls: string) => [...w.node.querySelectorAll(`.${cls} svg text`)].map(t => t.textContent);
+    // at T1 and h = 0 the three minima have equal F (B3 ii)
+    expect(texts('jp-psiscape-landau-landscape')).toContain('global minimum (one of 3 equal minima)');
+    expect(texts('jp-psiscape-landau-branches')).toContain('Order parameter against temperature at h = 0');
+    await w.setCoefficients({ a: 0.5, b: -2, c: 4, T0: 100 }, { T: 99.5, h: 0.05 });
+    expect(texts('jp-psiscape-landau-landscape')).toContain('global minimum');
+    expect(texts('jp-psiscape-landau-branches')).toContain('Order parameter against temperature at h = 0.05 (T0, T1, T** of h = 0 marked)');
+    const eq = landauEquilibrium({ a: 0.5, b: -2, c: 4, T0: 100 }, 99.5, 0.05);
+    const fmt = (v: number) => String(Number(v.toPrecision(6))).replace('-', '−');
+    expect(w.node.querySelector('.jp-psiscape-landau-state')!.textContent).toBe(`Equilibrium at T = 99.5, h = 0.05: ψ = ${fmt(eq.psi)}, F − F0 = ${fmt(eq.F)}; 3 stationary points.`);
+    expect(eq.psi).toBeGreaterThan(0);
+  });
+
+  it('should take T and h from the constructor options', async () => {
+    const w = explorer({ a: 0.5, b: -2, c: 4, T0: 100, T: 101, h: -0.02 });
+    await w.rendered;
+    expect(w.state).toEqual({ T: 101, h: -0.02 });
+    expect(numberField(w, 'T').value).toBe('101');
+    expect(numberField(w, 'h').value).toBe('-0.02');
+    // above T** = 100.5 (C5) with a small negative field: one minimum, at ψ < 0
+    expect(stationaryMarks(w)).toBe(1);
   });
 
   it('should label both inputs of each pair and group them', () => {
