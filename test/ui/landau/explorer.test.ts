@@ -150,6 +150,15 @@ describe('LandauExplorer', () => {
     expect(stationaryMarks(w)).toBe(1);
   });
 
+  it('should settle a pending redraw when disposed', async () => {
+    const w = explorer();
+    const pending = w.rendered;
+    w.dispose();
+    await pending;
+    expect(w.isDisposed).toBe(true);
+    expect(w.derived).toBeNull();
+  });
+
   it('should label both inputs of each pair and group them', () => {
     const w = explorer();
     const r = range(w, 'T');
