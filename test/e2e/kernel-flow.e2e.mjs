@@ -45,8 +45,11 @@ function defineSuite() {
     buildServerLab();
     const file = writeNotebook(NOTEBOOK, [frameSource({ rows: 10, tMin: 250, tMax: 320, amplitude: 40 })]);
     notebookDir = path.dirname(file);
+    const t0 = Date.now();
     server = await startJupyter({ notebooks: [file] });
+    const t1 = Date.now();
     lab = await openNotebook(server.url, NOTEBOOK);
+    console.log(`kernel-flow: server up in ${t1 - t0} ms, lab open with an idle kernel ${Date.now() - t1} ms later`);
   });
 
   after(async () => {
