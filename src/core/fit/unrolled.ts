@@ -65,13 +65,14 @@ export function gradientKernel(k: number): GradientKernel | null {
     const decl: string[] = [];
     const loop: string[] = [];
     const store: string[] = [];
-    // Jᵀr is summed with Neumaier compensation: at the solution its terms
+    // Jᵀr is summed with compensation: at the solution its terms
     // cancel, and the compensated sum keeps the stationary point accurate.
     for (let a = 0; a < k; a++) {
       decl.push(`let c${a} = 0; let g${a} = 0; let e${a} = 0;`);
+      // Branch-free TwoSum: the exact rounding error of g + t, equal to Neumaier's.
       loop.push(
         `const j${a} = jac[o + ${a}]; c${a} += j${a} * j${a}; const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; ` +
-          `e${a} += Math.abs(g${a}) >= Math.abs(t${a}) ? (g${a} - u${a}) + t${a} : (t${a} - u${a}) + g${a}; g${a} = u${a};`
+          `const w${a} = u${a} - g${a}; e${a} += (g${a} - (u${a} - w${a})) + (t${a} - w${a}); g${a} = u${a};`
       );
       store.push(`norm2[${a}] = c${a}; grad[${a}] = g${a} + e${a};`);
     }
@@ -138,10 +139,10 @@ export function normalGradientKernel(k: number): NormalGradientKernel | null {
     for (let a = 0; a < k; a++) {
       decl.push(`let g${a} = 0; let e${a} = 0;`);
       load.push(`const j${a} = jac[o + ${a}];`);
-      // Jᵀr with Neumaier compensation, as in the gradient kernel.
+      // Jᵀr compensated by branch-free TwoSum, as in the gradient kernel.
       acc.push(
-        `const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; ` +
-          `e${a} += Math.abs(g${a}) >= Math.abs(t${a}) ? (g${a} - u${a}) + t${a} : (t${a} - u${a}) + g${a}; g${a} = u${a};`
+        `const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; const w${a} = u${a} - g${a}; ` +
+          `e${a} += (g${a} - (u${a} - w${a})) + (t${a} - w${a}); g${a} = u${a};`
       );
       store.push(`grad[${a}] = g${a} + e${a};`);
       for (let b = a; b < k; b++) {
