@@ -1,7 +1,9 @@
 /**
  * Models of the synthetic benchmark workloads (/work/shared/bench/README.md):
  * critical power law evaluated as A·sign(1−T/Tc)·|1−T/Tc|^β, and
- * Curie–Weiss χ = C/(T − θ) + χ0; each without and with an analytic Jacobian.
+ * Curie–Weiss χ = C/(T − θ) + χ0; each without and with an analytic Jacobian
+ * (the analytic ones also give values and Jacobian in one pass,
+ * `evaluateWithJacobian`).
  */
 import type { IFitModel } from '../src/core/fit/index';
 
@@ -88,6 +90,16 @@ export const curieWeiss: IFitModel = {
 
 export const curieWeissAnalytic: IFitModel = {
   ...curieWeiss,
+  evaluateWithJacobian(p, T, out, jac) {
+    for (let i = 0; i < T.length; i++) {
+      const inv = 1 / (T[i] - p[1]);
+      const o = i * 3;
+      out[i] = p[0] * inv + p[2];
+      jac[o] = inv;
+      jac[o + 1] = p[0] * inv * inv;
+      jac[o + 2] = 1;
+    }
+  },
   jacobian(p, T, out) {
     for (let i = 0; i < T.length; i++) {
       const inv = 1 / (T[i] - p[1]);

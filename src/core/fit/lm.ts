@@ -222,7 +222,7 @@ export function* levenbergMarquardtSteps(
         scheme !== 'forward' &&
         gaussNewtonReduction(model) <= FIT_DEFAULTS.stationaryNoiseFraction * noise
       ) {
-        return out(true, 'the Gauss–Newton step from the solution predicts a χ² reduction below the rounding noise');
+        return out(true, `the Gauss–Newton step from the solution predicts a χ² reduction below ${FIT_DEFAULTS.stationaryNoiseFraction} of its rounding noise`);
       }
     }
     const m = model!;
