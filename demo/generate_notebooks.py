@@ -44,7 +44,8 @@ The numbers below come from a seeded mean-field curve plus noise; they are not r
 Right-click the table output below and choose **Analyse This Table with psiscape**,
 or select the cell and run *Analyse Table in Selected Cell* from the command palette.
 In the panel, pick a model under **Fit** (try *Weiss mean field*) and press **Fit**;
-the analysis is saved in the notebook when you save it."""),
+the analysis is saved in the notebook when you save it.
+To see what Landau coefficients imply, open **View → Open Landau Free-Energy Explorer**."""),
     ("code", SETUP),
     ("code", """\
 rng = np.random.default_rng(1717)

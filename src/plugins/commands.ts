@@ -10,6 +10,7 @@ import type { ParseResult } from '../core/table';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
 import { AnalysisPanel } from '../ui/analysis-panel';
+import { LandauExplorer } from '../ui/landau';
 import type { ILocatedOutput } from './locate';
 import { locateOutputNode, outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
@@ -25,6 +26,7 @@ export namespace CommandIDs {
   export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
   export const analyseFile = 'psiscape:analyse-file';
   export const reopenSaved = 'psiscape:reopen-saved-analyses';
+  export const openLandauExplorer = 'psiscape:open-landau-explorer';
 }
 
 /** What the commands need from the application. */
@@ -43,12 +45,14 @@ export function registerCommands(ctx: ICommandContext): {
   panels: AnalysisPanel[];
   followers: Map<AnalysisPanel, SourceFollower>;
   restore: (panel: NotebookPanel) => number;
+  explorers: LandauExplorer[];
 } {
   const { app, tracker, translator } = ctx;
   const trans = translator.load('jupyterlab_psiscape');
   const opened: AnalysisPanel[] = [];
   const followers = new Map<AnalysisPanel, SourceFollower>();
   const openIds = new Set<string>();
+  const explorers: LandauExplorer[] = [];
 
   /**
    * Dock a new analysis: the first one splits the main area beside `refId`
@@ -252,5 +256,20 @@ export function registerCommands(ctx: ICommandContext): {
     }
   });
 
-  return { panels: opened, followers, restore };
+  let explorerCount = 0;
+  app.commands.addCommand(CommandIDs.openLandauExplorer, {
+    label: trans.__('Open Landau Free-Energy Explorer'),
+    caption: trans.__('Explore the free-energy landscape and ψ(T) branches that Landau coefficients imply'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    execute: () => {
+      const explorer = new LandauExplorer({ trans });
+      explorer.id = `jp-psiscape-landau-${++explorerCount}`;
+      app.shell.add(explorer, 'main', { mode: 'split-right' });
+      app.shell.activateById(explorer.id);
+      explorers.push(explorer);
+      return explorer.id;
+    }
+  });
+
+  return { panels: opened, followers, restore, explorers };
 }

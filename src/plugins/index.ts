@@ -38,7 +38,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
     settings.changed.connect(() => {
       current = readSettings(settings.composite);
     });
-    const { panels, restore } = registerCommands({
+    const { panels, restore, explorers } = registerCommands({
       app,
       tracker,
       translator: translator ?? nullTranslator,
@@ -49,7 +49,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
       }
     });
     if (palette) {
-      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved]) {
+      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer]) {
         palette.addItem({ command, category: trans.__('psiscape') });
       }
     }
@@ -66,7 +66,10 @@ const plugin: JupyterFrontEndPlugin<void> = {
     if (themeManager) {
       themeManager.themeChanged.connect(() => {
         // Let the new theme's CSS variables apply before reading them.
-        requestAnimationFrame(() => panels.filter(p => !p.isDisposed).forEach(p => p.redraw()));
+        requestAnimationFrame(() => {
+          panels.filter(p => !p.isDisposed).forEach(p => p.redraw());
+          explorers.filter(e => !e.isDisposed).forEach(e => e.redraw());
+        });
       });
     }
   }
