@@ -38,7 +38,7 @@ export interface ISavedAnalyses {
   analyses: ISavedAnalysis[];
 }
 
-const MODELS: readonly AnalysisModel[] = ['power-law', 'weiss', 'curie-weiss', 'expression'];
+const MODELS: readonly AnalysisModel[] = ['power-law', 'weiss', 'curie-weiss', 'landau', 'expression'];
 
 function isRecord(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);

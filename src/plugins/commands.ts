@@ -104,6 +104,9 @@ export function registerCommands(ctx: ICommandContext): {
       onRevealSource: async () => {
         await revealCell(app, tracker, panel.context.path, cellId);
       },
+      onExploreLandau: k => {
+        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k });
+      },
       onForget: source
         ? () => {
             removeAnalysis(panel, id);
@@ -260,9 +263,26 @@ export function registerCommands(ctx: ICommandContext): {
   app.commands.addCommand(CommandIDs.openLandauExplorer, {
     label: trans.__('Open Landau Free-Energy Explorer'),
     caption: trans.__('Explore the free-energy landscape and ψ(T) branches that Landau coefficients imply'),
-    describedBy: { args: { type: 'object', properties: {} } },
-    execute: () => {
-      const explorer = new LandauExplorer({ trans });
+    describedBy: {
+      args: {
+        type: 'object',
+        properties: {
+          a: { type: 'number', description: trans.__('Coefficient a (convention L)') },
+          T0: { type: 'number', description: trans.__('Temperature T0') },
+          b: { type: 'number', description: trans.__('Coefficient b (convention L)') },
+          c: { type: 'number', description: trans.__('Coefficient c (convention L)') },
+          d: { type: 'number', description: trans.__('Cubic coefficient d (convention L)') }
+        }
+      }
+    },
+    execute: args => {
+      const given = ['a', 'T0', 'b', 'c'].every(key => typeof args[key] === 'number' && Number.isFinite(args[key]));
+      const explorer = new LandauExplorer({
+        trans,
+        initial: given
+          ? { a: args.a as number, T0: args.T0 as number, b: args.b as number, c: args.c as number, d: typeof args.d === 'number' ? args.d : 0 }
+          : undefined
+      });
       explorer.id = `jp-psiscape-landau-${++explorerCount}`;
       app.shell.add(explorer, 'main', { mode: 'split-right' });
       app.shell.activateById(explorer.id);

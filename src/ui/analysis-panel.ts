@@ -20,6 +20,7 @@ import type { IPlottableColumn } from './column-choice';
 import { defaultPair, guessSigmaColumn, plottableColumns } from './column-choice';
 import type { AnalysisRunner } from './analysis-runner';
 import { FitSection } from './fit-section';
+import type { ILandauOutcome } from './fit-section';
 import { IsothermSection } from './isotherm-section';
 
 let panelCount = 0;
@@ -58,7 +59,7 @@ export class AnalysisPanel extends Panel {
     this._banner.addClass('jp-psiscape-AnalysisPanel-banner');
     this._banner.node.setAttribute('role', 'status');
     this._banner.hide();
-    this._fit = new FitSection({ trans: this._trans, runner: options.runner });
+    this._fit = new FitSection({ trans: this._trans, runner: options.runner, onExploreLandau: options.onExploreLandau });
     this._fit.outcomeChanged.connect(this._onOutcome, this);
     this._isotherms = new IsothermSection({ trans: this._trans });
 
@@ -516,6 +517,8 @@ export namespace AnalysisPanel {
     onForget?: () => void;
     /** Runs fits (a worker-backed runner by default). */
     runner?: AnalysisRunner;
+    /** Open the Landau explorer with fitted coefficients. */
+    onExploreLandau?: (k: ILandauOutcome) => void;
   }
 }
 

@@ -12,6 +12,9 @@ import { formatPlain, formatWithError, parseStarts } from '../core/analysis';
 import type { ISavedFit } from '../core/saved';
 import { AnalysisCancelled, AnalysisRunner } from './analysis-runner';
 
+/** Landau coefficients of a fit (convention L). */
+export type ILandauOutcome = NonNullable<IAnalysisOutcome['landau']>;
+
 /** The data a fit runs on. */
 export interface IFitInput {
   x: number[];
@@ -35,6 +38,7 @@ export class FitSection extends Widget {
     super();
     this._trans = options.trans;
     this._runner = options.runner ?? new AnalysisRunner();
+    this._onExploreLandau = options.onExploreLandau ?? null;
     this.addClass('jp-psiscape-FitSection');
     this.node.setAttribute('role', 'group');
     this.node.setAttribute('aria-label', this._trans.__('Fit'));
@@ -277,6 +281,16 @@ export class FitSection extends Widget {
     convention.className = 'jp-psiscape-fit-convention';
     convention.textContent = this._trans.__('Convention: %1', outcome.convention);
     box.append(head, equation, table, notes, convention);
+    const landau = outcome.landau;
+    if (landau && this._onExploreLandau) {
+      const explore = document.createElement('button');
+      explore.type = 'button';
+      explore.className = 'jp-Button jp-mod-styled jp-mod-accept jp-psiscape-fit-explore';
+      explore.textContent = this._trans.__('Explore these coefficients');
+      explore.title = this._trans.__('Open the Landau free-energy explorer with the fitted coefficients');
+      explore.addEventListener('click', () => this._onExploreLandau?.(landau));
+      box.append(explore);
+    }
   }
 
   private _build(): void {
@@ -289,6 +303,7 @@ export class FitSection extends Widget {
       ['power-law', this._trans.__('Critical power law A(1 − T/Tc)^β')],
       ['weiss', this._trans.__('Weiss mean field M(T)')],
       ['curie-weiss', this._trans.__('Curie–Weiss χ0 + C/(T − θ)')],
+      ['landau', this._trans.__('Landau 2-4-6 coefficients from ψ(T)')],
       ['expression', this._trans.__('Your expression in x')]
     ]);
     row1.append(this._label(this._trans.__('model'), this._model));
@@ -311,6 +326,7 @@ export class FitSection extends Widget {
       'power-law': [this._label(this._trans.__('data'), this._proxy), this._label(this._trans.__('constant background'), this._background)],
       weiss: [this._label(this._trans.__('spin J'), this._spin)],
       'curie-weiss': [this._label(this._trans.__('χ units'), this._units)],
+      landau: [],
       expression: [this._label(this._trans.__('y ='), this._expression), this._label(this._trans.__('start values'), this._starts)]
     };
     const options = document.createElement('div');
@@ -398,6 +414,7 @@ export class FitSection extends Widget {
 
   private _trans: TranslationBundle;
   private _runner: AnalysisRunner;
+  private _onExploreLandau: ((k: ILandauOutcome) => void) | null;
   private _outcomeChanged = new Signal<this, IAnalysisOutcome | null>(this);
   private _outcome: IAnalysisOutcome | null = null;
   private _input: IFitInput | null = null;
@@ -427,5 +444,7 @@ export namespace FitSection {
     trans: TranslationBundle;
     /** Job runner (a worker-backed one by default). */
     runner?: AnalysisRunner;
+    /** Open the Landau explorer with fitted coefficients (a button shows when given). */
+    onExploreLandau?: (k: ILandauOutcome) => void;
   }
 }

@@ -61,3 +61,28 @@ test('the explorer follows the dark theme', async () => {
   await screenshot(page, 'landau-dark');
   assert.deepEqual(lab.errors, []);
 });
+
+test('Landau coefficients fitted to the demo M(T) open in the explorer', async () => {
+  const { page } = lab;
+  await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Light' }));
+  await page.locator('.lm-TabBar-tab', { hasText: 'am17-demo.ipynb' }).first().click();
+  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
+  await output.scrollIntoViewIfNeeded();
+  await output.click({ button: 'right' });
+  await page.locator('.lm-Menu-item', { hasText: 'Analyse This Table with psiscape' }).first().click();
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('landau');
+  await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
+  await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  const t0 = await panel.locator('.jp-psiscape-FitSection tbody tr', { hasText: /^T0/ }).locator('td').nth(1).textContent();
+  const value = Number(/^([\d.]+)/.exec(t0)?.[1]);
+  // The demo M(T) is a spin-½ mean-field curve with Tc = 287.4 K: its Landau T0 lies near Tc.
+  assert.ok(Math.abs(value - 287.4) < 3, `T0 reads "${t0}"`);
+  const before = await page.locator('.jp-psiscape-LandauExplorer').count();
+  await panel.locator('button.jp-psiscape-fit-explore').click();
+  await page.waitForFunction(n => document.querySelectorAll('.jp-psiscape-LandauExplorer').length > n, before);
+  const explorer = page.locator('.jp-psiscape-LandauExplorer').last();
+  const t0Field = explorer.locator('input.jp-psiscape-landau-number[data-key="T0"]');
+  assert.ok(Math.abs(Number(await t0Field.inputValue()) - value) < 0.01, 'the explorer starts from the fitted T0');
+  await screenshot(page, 'landau-from-fit');
+});

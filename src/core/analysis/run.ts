@@ -13,6 +13,7 @@ import type { IAnalysisJob, IAnalysisOutcome, IDerivedValue } from './types';
 import { AnalysisInputError } from './types';
 import type { IWindowedPoints } from './window';
 import { grid, windowedPoints } from './window';
+import { runLandau } from './landau';
 
 /** Points drawn on a model curve. */
 export const CURVE_POINTS = 300;
@@ -249,6 +250,8 @@ export function runAnalysisJob(job: IAnalysisJob, hooks: IAnalysisHooks = {}, st
       return runWeiss(job, pts, hooks);
     case 'curie-weiss':
       return runCurieWeiss(job, pts, hooks);
+    case 'landau':
+      return runLandau(job, pts, WINDOW_CAUTION);
     case 'expression':
       return runExpression(job, pts, hooks, starts);
     default: {

@@ -6,7 +6,7 @@
 import type { IFitResult } from '../fit/types';
 
 /** The models the panel offers. */
-export type AnalysisModel = 'power-law' | 'weiss' | 'curie-weiss' | 'expression';
+export type AnalysisModel = 'power-law' | 'weiss' | 'curie-weiss' | 'landau' | 'expression';
 
 /** Model options; each model reads only its own. */
 export interface IAnalysisModelOptions {
@@ -62,6 +62,8 @@ export interface IAnalysisOutcome {
   derived: IDerivedValue[];
   /** Cautions a careful reader needs next to these numbers. */
   cautions: string[];
+  /** Landau fits: the coefficients in convention L with a = 1 (for the free-energy explorer). */
+  landau?: { a: number; T0: number; b: number; c: number; d: number };
 }
 
 /** Why a job could not run: a message naming the input at fault. */

@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { AnalysisInputError, formatWithError, handleAnalysisMessage, parseStarts, runAnalysisJob } from '../../../src/core/analysis';
 import type { AnalysisResponse, IAnalysisJob } from '../../../src/core/analysis';
 import { weissMagnetisation } from '../../../src/core/physics/weiss';
+import { landauEquilibriumPsi } from '../../../src/core/physics/landau';
 import { normal } from '../physics/prng';
 
 function weissData(seed: number, n = 120, Tc = 287.4, Ms = 92.3, noise = 0.4) {
@@ -72,6 +73,36 @@ describe('runAnalysisJob', () => {
     const p = out.derived.find(d => d.name === 'p_eff')!;
     expect(p.value).toBeCloseTo(7.937254, 5);
     expect(out.derived.find(d => d.name === 'θ')!.value).toBeCloseTo(15, 6);
+  });
+
+  it.each([
+    // Convention L, a = 1; closed forms of REFERENCE.md B3: T1 = T0 + 3b²/(16ac), T** = T0 + b²/(4ac).
+    // a = 1, b = −2, c = 4, T0 = 100: T1 = 100.1875, T** = 100.25 (first order).
+    [{ a: 1, T0: 100, b: -2, c: 4, d: 0 }, 100.1875, 100.25],
+    // b > 0: continuous, T1 = T0.
+    [{ a: 1, T0: 100, b: 2, c: 0.5, d: 0 }, 100, null]
+  ])('should recover Landau coefficients %o from ψ(T) and report T1 and T**', (k, T1, Tss) => {
+    const T = Array.from({ length: 60 }, (_, i) => 95 + 0.1 * i);
+    const y = T.map(t => landauEquilibriumPsi(k, t));
+    const out = runAnalysisJob({ model: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
+    expect(out.fit.converged).toBe(true);
+    expect(out.landau!.T0).toBeCloseTo(100, 8);
+    expect(out.landau!.b).toBeCloseTo(k.b, 8);
+    expect(out.landau!.c).toBeCloseTo(k.c, 8);
+    expect(out.derived.find(d => d.name === 'T1')!.value).toBeCloseTo(T1, 8);
+    const tss = out.derived.find(d => d.name === 'T**');
+    expect(tss?.value ?? null).toEqual(Tss === null ? null : expect.closeTo(Tss, 8));
+    expect(out.cautions.join(' ')).toMatch(/overall scale a is arbitrary/);
+  });
+
+  it('should give Landau coefficients with standard errors from noisy ψ(T)', () => {
+    const rnd = normal(31);
+    const k = { a: 1, T0: 100, b: -2, c: 4, d: 0 };
+    const T = Array.from({ length: 80 }, (_, i) => 92 + 0.1 * i);
+    const y = T.map(t => landauEquilibriumPsi(k, t) + 0.003 * rnd());
+    const out = runAnalysisJob({ model: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
+    const i = out.fit.parameters.indexOf('T0');
+    expect(Math.abs(out.fit.values[i] - 100)).toBeLessThan(4 * out.fit.standardErrors[i]);
   });
 
   it('should fit a user expression from given start values', () => {
