@@ -284,7 +284,9 @@ export function registerCommands(ctx: ICommandContext): {
           : undefined
       });
       explorer.id = `jp-psiscape-landau-${++explorerCount}`;
-      app.shell.add(explorer, 'main', { mode: 'split-right' });
+      // Explorers share one dock area: the first splits the main area, later ones join it as tabs.
+      const previous = explorers.filter(e => !e.isDisposed && e.isAttached).pop();
+      app.shell.add(explorer, 'main', previous ? { mode: 'tab-after', ref: previous.id } : { mode: 'split-right' });
       app.shell.activateById(explorer.id);
       explorers.push(explorer);
       return explorer.id;
