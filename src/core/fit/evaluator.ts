@@ -41,6 +41,8 @@ export class ResidualEvaluator {
   private fplus2Buf: Float64Array | null = null;
   private fminus2Buf: Float64Array | null = null;
   private jfullBuf: Float64Array | null = null;
+  /** Σr² and ‖e‖² of large problems. */
+  private readonly sums = new Float64Array(2);
 
   constructor(problem: IFitProblem) {
     this.problem = problem;
@@ -169,6 +171,13 @@ export class ResidualEvaluator {
   /** r = w(f − y); returns Σr² (NaN when not finite) and sets the rounding norm. */
   private weighResiduals(r: Float64Array, f: Float64Array): number {
     const { y, weights } = this.problem;
+    const scale = 4 * Number.EPSILON;
+    if (this.n > FIT_DEFAULTS.largeRows) {
+      const sums = this.sums;
+      residualSums(f, y, weights, r, this.n, sums);
+      this.lastRoundingNorm2 = sums[1] * scale * scale;
+      return Number.isFinite(sums[0]) ? sums[0] : Number.NaN;
+    }
     let sum = 0;
     let e2 = 0;
     if (weights) {
@@ -190,7 +199,6 @@ export class ResidualEvaluator {
         e2 += ei * ei;
       }
     }
-    const scale = 4 * Number.EPSILON;
     this.lastRoundingNorm2 = e2 * scale * scale;
     return Number.isFinite(sum) ? sum : Number.NaN;
   }
@@ -369,4 +377,67 @@ function columnFinite(jac: Float64Array, n: number, k: number, j: number): boole
     }
   }
   return true;
+}
+
+/**
+ * Large problems: r = w(f − y) into `r`, Σr² into out[0] and Σ(w(|f| + |y|))²
+ * into out[1], with two accumulators each (even and odd points) so that the
+ * additions of successive points do not wait for each other.
+ */
+function residualSums(
+  f: Float64Array,
+  y: Float64Array,
+  weights: Float64Array | null,
+  r: Float64Array,
+  n: number,
+  out: Float64Array
+): void {
+  let s0 = 0;
+  let s1 = 0;
+  let e0 = 0;
+  let e1 = 0;
+  let i = 0;
+  if (weights) {
+    for (; i + 1 < n; i += 2) {
+      const w0 = weights[i];
+      const w1 = weights[i + 1];
+      const r0 = (f[i] - y[i]) * w0;
+      const r1 = (f[i + 1] - y[i + 1]) * w1;
+      r[i] = r0;
+      r[i + 1] = r1;
+      s0 += r0 * r0;
+      s1 += r1 * r1;
+      const a0 = (Math.abs(f[i]) + Math.abs(y[i])) * w0;
+      const a1 = (Math.abs(f[i + 1]) + Math.abs(y[i + 1])) * w1;
+      e0 += a0 * a0;
+      e1 += a1 * a1;
+    }
+  } else {
+    for (; i + 1 < n; i += 2) {
+      const f0 = f[i];
+      const f1 = f[i + 1];
+      const y0 = y[i];
+      const y1 = y[i + 1];
+      const r0 = f0 - y0;
+      const r1 = f1 - y1;
+      r[i] = r0;
+      r[i + 1] = r1;
+      s0 += r0 * r0;
+      s1 += r1 * r1;
+      const a0 = Math.abs(f0) + Math.abs(y0);
+      const a1 = Math.abs(f1) + Math.abs(y1);
+      e0 += a0 * a0;
+      e1 += a1 * a1;
+    }
+  }
+  for (; i < n; i++) {
+    const w = weights ? weights[i] : 1;
+    const ri = (f[i] - y[i]) * w;
+    r[i] = ri;
+    s0 += ri * ri;
+    const a = (Math.abs(f[i]) + Math.abs(y[i])) * w;
+    e0 += a * a;
+  }
+  out[0] = s0 + s1;
+  out[1] = e0 + e1;
 }
