@@ -11,22 +11,12 @@ import { availableParallelism, loadavg } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { parseMime } from '../src/core/table/index';
+import { mulberry32 } from '../src/core/numeric/random';
 
 const ROWS = 1_000_000;
 const TIME_TARGET_MS = 1000;
 const MEMORY_TARGET_MB = 300;
 
-/** Seeded PRNG so the text is identical run to run. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** pandas to_csv() style text: unnamed index, temperature grid, 17-digit floats, integers. Built in blocks to keep its own peak low. */
 function makeCsv(rows: number): string {

@@ -3,3 +3,4 @@ export { realPolynomialRoots, polyEval, polyDerivative } from './polyroots';
 export type { PolyCoefficients } from './polyroots';
 export { bracketRoot, goldenMinimum } from './scalar';
 export type { IScalarRootResult } from './scalar';
+export { mulberry32 } from './random';

@@ -9,6 +9,7 @@ import { iterateModifiedArrott } from './map';
 import { selectBranch } from './sets';
 import type { IIsotherm, IIsothermSet } from './types';
 import { SweepInputError } from './types';
+import { mulberry32 } from '../numeric/random';
 
 /** Mean and standard deviation over the bootstrap samples that converged. */
 export interface IBootstrapStat {
@@ -28,16 +29,6 @@ export interface IBootstrapResult {
   convention: string;
 }
 
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function stat(v: number[]): IBootstrapStat {
   if (v.length === 0) {

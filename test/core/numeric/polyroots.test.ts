@@ -1,17 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { realPolynomialRoots, polyEval, bracketRoot, goldenMinimum } from '../../../src/core/numeric/index';
+import { mulberry32 } from '../../../src/core/numeric/random';
 
-/** Seeded uniform generator (mulberry32). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function fromRoots(roots: number[], lead = 1): number[] {
   let c = [lead];

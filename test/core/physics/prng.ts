@@ -1,14 +1,6 @@
-/** Seeded PRNG for tests: mulberry32 uniform + Box–Muller normal deviates. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded normal deviates for tests (Box–Muller on the shared mulberry32 generator). */
+import { mulberry32 } from '../../../src/core/numeric/random';
+export { mulberry32 };
 
 /** Standard normal generator from a seed. */
 export function normal(seed: number): () => number {

@@ -6,18 +6,9 @@
 import { beanRodbellState, solveWeiss } from '../../../src/core/physics/index';
 import { isothermSetFromArrays } from '../../../src/core/sweeps/index';
 import type { IIsothermSet } from '../../../src/core/sweeps/index';
+import { mulberry32 } from '../../../src/core/numeric/random';
+export { mulberry32 };
 
-/** Seeded uniform PRNG (mulberry32). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal deviates (Box–Muller) from a seed. */
 export function normal(seed: number): () => number {
