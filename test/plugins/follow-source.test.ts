@@ -8,7 +8,7 @@ import type { ICodeCellModel } from '@jupyterlab/cells';
 import plugins, { PLUGIN_ID } from '../../src/plugins';
 import { AnalysisPanel } from '../../src/ui/analysis-panel';
 import { SOURCE_CELL_CLASS, SETTLE_MS } from '../../src/plugins/follow-source';
-import { labWith, openInLab, readNotebook } from './harness';
+import { disposeLabs, labWith, openInLab, readNotebook } from './harness';
 
 const wait = (ms: number) => new Promise(resolve => setTimeout(resolve, ms));
 
@@ -30,8 +30,8 @@ async function setup() {
 }
 
 describe('source tie-back', () => {
-  afterEach(() => {
-    document.body.innerHTML = '';
+  afterEach(async () => {
+    await disposeLabs();
   });
 
   it('should mark the source cell while the analysis is open', async () => {

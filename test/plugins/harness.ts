@@ -98,10 +98,28 @@ export async function notebookPanel(manager: ServiceManager, notebookPath: strin
   return panel;
 }
 
+const labs: JupyterLab[] = [];
+
+/**
+ * Dispose every application made by {@link labWith} and let React finish the
+ * work it scheduled (toolbars render through React), so nothing runs after the
+ * test environment is torn down. Call it in `afterEach`.
+ */
+export async function disposeLabs(): Promise<void> {
+  for (const app of labs.splice(0)) {
+    app.shell.dispose();
+  }
+  for (let i = 0; i < 3; i++) {
+    await new Promise(resolve => setTimeout(resolve, 20));
+  }
+  document.body.innerHTML = '';
+}
+
 /** A JupyterLab application with a tracker, a setting registry and a translator. */
 export async function labWith(plugins: JupyterFrontEndPlugin<unknown>[], pluginId: string) {
   const serviceManager = offlineServiceManager();
   const app = new JupyterLab({ serviceManager });
+  labs.push(app);
   const tracker = new NotebookTracker({ namespace: 'psiscape-test' });
   const registry = settingRegistryWith(pluginId);
   const providers: JupyterFrontEndPlugin<unknown>[] = [

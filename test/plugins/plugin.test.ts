@@ -7,7 +7,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import plugins, { PLUGIN_ID } from '../../src/plugins';
 import { AnalysisPanel } from '../../src/ui/analysis-panel';
-import { labWith, openInLab, readNotebook } from './harness';
+import { disposeLabs, labWith, openInLab, readNotebook } from './harness';
 
 const ANALYSE_OUTPUT = 'psiscape:analyse-output';
 const ANALYSE_SELECTED = 'psiscape:analyse-selected-cell';
@@ -17,8 +17,8 @@ function analysisPanels(app: { shell: { widgets(area: 'main'): IterableIterator<
 }
 
 describe('jupyterlab-psiscape:plugin', () => {
-  afterEach(() => {
-    document.body.innerHTML = '';
+  afterEach(async () => {
+    await disposeLabs();
   });
 
   it('should register its commands with labels from the real registry', async () => {

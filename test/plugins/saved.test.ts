@@ -8,7 +8,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import plugins, { PLUGIN_ID } from '../../src/plugins';
 import { AnalysisPanel } from '../../src/ui/analysis-panel';
 import { SAVED_KEY } from '../../src/core/saved';
-import { labWith, openInLab, readNotebook } from './harness';
+import { disposeLabs, labWith, openInLab, readNotebook } from './harness';
 import type { INotebookContent } from '@jupyterlab/nbformat';
 
 function panelsOf(app: { shell: { widgets(area: 'main'): IterableIterator<unknown> } }): AnalysisPanel[] {
@@ -29,8 +29,8 @@ function notebookWithCurve(): INotebookContent {
 }
 
 describe('saved analyses', () => {
-  afterEach(() => {
-    document.body.innerHTML = '';
+  afterEach(async () => {
+    await disposeLabs();
   });
 
   it('should save the analysis in the notebook metadata and reopen it with its fit', async () => {
