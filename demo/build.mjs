@@ -22,7 +22,7 @@ const log = msg => console.log(`[demo] ${msg}`);
 
 /** Newest modification time of the host's inputs. */
 function hostInputsMtime() {
-  const files = ['host/bootstrap.js', 'host/main.js', 'host/extensions.js', 'host/webpack.config.js'].map(f => path.join(demoDir, f));
+  const files = ['host/bootstrap.js', 'host/main.js', 'host/start-lab.js', 'host/shared-modules.js', 'host/extensions.js', 'host/webpack.config.js'].map(f => path.join(demoDir, f));
   files.push(path.join(root, 'package-lock.json'));
   return Math.max(...files.map(f => fs.statSync(f).mtimeMs));
 }

@@ -37,6 +37,7 @@ void (async function bootstrap() {
       console.error(result.reason);
     }
   });
-  const { main } = await import('./main.js');
+  // Each flavour's webpack configuration points this alias at its own main.js.
+  const { main } = await import('psiscape-lab-main');
   await main();
 })();

@@ -7,11 +7,11 @@ const webpack = require('webpack');
 const { merge } = require('webpack-merge');
 const baseConfig = require('@jupyterlab/builder/lib/webpack.config.base');
 const { Build } = require('@jupyterlab/builder');
+const { sharedModules } = require('./shared-modules');
 const { labExtensions, mimeExtensions, liteExtensions, disabledPlugins } = require('./extensions');
 
 const buildDir = path.resolve(__dirname, '..', 'build');
 const staticDir = path.join(buildDir, 'static');
-const core = require('@jupyterlab/core-meta/core.package.json');
 
 fs.mkdirSync(buildDir, { recursive: true });
 
@@ -29,35 +29,12 @@ fs.writeFileSync(
     `module.exports = { lab: ${entries(labExtensions)}, mime: ${entries(mimeExtensions)}, lite: ${entries(liteExtensions)}, disabledPlugins: ${JSON.stringify(disabledPlugins)} };\n`
 );
 
-// Share every core package that is installed; singletons as core-meta says.
-const shared = {};
-const resolvable = name => {
-  try {
-    require.resolve(`${name}/package.json`);
-    return true;
-  } catch {
-    return false;
-  }
-};
-for (const [name, range] of Object.entries({ ...core.resolutions, ...core.dependencies })) {
-  if (!resolvable(name)) {
-    continue;
-  }
-  // Require what is installed (same minor line), not core-meta's patch pins:
-  // extension packages on the registry can trail the libraries by a patch.
-  const version = require(`${name}/package.json`).version;
-  const [major, minor] = version.split('.');
-  shared[name] = { requiredVersion: /^[~^]/.test(range) ? `^${major}.${minor}.0` : false, version };
-}
-for (const name of core.jupyterlab.singletonPackages) {
-  if (shared[name]) {
-    shared[name].singleton = true;
-  }
-}
+const shared = sharedModules();
 
 const appConfig = merge(baseConfig, {
   mode: process.env.NODE_ENV === 'development' ? 'development' : 'production',
   entry: { main: path.join(__dirname, 'bootstrap.js') },
+  resolve: { alias: { 'psiscape-lab-main': path.join(__dirname, 'main.js') } },
   output: {
     path: staticDir,
     filename: '[name].[contenthash].js',

@@ -18,7 +18,7 @@ const log = msg => console.log(`[server-lab] ${msg}`);
 
 /** Newest modification time of the build's inputs. */
 function inputsMtime() {
-  const files = ['bootstrap.js', 'main.js', 'webpack.config.js', 'build.mjs'].map(f => path.join(serverDir, f));
+  const files = ['main.js', 'webpack.config.js', 'build.mjs', '../host/bootstrap.js', '../host/start-lab.js', '../host/shared-modules.js'].map(f => path.join(serverDir, f));
   files.push(path.join(serverDir, '..', 'host', 'extensions.js'), path.join(root, 'package-lock.json'));
   return Math.max(...files.map(f => fs.statSync(f).mtimeMs));
 }

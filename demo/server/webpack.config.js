@@ -8,12 +8,12 @@ const webpack = require('webpack');
 const { merge } = require('webpack-merge');
 const baseConfig = require('@jupyterlab/builder/lib/webpack.config.base');
 const { Build } = require('@jupyterlab/builder');
+const { sharedModules } = require('../host/shared-modules');
 const { labExtensions, mimeExtensions } = require('../host/extensions');
 
 const buildDir = path.resolve(__dirname, 'build');
 const staticDir = path.join(buildDir, 'static');
 const templatesDir = path.join(buildDir, 'templates');
-const core = require('@jupyterlab/core-meta/core.package.json');
 
 /** Where the Jupyter server serves the static files (LabServerApp name "lab"). */
 const PUBLIC_PATH = '/static/lab/';
@@ -41,30 +41,7 @@ fs.writeFileSync(
     `module.exports = { lab: ${entries(labExtensions)}, mime: ${entries(mimeExtensions)}, disabledPlugins: ${JSON.stringify(disabledPlugins)} };\n`
 );
 
-// Share every core package that is installed; singletons as core-meta says.
-const shared = {};
-const resolvable = name => {
-  try {
-    require.resolve(`${name}/package.json`);
-    return true;
-  } catch {
-    return false;
-  }
-};
-for (const [name, range] of Object.entries({ ...core.resolutions, ...core.dependencies })) {
-  if (!resolvable(name)) {
-    continue;
-  }
-  // Require what is installed (same minor line), not core-meta's patch pins.
-  const version = require(`${name}/package.json`).version;
-  const [major, minor] = version.split('.');
-  shared[name] = { requiredVersion: /^[~^]/.test(range) ? `^${major}.${minor}.0` : false, version };
-}
-for (const name of core.jupyterlab.singletonPackages) {
-  if (shared[name]) {
-    shared[name].singleton = true;
-  }
-}
+const shared = sharedModules();
 
 /** The page the server renders (Jinja2): page configuration + entry scripts. */
 function writeTemplate(files) {
@@ -89,7 +66,8 @@ function writeTemplate(files) {
 
 const appConfig = merge(baseConfig, {
   mode: process.env.NODE_ENV === 'development' ? 'development' : 'production',
-  entry: { main: path.join(__dirname, 'bootstrap.js') },
+  entry: { main: path.join(__dirname, '..', 'host', 'bootstrap.js') },
+  resolve: { alias: { 'psiscape-lab-main': path.join(__dirname, 'main.js') } },
   output: {
     path: staticDir,
     filename: '[name].[contenthash].js',
