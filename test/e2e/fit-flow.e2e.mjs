@@ -2,29 +2,17 @@
 // a Web Worker, the result table with Tc ± σ, the model curve drawn over the
 // points, and a refusal shown as a message.
 import assert from 'node:assert/strict';
-import { after, before, test } from 'node:test';
-import { contextMenu, openLab, screenshot, startServer } from './lab.mjs';
+import { test } from 'node:test';
+import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
 
-let server;
-let lab;
-
-before(async () => {
-  const started = await startServer();
-  server = started.server;
-  lab = await openLab(started.url);
-  const { page } = lab;
+const suite = useDemoLab(async ({ page }) => {
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
   await page.locator('.jp-psiscape-AnalysisPanel .jp-psiscape-ChartView svg').first().waitFor({ timeout: 30000 });
 });
 
-after(async () => {
-  await lab?.browser.close();
-  await new Promise(resolve => server?.close(resolve));
-});
-
 test('a Weiss fit runs in a worker and reports Tc with its standard error', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   assert.equal(await panel.locator('select.jp-psiscape-sigma option:checked').textContent(), 'sigma_M (emu/g)');
   await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('weiss');
@@ -45,7 +33,7 @@ test('a Weiss fit runs in a worker and reports Tc with its standard error', asyn
 });
 
 test('a window too narrow gives a message and keeps the controls usable', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('power-law');
   await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('100');
@@ -58,7 +46,7 @@ test('a window too narrow gives a message and keeps the controls usable', async 
 });
 
 test('the fit controls are reachable with the keyboard', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').focus();
   const order = [];
@@ -71,7 +59,7 @@ test('the fit controls are reachable with the keyboard', async () => {
 });
 
 test('isotherms M(H) at several temperatures give an Arrott plot and Tc', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe th', { hasText: 'H (Oe)' }) }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();

@@ -3,6 +3,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { after, before } from 'node:test';
 import { serve } from '../../demo/serve.mjs';
 import { launch } from './browser.mjs';
 
@@ -44,4 +45,28 @@ export async function contextMenu(page, locator, label) {
   const item = page.locator('.lm-Menu-item', { hasText: label });
   await item.first().waitFor({ timeout: 10000 });
   await item.first().click();
+}
+
+/**
+ * For a test file: serve the demo lab and open it in a fresh browser before
+ * its tests (then run `afterOpen`, if given), close both after them.
+ *
+ * @returns {{ lab: Awaited<ReturnType<typeof openLab>> | null }} filled in once `before` has run
+ */
+export function useDemoLab(afterOpen) {
+  const suite = { lab: null };
+  let server = null;
+  before(async () => {
+    const started = await startServer();
+    server = started.server;
+    suite.lab = await openLab(started.url);
+    if (afterOpen) {
+      await afterOpen(suite.lab);
+    }
+  });
+  after(async () => {
+    await suite.lab?.browser.close();
+    await new Promise(resolve => (server ? server.close(resolve) : resolve()));
+  });
+  return suite;
 }

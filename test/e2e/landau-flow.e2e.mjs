@@ -3,25 +3,13 @@
 // b = −2, c = 4, T0 = 100 give T1 = 100.375, T** = 100.5), the landscape
 // redrawn as T moves by keyboard, in light and dark themes.
 import assert from 'node:assert/strict';
-import { after, before, test } from 'node:test';
-import { openLab, screenshot, startServer } from './lab.mjs';
+import { test } from 'node:test';
+import { screenshot, useDemoLab } from './lab.mjs';
 
-let server;
-let lab;
-
-before(async () => {
-  const started = await startServer();
-  server = started.server;
-  lab = await openLab(started.url);
-});
-
-after(async () => {
-  await lab?.browser.close();
-  await new Promise(resolve => server?.close(resolve));
-});
+const suite = useDemoLab();
 
 test('the explorer opens from the View menu with the first-order example', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   await page.locator('.lm-MenuBar-itemLabel', { hasText: 'View' }).click();
   await page.locator('.lm-Menu-item', { hasText: 'Open Landau Free-Energy Explorer' }).click();
   const explorer = page.locator('.jp-psiscape-LandauExplorer');
@@ -34,7 +22,7 @@ test('the explorer opens from the View menu with the first-order example', async
 });
 
 test('moving T with the keyboard redraws the landscape', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const explorer = page.locator('.jp-psiscape-LandauExplorer');
   const range = explorer.locator('input.jp-psiscape-landau-range[data-key="T"]');
   const before = await range.inputValue();
@@ -52,18 +40,18 @@ test('moving T with the keyboard redraws the landscape', async () => {
 });
 
 test('the explorer follows the dark theme', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Dark' }));
   await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
   await page.waitForTimeout(500);
   const bg = await page.evaluate(() => document.querySelector('.jp-psiscape-LandauExplorer svg')?.style.backgroundColor);
   assert.notEqual(bg, 'rgb(255, 255, 255)');
   await screenshot(page, 'landau-dark');
-  assert.deepEqual(lab.errors, []);
+  assert.deepEqual(suite.lab.errors, []);
 });
 
 test('Landau coefficients fitted to the demo M(T) open in the explorer', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Light' }));
   await page.locator('.lm-TabBar-tab', { hasText: 'am17-demo.ipynb' }).first().click();
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();

@@ -2,27 +2,13 @@
 // to the notebook, the notebook is saved to the browser's storage, and after
 // a reload the analysis reopens by itself with its fit.
 import assert from 'node:assert/strict';
-import { after, before, test } from 'node:test';
-import { contextMenu, openLab, screenshot, startServer } from './lab.mjs';
+import { test } from 'node:test';
+import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
 
-let server;
-let lab;
-let url;
-
-before(async () => {
-  const started = await startServer();
-  server = started.server;
-  url = started.url;
-  lab = await openLab(url);
-});
-
-after(async () => {
-  await lab?.browser.close();
-  await new Promise(resolve => server?.close(resolve));
-});
+const suite = useDemoLab();
 
 test('an analysis saved with the notebook reopens, with its fit, after a reload', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();

@@ -2,26 +2,14 @@
 // chart → "Show source cell" selects the cell. Also the palette command, the
 // no-table message, and the dark theme.
 import assert from 'node:assert/strict';
-import { after, before, test } from 'node:test';
-import { contextMenu, openLab, screenshot, startServer } from './lab.mjs';
+import { test } from 'node:test';
+import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
 
 const MENU_LABEL = 'Analyse This Table with psiscape';
-let server;
-let lab;
-
-before(async () => {
-  const started = await startServer();
-  server = started.server;
-  lab = await openLab(started.url);
-});
-
-after(async () => {
-  await lab?.browser.close();
-  await new Promise(resolve => server?.close(resolve));
-});
+const suite = useDemoLab();
 
 test('context menu on a pandas table opens a panel with a drawn chart', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, MENU_LABEL);
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
@@ -40,7 +28,7 @@ test('context menu on a pandas table opens a panel with a drawn chart', async ()
 });
 
 test('changing the y column redraws the chart', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('select.jp-psiscape-y').selectOption({ label: 'sigma_M (emu/g)' });
   await page.waitForFunction(() => {
@@ -50,7 +38,7 @@ test('changing the y column redraws the chart', async () => {
 });
 
 test('"Show source cell" selects and scrolls to the source cell', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   // Move the selection elsewhere first.
   await page.locator('.jp-Notebook .jp-Cell').first().click();
   const before = await page.evaluate(() => window.jupyterapp.shell.currentWidget?.content?.activeCellIndex ?? null);
@@ -67,7 +55,7 @@ test('"Show source cell" selects and scrolls to the source cell', async () => {
 });
 
 test('an output without a table gives a message, not a blank panel', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   const printed = page.locator('.jp-Notebook .jp-OutputArea-child', { hasText: 'Sample AM-17' }).first();
   await contextMenu(page, printed, MENU_LABEL);
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
@@ -78,7 +66,7 @@ test('an output without a table gives a message, not a blank panel', async () =>
 });
 
 test('palette command analyses the selected cell (dataresource output)', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   // Select the cell with the dataresource table (5th cell) and run the command from the palette.
   await page.locator('.jp-Notebook .jp-Cell').nth(4).locator('.jp-InputPrompt').click();
   await page.keyboard.press('Control+Shift+C');
@@ -93,7 +81,7 @@ test('palette command analyses the selected cell (dataresource output)', async (
 });
 
 test('dark theme: the chart follows the theme colours', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Dark' }));
   await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
   const panelTab = page.locator('.lm-TabBar-tab', { hasText: 'Analysis' }).first();
@@ -111,11 +99,11 @@ test('dark theme: the chart follows the theme colours', async () => {
   assert.equal(bg, themeBg, 'chart background is the dark theme layout colour');
   assert.notEqual(bg, 'rgb(255, 255, 255)');
   await screenshot(page, 'table-flow-dark');
-  assert.deepEqual(lab.errors, [], 'no uncaught page errors');
+  assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
 });
 
 test('a CSV file in the file browser opens at full precision', async () => {
-  const { page } = lab;
+  const { page } = suite.lab;
   await page.evaluate(() => window.jupyterapp.commands.execute('apputils:change-theme', { theme: 'JupyterLab Light' }));
   const item = page.locator('.jp-DirListing-item[data-file-type="csv"]', { hasText: 'am17_MT.csv' });
   await item.click();

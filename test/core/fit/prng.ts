@@ -3,17 +3,8 @@
  * Box–Muller normal deviates (common practice, no source).
  */
 
-/** Uniform generator on [0, 1) from a 32-bit seed (mulberry32). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../../../src/core/numeric/random';
+export { mulberry32 };
 
 /** Standard normal deviates by Box–Muller from a uniform generator. */
 export function normalGenerator(uniform: () => number): () => number {
