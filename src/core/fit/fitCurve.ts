@@ -7,6 +7,8 @@ import { levenbergMarquardtSteps } from './lm';
 import type { ILmOutcome } from './lm';
 import { buildProblem } from './problem';
 import type { IFitProblem } from './problem';
+import { refineInDoubleDouble } from './refine';
+import type { IRefinement } from './refine';
 import { informationCriteria, inverseNormal } from './statistics';
 import { normalQuantileTwoSided, studentTQuantileTwoSided } from './studentT';
 import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
@@ -77,7 +79,7 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
         // Only a callback (onProgress / shouldStop) can throw here.
         outcome = abortedOutcome(problem, ev, err);
       }
-      return assemble(problem, ev, outcome);
+      return assemble(problem, ev, refineInDoubleDouble(problem, ev, outcome));
     }
   };
 }
@@ -103,12 +105,13 @@ function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknow
   };
 }
 
-function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): IFitResult {
+function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefinement): IFitResult {
+  const o = refinement.outcome;
   const { n, kAll, free, names } = problem;
   const k = free.length;
-  const warnings: string[] = [];
+  const warnings: string[] = refinement.warning ? [refinement.warning] : [];
   let converged = o.converged;
-  let reason = o.reason;
+  let reason = refinement.note ? `${o.reason}; ${refinement.note}` : o.reason;
   const full = ev.fullParameters(o.p);
   const values = Array.from(full);
   const chi2 = o.cost;
@@ -193,8 +196,9 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
   const criteria = informationCriteria(chi2, n, k, knownSigma);
   // Sized once (growing by push costs several times more for large n).
   const residuals = new Array<number>(n);
+  const precise = refinement.residuals;
   for (let i = 0; i < n; i++) {
-    residuals[i] = problem.y[i] - o.f[i];
+    residuals[i] = precise ? precise[i] : problem.y[i] - o.f[i];
   }
   if (o.restarts > 0) {
     warnings.push(`restarted ${o.restarts} time(s) from the best point after the step collapsed`);
@@ -214,6 +218,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, o: ILmOutcome): I
     dof,
     ...criteria,
     criteriaConvention: knownSigma ? 'known-sigma' : 'profiled-variance',
+    residualArithmetic: refinement.residuals ? 'double-double' : 'binary64',
     residuals,
     evaluations: evaluationsBeforeStats,
     jacobianEvaluations: jacobiansBeforeStats,

@@ -15,6 +15,10 @@ export interface IFitProblem {
   kAll: number;
   x: Float64Array;
   y: Float64Array;
+  /** Low-order parts of x (exact abscissae x + xLow), or null. */
+  xLow: Float64Array | null;
+  /** Low-order parts of y (exact values y + yLow), or null. */
+  yLow: Float64Array | null;
   /** Weights 1/σᵢ, or null when σ were not given. */
   weights: Float64Array | null;
   start: Float64Array;
@@ -59,6 +63,38 @@ function requireFinite(name: string, values: Float64Array): void {
   }
 }
 
+/** Unit in the last place of binary64 `v` (the spacing at |v|; 2⁻¹⁰⁷⁴ at 0). */
+function ulp(v: number): number {
+  const a = Math.abs(v);
+  if (a < 2 ** -1022) {
+    return 2 ** -1074;
+  }
+  let e = Math.floor(Math.log2(a));
+  if (2 ** e > a) {
+    e -= 1;
+  } else if (2 ** (e + 1) <= a) {
+    e += 1;
+  }
+  return 2 ** (e - 52);
+}
+
+/** Optional low-order parts of `high`: same length, finite, |low| ≤ ulp(high). */
+function lowParts(name: string, values: ArrayLike<number> | undefined | null, high: Float64Array): Float64Array | null {
+  if (values === undefined || values === null) {
+    return null;
+  }
+  const low = toFloat64(name, values, high.length);
+  requireFinite(name, low);
+  for (let i = 0; i < low.length; i++) {
+    if (Math.abs(low[i]) > ulp(high[i])) {
+      throw new FitInputError(
+        `${name}[${i}] = ${low[i]} exceeds one unit in the last place of the high part ${high[i]}`
+      );
+    }
+  }
+  return low;
+}
+
 function positiveTolerance(name: string, value: number | undefined, fallback: number): number {
   if (value === undefined) {
     return fallback;
@@ -93,6 +129,8 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
   }
   requireFinite('data.x', x);
   requireFinite('data.y', y);
+  const xLow = lowParts('data.xLow', data.xLow, x);
+  const yLow = lowParts('data.yLow', data.yLow, y);
   let weights: Float64Array | null = null;
   if (data.sigma !== undefined && data.sigma !== null) {
     const sigma = toFloat64('data.sigma', data.sigma, n);
@@ -162,6 +200,8 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
     kAll,
     x,
     y,
+    xLow,
+    yLow,
     weights,
     start,
     lower,

@@ -5,6 +5,7 @@
  * `x` = point index (0, 1, 2, …) and close over their own data columns:
  * `evaluate` then reads `H[x[i]]`, `T[x[i]]` for each point `i`.
  */
+import type { IDoubleDoubleArray } from '../numeric/dd/core';
 
 /** A model y = f(x; p) with named parameters. */
 export interface IFitModel {
@@ -27,6 +28,15 @@ export interface IFitModel {
    * `evaluate` and `jacobian`.
    */
   evaluateWithJacobian?(p: Float64Array, x: Float64Array, out: Float64Array, jac: Float64Array): void;
+  /**
+   * Optional evaluation in double-double arithmetic (≈ 32 digits): writes
+   * f(x_i; p) as `out.hi[i] + out.lo[i]` for double-double parameters `p`
+   * (all parameters, same order as `evaluate`) and double-double `x`
+   * (x + xLow of the data). Used only to refine a converged fit whose χ² is
+   * dominated by binary64 rounding (see `IFitResult.residualArithmetic`);
+   * NaN or a thrown error skips that refinement with a warning.
+   */
+  evaluatePrecise?(p: IDoubleDoubleArray, x: IDoubleDoubleArray, out: IDoubleDoubleArray): void;
 }
 
 /** Observations. `sigma` (optional) are per-point standard uncertainties of `y`. */
@@ -34,6 +44,15 @@ export interface IFitData {
   x: ArrayLike<number>;
   y: ArrayLike<number>;
   sigma?: ArrayLike<number>;
+  /**
+   * Optional low-order parts of `x`: the exact abscissae are x[i] + xLow[i]
+   * (e.g. decimal data that binary64 cannot hold; see
+   * `decimalToDoubleDouble`). Same length as x, finite, |xLow[i]| ≤ ulp(x[i]).
+   * Used only by the double-double refinement (models with `evaluatePrecise`).
+   */
+  xLow?: ArrayLike<number>;
+  /** Optional low-order parts of `y`, like `xLow`: the exact values are y[i] + yLow[i]. */
+  yLow?: ArrayLike<number>;
 }
 
 /** Progress report sent during a fit. */
@@ -104,6 +123,16 @@ export interface IFitResult {
    * k = number of free parameters.
    */
   criteriaConvention: 'known-sigma' | 'profiled-variance';
+  /**
+   * Arithmetic of χ², the residuals and hence the scaled standard errors:
+   * 'binary64' normally; 'double-double' when the fit converged with a χ²
+   * dominated by binary64 rounding noise (noise > 1e-9·χ²) and the model
+   * has `evaluatePrecise`: the parameters were then polished by Gauss–Newton
+   * steps with double-double residuals of the exact data (x + xLow,
+   * y + yLow), and χ² = Σr² was summed in double-double (values are the
+   * refined parameters rounded to binary64). `reason` says so too.
+   */
+  residualArithmetic: 'binary64' | 'double-double';
   /** Unweighted residuals yᵢ − f(xᵢ) (observed minus model). */
   residuals: number[];
   /** Model evaluations during the fit (each finite-difference column counts as one). */

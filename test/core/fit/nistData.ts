@@ -8,6 +8,7 @@
  */
 import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import * as path from 'node:path';
+import { decimalToDoubleDouble } from '../../../src/core/numeric/dd/index';
 
 /** One parsed StRD problem. */
 export interface INistProblem {
@@ -26,6 +27,11 @@ export interface INistProblem {
   columns: string[];
   /** Data by column name. */
   data: Record<string, number[]>;
+  /**
+   * Low-order parts by column name: the printed decimal is exactly
+   * data[c][i] + dataLow[c][i] to double-double precision.
+   */
+  dataLow: Record<string, number[]>;
 }
 
 /** Directory of the StRD files, or null when absent. */
@@ -104,13 +110,19 @@ export function parseNist(file: string): INistProblem {
     throw new Error(`cannot parse ${file}`);
   }
   const data: Record<string, number[]> = {};
+  const dataLow: Record<string, number[]> = {};
   for (const c of columns) {
     data[c] = [];
+    dataLow[c] = [];
   }
   for (const l of lines.slice(dataStart)) {
     const parts = l.trim().split(/\s+/);
     if (parts.length === columns.length && parts.every((p) => NUMBER.test(p))) {
-      parts.forEach((p, j) => data[columns[j]].push(Number(p)));
+      parts.forEach((p, j) => {
+        const v = decimalToDoubleDouble(p);
+        data[columns[j]].push(v.hi);
+        dataLow[columns[j]].push(v.lo);
+      });
     }
   }
   return {
@@ -124,7 +136,8 @@ export function parseNist(file: string): INistProblem {
     certifiedSd,
     certifiedRss,
     columns,
-    data
+    data,
+    dataLow
   };
 }
 

@@ -5,9 +5,12 @@
  * the response log(y): it uses x = point index and closes over x1, x2.
  */
 import type { IFitModel } from '../../../src/core/fit/index';
+import * as DD from '../../../src/core/numeric/dd/index';
+import type { IDoubleDouble, IDoubleDoubleArray } from '../../../src/core/numeric/dd/index';
 import type { INistProblem } from './nistData';
 
 type Pointwise = (b: Float64Array, x: number) => number;
+type PrecisePointwise = (b: IDoubleDouble[], x: IDoubleDouble) => IDoubleDouble;
 
 const { exp, cos, sin, atan, PI } = Math;
 
@@ -61,8 +64,48 @@ function lanczos(b: Float64Array, x: number): number {
   return b[0] * exp(-b[1] * x) + b[2] * exp(-b[3] * x) + b[4] * exp(-b[5] * x);
 }
 
+/** Lanczos1–3 in double-double: b1·e^(−b2·x) + b3·e^(−b4·x) + b5·e^(−b6·x). */
+function lanczosPrecise(b: IDoubleDouble[], x: IDoubleDouble): IDoubleDouble {
+  let sum = DD.DD_ZERO;
+  for (let j = 0; j < 6; j += 2) {
+    sum = DD.add(sum, DD.mul(b[j], DD.exp(DD.neg(DD.mul(b[j + 1], x)))));
+  }
+  return sum;
+}
+
+/** Double-double versions of hand-written models (used by the fit's refinement). */
+const PRECISE: Record<string, PrecisePointwise> = {
+  Lanczos1: lanczosPrecise,
+  Lanczos2: lanczosPrecise,
+  Lanczos3: lanczosPrecise
+};
+
+function preciseEvaluator(
+  fn: PrecisePointwise
+): (p: IDoubleDoubleArray, x: IDoubleDoubleArray, out: IDoubleDoubleArray) => void {
+  return (p, x, out) => {
+    const b = Array.from(p.hi, (hi, j) => ({ hi, lo: p.lo[j] }));
+    for (let i = 0; i < x.hi.length; i++) {
+      const v = fn(b, { hi: x.hi[i], lo: x.lo[i] });
+      out.hi[i] = v.hi;
+      out.lo[i] = v.lo;
+    }
+  };
+}
+
+/** Model and data (with the double-double low parts of the printed decimals) for a hand-written model. */
+export interface IHandProblem {
+  model: IFitModel;
+  x: number[];
+  y: number[];
+  /** x + xLow is the printed x exactly (to double-double precision); absent when x is a point index. */
+  xLow?: number[];
+  /** y + yLow is the (transformed) response to double-double precision. */
+  yLow: number[];
+}
+
 /** Model, x and y for fitting problem `p` with a hand-written model. */
-export function handModel(p: INistProblem): { model: IFitModel; x: number[]; y: number[] } {
+export function handModel(p: INistProblem): IHandProblem {
   if (p.name === 'Nelson') {
     const x1 = p.data.x1;
     const x2 = p.data.x2;
@@ -75,7 +118,7 @@ export function handModel(p: INistProblem): { model: IFitModel; x: number[]; y: 
         }
       }
     };
-    return { model, x: x1.map((_, i) => i), y: p.data.y.map(Math.log) };
+    return { model, x: x1.map((_, i) => i), ...logResponse(p) };
   }
   const fn = POINTWISE[p.name];
   if (!fn) {
@@ -89,5 +132,20 @@ export function handModel(p: INistProblem): { model: IFitModel; x: number[]; y: 
       }
     }
   };
-  return { model, x: p.data.x, y: p.data.y };
+  const precise = PRECISE[p.name];
+  if (precise) {
+    model.evaluatePrecise = preciseEvaluator(precise);
+  }
+  return { model, x: p.data.x, y: p.data.y, xLow: p.dataLow.x, yLow: p.dataLow.y };
+}
+
+/**
+ * Nelson's response log(y) as double-double of the exact decimal y: y is
+ * the rounded double-double logarithm and yLow its remainder (log of the
+ * binary64 y can be off by several ulps of the logarithm, beyond what a low
+ * part may hold).
+ */
+export function logResponse(p: INistProblem): { y: number[]; yLow: number[] } {
+  const logs = p.data.y.map((v, i) => DD.log({ hi: v, lo: p.dataLow.y[i] }));
+  return { y: logs.map((v) => v.hi), yLow: logs.map((v) => v.lo) };
 }
