@@ -23,7 +23,7 @@ import type { IFitModel, IFitResult } from '../src/core/fit/index';
 import { parseExpressionModel } from '../src/core/expr/index';
 import { lre, nistDirectory, nistNames, parseNist } from '../test/core/fit/nistData';
 import type { INistProblem } from '../test/core/fit/nistData';
-import { handModel } from '../test/core/fit/nistModels';
+import { handModel, nistFitData } from '../test/core/fit/nistModels';
 import { curieWeiss, curieWeissAnalytic, powerLaw, powerLawAnalytic } from './fitModels';
 import { parseArgs, referenceJson } from './fitReference';
 import type { IReferenceDoc } from './fitReference';
@@ -81,16 +81,20 @@ function runNist(): INistRow[] {
   const problems = nistNames(dir).map((n) => parseNist(`${dir}/${n}.dat`));
   const rows: INistRow[] = [];
   for (const via of ['hand', 'expression'] as const) {
-    const prepared = problems.map((p) => ({ p, ...nistModel(p, via) }));
+    const prepared = problems.map((p) => {
+      const m = nistModel(p, via);
+      // Data with the double-double low parts of the printed decimals.
+      return { p, model: m.model, data: nistFitData(p, m.x, m.y) };
+    });
     // warm-up pass (JIT) over every fit
     for (const q of prepared) {
-      fitCurve(q.model, { x: q.x, y: q.y }, { start: q.p.start1 });
+      fitCurve(q.model, q.data, { start: q.p.start1 });
     }
     for (const q of prepared) {
       for (const start of [1, 2]) {
         const s = start === 1 ? q.p.start1 : q.p.start2;
-        const r: IFitResult = fitCurve(q.model, { x: q.x, y: q.y }, { start: s });
-        const t = bestOf(args.repeats, () => fitCurve(q.model, { x: q.x, y: q.y }, { start: s }));
+        const r: IFitResult = fitCurve(q.model, q.data, { start: s });
+        const t = bestOf(args.repeats, () => fitCurve(q.model, q.data, { start: s }));
         rows.push({
           name: q.p.name,
           start,

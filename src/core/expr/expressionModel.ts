@@ -17,6 +17,7 @@ import { collectSymbols, numberLiteral, toJavaScript } from './compile';
 import { generate, interpret, interpretMany } from './kernelFactory';
 import type { Kernel } from './kernelFactory';
 import { ExpressionError, normalizeExpressionText, splitEquation } from './normalize';
+import { buildPreciseKernel, preciseResolver } from './precise';
 
 /** Options of `parseExpressionModel`. */
 export interface IExpressionModelOptions {
@@ -169,10 +170,16 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     derivatives: derivativeNodes ? derivativeNodes.map((d) => d.toString()) : null,
     evaluation,
     evaluate,
-    transformResponse
+    transformResponse,
+    // Generated code evaluates each point on its own (several variables: x is the point index).
+    pointwise: true
   };
   if (jacobian) {
     model.jacobian = jacobian;
+  }
+  const precise = buildPreciseKernel(node, preciseResolver(variables, constants, parameters), colArrays);
+  if (precise) {
+    model.evaluatePrecise = precise;
   }
   return model;
 }

@@ -149,3 +149,19 @@ export function logResponse(p: INistProblem): { y: number[]; yLow: number[] } {
   const logs = p.data.y.map((v, i) => DD.log({ hi: v, lo: p.dataLow.y[i] }));
   return { y: logs.map((v) => v.hi), yLow: logs.map((v) => v.lo) };
 }
+
+/**
+ * Fit data for problem `p` with the double-double low parts of the printed
+ * decimals, for a model's `x` and (possibly transformed) `y`: x is a point
+ * index for several predictors (no low parts); a response printed as
+ * log[y] (Nelson) takes y and its low parts from the double-double log.
+ */
+export function nistFitData(
+  p: INistProblem,
+  x: number[],
+  y: number[]
+): { x: number[]; y: number[]; xLow?: number[]; yLow: number[] } {
+  const indexed = p.data.x === undefined;
+  const data = /^\s*log\s*\[\s*y\s*\]/.test(p.modelText) ? { x, ...logResponse(p) } : { x, y, yLow: p.dataLow.y };
+  return indexed ? data : { ...data, xLow: p.dataLow.x };
+}
