@@ -6,3 +6,4 @@ export { parseExpressionModel } from './expressionModel';
 export type { IExpressionModel, IExpressionModelOptions } from './expressionModel';
 export { ExpressionError, normalizeExpressionText, splitEquation, FUNCTION_ALIASES } from './normalize';
 export { SUPPORTED_FUNCTIONS } from './compile';
+export { PRECISE_FUNCTIONS } from './precise';

@@ -7,6 +7,9 @@
  * algorithms (accurate addition with two TwoSums, division with three
  * quotient digits, square root with one Newton correction).
  *
+ * Below about 1e-292 in magnitude the low part becomes subnormal and the
+ * precision degrades gradually to that of binary64.
+ *
  * Non-finite inputs propagate: any operation whose binary64 leading part is
  * not finite returns { hi: that value, lo: 0 }.
  */
