@@ -20,6 +20,8 @@
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
  * | `restartReductionThreshold` | 1e-10 | a stop on a small step while the Gauss–Newton model still predicts a relative χ² reduction above this restarts from the best point (a reduction of 1e-10·χ² moves parameters by ≈ 1e-5·√dof standard errors) |
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
+ * | `warmStartRows` | 50000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`) |
+ * | `warmStartSample` | 16384 | target size of that subsample (stride ⌊n / 16384⌋) |
  * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
  * | `geodesicAlpha` | 0.75 | when ‖a‖ > α‖v‖ (scaled norms) the path curves too much: the step is not tried and the radius is halved |
  *
@@ -63,6 +65,8 @@ export const FIT_DEFAULTS = Object.freeze({
   conditionWarning: 1e12,
   restartReductionThreshold: 1e-10,
   maxRestarts: 3,
+  warmStartRows: 50000,
+  warmStartSample: 16384,
   geodesicAcceleration: true,
   geodesicAlpha: 0.75
 });

@@ -3,11 +3,12 @@
  */
 import { FIT_DEFAULTS } from './defaults';
 import { ResidualEvaluator } from './evaluator';
-import { levenbergMarquardtSteps } from './lm';
 import type { ILmOutcome } from './lm';
 import { buildProblem } from './problem';
 import type { IFitProblem } from './problem';
 import { refineInDoubleDouble } from './refine';
+import { warmStartedSteps, withWarmStart } from './warmStart';
+import type { IWarmStartInfo } from './warmStart';
 import type { IRefinement } from './refine';
 import { informationCriteria, inverseNormal } from './statistics';
 import { normalQuantileTwoSided, studentTQuantileTwoSided } from './studentT';
@@ -51,7 +52,7 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
     }
   };
   const { onProgress, shouldStop } = options;
-  const steps = levenbergMarquardtSteps(problem, ev, {
+  const steps = warmStartedSteps(problem, ev, {
     onProgress: onProgress ? (p) => guard(() => onProgress(p)) : undefined,
     shouldStop: () => {
       let stop = false;
@@ -66,12 +67,14 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
   return {
     step(): IFitResult | null {
       let outcome: ILmOutcome;
+      let warmStart: IWarmStartInfo | null = null;
       try {
         const next = steps.next();
         if (!next.done) {
           return null;
         }
-        outcome = next.value;
+        outcome = next.value.outcome;
+        warmStart = next.value.warmStart;
         if (callbackError !== null) {
           outcome = { ...outcome, converged: false, reason: `aborted: a callback threw: ${callbackError}` };
         }
@@ -79,7 +82,7 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
         // Only a callback (onProgress / shouldStop) can throw here.
         outcome = abortedOutcome(problem, ev, err);
       }
-      return assemble(problem, ev, refineInDoubleDouble(problem, ev, outcome));
+      return withWarmStart(assemble(problem, ev, refineInDoubleDouble(problem, ev, outcome)), warmStart);
     }
   };
 }

@@ -29,6 +29,13 @@ export interface IFitModel {
    */
   evaluateWithJacobian?(p: Float64Array, x: Float64Array, out: Float64Array, jac: Float64Array): void;
   /**
+   * True when f(xᵢ) depends on xᵢ alone (not on other points or their
+   * order), so that the model may be evaluated on any subset of the points.
+   * Large problems then start from a fit to an evenly strided subsample
+   * (see `warmStart.ts`).
+   */
+  readonly pointwise?: boolean;
+  /**
    * Optional evaluation in double-double arithmetic (≈ 32 digits): writes
    * f(x_i; p) as `out.hi[i] + out.lo[i]` for double-double parameters `p`
    * (all parameters, same order as `evaluate`) and double-double `x`
@@ -146,6 +153,18 @@ export interface IFitResult {
   warnings: string[];
   /** Whether each parameter was fixed (fixed ones have zero standard error and covariance). */
   fixed: boolean[];
+  /**
+   * Large problems with a pointwise model: the subsample stage that gave the
+   * starting point of the full-data iteration (absent otherwise). Its model
+   * calls, on the subsample, are not in `evaluations`.
+   */
+  warmStart?: {
+    stride: number;
+    points: number;
+    evaluations: number;
+    converged: boolean;
+    used: boolean;
+  };
 }
 
 /** Precise error thrown for invalid inputs at the boundary of the engine. */

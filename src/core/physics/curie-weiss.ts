@@ -59,6 +59,7 @@ export interface ICurieWeissFitResult extends IFitResult {
 /** The model χ = χ0 + C/(T − θ), parameters C, theta, chi0, analytic Jacobian. */
 export const curieWeissModel: IFitModel = {
   parameters: ['C', 'theta', 'chi0'],
+  pointwise: true,
   evaluate(p, x, out) {
     for (let i = 0; i < x.length; i++) {
       out[i] = p[2] + p[0] / (x[i] - p[1]);
@@ -70,6 +71,16 @@ export const curieWeissModel: IFitModel = {
       out[i * 3] = d;
       out[i * 3 + 1] = p[0] * d * d;
       out[i * 3 + 2] = 1;
+    }
+  },
+  evaluateWithJacobian(p, x, out, jac) {
+    for (let i = 0; i < x.length; i++) {
+      const dx = x[i] - p[1];
+      const d = 1 / dx;
+      out[i] = p[2] + p[0] / dx; // exactly as evaluate()
+      jac[i * 3] = d;
+      jac[i * 3 + 1] = p[0] * d * d;
+      jac[i * 3 + 2] = 1;
     }
   }
 };

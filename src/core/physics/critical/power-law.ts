@@ -8,6 +8,8 @@
 import { fitCurve } from '../../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
 import { PhysicsInputError } from '../errors';
+import { PowerLawScratch, powerLawKernel } from './power-law-kernel';
+import type { IPowerLawLayout } from './power-law-kernel';
 
 /** Options of a critical power-law fit. */
 export interface IPowerLawOptions {
@@ -50,60 +52,26 @@ export function powerLawModel(options: IPowerLawOptions = {}): IFitModel {
   if (wd !== undefined) {
     params.push('aW');
   }
-  const iBg = bg ? 3 : -1;
-  const iW = wd !== undefined ? params.length - 1 : -1;
+  const layout: IPowerLawLayout = {
+    proxyPower: pw,
+    signed,
+    wegnerDelta: wd,
+    iBg: bg ? 3 : -1,
+    iW: wd !== undefined ? params.length - 1 : -1,
+    k: params.length
+  };
+  const scratch = new PowerLawScratch();
   return {
     parameters: params,
+    pointwise: true,
     evaluate(p, x, out) {
-      const A = p[0];
-      const Tc = p[1];
-      const e = pw * p[2];
-      for (let i = 0; i < x.length; i++) {
-        const u = 1 - x[i] / Tc; // −t
-        let v = 0;
-        if (u > 0 || (signed && u < 0)) {
-          const au = Math.abs(u);
-          v = A * Math.sign(u) * Math.pow(au, e);
-          if (iW >= 0) {
-            v *= 1 + p[iW] * Math.pow(au, wd as number);
-          }
-        }
-        out[i] = v + (iBg >= 0 ? p[iBg] : 0);
-      }
+      powerLawKernel(layout, scratch, p, x, out, null);
     },
     jacobian(p, x, out) {
-      const k = params.length;
-      const A = p[0];
-      const Tc = p[1];
-      const e = pw * p[2];
-      for (let i = 0; i < x.length; i++) {
-        const u = 1 - x[i] / Tc;
-        const row = i * k;
-        for (let j = 0; j < k; j++) {
-          out[row + j] = 0;
-        }
-        if (iBg >= 0) {
-          out[row + iBg] = 1;
-        }
-        if (!(u > 0 || (signed && u < 0))) {
-          continue;
-        }
-        const au = Math.abs(u);
-        const s = Math.sign(u);
-        const pwr = Math.pow(au, e);
-        const corr = iW >= 0 ? 1 + p[iW] * Math.pow(au, wd as number) : 1;
-        const dcorr = iW >= 0 ? p[iW] * (wd as number) * Math.pow(au, (wd as number) - 1) : 0; // d corr/d|u|
-        const base = s * pwr;
-        out[row] = base * corr;
-        // d/d|u| of A s |u|^e corr
-        const dAu = A * s * (e * Math.pow(au, e - 1) * corr + pwr * dcorr);
-        // |u| = s·u, du/dTc = x/Tc²
-        out[row + 1] = dAu * s * (x[i] / (Tc * Tc));
-        out[row + 2] = A * base * corr * Math.log(au) * pw;
-        if (iW >= 0) {
-          out[row + iW] = A * base * Math.pow(au, wd as number);
-        }
-      }
+      powerLawKernel(layout, scratch, p, x, new Float64Array(x.length), out);
+    },
+    evaluateWithJacobian(p, x, out, jac) {
+      powerLawKernel(layout, scratch, p, x, out, jac);
     }
   };
 }

@@ -1,0 +1,122 @@
+/**
+ * Coarse-to-fine start for large problems: with many more points than
+ * needed to locate the minimum roughly, the iteration first runs on an
+ * evenly strided subsample (every s-th point, about `warmStartSample`
+ * points), then continues on all points from that solution. The final
+ * answer and every stopping rule are those of the full data; only the path
+ * to the full-data minimum is cheaper (the subsample's minimum lies within
+ * about √s standard errors of it, one or two Gauss–Newton steps away).
+ *
+ * Only for models that declare `pointwise` (f(xᵢ) depends on xᵢ alone).
+ * If the continuation from the subsample's solution does not converge, the
+ * full-data fit runs again from the original start, and the better of the
+ * two (lower χ²) is kept — the warm start never costs a fit its
+ * convergence.
+ */
+import { FIT_DEFAULTS } from './defaults';
+import { ResidualEvaluator } from './evaluator';
+import { levenbergMarquardtSteps } from './lm';
+import type { ILmHooks, ILmOutcome } from './lm';
+import type { IFitProblem } from './problem';
+import type { IFitResult } from './types';
+
+/** What the subsample stage did (reported with the result). */
+export interface IWarmStartInfo {
+  /** Every `stride`-th point was used. */
+  stride: number;
+  /** Points in the subsample. */
+  points: number;
+  /** Model calls on the subsample. */
+  evaluations: number;
+  /** Whether the subsample fit converged. */
+  converged: boolean;
+  /** Whether the full-data continuation from it was kept (else: the fit from the original start). */
+  used: boolean;
+}
+
+/** Stride for n points, or 0 when no warm start applies. */
+export function warmStartStride(problem: IFitProblem): number {
+  if (problem.model.pointwise !== true || problem.n < FIT_DEFAULTS.warmStartRows) {
+    return 0;
+  }
+  return Math.max(2, Math.floor(problem.n / FIT_DEFAULTS.warmStartSample));
+}
+
+function subsample(problem: IFitProblem, stride: number): IFitProblem {
+  const m = Math.ceil(problem.n / stride);
+  const pick = (a: Float64Array): Float64Array => {
+    const out = new Float64Array(m);
+    for (let i = 0, j = 0; j < m; i += stride, j++) {
+      out[j] = a[i];
+    }
+    return out;
+  };
+  return {
+    ...problem,
+    n: m,
+    x: pick(problem.x),
+    y: pick(problem.y),
+    xLow: null,
+    yLow: null,
+    weights: problem.weights ? pick(problem.weights) : null
+  };
+}
+
+/**
+ * The iteration for `problem` with `ev` (the full-data evaluator), preceded
+ * by a subsample stage when `warmStartStride` allows. Yields after every
+ * trial step of every stage; returns the full-data outcome and what the
+ * warm start did (null when there was none).
+ */
+export function* warmStartedSteps(
+  problem: IFitProblem,
+  ev: ResidualEvaluator,
+  hooks: ILmHooks
+): Generator<void, { outcome: ILmOutcome; warmStart: IWarmStartInfo | null }, void> {
+  const stride = warmStartStride(problem);
+  if (stride === 0) {
+    return { outcome: yield* levenbergMarquardtSteps(problem, ev, hooks), warmStart: null };
+  }
+  const sub = subsample(problem, stride);
+  const subEv = new ResidualEvaluator(sub);
+  // Progress of the subsample stage in full-data units (χ² scaled by n/m).
+  const scale = problem.n / sub.n;
+  const coarse = yield* levenbergMarquardtSteps(sub, subEv, {
+    shouldStop: hooks.shouldStop,
+    onProgress: hooks.onProgress
+      ? (p) => hooks.onProgress!({ iteration: p.iteration, evaluations: 0, cost: p.cost * scale })
+      : undefined
+  });
+  const info: IWarmStartInfo = {
+    stride,
+    points: sub.n,
+    evaluations: subEv.evaluations,
+    converged: coarse.converged,
+    used: false
+  };
+  if (coarse.reason === 'cancelled') {
+    // Nothing on the full data yet: the best point is the subsample's, evaluated on all points.
+    const best = { ...problem, start: ev.fullParameters(coarse.p) };
+    return { outcome: yield* levenbergMarquardtSteps(best, ev, { ...hooks, shouldStop: () => true }), warmStart: info };
+  }
+  if (!Number.isFinite(coarse.cost)) {
+    return { outcome: yield* levenbergMarquardtSteps(problem, ev, hooks), warmStart: info };
+  }
+  const start = ev.fullParameters(coarse.p);
+  const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, hooks);
+  if (fine.converged || fine.reason === 'cancelled') {
+    info.used = true;
+    return { outcome: fine, warmStart: info };
+  }
+  const again = yield* levenbergMarquardtSteps(problem, ev, hooks);
+  info.used = !(again.converged || again.cost < fine.cost);
+  return { outcome: info.used ? fine : again, warmStart: info };
+}
+
+/** The result with what the warm start did (unchanged without one). */
+export function withWarmStart(result: IFitResult, info: IWarmStartInfo | null): IFitResult {
+  if (info === null) {
+    return result;
+  }
+  return { ...result, warmStart: { ...info } };
+}

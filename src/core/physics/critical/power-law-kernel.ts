@@ -1,0 +1,145 @@
+/**
+ * Array kernel of the critical power law
+ *   y = A·s·|u|^(pβ)·[1 + aW·|u|^Δ] + y0,  u = 1 − T/Tc = −t,  s = sign(u),
+ * giving the values and, when asked, the Jacobian row-major (n × k) in one
+ * pass over the data, block by block: one array logarithm and one array exponential per
+ * power (instead of `Math.pow`, about four times slower in V8). Points with
+ * u = 0, and with u < 0 unless the odd continuation is chosen, are 0 (plus
+ * y0) with zero derivatives except ∂/∂y0 = 1.
+ *
+ * u is computed as (Tc − T)/Tc: Tc − T is exact for T within a factor 2
+ * of Tc, so u keeps full relative precision next to Tc, where 1 − T/Tc
+ * would lose digits to cancellation.
+ *
+ * Accuracy: |u|^a = exp(a·log|u|) has a relative error ≤ (2 + 2|a·log|u||)
+ * ulp (≈ 30 ulp at |u| = 1e−6), far below any measurement's.
+ */
+import { expArray, logArray } from '../../numeric/arraymath/index';
+
+/** Layout of the parameter vector: indices of y0 and aW (−1 when absent). */
+export interface IPowerLawLayout {
+  /** Power p of ψ that the data follow. */
+  proxyPower: number;
+  /** Odd continuation above Tc. */
+  signed: boolean;
+  /** Wegner exponent Δ, or undefined without the correction. */
+  wegnerDelta: number | undefined;
+  iBg: number;
+  iW: number;
+  /** Number of parameters (row length of the Jacobian). */
+  k: number;
+}
+
+/** Points per block: the scratch arrays of a block stay in the processor cache. */
+const BLOCK = 2048;
+
+/** Scratch arrays of one block, one set per model. */
+export class PowerLawScratch {
+  readonly logU = new Float64Array(BLOCK);
+  readonly powE = new Float64Array(BLOCK);
+  readonly powD = new Float64Array(BLOCK);
+}
+
+/**
+ * Writes the model values into `out` and, when `jac` is given, the
+ * Jacobian (n × layout.k, row-major) into `jac`.
+ */
+export function powerLawKernel(
+  L: IPowerLawLayout,
+  scratch: PowerLawScratch,
+  p: Float64Array,
+  x: Float64Array,
+  out: Float64Array,
+  jac: Float64Array | null
+): void {
+  const n = x.length;
+  for (let b = 0; b < n; b += BLOCK) {
+    block(L, scratch, p, x, out, jac, b, Math.min(n, b + BLOCK));
+  }
+}
+
+/** Points b … end − 1. */
+function block(
+  L: IPowerLawLayout,
+  scratch: PowerLawScratch,
+  p: Float64Array,
+  x: Float64Array,
+  out: Float64Array,
+  jac: Float64Array | null,
+  b: number,
+  end: number
+): void {
+  const m = end - b;
+  const wd = L.wegnerDelta;
+  const wegner = wd !== undefined;
+  const { logU, powE, powD } = scratch;
+  const A = p[0];
+  const Tc = p[1];
+  const invTc = 1 / Tc;
+  const e = L.proxyPower * p[2];
+  const signed = L.signed;
+  // log|u| for the active points (1 → log 0 for the others, masked below)
+  for (let i = 0; i < m; i++) {
+    const u = (Tc - x[b + i]) * invTc;
+    logU[i] = u > 0 || (signed && u < 0) ? Math.abs(u) : 1;
+  }
+  logArray(logU, logU, m);
+  for (let i = 0; i < m; i++) {
+    powE[i] = e * logU[i];
+  }
+  expArray(powE, powE, m);
+  if (wegner) {
+    for (let i = 0; i < m; i++) {
+      powD[i] = wd * logU[i];
+    }
+    expArray(powD, powD, m);
+  }
+  const y0 = L.iBg >= 0 ? p[L.iBg] : 0;
+  const aW = L.iW >= 0 ? p[L.iW] : 0;
+  if (jac === null) {
+    for (let i = 0; i < m; i++) {
+      const u = (Tc - x[b + i]) * invTc;
+      const active = u > 0 || (signed && u < 0);
+      const pe = powE[i];
+      // the same operations, in the same order, as the Jacobian branch
+      const base = (u > 0 ? pe : -pe) * (1 + aW * (wegner ? powD[i] : 0));
+      out[b + i] = active ? A * base + y0 : y0;
+    }
+    return;
+  }
+  const k = L.k;
+  const pw = L.proxyPower;
+  const c1 = A * invTc * invTc;
+  for (let i = 0; i < m; i++) {
+    const xi = x[b + i];
+    const u = (Tc - xi) * invTc;
+    const row = (b + i) * k;
+    if (!(u > 0 || (signed && u < 0))) {
+      for (let j = 0; j < k; j++) {
+        jac[row + j] = 0;
+      }
+      if (L.iBg >= 0) {
+        jac[row + L.iBg] = 1;
+      }
+      out[b + i] = y0;
+      continue;
+    }
+    const au = u > 0 ? u : -u;
+    const pe = powE[i];
+    const sp = u > 0 ? pe : -pe; // s·|u|^e
+    const pd = wegner ? powD[i] : 0;
+    const corr = 1 + aW * pd;
+    const base = sp * corr;
+    out[b + i] = A * base + y0;
+    jac[row] = base;
+    // ∂/∂Tc: d|u|/dTc = s·T/Tc², d/d|u| of A s |u|^e corr = A s (e|u|^(e−1) corr + |u|^e aW Δ |u|^(Δ−1))
+    jac[row + 1] = (c1 * xi * pe * (e * corr + (wegner ? aW * (wd as number) * pd : 0))) / au;
+    jac[row + 2] = A * base * logU[i] * pw;
+    if (L.iBg >= 0) {
+      jac[row + L.iBg] = 1;
+    }
+    if (L.iW >= 0) {
+      jac[row + L.iW] = A * sp * pd;
+    }
+  }
+}
