@@ -176,7 +176,9 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   const p = ddArray(full, null);
   const x = ddArray(problem.x, problem.xLow);
   const y = ddArray(problem.y, problem.yLow);
-  const out: IDoubleDoubleArray = { hi: new Float64Array(n), lo: new Float64Array(n) };
+  // Model values at the current parameters, and at the trial ones.
+  let out: IDoubleDoubleArray = { hi: new Float64Array(n), lo: new Float64Array(n) };
+  let outTrial: IDoubleDoubleArray = { hi: new Float64Array(n), lo: new Float64Array(n) };
   let current = preciseResiduals(problem, p, x, y, out);
   if (typeof current === 'string') {
     return skip(current);
@@ -214,7 +216,7 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
     if (!inside) {
       break;
     }
-    const next = preciseResiduals(problem, trial, x, y, out);
+    const next = preciseResiduals(problem, trial, x, y, outTrial);
     if (typeof next === 'string') {
       return skip(next);
     }
@@ -225,17 +227,15 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
     }
     p.hi.set(trial.hi);
     p.lo.set(trial.lo);
+    [out, outTrial] = [outTrial, out];
     current = next;
     steps++;
     if (!(predicted > PREDICTED_CHANGE_FRACTION * chi2Now)) {
       break;
     }
   }
-  // Values at the refined parameters, and the rounded results.
-  const final = preciseResiduals(problem, p, x, y, out);
-  if (typeof final === 'string') {
-    return skip(final);
-  }
+  // Rounded results at the refined parameters.
+  const final = current;
   const pRounded = Float64Array.from(free, (j) => p.hi[j] + p.lo[j]);
   const f = new Float64Array(n);
   const r = new Float64Array(n);

@@ -4,6 +4,7 @@
  * tests check them against the published digit sequences).
  */
 import type { IDoubleDouble } from './core';
+import { div } from './core';
 
 /** π. */
 export const DD_PI: IDoubleDouble = Object.freeze({ hi: 3.141592653589793, lo: 1.2246467991473532e-16 });
@@ -17,3 +18,17 @@ export const DD_E: IDoubleDouble = Object.freeze({ hi: 2.718281828459045, lo: 1.
 export const DD_ONE: IDoubleDouble = Object.freeze({ hi: 1, lo: 0 });
 /** 0. */
 export const DD_ZERO: IDoubleDouble = Object.freeze({ hi: 0, lo: 0 });
+
+/** 1/n! for n = 0 … 39, each to double-double precision (computed once by division). */
+const INVERSE_FACTORIALS: readonly IDoubleDouble[] = (() => {
+  const out: IDoubleDouble[] = [DD_ONE];
+  for (let n = 1; n < 40; n++) {
+    out.push(div(out[n - 1], { hi: n, lo: 0 }));
+  }
+  return out;
+})();
+
+/** 1/n! to double-double precision, for integers 0 ≤ n < 40 (series coefficients). */
+export function inverseFactorial(n: number): IDoubleDouble {
+  return INVERSE_FACTORIALS[n];
+}

@@ -8,7 +8,7 @@
  * the factor 2^k. log: one Newton step x ← x + a·e⁻ˣ − 1 from the binary64
  * logarithm (quadratic convergence: ≈ 1e-16 → ≈ 1e-32).
  */
-import { DD_LN2, DD_ONE } from './constants';
+import { DD_LN2, DD_ONE, inverseFactorial } from './constants';
 import type { IDoubleDouble } from './core';
 import { abs, add, div, mul, mulNumber, neg, scale2, sqr, sub } from './core';
 
@@ -21,10 +21,11 @@ const TAYLOR_TOLERANCE = 1e-36;
 
 /** expm1(t) by its Taylor series, for |t| ≲ 1e-3. */
 function expm1Taylor(t: IDoubleDouble): IDoubleDouble {
-  let term = t;
+  let power = t;
   let sum = t;
   for (let n = 2; n < 30; n++) {
-    term = div(mul(term, t), { hi: n, lo: 0 });
+    power = mul(power, t);
+    const term = mul(power, inverseFactorial(n));
     sum = add(sum, term);
     if (Math.abs(term.hi) <= TAYLOR_TOLERANCE * Math.abs(sum.hi)) {
       break;

@@ -8,7 +8,7 @@
  * z ← z + (ŷ − sin z)/cos z or z − (x̂ − cos z)/sin z with (x̂, ŷ) the unit
  * vector, which doubles the number of correct digits.
  */
-import { DD_HALF_PI, DD_ONE } from './constants';
+import { DD_HALF_PI, DD_ONE, inverseFactorial } from './constants';
 import type { IDoubleDouble } from './core';
 import { add, div, mul, mulNumber, neg, scale2, sqr, sqrt, sub } from './core';
 
@@ -24,20 +24,22 @@ interface ISinCos {
 /** sin t and cos t by Taylor series for |t| ≤ 0.1. */
 function sinCosTaylor(t: IDoubleDouble): ISinCos {
   const t2 = sqr(t);
-  let term = t;
+  // sin: Σ (−1)^m t^(2m+1)/(2m+1)!, cos: Σ (−1)^m t^(2m)/(2m)! (no cancellation for |t| ≤ 0.1).
+  let power: IDoubleDouble = t;
   let s = t;
   for (let n = 3; n < 40; n += 2) {
-    term = neg(div(mul(term, t2), { hi: (n - 1) * n, lo: 0 }));
+    power = neg(mul(power, t2));
+    const term = mul(power, inverseFactorial(n));
     s = add(s, term);
     if (Math.abs(term.hi) <= TAYLOR_TOLERANCE * Math.abs(s.hi)) {
       break;
     }
   }
-  // cos t = 1 − 2 sin²(t/2) would cancel; use the series of cos directly.
-  term = DD_ONE;
+  power = DD_ONE;
   let c: IDoubleDouble = DD_ONE;
   for (let n = 2; n < 40; n += 2) {
-    term = neg(div(mul(term, t2), { hi: (n - 1) * n, lo: 0 }));
+    power = neg(mul(power, t2));
+    const term = mul(power, inverseFactorial(n));
     c = add(c, term);
     if (Math.abs(term.hi) <= TAYLOR_TOLERANCE) {
       break;
