@@ -23,6 +23,12 @@ import type { IFitProblem } from './problem';
 
 /** Refinement runs when the rounding noise of χ² exceeds this fraction of χ². */
 export const REFINE_NOISE_FRACTION = 1e-9;
+/**
+ * The double-double χ² at the binary64 solution may exceed this multiple of
+ * χ² + noise only when `evaluatePrecise` and `evaluate` compute different
+ * functions (then no refinement).
+ */
+const CONSISTENCY_FACTOR = 4;
 /** Gauss–Newton steps at most. */
 const MAX_STEPS = 8;
 /** Stop when the step predicts a χ² change below this fraction of χ². */
@@ -182,6 +188,14 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   let current = preciseResiduals(problem, p, x, y, out);
   if (typeof current === 'string') {
     return skip(current);
+  }
+  // A correct precise model differs from the binary64 one by rounding only:
+  // its χ² at the same point is within a few times χ² + noise.
+  const chi2Start = current.chi2.hi + current.chi2.lo;
+  if (!(chi2Start <= CONSISTENCY_FACTOR * (o.cost + noise))) {
+    return skip(
+      `evaluatePrecise disagrees with evaluate (χ² ${chi2Start.toExponential(3)} in double-double against ${o.cost.toExponential(3)} in binary64 at the same parameters)`
+    );
   }
   let steps = 0;
   const rhs = new Float64Array(n);

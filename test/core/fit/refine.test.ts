@@ -16,7 +16,7 @@ import type { IFraction } from '../numeric/dd/exact';
 import { mulberry32 } from '../../../src/core/numeric/random';
 
 /** f = a·exp(−b·x) + c, with analytic Jacobian and a double-double evaluator. */
-function decayModel(precise: 'dd' | 'none' | 'throws' | 'nan' = 'dd'): IFitModel {
+function decayModel(precise: 'dd' | 'none' | 'throws' | 'nan' | 'wrong' = 'dd'): IFitModel {
   const model: IFitModel = {
     parameters: ['a', 'b', 'c'],
     evaluate(p, x, out) {
@@ -48,6 +48,15 @@ function decayModel(precise: 'dd' | 'none' | 'throws' | 'nan' = 'dd'): IFitModel
   } else if (precise === 'throws') {
     model.evaluatePrecise = () => {
       throw new Error('no precise model today');
+    };
+  } else if (precise === 'wrong') {
+    // A different function: a·exp(−b·x) + c + 1e-10.
+    model.evaluatePrecise = (p, x, out) => {
+      for (let i = 0; i < x.hi.length; i++) {
+        const v = DD.add(DD.dd(p.hi[0] * Math.exp(-p.hi[1] * x.hi[i]) + p.hi[2]), DD.dd(1e-10));
+        out.hi[i] = v.hi;
+        out.lo[i] = v.lo;
+      }
     };
   } else if (precise === 'nan') {
     model.evaluatePrecise = (_p, _x, out) => {
@@ -204,18 +213,19 @@ describe('double-double refinement', () => {
     expect(a.chi2 * REFINE_NOISE_FRACTION).toBeGreaterThan(1e-20);
   });
 
-  it('skips refinement with a warning when the precise evaluation throws or returns NaN', () => {
+  it('skips refinement with a warning when the precise evaluation throws, returns NaN or computes another function', () => {
     const s = synthetic(false);
     const data = { x: s.x, y: s.y, xLow: s.xLow, yLow: s.yLow };
     const plain = fitCurve(decayModel('none'), data, { start: START });
-    for (const kind of ['throws', 'nan'] as const) {
+    for (const kind of ['throws', 'nan', 'wrong'] as const) {
       const r: IFitResult = fitCurve(decayModel(kind), data, { start: START });
       expect(r.converged).toBe(true);
       expect(r.residualArithmetic).toBe('binary64');
       expect(r.values).toEqual(plain.values);
       expect(r.chi2).toBe(plain.chi2);
       const warning = r.warnings.find((w) => /double-double refinement was skipped/.test(w));
-      expect(warning, kind).toMatch(kind === 'throws' ? /threw: no precise model today/ : /NaN or ∞/);
+      const why = { throws: /threw: no precise model today/, nan: /NaN or ∞/, wrong: /evaluatePrecise disagrees with evaluate/ };
+      expect(warning, kind).toMatch(why[kind]);
     }
   });
 
