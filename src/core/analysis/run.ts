@@ -242,6 +242,17 @@ function runExpression(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysis
  * converge returns normally with `fit.converged = false` and its reason.
  */
 export function runAnalysisJob(job: IAnalysisJob, hooks: IAnalysisHooks = {}, starts: Record<string, number> = {}): IAnalysisOutcome {
+  const outcome = runModel(job, hooks, starts);
+  const warm = outcome.fit.warmStart;
+  if (warm?.used) {
+    outcome.cautions.push(
+      `Large table: the iteration started from a fit to one point in ${warm.stride} (${warm.points} points); the values are those of the fit to all ${outcome.used} points.`
+    );
+  }
+  return outcome;
+}
+
+function runModel(job: IAnalysisJob, hooks: IAnalysisHooks, starts: Record<string, number>): IAnalysisOutcome {
   const pts = windowedPoints(job);
   switch (job.model) {
     case 'power-law':
