@@ -66,7 +66,7 @@ describe('runAnalysisJob', () => {
     expect(out.fit.warmStart?.used).toBe(true);
     expect(out.used).toBe(60000);
     expect(out.fit.residuals).toHaveLength(60000);
-    expect(out.cautions.join(' ')).toMatch(/every 3th point \(20000 points\).*all 60000 points/);
+    expect(out.cautions.join(' ')).toMatch(/one point in 3 \(20000 points\).*all 60000 points/);
     const beta = out.derived.find(d => d.name === 'β')!;
     expect(Math.abs(beta.value - 0.36)).toBeLessThan(4 * beta.sigma);
   });
