@@ -11,6 +11,11 @@
  * Jacobian at the solution (column-scaled SVD), until the predicted χ²
  * change is negligible. Then χ² = Σr² in double-double. Ordinary fits pay
  * nothing but one O(n) pass when the model has `evaluatePrecise`.
+ *
+ * Skipped, with a warning, when a free parameter is at a bound, above
+ * `FIT_DEFAULTS.largeRows` points, when the Jacobian is not finite or
+ * rank-deficient, or when the precise model throws, returns NaN/∞ or gives
+ * a χ² inconsistent with the binary64 one at the same parameters.
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/core';
@@ -166,6 +171,9 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   }
   const skip = (why: string): IRefinement =>
     unchanged(o, `χ² is within binary64 rounding noise (noise ${(noise / Math.max(o.cost, Number.MIN_VALUE)).toExponential(1)}·χ²) but double-double refinement was skipped: ${why}`);
+  if (n > FIT_DEFAULTS.largeRows) {
+    return skip(`more than ${FIT_DEFAULTS.largeRows} points`);
+  }
   const full = ev.fullParameters(o.p);
   for (const j of free) {
     const tol = 1e-12 * Math.max(1, Math.abs(full[j]));

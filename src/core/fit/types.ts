@@ -133,11 +133,12 @@ export interface IFitResult {
   /**
    * Arithmetic of χ², the residuals and hence the scaled standard errors:
    * 'binary64' normally; 'double-double' when the fit converged with a χ²
-   * dominated by binary64 rounding noise (noise > 1e-9·χ²) and the model
-   * has `evaluatePrecise`: the parameters were then polished by Gauss–Newton
-   * steps with double-double residuals of the exact data (x + xLow,
-   * y + yLow), and χ² = Σr² was summed in double-double (values are the
-   * refined parameters rounded to binary64). `reason` says so too.
+   * dominated by binary64 rounding noise (noise > 1e-9·χ²), the model has
+   * `evaluatePrecise` and n ≤ `FIT_DEFAULTS.largeRows`: the parameters were
+   * then polished by Gauss–Newton steps with double-double residuals of the
+   * exact data (x + xLow, y + yLow), and χ² = Σr² was summed in
+   * double-double (values are the refined parameters rounded to binary64).
+   * `reason` says so too.
    */
   residualArithmetic: 'binary64' | 'double-double';
   /** Unweighted residuals yᵢ − f(xᵢ) (observed minus model). */

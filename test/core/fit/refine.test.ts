@@ -8,7 +8,7 @@
  * validation of the low parts.
  */
 import { describe, expect, it } from 'vitest';
-import { FitInputError, REFINE_NOISE_FRACTION, fitCurve } from '../../../src/core/fit/index';
+import { FIT_DEFAULTS, FitInputError, REFINE_NOISE_FRACTION, fitCurve } from '../../../src/core/fit/index';
 import type { IFitModel, IFitResult } from '../../../src/core/fit/index';
 import * as DD from '../../../src/core/numeric/dd/index';
 import { fromDouble, plus, times, toNumber } from '../numeric/dd/exact';
@@ -227,6 +227,16 @@ describe('double-double refinement', () => {
       const why = { throws: /threw: no precise model today/, nan: /NaN or ∞/, wrong: /evaluatePrecise disagrees with evaluate/ };
       expect(warning, kind).toMatch(why[kind]);
     }
+  });
+
+  it('does not refine above FIT_DEFAULTS.largeRows points (warning instead)', () => {
+    const n = FIT_DEFAULTS.largeRows + 1;
+    const x = Array.from({ length: n }, (_, i) => i / n);
+    const y = x.map((v) => TRUE_P[0] * Math.exp(-TRUE_P[1] * v) + TRUE_P[2]);
+    const r = fitCurve(decayModel('dd'), { x, y }, { start: START });
+    expect(r.converged).toBe(true);
+    expect(r.residualArithmetic).toBe('binary64');
+    expect(r.warnings.some((w) => /refinement was skipped: more than 20000 points/.test(w))).toBe(true);
   });
 
   it('does not refine a fit that did not converge', () => {
