@@ -1,18 +1,21 @@
 /**
  * Sine, cosine, tangent and arctangent in double-double arithmetic.
  *
- * sin/cos: reduction x = k·π/2 + r with the double-double π/2 (absolute
- * reduction error ≈ |k|·1e-33, so the relative accuracy ≈ 1e-31 holds for
- * |x| up to about 1e3 away from the zeros), Taylor series at r/8, and three
+ * sin/cos: reduction x = k·π/2 + r with π/2 as a sum of three binary64
+ * numbers (Cody–Waite; absolute reduction error ≈ 1e-32 + |k|·1e-49, so the
+ * absolute accuracy stays ≈ 1e-31 up to |x| ≈ 1e9 and the relative one
+ * away from the zeros of sin and cos), Taylor series at r/8, and three
  * double-angle steps. atan2: one Newton step on the binary64 angle z,
  * z ← z + (ŷ − sin z)/cos z or z − (x̂ − cos z)/sin z with (x̂, ŷ) the unit
  * vector, which doubles the number of correct digits.
  */
 import { DD_HALF_PI, DD_ONE, inverseFactorial } from './constants';
 import type { IDoubleDouble } from './core';
-import { add, div, mul, mulNumber, neg, scale2, sqr, sqrt, sub } from './core';
+import { add, div, mul, neg, scale2, sqr, sqrt, sub, twoProd } from './core';
 
 const TAYLOR_TOLERANCE = 1e-36;
+/** π/2 − DD_HALF_PI.hi − DD_HALF_PI.lo, rounded (from 80-digit arithmetic). */
+const HALF_PI_TAIL = -1.4973849048591698e-33;
 /** Beyond this |x| the reduction by a double-double π/2 loses accuracy: NaN is returned. */
 const TRIG_LIMIT = 1e9;
 
@@ -69,8 +72,11 @@ export function sinCos(a: IDoubleDouble): ISinCos {
     return { sin: a, cos: DD_ONE };
   }
   const k = Math.round(a.hi / DD_HALF_PI.hi);
-  // k·(π/2) with π/2 = hi + lo: both products are error-free TwoProducts inside mulNumber.
-  const r = sub(a, mulNumber(DD_HALF_PI, k));
+  // r = a − k·(P1 + P2 + P3), each k·Pᵢ an exact TwoProduct (k is an integer
+  // below 2^30), subtracted in double-double.
+  let r = sub(a, twoProd(k, DD_HALF_PI.hi));
+  r = sub(r, twoProd(k, DD_HALF_PI.lo));
+  r = sub(r, twoProd(k, HALF_PI_TAIL));
   const { sin: s, cos: c } = sinCosReduced(r);
   switch (((k % 4) + 4) % 4) {
     case 0:

@@ -80,6 +80,23 @@ describe('identities and round trips', () => {
   });
 });
 
+describe('large arguments', () => {
+  // Reference values computed for this test with mpmath 1.3.0 at 40 digits
+  // (not published values); the arguments are exact binary64 numbers.
+  const cases: [number, string, string][] = [
+    [1000000.5, '0.141954699000744003525849424004470615', '0.989873155223237766437372755445141116'],
+    [1e9, '0.545843449448699564244387270897514529', '0.837887181363902334389775643551572356'],
+    [-12345.6875, '0.697303509887800768070842993043969639', '0.716775986691904834543166138432384576']
+  ];
+  it('sin and cos stay accurate to ~1e-31 absolute up to |x| = 1e9 (three-part π/2)', () => {
+    for (const [x, sinRef, cosRef] of cases) {
+      const { sin, cos } = DD.sinCos(DD.dd(x));
+      expect(absoluteError(sin, fromDecimal(sinRef)), `sin ${x}`).toBeLessThan(2e-31);
+      expect(absoluteError(cos, fromDecimal(cosRef)), `cos ${x}`).toBeLessThan(2e-31);
+    }
+  });
+});
+
 describe('edge inputs', () => {
   it('NaN, ±∞, 0 and huge arguments', () => {
     expect(DD.sin(DD.dd(Number.NaN)).hi).toBeNaN();
