@@ -110,7 +110,7 @@ suite('NIST StRD nonlinear regression', () => {
     expect(lre(exact.chi2, p.certifiedRss)).toBeGreaterThanOrEqual(10);
   });
 
-  it('parses every printed model and identifies b1…bk as its parameters', () => {
+  it('parses every printed model, identifies b1…bk as its parameters and evaluates it in double-double', () => {
     for (const p of problems) {
       const vars = p.columns.filter((c) => c !== 'y');
       const m = parseExpressionModel(p.modelText, {
@@ -120,6 +120,8 @@ suite('NIST StRD nonlinear regression', () => {
       });
       expect([...m.parameters].sort(), p.name).toEqual([...p.parameters].sort());
       expect(m.derivatives, p.name).not.toBeNull();
+      // Every printed model (exp, powers, sin, cos, atan, pi) has a double-double evaluator.
+      expect(m.evaluatePrecise, p.name).toBeTypeOf('function');
     }
   });
 
