@@ -60,6 +60,27 @@ describe('precise expression evaluator', () => {
     });
   });
 
+  it('equals the direct double-double composition (Roszman1 and ENSO forms: atan, pi, cos, sin)', () => {
+    const ros = parseExpressionModel('b1 - b2*x - atan(b3/(x-b4))/pi', { parameters: ['b1', 'b2', 'b3', 'b4'] });
+    const p = [DD.dd(0.2), DD.dd(-1.9e-5), DD.dd(1.1e3), DD.dd(-1.8e2)];
+    const got = evalPrecise(ros, p, XS);
+    XS.forEach((x, i) => {
+      const direct = DD.sub(DD.sub(p[0], DD.mul(p[1], x)), DD.div(DD.atan(DD.div(p[2], DD.sub(x, p[3]))), DD.DD_PI));
+      expect(got[i]).toEqual(direct);
+    });
+    const enso = parseExpressionModel('b1 + b2*cos(2*pi*x/12) + b3*sin(2*pi*x/b4)', { parameters: ['b1', 'b2', 'b3', 'b4'] });
+    const q = [DD.dd(10.5), DD.dd(3.07), DD.dd(0.53), DD.dd(26.9)];
+    const got2 = evalPrecise(enso, q, XS);
+    XS.forEach((x, i) => {
+      const arg = DD.mul(DD.mul(DD.dd(2), DD.DD_PI), x);
+      const direct = DD.add(
+        DD.add(q[0], DD.mul(q[1], DD.cos(DD.div(arg, DD.dd(12))))),
+        DD.mul(q[2], DD.sin(DD.div(arg, q[3])))
+      );
+      expect(got2[i]).toEqual(direct);
+    });
+  });
+
   it('literals are their decimals, pi and e the double-double constants', () => {
     const tenth = parseExpressionModel('a*0.1', { variables: ['x'] });
     expect(evalPrecise(tenth, [DD.DD_ONE], [DD.DD_ONE])[0]).toEqual(DD.decimalToDoubleDouble('0.1'));
