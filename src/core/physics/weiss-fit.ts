@@ -156,6 +156,8 @@ export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBoh
   const params = fitJ ? ['Ms', 'Tc', 'J'] : ['Ms', 'Tc'];
   return {
     parameters: params,
+    // each point is solved on its own; the cache is keyed by the x array
+    pointwise: true,
     evaluate(p, x, out) {
       const s = reduced(p, x);
       for (let i = 0; i < x.length; i++) {
