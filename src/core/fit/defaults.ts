@@ -22,6 +22,8 @@
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
  * | `warmStartRows` | 50000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`) |
  * | `warmStartSample` | 16384 | target size of that subsample (stride ⌊n / 16384⌋) |
+ * | `refineNoiseFraction` | 1e-9 | a converged fit whose χ² rounding noise exceeds this fraction of χ² is polished with double-double residuals when the model has `evaluatePrecise` (`refine.ts`) |
+ * | `refineMaxSteps` | 8 | Gauss–Newton steps of that refinement at most |
  * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
  * | `geodesicAlpha` | 0.75 | when ‖a‖ > α‖v‖ (scaled norms) the path curves too much: the step is not tried and the radius is halved |
  *
@@ -67,6 +69,8 @@ export const FIT_DEFAULTS = Object.freeze({
   maxRestarts: 3,
   warmStartRows: 50000,
   warmStartSample: 16384,
+  refineNoiseFraction: 1e-9,
+  refineMaxSteps: 8,
   geodesicAcceleration: true,
   geodesicAlpha: 0.75
 });

@@ -15,7 +15,6 @@ export type {
 } from './types';
 export { FitInputError } from './types';
 export type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/core';
-export { REFINE_NOISE_FRACTION } from './refine';
 export { fitCurve } from './fitCurve';
 export { FIT_DEFAULTS } from './defaults';
 export { studentTQuantileTwoSided, normalQuantileTwoSided } from './studentT';

@@ -5,7 +5,7 @@
  *
  * Only when the fit converged, the model has `evaluatePrecise`, and the
  * rounding noise of χ² (2‖r‖‖e‖ + ‖e‖², eᵢ = 4ε·wᵢ(|fᵢ| + |yᵢ|)) exceeds
- * `REFINE_NOISE_FRACTION`·χ²: Gauss–Newton steps with residuals computed in
+ * `FIT_DEFAULTS.refineNoiseFraction`·χ²: Gauss–Newton steps with residuals computed in
  * double-double from the exact data (x + xLow, y + yLow) at double-double
  * parameters, the step solving J·δ = r in least squares with the binary64
  * Jacobian at the solution (column-scaled SVD), until the predicted χ²
@@ -26,16 +26,12 @@ import { costNoise } from './kernels';
 import type { ILmOutcome } from './lm';
 import type { IFitProblem } from './problem';
 
-/** Refinement runs when the rounding noise of χ² exceeds this fraction of χ². */
-export const REFINE_NOISE_FRACTION = 1e-9;
 /**
  * The double-double χ² at the binary64 solution may exceed this multiple of
  * χ² + noise only when `evaluatePrecise` and `evaluate` compute different
  * functions (then no refinement).
  */
 const CONSISTENCY_FACTOR = 4;
-/** Gauss–Newton steps at most. */
-const MAX_STEPS = 8;
 /** Stop when the step predicts a χ² change below this fraction of χ². */
 const PREDICTED_CHANGE_FRACTION = 1e-20;
 
@@ -166,7 +162,7 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
     return unchanged(o);
   }
   const noise = roundingNoise(problem, o);
-  if (!(noise > REFINE_NOISE_FRACTION * o.cost)) {
+  if (!(noise > FIT_DEFAULTS.refineNoiseFraction * o.cost)) {
     return unchanged(o);
   }
   const skip = (why: string): IRefinement =>
@@ -208,7 +204,7 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   let steps = 0;
   const rhs = new Float64Array(n);
   const trial: IDoubleDoubleArray = { hi: new Float64Array(kAll), lo: new Float64Array(kAll) };
-  while (steps < MAX_STEPS) {
+  while (steps < FIT_DEFAULTS.refineMaxSteps) {
     for (let i = 0; i < n; i++) {
       rhs[i] = current.r[i].hi + current.r[i].lo;
     }

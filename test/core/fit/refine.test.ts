@@ -8,7 +8,7 @@
  * validation of the low parts.
  */
 import { describe, expect, it } from 'vitest';
-import { FIT_DEFAULTS, FitInputError, REFINE_NOISE_FRACTION, fitCurve } from '../../../src/core/fit/index';
+import { FIT_DEFAULTS, FitInputError, fitCurve } from '../../../src/core/fit/index';
 import type { IFitModel, IFitResult } from '../../../src/core/fit/index';
 import * as DD from '../../../src/core/numeric/dd/index';
 import { fromDouble, plus, times, toNumber } from '../numeric/dd/exact';
@@ -210,7 +210,7 @@ describe('double-double refinement', () => {
     expect(a.residualArithmetic).toBe('binary64');
     expect(a).toEqual(b);
     // χ² is far above the rounding noise that triggers refinement.
-    expect(a.chi2 * REFINE_NOISE_FRACTION).toBeGreaterThan(1e-20);
+    expect(a.chi2 * FIT_DEFAULTS.refineNoiseFraction).toBeGreaterThan(1e-20);
   });
 
   it('skips refinement with a warning when the precise evaluation throws, returns NaN or computes another function', () => {
