@@ -87,10 +87,67 @@ export function numberLiteral(v: number): string {
   return v < 0 ? `(${s})` : s;
 }
 
-/** JS source for `node`. Throws `ExpressionError` for anything outside the whitelist. */
-export function toJavaScript(node: MathNode, resolve: SymbolResolver): string {
+/**
+ * Common subexpressions of expressions evaluated at the same point: every
+ * operator or function application becomes a `const tN = …;` line, and an
+ * application already seen (same source after its arguments were named)
+ * reuses its name. The arithmetic is unchanged, only done once.
+ */
+export class SharedTerms {
+  /** Declarations, in dependency order. */
+  readonly lines: string[] = [];
+  private readonly _names = new Map<string, string>();
+
+  /** Name of the temporary holding `js` (declared on first use). */
+  intern(js: string): string {
+    let name = this._names.get(js);
+    if (name === undefined) {
+      name = `t${this._names.size}`;
+      this._names.set(js, name);
+      this.lines.push(`const ${name} = ${js};`);
+    }
+    return name;
+  }
+}
+
+/** Small integer exponents written as products (only where the base is a name or a number). */
+function integerPower(base: string, exponent: MathNode): string | null {
+  while (isParenthesisNode(exponent)) {
+    exponent = exponent.content;
+  }
+  let e: unknown = null;
+  if (isConstantNode(exponent)) {
+    e = exponent.value;
+  } else if (isOperatorNode(exponent) && exponent.fn === 'unaryMinus' && isConstantNode(exponent.args[0])) {
+    const v: unknown = exponent.args[0].value;
+    e = typeof v === 'number' ? -v : null;
+  }
+  if (!/^(?:[a-z]\w*|\(?-?[\d.e+-]+\)?)$/i.test(base)) {
+    return null;
+  }
+  switch (e) {
+    case 2:
+      return `(${base} * ${base})`;
+    case 3:
+      return `(${base} * ${base} * ${base})`;
+    case -1:
+      return `(1 / ${base})`;
+    case -2:
+      return `(1 / (${base} * ${base}))`;
+    default:
+      return null;
+  }
+}
+
+/**
+ * JS source for `node`. Throws `ExpressionError` for anything outside the
+ * whitelist. With `shared`, every application is named there (see
+ * `SharedTerms`) and the result is a name or a literal.
+ */
+export function toJavaScript(node: MathNode, resolve: SymbolResolver, shared?: SharedTerms): string {
+  const named = (js: string): string => (shared ? shared.intern(js) : js);
   if (isParenthesisNode(node)) {
-    return toJavaScript(node.content, resolve);
+    return toJavaScript(node.content, resolve, shared);
   }
   if (isConstantNode(node)) {
     const v: unknown = node.value;
@@ -107,20 +164,20 @@ export function toJavaScript(node: MathNode, resolve: SymbolResolver): string {
     return js;
   }
   if (isOperatorNode(node)) {
-    const args = node.args.map((a) => toJavaScript(a, resolve));
+    const args = node.args.map((a) => toJavaScript(a, resolve, shared));
     const fn: string = node.fn;
     if (fn === 'unaryMinus' && args.length === 1) {
-      return `(-(${args[0]}))`;
+      return named(`(-(${args[0]}))`);
     }
     if (fn === 'unaryPlus' && args.length === 1) {
       return `(${args[0]})`;
     }
     if (fn === 'pow' && args.length === 2) {
-      return `Math.pow(${args[0]}, ${args[1]})`;
+      return named((shared ? integerPower(args[0], node.args[1]) : null) ?? `Math.pow(${args[0]}, ${args[1]})`);
     }
     const op = BINARY[fn];
     if (op && args.length >= 2) {
-      return `(${args.map((a) => `(${a})`).join(` ${op} `)})`;
+      return named(`(${args.map((a) => `(${a})`).join(` ${op} `)})`);
     }
     throw new ExpressionError(`unsupported operator "${node.op}"`);
   }
@@ -136,7 +193,7 @@ export function toJavaScript(node: MathNode, resolve: SymbolResolver): string {
     if (!spec.arity.includes(node.args.length)) {
       throw new ExpressionError(`${name}() takes ${spec.arity.join(' or ')} argument(s), got ${node.args.length}`);
     }
-    return spec.emit(node.args.map((a) => toJavaScript(a, resolve)));
+    return named(spec.emit(node.args.map((a) => toJavaScript(a, resolve, shared))));
   }
   throw new ExpressionError(`unsupported construct (${node.type}) in expression`);
 }

@@ -13,7 +13,7 @@
 import { compile, derivative, parse } from 'mathjs';
 import type { MathNode } from 'mathjs';
 import type { IFitModel } from '../fit/types';
-import { collectSymbols, numberLiteral, toJavaScript } from './compile';
+import { SharedTerms, collectSymbols, numberLiteral, toJavaScript } from './compile';
 import { generate, interpret, interpretMany } from './kernelFactory';
 import type { Kernel } from './kernelFactory';
 import { ExpressionError, normalizeExpressionText, splitEquation } from './normalize';
@@ -134,16 +134,16 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     }
     return null;
   };
-  const valueJs = toJavaScript(node, resolve);
+  // Checks the whitelist (throws ExpressionError) whichever evaluation is used.
+  toJavaScript(node, resolve);
   let derivativeNodes: MathNode[] | null = null;
-  let derivativeJs: string[] | null = null;
   if (options.symbolicJacobian !== false) {
     try {
-      derivativeNodes = parameters.map((p) => derivative(node, p));
-      derivativeJs = derivativeNodes.map((d) => toJavaScript(d, resolve));
+      const nodes = parameters.map((p) => derivative(node, p));
+      nodes.forEach((d) => toJavaScript(d, resolve));
+      derivativeNodes = nodes;
     } catch {
       derivativeNodes = null;
-      derivativeJs = null;
     }
   }
   const colArrays = variables.map((v) => (columns ? columns[v] : null));
@@ -151,10 +151,17 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
   let jacobian: Kernel | undefined;
   let evaluation: IExpressionModel['evaluation'];
   if (options.evaluation !== 'mathjs' && canGenerate()) {
-    evaluate = generate(parameters.length, variables.length, Boolean(columns), [valueJs], colArrays);
-    jacobian = derivativeJs
-      ? generate(parameters.length, variables.length, Boolean(columns), derivativeJs, colArrays)
-      : undefined;
+    // Each kernel names every sub-term once per point (common subexpressions
+    // of the derivatives are computed once; small integer powers are products).
+    const k = parameters.length;
+    const nv = variables.length;
+    const valueTerms = new SharedTerms();
+    evaluate = generate(k, nv, Boolean(columns), [toJavaScript(node, resolve, valueTerms)], colArrays, valueTerms.lines);
+    if (derivativeNodes) {
+      const jacTerms = new SharedTerms();
+      const dJs = derivativeNodes.map((d) => toJavaScript(d, resolve, jacTerms));
+      jacobian = generate(k, nv, Boolean(columns), dJs, colArrays, jacTerms.lines);
+    }
     evaluation = 'generated-function';
   } else {
     evaluate = interpret(node, parameters, variables, constants, colArrays);

@@ -11,16 +11,34 @@ export type Kernel = (p: Float64Array, x: Float64Array, out: Float64Array) => vo
 
 /**
  * Builds a kernel writing `exprs.length` values per point (row-major) from
- * whitelisted JS expressions over q0…q(k−1) (parameters) and v0…(variables).
+ * whitelisted JS expressions over q0…q(k−1) (parameters), v0… (variables)
+ * and the per-point declarations `prelude` (see `SharedTerms`).
  */
 export function generate(
   k: number,
   nv: number,
   indexed: boolean,
   exprs: string[],
-  cols: (ArrayLike<number> | null)[]
+  cols: (ArrayLike<number> | null)[],
+  prelude: readonly string[] = []
 ): Kernel {
-  const lines: string[] = ['"use strict";', 'return function (p, x, out) {'];
+  const body =
+    exprs.length === 1
+      ? [`    out[i] = ${exprs[0]};`]
+      : [`    const o = i * ${exprs.length};`, ...exprs.map((e, j) => `    out[o + ${j}] = ${e};`)];
+  return build(k, nv, indexed, cols, prelude, 'p, x, out', body) as Kernel;
+}
+
+function build(
+  k: number,
+  nv: number,
+  indexed: boolean,
+  cols: (ArrayLike<number> | null)[],
+  prelude: readonly string[],
+  signature: string,
+  body: string[]
+): unknown {
+  const lines: string[] = ['"use strict";', `return function (${signature}) {`];
   for (let j = 0; j < k; j++) {
     lines.push(`  const q${j} = p[${j}];`);
   }
@@ -33,15 +51,9 @@ export function generate(
   } else {
     lines.push('    const v0 = x[i];');
   }
-  if (exprs.length === 1) {
-    lines.push(`    out[i] = ${exprs[0]};`);
-  } else {
-    lines.push(`    const o = i * ${exprs.length};`);
-    exprs.forEach((e, j) => lines.push(`    out[o + ${j}] = ${e};`));
-  }
-  lines.push('  }', '};');
+  lines.push(...prelude.map((l) => `    ${l}`), ...body, '  }', '};');
   const argNames = cols.map((_, v) => `c${v}`);
-  const factory = new Function(...argNames, lines.join('\n')) as (...c: unknown[]) => Kernel;
+  const factory = new Function(...argNames, lines.join('\n')) as (...c: unknown[]) => unknown;
   return factory(...cols.map((c) => (c ? Float64Array.from(c) : null)));
 }
 

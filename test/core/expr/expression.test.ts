@@ -153,3 +153,40 @@ describe('mathjs evaluation fallback', () => {
     ja.forEach((v, i) => expect(jb[i]).toBeCloseTo(v, 10));
   });
 });
+
+describe('generated code: shared terms and small integer powers', () => {
+  it('names each repeated sub-term once and writes x^2, x^3, x^-1, x^-2 as products', async () => {
+    const { parse } = await import('mathjs');
+    const { SharedTerms, toJavaScript } = await import('../../../src/core/expr/compile');
+    const terms = new SharedTerms();
+    const resolve = (s: string): string | null => (s === 'x' ? 'v0' : s === 'a' ? 'q0' : null);
+    const out = toJavaScript(parse('exp(a*x) + exp(a*x)^2 + x^3 + x^-1 + x^(-2) + x^2.5'), resolve, terms);
+    const src = terms.lines.join('\n');
+    expect(src.match(/Math\.exp/g)).toHaveLength(1);
+    expect(src).toContain('(v0 * v0 * v0)');
+    expect(src).toContain('(1 / v0)');
+    expect(src).toContain('(1 / (v0 * v0))');
+    expect(src).toContain('Math.pow(v0, 2.5)');
+    expect(src.match(/Math\.pow/g)).toHaveLength(1);
+    expect(out).toMatch(/^t\d+$/);
+  });
+
+  it('gives the values and Jacobian of mathjs evaluation, for polynomial and rational terms', () => {
+    // Hahn1-like rational function with x^2 and x^3 (NIST StRD model form)
+    const text = '(b1+b2*x+b3*x^2+b4*x^3)/(1+b5*x+b6*x^2+b7*x^3) + b1*(x-b2)^(-2)';
+    const gen = parseExpressionModel(text);
+    const mj = parseExpressionModel(text, { evaluation: 'mathjs' });
+    const p = Float64Array.from([1.08, -0.12, 4.1e-3, -1.4e-6, -5.8e-3, 2.4e-4, -1.2e-7]);
+    const xs = Float64Array.from([-3, 24.4, 300, 813.5, 1e-3]);
+    const a = new Float64Array(xs.length);
+    const b = new Float64Array(xs.length);
+    gen.evaluate(p, xs, a);
+    mj.evaluate(p, xs, b);
+    a.forEach((v, i) => expect(Math.abs(b[i] - v)).toBeLessThanOrEqual(4 * Number.EPSILON * Math.abs(v)));
+    const ja = new Float64Array(xs.length * 7);
+    const jb = new Float64Array(xs.length * 7);
+    gen.jacobian!(p, xs, ja);
+    mj.jacobian!(p, xs, jb);
+    ja.forEach((v, i) => expect(Math.abs(jb[i] - v)).toBeLessThanOrEqual(1e-13 * Math.max(1, Math.abs(v))));
+  });
+});
