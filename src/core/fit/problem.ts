@@ -2,6 +2,7 @@
  * Validation of fit inputs at the engine boundary and the normalised
  * problem the solver works on.
  */
+import { ulp } from '../numeric/ulp';
 import { FIT_DEFAULTS } from './defaults';
 import { FitInputError } from './types';
 import type { IFitData, IFitModel, IFitOptions } from './types';
@@ -61,21 +62,6 @@ function requireFinite(name: string, values: Float64Array): void {
       throw new FitInputError(`${name}[${i}] is ${values[i]}; all values must be finite`);
     }
   }
-}
-
-/** Unit in the last place of binary64 `v` (the spacing at |v|; 2⁻¹⁰⁷⁴ at 0). */
-function ulp(v: number): number {
-  const a = Math.abs(v);
-  if (a < 2 ** -1022) {
-    return 2 ** -1074;
-  }
-  let e = Math.floor(Math.log2(a));
-  if (2 ** e > a) {
-    e -= 1;
-  } else if (2 ** (e + 1) <= a) {
-    e += 1;
-  }
-  return 2 ** (e - 52);
 }
 
 /** Optional low-order parts of `high`: same length, finite, |low| ≤ ulp(high). */

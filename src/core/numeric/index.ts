@@ -4,3 +4,4 @@ export type { PolyCoefficients } from './polyroots';
 export { bracketRoot, goldenMinimum } from './scalar';
 export type { IScalarRootResult } from './scalar';
 export { mulberry32 } from './random';
+export { ulp } from './ulp';

@@ -12,27 +12,13 @@ import { FIT_DEFAULTS, FitInputError, fitCurve } from '../../../src/core/fit/ind
 import type { IFitModel, IFitResult } from '../../../src/core/fit/index';
 import * as DD from '../../../src/core/numeric/dd/index';
 import { fromDouble, plus, times, toNumber } from '../numeric/dd/exact';
+import { decay } from './models';
 import type { IFraction } from '../numeric/dd/exact';
 import { mulberry32 } from '../../../src/core/numeric/random';
 
 /** f = a·exp(−b·x) + c, with analytic Jacobian and a double-double evaluator. */
 function decayModel(precise: 'dd' | 'none' | 'throws' | 'nan' | 'wrong' = 'dd'): IFitModel {
-  const model: IFitModel = {
-    parameters: ['a', 'b', 'c'],
-    evaluate(p, x, out) {
-      for (let i = 0; i < x.length; i++) {
-        out[i] = p[0] * Math.exp(-p[1] * x[i]) + p[2];
-      }
-    },
-    jacobian(p, x, out) {
-      for (let i = 0; i < x.length; i++) {
-        const e = Math.exp(-p[1] * x[i]);
-        out[i * 3] = e;
-        out[i * 3 + 1] = -p[0] * x[i] * e;
-        out[i * 3 + 2] = 1;
-      }
-    }
-  };
+  const model: IFitModel = { ...decay };
   if (precise === 'dd') {
     model.evaluatePrecise = (p, x, out) => {
       const a = { hi: p.hi[0], lo: p.lo[0] };

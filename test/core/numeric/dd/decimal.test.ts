@@ -5,22 +5,8 @@
 import { describe, expect, it } from 'vitest';
 import { DecimalFormatError, decimalToDoubleDouble } from '../../../../src/core/numeric/dd/index';
 import { mulberry32 } from '../../../../src/core/numeric/random';
+import { ulp } from '../../../../src/core/numeric/ulp';
 import { fromDecimal, fromDouble, minus, relativeError, toNumber } from './exact';
-
-/** ulp of a finite binary64 (spacing at |v|). */
-function ulp(v: number): number {
-  const a = Math.abs(v);
-  if (a < 2 ** -1022) {
-    return 2 ** -1074;
-  }
-  let e = Math.floor(Math.log2(a));
-  if (2 ** e > a) {
-    e -= 1;
-  } else if (2 ** (e + 1) <= a) {
-    e += 1;
-  }
-  return 2 ** (e - 52);
-}
 
 /** Checks hi = Number(text) and that lo is the binary64 nearest to text − hi. */
 function checkExact(text: string): void {
