@@ -20,19 +20,6 @@ const LIMIT = 708;
 /** 2^(j/64), j = 0 … 63. */
 const TWO_J = Float64Array.from({ length: STEPS }, (_, j) => Math.pow(2, j / STEPS));
 
-/** exp(x) for one number by the array method (for tests and short inputs). */
-export function fastExp(x: number): number {
-  if (!(x > -LIMIT && x < LIMIT)) {
-    return Math.exp(x);
-  }
-  const kf = x * INV_STEP + ROUND_SHIFT - ROUND_SHIFT;
-  const r = x - kf * STEP_HI - kf * STEP_LO;
-  const k = kf | 0;
-  const q = r + r * r * (0.5 + r * (1 / 6 + r * (1 / 24 + r * (1 / 120 + r * (1 / 720)))));
-  const t = POW2[(k >> 6) + POW2_OFFSET] * TWO_J[k & 63];
-  return t + t * q;
-}
-
 /**
  * Writes exp(x[i]) into out[i] for i < n (default: x.length). `out` may be `x`.
  */
@@ -62,4 +49,13 @@ export function expArray(x: Float64Array, out: Float64Array, n: number = x.lengt
       out[i] = Math.exp(xi);
     }
   }
+}
+
+const one = new Float64Array(1);
+
+/** exp(x) for one number by the array method (for tests and short inputs). */
+export function fastExp(x: number): number {
+  one[0] = x;
+  expArray(one, one, 1);
+  return one[0];
 }

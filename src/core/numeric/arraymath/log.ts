@@ -35,31 +35,6 @@ const [C, INV_C, LOG_C] = (() => {
   return [c, inv, lg];
 })();
 
-/** log1p(u) for |u| < 0.004 (degree-7 Taylor polynomial, Estrin form). */
-function log1pSmall(u: number): number {
-  const u2 = u * u;
-  return (
-    u +
-    u2 * (-0.5 + u * 0.3333333333333333 + u2 * (-0.25 + u * 0.2 + u2 * (-0.16666666666666666 + u * 0.14285714285714285)))
-  );
-}
-
-const scratch = new Float64Array(1);
-const scratchWords = new Int32Array(scratch.buffer);
-
-/** log(x) for one number by the array method (for tests and short inputs). */
-export function fastLog(x: number): number {
-  if (!LITTLE_ENDIAN || !(x >= MIN_NORMAL && x < Infinity)) {
-    return Math.log(x);
-  }
-  scratch[0] = x;
-  const t = (scratchWords[1] - H0) | 0;
-  const e = t >> 20;
-  const j = (t >> 13) & 127;
-  const u = (x * POW2[POW2_OFFSET - e] - C[j]) * INV_C[j];
-  return e * LN2_HI + (LOG_C[j] + (e * LN2_LO + log1pSmall(u)));
-}
-
 /**
  * Writes log(x[i]) into out[i] for i < n (default: x.length). `out` may be `x`.
  */
@@ -96,4 +71,13 @@ export function logArray(x: Float64Array, out: Float64Array, n: number = x.lengt
       out[i] = Math.log(xi);
     }
   }
+}
+
+const one = new Float64Array(1);
+
+/** log(x) for one number by the array method (for tests and short inputs). */
+export function fastLog(x: number): number {
+  one[0] = x;
+  logArray(one, one, 1);
+  return one[0];
 }
