@@ -20,10 +20,9 @@ import { tmpdir } from 'node:os';
 import * as path from 'node:path';
 import { fitCurve } from '../src/core/fit/index';
 import type { IFitModel, IFitResult } from '../src/core/fit/index';
-import { parseExpressionModel } from '../src/core/expr/index';
 import { lre, nistDirectory, nistNames, parseNist } from '../test/core/fit/nistData';
 import type { INistProblem } from '../test/core/fit/nistData';
-import { handModel, nistFitData } from '../test/core/fit/nistModels';
+import { expressionNistModel, handModel, nistFitData } from '../test/core/fit/nistModels';
 import { curieWeiss, curieWeissAnalytic, powerLaw, powerLawAnalytic } from './fitModels';
 import { parseArgs, referenceJson } from './fitReference';
 import type { IReferenceDoc } from './fitReference';
@@ -61,15 +60,7 @@ function nistModel(p: INistProblem, via: 'hand' | 'expression'): { model: IFitMo
   if (via === 'hand') {
     return handModel(p);
   }
-  const vars = p.columns.filter((c) => c !== 'y');
-  const multi = vars.length > 1;
-  const model = parseExpressionModel(p.modelText, {
-    variables: vars,
-    constants: p.constants,
-    parameters: p.parameters,
-    columns: multi ? Object.fromEntries(vars.map((v) => [v, p.data[v]])) : undefined
-  });
-  return { model, x: multi ? p.data.y.map((_, i) => i) : p.data[vars[0]], y: model.transformResponse(p.data.y) };
+  return expressionNistModel(p);
 }
 
 function runNist(): INistRow[] {

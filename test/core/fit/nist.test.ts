@@ -12,7 +12,7 @@ import type { IFitModel, IFitResult } from '../../../src/core/fit/index';
 import { parseExpressionModel } from '../../../src/core/expr/index';
 import { lre, nistDirectory, nistNames, parseNist } from './nistData';
 import type { INistProblem } from './nistData';
-import { handModel, nistFitData } from './nistModels';
+import { expressionNistModel, handModel, nistFitData } from './nistModels';
 
 const dir = nistDirectory();
 if (!dir) {
@@ -50,16 +50,8 @@ function expressionModel(p: INistProblem): {
   xLow?: number[];
   yLow: number[];
 } {
-  const vars = p.columns.filter((c) => c !== 'y');
-  const multi = vars.length > 1;
-  const model = parseExpressionModel(p.modelText, {
-    variables: vars,
-    constants: p.constants,
-    parameters: p.parameters,
-    columns: multi ? Object.fromEntries(vars.map((v) => [v, p.data[v]])) : undefined
-  });
-  const x = multi ? p.data.y.map((_, i) => i) : p.data[vars[0]];
-  return { model, ...nistFitData(p, x, model.transformResponse(p.data.y)) };
+  const { model, x, y } = expressionNistModel(p);
+  return { model, ...nistFitData(p, x, y) };
 }
 
 function check(p: INistProblem, r: IFitResult): void {

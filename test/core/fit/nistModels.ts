@@ -5,6 +5,7 @@
  * the response log(y): it uses x = point index and closes over x1, x2.
  */
 import type { IFitModel } from '../../../src/core/fit/index';
+import { parseExpressionModel } from '../../../src/core/expr/index';
 import * as DD from '../../../src/core/numeric/dd/index';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../../../src/core/numeric/dd/index';
 import type { INistProblem } from './nistData';
@@ -164,4 +165,21 @@ export function nistFitData(
   const indexed = p.data.x === undefined;
   const data = /^\s*log\s*\[\s*y\s*\]/.test(p.modelText) ? { x, ...logResponse(p) } : { x, y, yLow: p.dataLow.y };
   return indexed ? data : { ...data, xLow: p.dataLow.x };
+}
+
+/**
+ * The model text printed in a NIST file, parsed (symbolic Jacobian); with
+ * several predictors x is the point index and the model reads the columns.
+ */
+export function expressionNistModel(p: INistProblem): { model: IFitModel; x: number[]; y: number[] } {
+  const vars = p.columns.filter((c) => c !== 'y');
+  const multi = vars.length > 1;
+  const model = parseExpressionModel(p.modelText, {
+    variables: vars,
+    constants: p.constants,
+    parameters: p.parameters,
+    columns: multi ? Object.fromEntries(vars.map((v) => [v, p.data[v]])) : undefined
+  });
+  const x = multi ? p.data.y.map((_, i) => i) : p.data[vars[0]];
+  return { model, x, y: model.transformResponse(p.data.y) };
 }
