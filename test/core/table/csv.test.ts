@@ -1,18 +1,7 @@
 /** CSV / TSV parsing through parseMime. */
 import { describe, expect, it } from 'vitest';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
-import type { IColumn, ParseResult } from '../../../src/core/table/index';
-
-function table(r: ParseResult) {
-  if (!r.ok) {
-    throw new Error(`expected a table, got: ${r.message}`);
-  }
-  return r.table;
-}
-
-function values(c: IColumn | undefined): unknown[] {
-  return c === undefined ? [] : Array.from(c.values as ArrayLike<unknown>);
-}
+import { table, values } from './helpers';
 
 describe('CSV', () => {
   it('reads a to_csv() frame: unnamed index, units, NaN, ±inf, bools, dates, strings', () => {

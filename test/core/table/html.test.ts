@@ -1,18 +1,7 @@
 /** Hand-written HTML tables: pandas shapes, Styler-like markup, spans, hostile markup, limits. */
 import { describe, expect, it } from 'vitest';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
-import type { IColumn, ParseResult } from '../../../src/core/table/index';
-
-function table(r: ParseResult) {
-  if (!r.ok) {
-    throw new Error(`expected a table, got: ${r.message}`);
-  }
-  return r.table;
-}
-
-function values(c: IColumn | undefined): unknown[] {
-  return c === undefined ? [] : Array.from(c.values as ArrayLike<unknown>);
-}
+import { table, values } from './helpers';
 
 const g = globalThis as { __pwned?: boolean };
 

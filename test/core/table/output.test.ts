@@ -1,18 +1,7 @@
 /** parseOutput: MIME preference, non-table outputs, nbformat shapes; and the pandas text repr. */
 import { describe, expect, it } from 'vitest';
 import { parseMime, parseOutput } from '../../../src/core/table/index';
-import type { IColumn, ParseResult } from '../../../src/core/table/index';
-
-function table(r: ParseResult) {
-  if (!r.ok) {
-    throw new Error(`expected a table, got: ${r.message}`);
-  }
-  return r.table;
-}
-
-function values(c: IColumn | undefined): unknown[] {
-  return c === undefined ? [] : Array.from(c.values as ArrayLike<unknown>);
-}
+import { table, values } from './helpers';
 
 const HTML = '<table class="dataframe"><thead><tr><th></th><th>a</th></tr></thead><tbody><tr><th>0</th><td>1.0</td></tr></tbody></table>';
 const PLAIN = '     a\n0  1.0';
