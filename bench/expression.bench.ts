@@ -7,19 +7,9 @@
  */
 import { writeFileSync } from 'node:fs';
 import { parseExpressionModel } from '../src/core/expr/index';
-import { parseArgs } from './fitReference';
+import { bestOf, parseArgs } from './fitReference';
 
 const args = parseArgs(process.argv.slice(2));
-
-function bestOf(repeats: number, fn: () => void): number {
-  let best = Infinity;
-  for (let r = 0; r < repeats; r++) {
-    const t0 = process.hrtime.bigint();
-    fn();
-    best = Math.min(best, Number(process.hrtime.bigint() - t0) / 1e9);
-  }
-  return best;
-}
 
 const cases = [
   {

@@ -24,23 +24,12 @@ import { lre, nistDirectory, nistNames, parseNist } from '../test/core/fit/nistD
 import type { INistProblem } from '../test/core/fit/nistData';
 import { expressionNistModel, handModel, nistFitData } from '../test/core/fit/nistModels';
 import { curieWeiss, curieWeissAnalytic, powerLaw, powerLawAnalytic } from './fitModels';
-import { parseArgs, referenceJson } from './fitReference';
+import { bestOf, parseArgs, referenceJson } from './fitReference';
 import type { IReferenceDoc } from './fitReference';
 
 const repoRoot = path.resolve(__dirname, '..');
 const shared = path.resolve(repoRoot, '../shared');
 const args = parseArgs(process.argv.slice(2));
-
-function bestOf(repeats: number, fn: () => void): number {
-  let best = Infinity;
-  for (let r = 0; r < repeats; r++) {
-    const t0 = process.hrtime.bigint();
-    fn();
-    const dt = Number(process.hrtime.bigint() - t0) / 1e9;
-    best = Math.min(best, dt);
-  }
-  return best;
-}
 
 interface INistRow {
   name: string;

@@ -51,6 +51,17 @@ export interface IReferenceDoc {
 
 const PYTHON = '/usr/bin/python3';
 
+/** Best wall time in seconds of `repeats` runs of `fn`. */
+export function bestOf(repeats: number, fn: () => void): number {
+  let best = Infinity;
+  for (let r = 0; r < repeats; r++) {
+    const t0 = process.hrtime.bigint();
+    fn();
+    best = Math.min(best, Number(process.hrtime.bigint() - t0) / 1e9);
+  }
+  return best;
+}
+
 /** Runs the reference script, dumping synthetic data to `dumpDir`; null when unavailable. */
 export function referenceJson(shared: string, dumpDir: string, args: IBenchArgs): IReferenceDoc | null {
   const script = path.join(shared, 'bench', 'reference_fits.py');

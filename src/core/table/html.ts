@@ -6,7 +6,7 @@ import { columnFromText } from './columns';
 import { htmlGrid } from './htmlgrid';
 import type { IGridCell } from './htmlgrid';
 import { checkTextSize } from './limits';
-import { roundedNote, shapeFooter, truncatedNote } from './notes';
+import { addDisplayNotes, shapeFooter } from './notes';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 import { TableParseError } from './types';
 
@@ -138,13 +138,6 @@ export function parsePandasHtml(html: string): ITable {
   };
   const rowsHidden = rowGapAt !== null || (footer !== null && footer.rows > rows.length);
   const colsHidden = elidedColumns > 0 || (footer !== null && footer.columns > dataColumns);
-  if (rowsHidden || colsHidden) {
-    table.truncation = truncation;
-    notes.unshift(truncatedNote(truncation, 'HTML display'));
-  }
-  const rounded = roundedNote(columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
-  if (rounded) {
-    notes.push(rounded);
-  }
+  addDisplayNotes(table, truncation, rowsHidden || colsHidden, 'HTML display');
   return table;
 }

@@ -2,7 +2,7 @@
  * Wording of the 'truncated' and 'rounded' notes, with the two remedies:
  * read the underlying CSV file, or display the frame as text/csv.
  */
-import type { IColumn, ITableNote, ITruncation } from './types';
+import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 
 /**
  * Two lines that make IPython publish a DataFrame `df` as full-precision CSV
@@ -56,4 +56,19 @@ export function shapeFooter(text: string): { rows: number; columns: number } | n
   // Bounded repeats and a digit lookbehind keep this linear on long runs of digits or spaces.
   const m = /(?<!\d)(\d{1,15})[ \t]{1,4}rows?[ \t]{0,4}[×x][ \t]{0,4}(\d{1,15})[ \t]{1,4}columns?/.exec(text);
   return m ? { rows: Number(m[1]), columns: Number(m[2]) } : null;
+}
+
+/**
+ * Adds to a table read from a pandas display the 'truncated' note first
+ * (when `hidden`, also setting `table.truncation`) and the 'rounded' note last.
+ */
+export function addDisplayNotes(table: ITable, truncation: ITruncation, hidden: boolean, source: string): void {
+  if (hidden) {
+    table.truncation = truncation;
+    table.notes.unshift(truncatedNote(truncation, source));
+  }
+  const rounded = roundedNote(table.columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
+  if (rounded) {
+    table.notes.push(rounded);
+  }
 }

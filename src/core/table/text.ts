@@ -11,7 +11,7 @@
  */
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
-import { roundedNote, shapeFooter, truncatedNote } from './notes';
+import { addDisplayNotes, shapeFooter } from './notes';
 import { parseSeriesLines, seriesFooter } from './textseries';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
@@ -224,13 +224,7 @@ export function parsePandasText(text: string): ITable {
     totalColumns: footer?.columns ?? null,
     rowGapAt: first.rowGapAt
   };
-  if (first.rowGapAt !== null || elided > 0 || (footer !== null && (footer.rows > first.rows || footer.columns > dataColumns))) {
-    table.truncation = truncation;
-    notes.push(truncatedNote(truncation, 'text display'));
-  }
-  const rounded = roundedNote(columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
-  if (rounded) {
-    notes.push(rounded);
-  }
+  const hidden = first.rowGapAt !== null || elided > 0 || (footer !== null && (footer.rows > first.rows || footer.columns > dataColumns));
+  addDisplayNotes(table, truncation, hidden, 'text display');
   return table;
 }

@@ -5,7 +5,7 @@
  */
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts } from './limits';
-import { roundedNote, truncatedNote } from './notes';
+import { addDisplayNotes } from './notes';
 import type { ITable, ITableNote, ITruncation } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
 
@@ -53,14 +53,7 @@ export function parseSeriesLines(lines: readonly string[], footer: { name: strin
   ];
   const notes: ITableNote[] = [];
   const table: ITable = { columns, rowCount: index.length, format: 'pandas-text', notes };
-  if (rowGapAt !== null || (footer.length !== null && footer.length > index.length)) {
-    const truncation: ITruncation = { shownRows: index.length, totalRows: footer.length, shownColumns: 1, totalColumns: 1, rowGapAt };
-    table.truncation = truncation;
-    notes.push(truncatedNote(truncation, 'text display'));
-  }
-  const rounded = roundedNote(columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
-  if (rounded) {
-    notes.push(rounded);
-  }
+  const truncation: ITruncation = { shownRows: index.length, totalRows: footer.length, shownColumns: 1, totalColumns: 1, rowGapAt };
+  addDisplayNotes(table, truncation, rowGapAt !== null || (footer.length !== null && footer.length > index.length), 'text display');
   return table;
 }
