@@ -11,6 +11,7 @@ import type { AnalysisModel, IAnalysisJob, IAnalysisOutcome } from '../core/anal
 import { formatPlain, formatWithError, parseStarts } from '../core/analysis';
 import type { ISavedFit } from '../core/saved';
 import { AnalysisCancelled, AnalysisRunner } from './analysis-runner';
+import { outcomeNodes } from './outcome-nodes';
 
 /** Landau coefficients of a fit (convention L). */
 export type ILandauOutcome = NonNullable<IAnalysisOutcome['landau']>;
@@ -353,12 +354,7 @@ export class FitSection extends Widget {
     this._status.setAttribute('aria-live', 'polite');
     row3.append(this._fitButton, this._cancelButton, this._status);
 
-    this._error = document.createElement('p');
-    this._error.className = 'jp-psiscape-fit-error';
-    this._error.setAttribute('role', 'alert');
-    this._error.hidden = true;
-    this._result = document.createElement('div');
-    this._result.className = 'jp-psiscape-fit-result';
+    ({ error: this._error, result: this._result } = outcomeNodes());
     node.append(heading, row1, options, row2, row3, this._error, this._result);
     this._model.addEventListener('change', () => this._syncOptions());
     this._syncOptions();

@@ -14,6 +14,7 @@ import { analyseIsotherms, buildIsothermSet } from '../core/sweeps';
 import type { IColumn, ITable } from '../core/table';
 import { ChartView } from './chart-view';
 import { readChartTheme } from './chart-theme';
+import { outcomeNodes } from './outcome-nodes';
 
 type Role = 'temperature' | 'field' | 'magnetisation';
 
@@ -272,12 +273,7 @@ export class IsothermSection extends Panel {
     button.textContent = this._trans.__('Analyse isotherms');
     button.addEventListener('click', () => this.run());
     row2.appendChild(button);
-    this._error = document.createElement('p');
-    this._error.className = 'jp-psiscape-fit-error';
-    this._error.setAttribute('role', 'alert');
-    this._error.hidden = true;
-    this._result = document.createElement('div');
-    this._result.className = 'jp-psiscape-fit-result';
+    ({ error: this._error, result: this._result } = outcomeNodes());
     const controls = new Widget();
     controls.node.append(heading, row, row2, this._error);
     const results = new Widget();
