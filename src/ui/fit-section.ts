@@ -253,7 +253,10 @@ export class FitSection extends Widget {
         row.insertCell().textContent = text;
       }
     });
-    for (const d of outcome.derived.filter(d => !fit.parameters.includes(d.name))) {
+    // Derived values that repeat a parameter (same name, or the same value and error) are not shown twice.
+    const repeats = (d: { name: string; value: number; sigma: number }): boolean =>
+      fit.parameters.some((name, i) => name === d.name || (fit.values[i] === d.value && fit.standardErrors[i] === d.sigma));
+    for (const d of outcome.derived.filter(d => !repeats(d))) {
       const row = body.insertRow();
       row.className = 'jp-psiscape-fit-derived';
       for (const text of [d.name, formatWithError(d.value, d.sigma), d.note]) {

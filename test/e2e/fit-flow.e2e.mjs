@@ -32,6 +32,43 @@ test('a Weiss fit runs in a worker and reports Tc with its standard error', asyn
   await screenshot(page, 'fit-weiss-light');
 });
 
+test('a critical power-law fit over a window below Tc gives Tc and the effective beta', async () => {
+  const { page } = suite.lab;
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  const section = panel.locator('.jp-psiscape-FitSection');
+  await section.locator('select.jp-psiscape-fit-model').selectOption('power-law');
+  await section.locator('input.jp-psiscape-fit-min').fill('250');
+  await section.locator('input.jp-psiscape-fit-max').fill('286');
+  await section.locator('button.jp-psiscape-fit-run').click();
+  // the result table of this fit has a beta row (the Weiss fit's has none)
+  await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 60000 });
+  assert.match(await section.locator('.jp-psiscape-fit-ok').textContent(), /^Converged/);
+  const read = async label => {
+    const text = await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: label }).first().locator('td').nth(1).textContent();
+    const m = /^([\d.]+) ± ([\d.]+)$/.exec(text);
+    assert.ok(m, `${label} row reads "${text}"`);
+    return [Number(m[1]), Number(m[2])];
+  };
+  const [tc, sTc] = await read(/^Tc/);
+  const [beta, sBeta] = await read(/^beta/);
+  // Spin-½ Weiss data with Tc = 287.4 K (demo/generate_notebooks.py); mean field has β = 1/2 as t → 0
+  // (REFERENCE.md B4), and a window reaching 13 % below Tc gives an effective β a little below 1/2.
+  assert.ok(Math.abs(tc - 287.4) < 5 * sTc + 0.5, `Tc ${tc} ± ${sTc} is near 287.4`);
+  assert.ok(beta > 0.4 && beta < 0.5 + 3 * sBeta, `beta ${beta} ± ${sBeta} is a mean-field effective exponent`);
+  await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
+  await screenshot(page, 'fit-power-law-light');
+  const theme = name => page.evaluate(t => window.jupyterapp.commands.execute('apputils:change-theme', { theme: t }), name);
+  await theme('JupyterLab Dark');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
+  // the theme switch shows a splash screen for a moment
+  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
+  await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 30000 });
+  await page.waitForFunction(() => !document.querySelector('.jp-psiscape-fit-status')?.textContent);
+  await screenshot(page, 'fit-power-law-dark');
+  await theme('JupyterLab Light');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
+});
+
 test('a window too narrow gives a message and keeps the controls usable', async () => {
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
