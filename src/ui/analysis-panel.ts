@@ -131,7 +131,7 @@ export class AnalysisPanel extends Panel {
     }
     if (saved.fit) {
       this._fit.setControls(saved.fit);
-      void this._fit.fit();
+      void this._fit.runFit();
     }
     return reason;
   }
@@ -256,7 +256,7 @@ export class AnalysisPanel extends Panel {
     this._fillPickers(columns, { x: x!, y: y! });
     void this.select(x!, y!, sigma, true);
     if (refit) {
-      void this._fit.fit();
+      void this._fit.runFit();
     }
     return null;
   }

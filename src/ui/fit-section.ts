@@ -102,7 +102,7 @@ export class FitSection extends Widget {
   }
 
   /** Run the fit with the current controls. */
-  fit(): Promise<void> {
+  runFit(): Promise<void> {
     if (!this._input) {
       this._status.textContent = this._trans.__('Choose x and y columns first.');
       return Promise.resolve();
@@ -349,7 +349,7 @@ export class FitSection extends Widget {
 
     const row3 = document.createElement('div');
     row3.className = 'jp-psiscape-fit-row';
-    this._fitButton = this._button(this._trans.__('Fit'), 'jp-mod-accept jp-psiscape-fit-run', () => void this.fit());
+    this._fitButton = this._button(this._trans.__('Fit'), 'jp-mod-accept jp-psiscape-fit-run', () => void this.runFit());
     this._cancelButton = this._button(this._trans.__('Cancel'), 'jp-mod-reject jp-psiscape-fit-cancel', () => this.cancel());
     this._cancelButton.disabled = true;
     this._status = document.createElement('span');

@@ -40,7 +40,7 @@ describe('saved analyses', () => {
     await lab.app.commands.execute('psiscape:analyse-selected-cell');
     const [analysis] = panelsOf(lab.app);
     analysis.fitSection.setModel('power-law');
-    await analysis.fitSection.fit();
+    await analysis.fitSection.runFit();
     expect(analysis.fitSection.outcome?.fit.converged).toBe(true);
     const meta = nb.content.model!.getMetadata(SAVED_KEY) as { analyses: { columns: unknown; fit: { model: string } }[] };
     expect(meta.analyses).toHaveLength(1);

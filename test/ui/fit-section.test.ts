@@ -5,6 +5,7 @@
  */
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { nullTranslator } from '@jupyterlab/translation';
+import { MessageLoop } from '@lumino/messaging';
 import { Widget } from '@lumino/widgets';
 import { parseMime } from '../../src/core/table';
 import { weissMagnetisation } from '../../src/core/physics/weiss';
@@ -70,7 +71,7 @@ describe('FitSection in the analysis panel', () => {
     panel.fitSection.setModel('weiss');
     panel.node.querySelector<HTMLInputElement>('input.jp-psiscape-fit-min')!.value = '30';
     panel.node.querySelector<HTMLInputElement>('input.jp-psiscape-fit-max')!.value = '36';
-    await panel.fitSection.fit();
+    await panel.fitSection.runFit();
     const error = panel.node.querySelector<HTMLElement>('.jp-psiscape-fit-error')!;
     expect(error.hidden).toBe(false);
     expect(error.textContent).toBe('The fit could not run: The Weiss mean-field fit needs at least 4 points in the fit window, but the window holds 2. Widen the window.');
@@ -80,20 +81,34 @@ describe('FitSection in the analysis panel', () => {
   it('should cancel a running fit and keep the previous result', async () => {
     const panel = open(weissCsv());
     panel.fitSection.setModel('weiss');
-    await panel.fitSection.fit();
+    await panel.fitSection.runFit();
     const first = panel.fitSection.outcome;
     expect(first).not.toBeNull();
-    const running = panel.fitSection.fit();
+    const running = panel.fitSection.runFit();
     panel.node.querySelector<HTMLButtonElement>('button.jp-psiscape-fit-cancel')!.click();
     await running;
     expect(panel.fitSection.outcome).toBe(first);
     expect(panel.node.querySelector('.jp-psiscape-fit-status')!.textContent).toBe('Fit cancelled; the previous result is kept.');
   });
 
+  it('should not refit on a layout fit request (theme changes send one to every widget)', async () => {
+    const panel = open(weissCsv());
+    panel.fitSection.setModel('weiss');
+    await panel.fitSection.runFit();
+    const first = panel.fitSection.outcome;
+    // Lumino's Widget.fit() posts a fit-request; JupyterLab calls it on all widgets when the theme changes.
+    panel.fit();
+    panel.fitSection.fit();
+    MessageLoop.flush();
+    await new Promise(resolve => setTimeout(resolve, 50));
+    expect(panel.fitSection.outcome).toBe(first);
+    expect(panel.node.querySelector('.jp-psiscape-fit-status')!.textContent).toBe('');
+  });
+
   it('should clear the result when other columns are chosen', async () => {
     const panel = open(weissCsv());
     panel.fitSection.setModel('weiss');
-    await panel.fitSection.fit();
+    await panel.fitSection.runFit();
     await panel.select(0, 2);
     expect(panel.fitSection.outcome).toBeNull();
     expect(panel.node.querySelector('.jp-psiscape-fit-table')).toBeNull();
