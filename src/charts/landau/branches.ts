@@ -6,7 +6,7 @@
  */
 import type { IChartTheme } from '../theme';
 import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
-import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours, kindEncoding } from './common';
 import type { IBranchPoint } from './trace';
 import { traceBranches } from './trace';
 
@@ -169,19 +169,8 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       y,
       detail: { field: 'segment', type: 'nominal' },
       order: { field: 'order', type: 'quantitative' },
-      color: {
-        field: 'kind',
-        type: 'nominal',
-        title: labels.kind,
-        scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => colours[k]) },
-        legend: { orient: 'bottom' }
-      },
-      strokeDash: {
-        field: 'kind',
-        type: 'nominal',
-        title: labels.kind,
-        scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => DASH[k]) }
-      }
+      color: kindEncoding(labels.kind, shown, kinds, k => colours[k], true),
+      strokeDash: kindEncoding(labels.kind, shown, kinds, k => DASH[k], false)
     }
   });
   if (markers.length) {

@@ -52,3 +52,23 @@ export function frame(description: string, layer: unknown[], theme: IChartTheme,
     config: themeConfig(theme)
   } as unknown as TopLevelSpec;
 }
+
+/**
+ * Encoding of the stationary-point kind by one visual channel: the kinds
+ * `shown` (in legend order) with their labels mapped to `range(kind)`.
+ */
+export function kindEncoding(
+  title: string,
+  shown: readonly LandauPointKind[],
+  labels: IKindLabels,
+  range: (kind: LandauPointKind) => unknown,
+  legend: boolean
+): Record<string, unknown> {
+  return {
+    field: 'kind',
+    type: 'nominal',
+    title,
+    scale: { domain: shown.map(k => labels[k]), range: shown.map(range) },
+    ...(legend ? { legend: { orient: 'bottom' } } : {})
+  };
+}

@@ -4,7 +4,7 @@
  */
 import type { IChartTheme } from '../theme';
 import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
-import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours, kindEncoding } from './common';
 
 /** A stationary point to mark. */
 export interface ILandscapePoint {
@@ -125,18 +125,8 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
       encoding: {
         x: { field: 'psi', type: 'quantitative' },
         y: { field: 'F', type: 'quantitative' },
-        color: {
-          field: 'kind',
-          type: 'nominal',
-          title: labels.kind,
-          scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => colours[k]) },
-          legend: { orient: 'bottom' }
-        },
-        shape: {
-          field: 'kind',
-          type: 'nominal',
-          scale: { domain: shown.map(k => kinds[k]), range: shown.map(k => SHAPES[k]) }
-        },
+        color: kindEncoding(labels.kind, shown, kinds, k => colours[k], true),
+        shape: kindEncoding(labels.kind, shown, kinds, k => SHAPES[k], false),
         tooltip: [
           { field: 'kind', type: 'nominal', title: labels.kind },
           { field: 'psi', type: 'quantitative', title: labels.psi, format: '.6~g' },

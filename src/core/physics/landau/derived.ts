@@ -51,10 +51,13 @@ export function landauDerived(k: ILandauCoefficients): ILandauDerived {
   }
   const { a, b, c, T0 } = k;
   const nan = { T: NaN, psi: NaN, h: NaN };
-  if (b > 0) {
+  if (b >= 0) {
+    // Continuous transition at T0: no jump, no barrier, no latent heat;
+    // below T0 the slope of 1/χ is −2a (second order) or −4a (tricritical, b = 0).
+    const tricritical = b === 0;
     return {
       convention: 'L',
-      regime: 'second-order',
+      regime: tricritical ? 'tricritical' : 'second-order',
       T0,
       Ttransition: T0,
       Tsuperheat: T0,
@@ -65,28 +68,8 @@ export function landauDerived(k: ILandauCoefficients): ILandauDerived {
       inverseChiDisordered: 0,
       inverseChiOrdered: 0,
       inverseChiSlopeDisordered: a,
-      inverseChiSlopeOrdered: -2 * a,
-      specificHeatJump: (T0 * a * a) / (2 * b),
-      criticalEndPoint: nan,
-      psiOrderedAtT0: 0
-    };
-  }
-  if (b === 0) {
-    return {
-      convention: 'L',
-      regime: 'tricritical',
-      T0,
-      Ttransition: T0,
-      Tsuperheat: T0,
-      psiJump: 0,
-      latentHeat: 0,
-      barrierPsi: NaN,
-      barrierHeight: NaN,
-      inverseChiDisordered: 0,
-      inverseChiOrdered: 0,
-      inverseChiSlopeDisordered: a,
-      inverseChiSlopeOrdered: -4 * a,
-      specificHeatJump: Infinity,
+      inverseChiSlopeOrdered: (tricritical ? -4 : -2) * a,
+      specificHeatJump: tricritical ? Infinity : (T0 * a * a) / (2 * b),
       criticalEndPoint: nan,
       psiOrderedAtT0: 0
     };
