@@ -54,10 +54,6 @@ function nistModel(p: INistProblem, via: 'hand' | 'expression'): { model: IFitMo
 
 function runNist(): INistRow[] {
   const dir = nistDirectory();
-  if (!dir) {
-    console.log('NIST files not found; NIST part skipped');
-    return [];
-  }
   const problems = nistNames(dir).map((n) => parseNist(`${dir}/${n}.dat`));
   const rows: INistRow[] = [];
   for (const via of ['hand', 'expression'] as const) {

@@ -2,9 +2,8 @@
  * Reader for NIST StRD nonlinear regression files (test helper).
  * Source of the data and certified values: NIST Statistical Reference
  * Datasets, Nonlinear Regression, Information Technology Laboratory,
- * National Institute of Standards and Technology. The files are read from
- * ../shared/reference/nist-strd relative to the repository root; they are
- * never copied into the repository.
+ * National Institute of Standards and Technology (public domain). The files
+ * live in the repository, test/reference/nist-strd (see its README.md).
  */
 import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import * as path from 'node:path';
@@ -34,11 +33,13 @@ export interface INistProblem {
   dataLow: Record<string, number[]>;
 }
 
-/** Directory of the StRD files, or null when absent. */
-export function nistDirectory(): string | null {
-  const repoRoot = path.resolve(__dirname, '../../..');
-  const dir = path.resolve(repoRoot, '../shared/reference/nist-strd');
-  return existsSync(dir) ? dir : null;
+/** Directory of the StRD files (test/reference/nist-strd); throws when absent. */
+export function nistDirectory(): string {
+  const dir = path.resolve(__dirname, '../../reference/nist-strd');
+  if (!existsSync(dir)) {
+    throw new Error(`NIST StRD files not found at ${dir}`);
+  }
+  return dir;
 }
 
 /** Names of the available datasets (file stems), sorted. */
