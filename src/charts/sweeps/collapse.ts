@@ -1,5 +1,5 @@
 /**
- * Scaling plot (reference B9): m = M|t|^−β against h = H|t|^−(β+γ) on log
+ * Scaling plot [B9 in REFERENCES.md]: m = M|t|^−β against h = H|t|^−(β+γ) on log
  * axes, one colour per branch (t < 0, t > 0), for given (Tc, β, γ).
  */
 import type { IIsotherm } from '../../core/sweeps/index';

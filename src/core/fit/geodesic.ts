@@ -1,9 +1,21 @@
 /**
- * Geodesic acceleration for Levenberg–Marquardt: the second directional
- * derivative of the residuals along the velocity v (one extra evaluation)
- * gives a second-order correction a = −(JᵀJ + μDᵀD)⁻¹Jᵀr_vv; the step
- * becomes v + ½a when ‖a‖ ≤ α‖v‖ (scaled norms). A larger ratio means the
- * path curves too much within the trust region, and the step is rejected.
+ * Geodesic acceleration for Levenberg–Marquardt [N3 in REFERENCES.md]: the
+ * second directional derivative of the residuals along the velocity v (one
+ * extra evaluation) gives a second-order correction
+ * a = −(JᵀJ + μDᵀD)⁻¹Jᵀr_vv; the step becomes v + ½a when ‖a‖ ≤ α‖v‖
+ * (scaled norms). A larger ratio means the path curves too much within the
+ * trust region, and the step is rejected.
+ *
+ * Method: r_vv = (2/h²)(r(p + h v) − r(p) − h J v) with h = 0.1, the
+ * finite-difference step of Transtrum & Sethna [N3]; the damped system is
+ * solved with the spectral model of the velocity (`subproblem.ts`), so the
+ * acceleration costs one residual evaluation and O(n·k) work.
+ *
+ * Accuracy: r_vv has a truncation error O(h‖v‖³) (third derivatives of r),
+ * so a is only an estimate. It shapes the path, not the answer: an
+ * accelerated step is accepted by the same gain-ratio test as any other
+ * (with the predicted reduction of the whole step), and the solution meets
+ * the same stopping rules whether or not acceleration is on.
  */
 import { FIT_DEFAULTS } from './defaults';
 import type { ResidualEvaluator } from './evaluator';

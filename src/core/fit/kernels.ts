@@ -4,6 +4,19 @@ import { geodesicKernel, gradientKernel, normalGradientKernel, timesKernel } fro
 /**
  * O(n·k) loops of the iteration, kept in plain functions so that they are
  * optimised independently of the generator that drives the iteration.
+ *
+ * Method: plain dense loops over the row-major n×k Jacobian (column norms
+ * and Jᵀr for Moré's column scaling, J·v, the upper triangle of JᵀJ, vᵀNv,
+ * the scaled ‖D·v‖) and the one-extra-point second directional derivative
+ * of the geodesic acceleration [N2, N3 in REFERENCES.md]; unrolled variants
+ * per k from `unrolled.ts` when code generation is allowed, with the same
+ * arithmetic.
+ *
+ * Accuracy: ordinary recursive summation, relative error of each sum at
+ * most about n·ε·Σ|terms| (ε = 2⁻⁵²); the iteration accounts for rounding
+ * through `costNoise` (2‖r‖‖e‖ + ‖e‖², the noise level of Σr²) rather than
+ * by compensated sums. `quadraticForm` is clamped at 0. `secondDirectional`
+ * has the truncation error O(h‖v‖³) noted in `geodesic.ts`.
  */
 
 /** colNorm[j] = ‖J_j‖, grad[j] = (Jᵀr)_j for row-major n×k `jac`. */

@@ -4,6 +4,16 @@
  * holds at most one root, found by safeguarded Newton–bisection. Double roots
  * (where p touches zero at a stationary point) are detected with a rounding
  * error bound. Deterministic; never misses a sign-changing root.
+ * Method after Collins & Loos [N10 in REFERENCES.md]; roots of p′ come from
+ * the same function (recursion on the degree); all roots lie within the
+ * Cauchy bound 1 + max|cᵢ/cₙ|.
+ *
+ * Accuracy: a simple root is refined until its bracket is 2ε relative
+ * (ε = 2⁻⁵²), so it is off by at most a few ulp plus the width of the band
+ * where the computed p is pure rounding noise, |δx| ≲ B/|p′(x)| with B the
+ * Horner error bound of `polyEval`. A double root at a stationary point is
+ * accepted when |p| ≤ B there, and is then accurate only to about
+ * √(B/|p″|), as for any method in binary64.
  */
 
 /** Coefficients in ascending order: p(x) = c[0] + c[1] x + … */

@@ -1,6 +1,20 @@
 /**
  * Scalar root bracketing (Brent's method) and bounded golden-section
  * minimisation. Both report convergence and never throw on hard problems.
+ *
+ * Methods [N8 in REFERENCES.md]: `bracketRoot` is Brent's zero finder
+ * (inverse quadratic / secant interpolation, falling back to bisection
+ * whenever interpolation would not halve the bracket fast enough, so it never
+ * needs more than about the square of the bisection count); `goldenMinimum`
+ * is Kiefer's golden-section search (the bracket shrinks by 0.618 per
+ * evaluation).
+ *
+ * Accuracy: a converged `bracketRoot` returns b with f(b), f(c) of opposite
+ * signs and |b − c| ≤ 4ε|b| + xtol (ε = 2⁻⁵²), i.e. a sign change of f lies
+ * within that distance (exact zeros at the ends are returned as is).
+ * `goldenMinimum` narrows [a, b] to xtol·(1 + |a| + |b|) around a minimum of
+ * a unimodal f; near a smooth minimum f is flat to O(δ²), so its location is
+ * resolved to about √ε relative at best, whatever xtol.
  */
 
 /** Outcome of a bracketed root search. */

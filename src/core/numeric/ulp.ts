@@ -1,4 +1,8 @@
-/** Unit in the last place of binary64 `v` (the spacing at |v|; 2⁻¹⁰⁷⁴ for subnormals and 0). */
+/**
+ * Unit in the last place of binary64 `v` (the spacing at |v|; 2⁻¹⁰⁷⁴ for
+ * subnormals and 0). Method: the exponent from Math.log2, corrected by
+ * exact comparisons with powers of two; the result is exact.
+ */
 export function ulp(v: number): number {
   const a = Math.abs(v);
   if (a < 2 ** -1022) {

@@ -1,6 +1,6 @@
 /**
  * Fit of the Bean–Rodbell model to M(T) at zero field: M = Ms σ(T/T0; η, J)
- * with σ the equilibrium (global minimum of G) of reference B11. Parameters
+ * with σ the equilibrium (global minimum of G) of [B11 in REFERENCES.md]. Parameters
  * Ms, T0, eta (J fixed). For η > 1 the transition is first order and the
  * reported Tc = T0 · τc(η) is derived from the fitted values.
  */

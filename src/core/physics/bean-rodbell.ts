@@ -1,5 +1,5 @@
 /**
- * Bean–Rodbell magnetovolume model (reference B11) in reduced units,
+ * Bean–Rodbell magnetovolume model [B11 in REFERENCES.md] in reduced units,
  * σ = M/Ms, τ′ = T/T0, h = g μB J B_a/(kB T0):
  *   G/(N kB T0) = −(k/2)σ² − (k κ_J η/4)σ⁴ − h σ − τ′ S_J(σ)/(N kB)
  *   σ = B_J(x),  x = k[σ + κ_J η σ³]/τ′ + h/τ′,   k = 3J/(J+1),

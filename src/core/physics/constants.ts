@@ -1,6 +1,7 @@
 /**
  * Physical constants (SI). Bohr magneton and μ0 are CODATA 2018 recommended
- * values; kB and N_A are exact since the 2019 SI redefinition.
+ * values; kB and N_A are exact since the 2019 SI redefinition
+ * [C7 in REFERENCES.md].
  */
 export const PHYS = {
   /** Bohr magneton, J/T (CODATA 2018). */

@@ -1,6 +1,6 @@
 /**
  * Curie–Weiss law χ = χ0 + C/(T − θ) and the effective moment from the
- * molar Curie constant (domain reference B2, prefactors C7):
+ * molar Curie constant ([B2 in REFERENCES.md], prefactors [C7]):
  *   cgs-emu molar:  C_mol = N_A μB² p²/(3 kB)        (cm³ K mol⁻¹)
  *   SI molar:       C_mol = μ0 N_A μB² p²/(3 kB)     (m³ K mol⁻¹)
  */
@@ -86,8 +86,8 @@ export const curieWeissModel: IFitModel = {
 };
 
 /**
- * Fits χ(T) = χ0 + C/(T − θ) on T ≥ Tmin (default: all points; the reference
- * recommends T ≳ 2 max(Tc, |θ|)). `fixChi0` pins χ0 (default free).
+ * Fits χ(T) = χ0 + C/(T − θ) on T ≥ Tmin (default: all points; near Tc critical
+ * fluctuations bend 1/χ, so T ≳ 2 max(Tc, |θ|) is advisable). `fixChi0` pins χ0 (default free).
  */
 export function fitCurieWeiss(
   data: { T: ArrayLike<number>; chi: ArrayLike<number>; sigma?: ArrayLike<number> },

@@ -1,6 +1,6 @@
 /**
  * Landau–de Gennes free energy for the nematic–isotropic transition
- * (reference B14): F = (a/2)(T − T*)S² − (B/3)S³ + (C/4)S⁴. It maps onto
+ * [B14 in REFERENCES.md]: F = (a/2)(T − T*)S² − (B/3)S³ + (C/4)S⁴. It maps onto
  * convention L with a cubic term d = −B, quartic b = C and c = 0, so the
  * Landau machinery (stationary points, paths) applies unchanged.
  */

@@ -1,6 +1,6 @@
 /**
  * Landau–Devonshire ferroelectric: convention L with ψ = P and h = E
- * (reference B12). The quasi-static P–E loop follows the occupied minimum
+ * [B12 in REFERENCES.md]. The quasi-static P–E loop follows the occupied minimum
  * and jumps where its branch ends, at the extrema dE/dP = 0 of the
  * equation of state E(P) = a(T−T0)P + dP² + bP³ + cP⁵. The intrinsic
  * (thermodynamic) coercive field is E at the end of the ordered branch; it

@@ -1,6 +1,6 @@
 /**
  * Exact results for the square-lattice Ising model H = −J Σ s_i s_j,
- * s = ±1, isotropic J (reference C1), for overlay on data:
+ * s = ±1, isotropic J [C1 in REFERENCES.md], for overlay on data:
  * Onsager's critical point sinh(2J/kB Tc) = 1 and Yang's spontaneous
  * magnetisation M = [1 − sinh(2J/kB T)^−4]^(1/8).
  */
@@ -23,7 +23,7 @@ export function ising2dMagnetisation(T: number): number {
   return v > 0 ? Math.pow(v, 0.125) : 0;
 }
 
-/** Mean-field critical temperature kB Tc = z J for coordination z (reference C9). */
+/** Mean-field critical temperature kB Tc = z J for coordination z [C9 in REFERENCES.md]. */
 export function meanFieldIsingTc(z: number): number {
   if (!(z > 0)) {
     throw new PhysicsInputError(`coordination number must be > 0, got ${z}`);

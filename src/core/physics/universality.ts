@@ -1,6 +1,6 @@
 /**
  * Published critical exponents of common universality classes (values and
- * provenance copied from the domain reference, table C2) and the scaling
+ * provenance in [C2 in REFERENCES.md]) and the scaling
  * relations used to check a set of measured exponents.
  */
 
@@ -26,7 +26,7 @@ export interface IUniversalityClass {
 
 const v = (value: number, error = 0): IValueError => ({ value, error });
 
-/** Universality classes of reference table C2. */
+/** Universality classes of [C2 in REFERENCES.md]. */
 export const UNIVERSALITY_CLASSES: readonly IUniversalityClass[] = [
   {
     id: '3d-ising',
@@ -131,7 +131,7 @@ export interface IClassComparison {
 
 /**
  * Compares measured exponents with every class, best match first. A single
- * exponent is weak evidence; the reference asks for at least two plus the
+ * exponent is weak evidence; a class needs at least two plus the
  * scaling relations (`warning` says so when fewer than two were given).
  */
 export function compareWithClasses(m: IMeasuredExponents): { ranking: IClassComparison[]; warning: string | null } {
@@ -167,7 +167,7 @@ export interface IRelationCheck {
 }
 
 /**
- * Rushbrooke α + 2β + γ = 2 and Widom δ = 1 + γ/β (reference B4), each when
+ * Rushbrooke α + 2β + γ = 2 and Widom δ = 1 + γ/β [B4 in REFERENCES.md], each when
  * its exponents are present. `k` (default 2) is the coverage factor,
  * `tolerance` (default 1e-9) the floor for exact inputs.
  */

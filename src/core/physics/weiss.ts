@@ -1,6 +1,6 @@
 /**
- * Self-consistent Weiss mean field in reduced units (convention of the
- * domain reference, B1): m = B_J(x), x = (k m + h)/τ with k = 3J/(J+1)
+ * Self-consistent Weiss mean field in reduced units (convention of
+ * [B1 in REFERENCES.md]): m = B_J(x), x = (k m + h)/τ with k = 3J/(J+1)
  * (k = 3 for J → ∞), τ = T/Tc, h = g μB J B_a/(kB Tc).
  *
  * The solver works on whole arrays. Below Tc at h = 0 it returns the
@@ -255,7 +255,7 @@ export function weissInverseIsotherm(J: number, tau: number, m: number): number 
   return tau * inverseBrillouin(J, m) - weissCoupling(J) * m;
 }
 
-/** Closed-form mean-field consequences for spin J (domain reference B1). */
+/** Closed-form mean-field consequences for spin J [B1 in REFERENCES.md]. */
 export interface IWeissConstants {
   J: number;
   /** k = 3J/(J+1). */

@@ -1,5 +1,5 @@
 /**
- * Arrott plot (reference B5): M² against H/M, per-isotherm high-field
+ * Arrott plot [B5 in REFERENCES.md]: M² against H/M, per-isotherm high-field
  * straight lines, Ms(T)² (intercept on the M² axis, T < Tc), 1/χ0(T)
  * (intercept on the H/M axis, T > Tc), Tc where the intercept crosses zero,
  * and the Banerjee criterion as evidence.

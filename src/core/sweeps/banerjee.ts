@@ -1,5 +1,5 @@
 /**
- * Banerjee criterion (reference B10) as evidence, not a verdict: the local
+ * Banerjee criterion [B10 in REFERENCES.md] as evidence, not a verdict: the local
  * slope of each Arrott isotherm, d(H/M)/d(M²), from sliding straight-line fits
  * along the isotherm. A slope below zero by more than `zThreshold` standard
  * errors flags the isotherm.

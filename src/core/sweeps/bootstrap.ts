@@ -1,5 +1,5 @@
 /**
- * Bootstrap over isotherms (reference A5.6) for the modified Arrott
+ * Bootstrap over isotherms for the modified Arrott
  * iteration: whole isotherms are resampled with replacement (seeded), the
  * iteration is rerun, and the spread of β, γ and Tc is reported beside the
  * covariance errors of the full data.

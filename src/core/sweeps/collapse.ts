@@ -1,5 +1,5 @@
 /**
- * Scaling collapse (reference B9) with a numeric cost: isotherms in scaled
+ * Scaling collapse [B9 in REFERENCES.md] with a numeric cost: isotherms in scaled
  * coordinates ln m = ln M − β ln|t|, ln h = ln H − (β + γ) ln|t| must fall on
  * two branches (t < 0, t > 0). The cost is the mean squared difference in
  * ln m between each isotherm and its next `neighbours` isotherms of the same

@@ -1,8 +1,8 @@
 /**
- * Critical isotherm (reference B8): M = D H^(1/δ) at T = Tc, from the
+ * Critical isotherm [B8 in REFERENCES.md]: M = D H^(1/δ) at T = Tc, from the
  * isotherm at Tc or by interpolation in T at fixed H between the two
- * isotherms that bracket Tc (flagged, reference D18); and the Widom and
- * Rushbrooke checks (reference B4).
+ * isotherms that bracket Tc (flagged: never across a jump); and the Widom and
+ * Rushbrooke checks [B4 in REFERENCES.md].
  */
 import type { IMeasuredExponents, IRelationCheck } from '../physics/universality';
 import { checkScalingRelations } from '../physics/universality';

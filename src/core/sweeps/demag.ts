@@ -1,5 +1,5 @@
 /**
- * Demagnetisation correction (reference A5.1): SI H_int = H_a − N_d·M with
+ * Demagnetisation correction ([C7 in REFERENCES.md]): SI H_int = H_a − N_d·M with
  * N_d dimensionless (0..1, sphere 1/3), cgs H_int = H_a − 4π N_d M, and
  * tables that quote N_cgs = 4π N_d (0..4π). M must be a volume magnetisation.
  */

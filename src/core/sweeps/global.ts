@@ -1,7 +1,7 @@
 /**
  * One global nonlinear fit of every M(H, T) point in a window
  * (|t| ≤ t_max, H ≥ H_min) to the Arrott–Noakes equation of state
- * (reference B6):  (H/M)^(1/γ) = (T − Tc)/T1 + (M/M1)^(1/β),
+ * [B6 in REFERENCES.md]:  (H/M)^(1/γ) = (T − Tc)/T1 + (M/M1)^(1/β),
  * with (Tc, β, γ, T1, M1) free. The model predicts ln M at each (H, T) by
  * solving the equation (unique root: the residual is strictly decreasing in
  * ln M); the Jacobian follows from the implicit-function theorem.

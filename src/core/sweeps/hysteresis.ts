@@ -1,6 +1,6 @@
 /**
  * Field hysteresis between the up and down branches of each isotherm
- * (evidence for the order of the transition, reference A4): the largest
+ * (evidence for the order of the transition): the largest
  * difference M_down − M_up on the common field range, the down branch
  * interpolated linearly in H at the up branch's fields.
  */

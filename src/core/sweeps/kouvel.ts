@@ -1,7 +1,7 @@
 /**
- * Kouvel–Fisher method (reference B7): X = Ms/(dMs/dT) = (T − Tc)/β below Tc,
+ * Kouvel–Fisher method [B7 in REFERENCES.md]: X = Ms/(dMs/dT) = (T − Tc)/β below Tc,
  * Y = χ0⁻¹/(dχ0⁻¹/dT) = (T − Tc)/γ above Tc. Derivatives come from local
- * quadratic fits (smoothed, reference D13), optionally of Ms^p and
+ * quadratic fits (raw differences amplify noise), optionally of Ms^p and
  * (1/χ0)^q with powers that make them nearly linear in T; straight lines through X(T) and
  * Y(T) give 1/β, 1/γ and Tc with σ from the line covariance. Local slopes
  * give effective exponents at each T.
@@ -70,7 +70,7 @@ function side(points: readonly ITemperaturePoint[], span: number, power: number)
 
 /**
  * Kouvel–Fisher from Ms(T) (below Tc) and 1/χ0(T) (above Tc), which should come
- * from Arrott / modified Arrott extrapolation, not finite-field M(T) (D4).
+ * from Arrott / modified Arrott extrapolation, not finite-field M(T).
  */
 export function kouvelFisher(
   Ms: readonly ITemperaturePoint[],

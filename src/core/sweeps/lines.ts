@@ -1,8 +1,8 @@
 /**
  * High-field straight lines of (modified) Arrott isotherms:
  * y = M^(1/β) against x = (H/M)^(1/γ), fitted as y = c0 + c1·x on the
- * high-field part of each isotherm. β = ½, γ = 1 is the Arrott plot (B5).
- * c0 > 0 gives Ms = c0^β; x0 = −c0/c1 > 0 gives 1/χ0 = x0^γ (B5, B6).
+ * high-field part of each isotherm. β = ½, γ = 1 is the Arrott plot [B5 in REFERENCES.md].
+ * c0 > 0 gives Ms = c0^β; x0 = −c0/c1 > 0 gives 1/χ0 = x0^γ [B5, B6 in REFERENCES.md].
  */
 import type { ILineFit } from './linear';
 import { fitLine, lineRoot } from './linear';

@@ -1,5 +1,5 @@
 /**
- * Modified Arrott plot by iteration (reference B6): from trial exponents,
+ * Modified Arrott plot by iteration [B6 in REFERENCES.md]: from trial exponents,
  * straight high-field lines of M^(1/β) against (H/M)^(1/γ) give Ms(T) and
  * 1/χ0(T); power laws with Tc free give new β, γ, Tc; repeat until stable.
  */
@@ -15,7 +15,7 @@ import { conventionsOf, setWarnings, SweepInputError } from './types';
 
 /** Options of {@link modifiedArrottIteration}. */
 export interface IModifiedArrottOptions {
-  /** Trial exponents (default: 3D Heisenberg, table C2). */
+  /** Trial exponents (default: 3D Heisenberg, [C2 in REFERENCES.md]). */
   start?: { beta: number; gamma: number };
   region?: IFitRegion;
   /** Largest |t| of isotherms entering the power-law fits (default 0.1). */
@@ -116,7 +116,7 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
   let first = interceptCrossing(lines);
   let startNote: string | null = null;
   if (!first.converged && options.start === undefined) {
-    // the default trial exponents give no intercept crossing: try the other classes of table C2
+    // the default trial exponents give no intercept crossing: try the other classes of [C2 in REFERENCES.md]
     for (const c of UNIVERSALITY_CLASSES) {
       const trial = isothermLines(isotherms, c.beta.value, c.gamma.value, region);
       const cross = interceptCrossing(trial);

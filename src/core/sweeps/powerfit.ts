@@ -1,6 +1,6 @@
 /**
  * Critical power laws with Tc free, fitted by the Levenberg–Marquardt engine
- * on the untransformed values (reference D7):
+ * on the untransformed values (no log–log regression):
  *   below Tc: Ms = M0 (−t)^β        above Tc: 1/χ0 = G t^γ,   t = (T − Tc)/Tc.
  * Tc is bounded to lie above (below) every temperature used.
  */

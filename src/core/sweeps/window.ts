@@ -1,5 +1,5 @@
 /**
- * Exponents against the fit window (reference A5.4, D6): the modified
+ * Exponents against the fit window (one window hides its bias): the modified
  * Arrott iteration and/or the global equation-of-state fit repeated over a
  * grid of (t_max, H_min), each cell with σ, convergence and reason.
  */
@@ -22,7 +22,7 @@ export interface IExponentWindowCell {
   Tc: IValueSigma;
   /** δ = 1 + γ/β. */
   delta: IValueSigma;
-  /** δ from the critical isotherm at this cell's Tc with H ≥ H_min (B8). */
+  /** δ from the critical isotherm at this cell's Tc with H ≥ H_min [B8 in REFERENCES.md]. */
   deltaCriticalIsotherm: IValueSigma;
   /** Kouvel–Fisher β and γ on this cell's Ms(T), 1/χ0(T) (iteration cells only; NaN otherwise). */
   kouvelFisherBeta: IValueSigma;

@@ -2,7 +2,7 @@
  * Unit of a measured column, read for a declared role (temperature, field,
  * magnetisation). The answer is either a conversion to SI, or a structured
  * question ('needs-unit') naming the column, or a refusal: an ambiguous or
- * missing unit is never guessed (reference A5.2, D2).
+ * missing unit is never guessed.
  *
  * SI targets: temperature K; field H in A/m (a field in tesla is read as
  * μ0H and divided by μ0); magnetisation as volume (A/m), mass (A m²/kg),

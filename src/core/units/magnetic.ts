@@ -22,7 +22,7 @@ function requireMolarMass(molarMassKgPerMol: number): void {
 
 /**
  * Moment per formula unit in μB from a mass magnetisation σ (A m²/kg):
- * p = σ·Mw/(N_A μB) (reference C7, CODATA 2018 μB).
+ * p = σ·Mw/(N_A μB) (CODATA 2018 μB, [C7 in REFERENCES.md]).
  */
 export function muBPerFormulaUnit(sigmaAm2PerKg: number, molarMassKgPerMol: number): number {
   requireMolarMass(molarMassKgPerMol);
@@ -60,7 +60,7 @@ export function convertQuantity(value: number, from: string, to: string): number
 export type SusceptibilityKind = 'volume' | 'mass' | 'molar';
 
 /**
- * cgs-emu susceptibility to SI (reference C7, NBS SP 696): volume χ_SI = 4π χ_cgs
+ * cgs-emu susceptibility to SI (NBS SP 696, [C7 in REFERENCES.md]): volume χ_SI = 4π χ_cgs
  * (dimensionless); mass 1 cm³/g = 4π·1e-3 m³/kg; molar 1 cm³/mol = 4π·1e-6 m³/mol.
  */
 export function susceptibilityCgsToSI(value: number, kind: SusceptibilityKind): number {
@@ -68,7 +68,7 @@ export function susceptibilityCgsToSI(value: number, kind: SusceptibilityKind): 
   return value * f;
 }
 
-/** Volume magnetisation in A/m from 4πM given in gauss (reference C7: × 1e3/(4π)). */
+/** Volume magnetisation in A/m from 4πM given in gauss (× 1e3/(4π), [C7 in REFERENCES.md]). */
 export function magnetisationFromFourPiMGauss(fourPiM: number): number {
   return (fourPiM * 1e3) / (4 * Math.PI);
 }

@@ -16,9 +16,9 @@ export function unitMath(): MathJsInstance {
     return instance;
   }
   const m = create(all, {});
-  // 1 Oe = 1000/(4π) A/m (reference C7; NBS SP 696)
+  // 1 Oe = 1000/(4π) A/m (NBS SP 696, [C7 in REFERENCES.md])
   m.createUnit('Oe', { definition: m.unit(1000 / (4 * Math.PI), 'A/m'), prefixes: 'short' });
-  // 1 emu = 1 erg/G = 1e-3 A m² (reference C7)
+  // 1 emu = 1 erg/G = 1e-3 A m² [C7 in REFERENCES.md]
   m.createUnit('emu', { definition: m.unit(1e-3, 'A m^2'), prefixes: 'short' });
   m.createUnit('muB', { definition: m.unit(PHYS.muB, 'J/T') });
   m.createUnit('fu', { definition: m.unit(1 / PHYS.NA, 'mol') });

@@ -32,7 +32,7 @@ export interface ILandauExplorerInitial {
   h?: number;
 }
 
-/** First-order example of the domain reference (C5): a = 0.5, b = −2, c = 4, T0 = 100. */
+/** First-order example of [C5 in REFERENCES.md]: a = 0.5, b = −2, c = 4, T0 = 100. */
 export const DEFAULT_LANDAU_INITIAL: ILandauExplorerInitial = { a: 0.5, b: -2, c: 4, T0: 100 };
 
 /** Interactive Landau landscape with sliders, two charts and a table. */

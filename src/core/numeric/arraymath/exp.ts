@@ -2,7 +2,7 @@
  * Exponential over whole arrays, about three times faster than a loop of
  * `Math.exp` in V8 at ≤ 2 ulp (tested against `Math.exp`).
  *
- * Method (table-driven, as in Tang's algorithm): x = (64m + j)·ln2/64 + r
+ * Method (table-driven, as in Tang's algorithm [N12 in REFERENCES.md]): x = (64m + j)·ln2/64 + r
  * with |r| ≤ ln2/128, so exp(x) = 2^m · 2^(j/64) · exp(r); exp(r) − 1 from
  * its Taylor polynomial of degree 5 (truncation below 0.2 ulp), 2^(j/64)
  * from a 64-entry table, 2^m by an exact multiplication. Arguments outside

@@ -2,7 +2,7 @@
  * Natural logarithm over whole arrays, faster than a loop of `Math.log` in
  * V8 at ≤ 2 ulp (tested against `Math.log`), including arguments next to 1.
  *
- * Method (table-driven): with h the high word of x, e = (h − H0) >> 20 and
+ * Method (table-driven, after Tang [N12 in REFERENCES.md]): with h the high word of x, e = (h − H0) >> 20 and
  * m = x·2^−e ∈ [0.7097, 1.4194); the next 7 bits of h − H0 pick one of 128
  * intervals of m, each with a centre c of few bits (c = 1 exactly for the
  * interval around 1, so there is no cancellation next to x = 1);

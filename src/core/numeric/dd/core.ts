@@ -4,8 +4,13 @@
  * decimal digits) of precision. Error-free transformations after Knuth
  * (TwoSum) and Dekker (splitting, TwoProduct; JavaScript has no fused
  * multiply-add); the compound operations follow the usual double-double
- * algorithms (accurate addition with two TwoSums, division with three
- * quotient digits, square root with one Newton correction).
+ * algorithms of Hida, Li & Bailey (accurate addition with two TwoSums,
+ * division with three quotient digits, square root with one Newton
+ * correction) [N11 in REFERENCES.md].
+ *
+ * Accuracy (tested against exact rational arithmetic): add and sub within
+ * 1e-31 of the operands' magnitude, mul, sqr, div and sqrt within 1e-31
+ * relative; TwoSum, TwoProduct and split are exact.
  *
  * Below about 1e-292 in magnitude the low part becomes subnormal and the
  * precision degrades gradually to that of binary64.

@@ -2,6 +2,9 @@
  * Exact conversion of decimal text to double-double with BigInt rational
  * arithmetic: hi = Number(text) (the binary64 nearest the decimal), lo =
  * the binary64 nearest the exact remainder text − hi.
+ *
+ * Accuracy: exact rational arithmetic, so hi is correctly rounded and
+ * hi + lo is the decimal to within half an ulp of lo (≈ 1e-32 relative).
  */
 import type { IDoubleDouble } from './core';
 

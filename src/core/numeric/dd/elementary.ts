@@ -1,6 +1,7 @@
 /**
  * Exponential, logarithm and powers in double-double arithmetic
- * (relative error ≈ 1e-31 over the normal range).
+ * (relative error ≈ 1e-31 over the normal range; tested against published
+ * digit sequences of e, ln 2 and √2) [N11, N12 in REFERENCES.md].
  *
  * exp: argument reduction x = k·ln 2 + r, r scaled by 2⁻⁹, Taylor series of
  * expm1 at the scaled argument, nine squarings in the expm1 form

@@ -2,7 +2,7 @@
  * Sine, cosine, tangent and arctangent in double-double arithmetic.
  *
  * sin/cos: reduction x = k·π/2 + r with π/2 as a sum of three binary64
- * numbers (Cody–Waite; absolute reduction error ≈ 1e-32 + |k|·1e-49, so the
+ * numbers (Cody–Waite [N12 in REFERENCES.md]; absolute reduction error ≈ 1e-32 + |k|·1e-49, so the
  * absolute accuracy stays ≈ 1e-31 up to |x| ≈ 1e9 and the relative one
  * away from the zeros of sin and cos), Taylor series at r/8, and three
  * double-angle steps. atan2: one Newton step on the binary64 angle z,

@@ -2,7 +2,7 @@
  * Effective exponent against the fit window: repeats the power-law fit on
  * every window t_min ≤ |t| ≤ t_max of a grid (|t| from a reference Tc, with
  * Tc free inside each fit), and the closed-form Wegner effective exponent
- * β_eff(t) = β + aM Δ|t|^Δ/(1 + aM|t|^Δ) (reference B17).
+ * β_eff(t) = β + aM Δ|t|^Δ/(1 + aM|t|^Δ) [B17 in REFERENCES.md].
  */
 import { PhysicsInputError } from '../errors';
 import type { IPowerLawOptions, IPowerLawResult } from './power-law';

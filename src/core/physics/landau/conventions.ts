@@ -1,6 +1,6 @@
 /**
  * Landau coefficient conventions and their explicit mapping to convention L
- * (domain reference B3):
+ * ([B3 in REFERENCES.md]):
  *
  *   L:              F = (a/2)(T−T0)ψ² + (d/3)ψ³ + (b/4)ψ⁴ + (c/6)ψ⁶ − hψ
  *   no-fractions:   F = A(T−T0)ψ² + Dψ³ + Bψ⁴ + Cψ⁶       a = 2A, d = 3D, b = 4B, c = 6C

@@ -1,6 +1,6 @@
 /**
  * Closed-form consequences of the Landau 2-4-6 free energy in convention L
- * without cubic term (domain reference B3 (i)–(iv)), and numerical
+ * without cubic term ([B3 in REFERENCES.md] (i)–(iv)), and numerical
  * counterparts that also work with a cubic term.
  */
 import { bracketRoot } from '../../numeric/scalar';
@@ -43,7 +43,7 @@ export interface ILandauDerived {
   psiOrderedAtT0: number;
 }
 
-/** Closed forms of B3 for convention-L coefficients with no cubic term. */
+/** Closed forms of [B3 in REFERENCES.md] for convention-L coefficients with no cubic term. */
 export function landauDerived(k: ILandauCoefficients): ILandauDerived {
   validateLandau(k);
   if ((k.d ?? 0) !== 0) {

@@ -4,7 +4,7 @@
  *   S = S0 − (a/2)ψ²   and, with dψ/dT = −aψ/F″ from the equation of state,
  *   C − C0 = T dS/dT = T a² ψ² / F″(ψ).
  * This reproduces ΔC = T0 a²/(2b) (second order) and
- * C = (T/4)√(a³/(c(T0 − T))) at the tricritical point (reference B3).
+ * C = (T/4)√(a³/(c(T0 − T))) at the tricritical point [B3 in REFERENCES.md].
  */
 import type { ILandauCoefficients } from './conventions';
 import { landauStationary } from './free-energy';
