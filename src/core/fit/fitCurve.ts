@@ -1,6 +1,8 @@
 /**
  * `fitCurve`: validated inputs → Levenberg–Marquardt → uncertainty analysis.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { FIT_DEFAULTS } from './defaults';
 import { ResidualEvaluator } from './evaluator';
 import type { ILmOutcome } from './lm';
@@ -20,7 +22,7 @@ import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
  * Throws `FitInputError` for invalid inputs (non-finite data, σ ≤ 0, wrong
  * lengths, start outside bounds, fewer points than free parameters …).
  * Model failures (exceptions, NaN) never throw: they end the fit with
- * `converged: false` and a reason, keeping the best point found.
+ * `converged: false` and a reason (codes `fit.stop.*`), keeping the best point found.
  */
 export function fitCurve(model: IFitModel, data: IFitData, options: IFitOptions): IFitResult {
   const run = startFit(model, data, options);
@@ -76,7 +78,7 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
         outcome = next.value.outcome;
         warmStart = next.value.warmStart;
         if (callbackError !== null) {
-          outcome = { ...outcome, converged: false, reason: `aborted: a callback threw: ${callbackError}` };
+          outcome = { ...outcome, converged: false, reason: callbackFailed(callbackError) };
         }
       } catch (err) {
         // Only a callback (onProgress / shouldStop) can throw here.
@@ -87,8 +89,13 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
   };
 }
 
+/** The reason of a fit stopped because a progress or cancellation callback threw. */
+function callbackFailed(error: string): ICoreMessage {
+  return msg('fit.stop.callback-failed', 'The fit was stopped because its progress or cancel handler failed (%1).', error);
+}
+
 function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknown): ILmOutcome {
-  const msg = err instanceof Error ? err.message : String(err);
+  const error = err instanceof Error ? err.message : String(err);
   const p = Float64Array.from(problem.free, (j) => problem.start[j]);
   const r = new Float64Array(problem.n);
   const f = new Float64Array(problem.n);
@@ -102,7 +109,7 @@ function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknow
     normal: null,
     iterations: 0,
     converged: false,
-    reason: `aborted: ${msg}`,
+    reason: callbackFailed(error),
     gradientCosine: Number.NaN,
     restarts: 0
   };
@@ -112,9 +119,10 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
   const o = refinement.outcome;
   const { n, kAll, free, names } = problem;
   const k = free.length;
-  const warnings: string[] = refinement.warning ? [refinement.warning] : [];
+  const warnings: ICoreMessage[] = refinement.warning ? [refinement.warning] : [];
+  const notes: ICoreMessage[] = refinement.note ? [refinement.note] : [];
   let converged = o.converged;
-  let reason = refinement.note ? `${o.reason}; ${refinement.note}` : o.reason;
+  let reason = o.reason;
   const full = ev.fullParameters(o.p);
   const values = Array.from(full);
   const chi2 = o.cost;
@@ -148,23 +156,41 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
     }
     if (finite) {
       warnings.push(
-        `covariance is singular: the Jacobian has rank ${factor.rank} for ${k} free parameters (not all parameters are identifiable)`
+        msg(
+          'fit.covariance-singular',
+          'The data determine only %1 independent combinations of the %2 free parameters, so there are no uncertainties: fix a parameter or add data that tell them apart.',
+          factor.rank,
+          k
+        )
       );
       if (converged) {
         converged = false;
-        reason = `degenerate point: Jacobian rank ${factor.rank} < ${k} free parameters (${reason})`;
+        // The stopping rule that was met stays in the notes.
+        notes.unshift(reason);
+        reason = msg(
+          'fit.stop.degenerate',
+          'The fit ended where the data determine only %1 of the %2 free parameters: the values are not a unique best fit.',
+          factor.rank,
+          k
+        );
       }
     } else {
-      warnings.push('the Jacobian at the solution is not finite; no uncertainties');
+      warnings.push(msg('fit.slopes-not-finite-at-result', 'The slopes of the model are not finite at the result, so there are no uncertainties.'));
     }
   }
   if (factor.inverse && factor.condition > FIT_DEFAULTS.conditionWarning) {
     warnings.push(
-      `covariance is ill-conditioned (condition number of the scaled Jacobian ${factor.condition.toExponential(2)})`
+      msg(
+        'fit.ill-conditioned',
+        'The uncertainties are unreliable: some parameters are nearly interchangeable (condition number %1). Fix one of them, or add data that tell them apart.',
+        { value: factor.condition, digits: 2 }
+      )
     );
   }
   if (!knownSigma && !(dof > 0)) {
-    warnings.push('no degrees of freedom left: standard errors scaled by √χ²_red are undefined');
+    warnings.push(
+      msg('fit.no-degrees-of-freedom', 'There are no more points than free parameters, so the standard errors cannot be estimated from the scatter: add points, or give σ for each point.')
+    );
   }
   const standardErrors = covariance.map((row, j) => Math.sqrt(row[j]));
   const correlation = covariance.map((row, a) =>
@@ -179,7 +205,13 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
     for (let b = a + 1; b < kAll; b++) {
       if (Math.abs(correlation[a][b]) > FIT_DEFAULTS.correlationWarning) {
         warnings.push(
-          `|correlation(${names[a]}, ${names[b]})| = ${Math.abs(correlation[a][b]).toFixed(4)} > ${FIT_DEFAULTS.correlationWarning}`
+          msg(
+            'fit.strong-correlation',
+            '%1 and %2 are strongly correlated (correlation %3): quote them together, or fix one of them.',
+            names[a],
+            names[b],
+            { value: correlation[a][b], digits: 6 }
+          )
         );
       }
     }
@@ -187,7 +219,9 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
   for (const j of free) {
     const tol = 1e-12 * Math.max(1, Math.abs(values[j]));
     if (values[j] - problem.lower[j] <= tol || problem.upper[j] - values[j] <= tol) {
-      warnings.push(`${names[j]} = ${values[j]} is at a bound; its standard error is not meaningful`);
+      warnings.push(
+        msg('fit.at-bound', '%1 = %2 is at the edge of the range it may take, so its standard error means little.', names[j], { value: values[j], digits: 6 })
+      );
     }
   }
   const q = knownSigma
@@ -204,7 +238,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
     residuals[i] = precise ? precise[i] : problem.y[i] - o.f[i];
   }
   if (o.restarts > 0) {
-    warnings.push(`restarted ${o.restarts} time(s) from the best point after the step collapsed`);
+    notes.push(msg('fit.note.restarted', 'Restarts from the best point after the steps collapsed: %1.', o.restarts));
   }
   return {
     parameters: names.slice(),
@@ -229,6 +263,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
     converged,
     reason,
     warnings,
+    notes,
     fixed: problem.fixed.slice()
   };
 }

@@ -6,6 +6,9 @@
  * best point when the step collapses while the Gauss–Newton model still
  * predicts progress. Stopping rules: see `defaults.ts`.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
@@ -39,7 +42,8 @@ export interface ILmOutcome {
   normal: Float64Array | null;
   iterations: number;
   converged: boolean;
-  reason: string;
+  /** Why the iteration stopped (codes `fit.stop.*`). */
+  reason: ICoreMessage;
   /** Largest cosine between r and a Jacobian column at the last Jacobian (NaN if none). */
   gradientCosine: number;
   restarts: number;
@@ -99,7 +103,7 @@ export function* levenbergMarquardtSteps(
   const work = geodesicWork(n, k);
   let scheme: DifferenceScheme = ev.analytic ? 'extrapolated' : 'forward';
 
-  const out = (converged: boolean, reason: string): ILmOutcome => ({
+  const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => ({
     p,
     r,
     f,
@@ -121,8 +125,12 @@ export function* levenbergMarquardtSteps(
   let gcos = Number.NaN;
   let restarts = 0;
   if (!Number.isFinite(cost)) {
-    const why = ev.lastError ? `model threw: ${ev.lastError}` : 'model returned NaN or ∞';
-    return out(false, `non-finite residuals at the start values (${why})`);
+    return out(
+      false,
+      ev.lastError
+        ? msg('fit.stop.model-failed-at-start', 'The model failed at the start values (%1): check the model, or choose other start values.', ev.lastError)
+        : msg('fit.stop.not-finite-at-start', 'The model gives no finite value at the start values: choose other start values.')
+    );
   }
   let needJacobian = true;
   let first = true;
@@ -137,15 +145,21 @@ export function* levenbergMarquardtSteps(
   // reduction matched the prediction (0.9 ≤ ρ ≤ 1.1) or was at noise level.
   let lastGaussNewton = false;
   const progress = (): void => {
-    hooks.onProgress?.({ iteration: iterations, evaluations: ev.evaluations, cost });
+    hooks.onProgress?.({
+      iteration: iterations,
+      evaluations: ev.evaluations,
+      cost,
+      parameters: problem.names,
+      values: Array.from(ev.fullParameters(p))
+    });
   };
 
   for (;;) {
     if (hooks.shouldStop?.()) {
-      return out(false, 'cancelled');
+      return out(false, msg('fit.stop.cancelled', 'You stopped the fit.'));
     }
     if (ev.evaluations >= problem.maxEvaluations) {
-      return out(false, `maximum number of evaluations (${problem.maxEvaluations}) reached`);
+      return out(false, msg('fit.stop.budget', 'The evaluation budget (%1 model evaluations) ran out before the fit settled.', wholeNumber(problem.maxEvaluations)));
     }
     if (needJacobian) {
       // Large problems check the entries of a Jacobian from a combined pass
@@ -159,8 +173,12 @@ export function* levenbergMarquardtSteps(
       if (!ok) {
         normalAtP = false;
         if (iterations === 0 || !havePrevious) {
-          const why = ev.lastError ? `: ${ev.lastError}` : '';
-          return out(false, `Jacobian is not finite at the current point${why}`);
+          return out(
+            false,
+            ev.lastError
+              ? msg('fit.stop.slopes-failed', 'The model failed while its slopes with respect to the parameters were computed (%1).', ev.lastError)
+              : msg('fit.stop.slopes-not-finite', 'The slopes of the model with respect to the parameters are not finite numbers at the values reached: choose other start values or bounds.')
+          );
         }
         // Step back to the previous point and shrink the trust region.
         [p, pT] = [pT, p];
@@ -195,10 +213,10 @@ export function* levenbergMarquardtSteps(
         delta = FIT_DEFAULTS.initialStepFactor * (pn > 0 ? pn : 1);
       }
       if (cost === 0) {
-        return out(true, 'zero residual');
+        return out(true, msg('fit.stop.exact', 'The model passes exactly through every point.'));
       }
       if (gcos <= problem.gtol && scheme !== 'forward') {
-        return out(true, `gradient orthogonal to the residuals within gtol (${problem.gtol})`);
+        return out(true, msg('fit.stop.gradient', 'The gradient vanished: a minimum was found.'));
       }
       const cols: number[] = [];
       for (let j = 0; j < k; j++) {
@@ -209,7 +227,7 @@ export function* levenbergMarquardtSteps(
         }
       }
       if (cols.length === 0) {
-        return out(true, 'every free parameter is held at a bound by the gradient');
+        return out(true, msg('fit.stop.held-at-bounds', 'Every free parameter is held at the edge of its range: χ² would fall only outside the ranges.'));
       }
       model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal);
       needJacobian = false;
@@ -222,7 +240,7 @@ export function* levenbergMarquardtSteps(
         scheme !== 'forward' &&
         gaussNewtonReduction(model) <= FIT_DEFAULTS.stationaryNoiseFraction * noise
       ) {
-        return out(true, `the Gauss–Newton step from the solution predicts a χ² reduction below ${FIT_DEFAULTS.stationaryNoiseFraction} of its rounding noise`);
+        return out(true, msg('fit.stop.stationary', 'No step can lower χ² by more than its rounding noise: a minimum was found.'));
       }
     }
     const m = model!;
@@ -327,7 +345,7 @@ export function* levenbergMarquardtSteps(
         needJacobian = true;
         continue;
       }
-      return out(true, 'Gauss–Newton steps change χ² only at the rounding-noise level');
+      return out(true, msg('fit.stop.rounding-noise', 'Further steps change χ² only at the level of its rounding noise: a minimum was found.'));
     }
     const actRel = Number.isFinite(actual) ? Math.abs(actual) / costBefore : Infinity;
     const predRel = pred / costBefore;
@@ -349,7 +367,12 @@ export function* levenbergMarquardtSteps(
         if (restarts >= FIT_DEFAULTS.maxRestarts) {
           return out(
             false,
-            `step became negligible while the Gauss–Newton model still predicts a relative χ² reduction of ${gnRel.toExponential(2)} (gradient cosine ${gcos.toExponential(2)}) after ${restarts} restarts`
+            msg(
+              'fit.stop.stalled',
+              'The parameters stopped changing while χ² could still fall (by a fraction of about %1), even after %2 restarts: try other start values.',
+              { value: gnRel, digits: 2 },
+              restarts
+            )
           );
         }
         restarts++;
@@ -359,10 +382,10 @@ export function* levenbergMarquardtSteps(
         continue;
       }
       const which = ftolHit
-        ? `relative reduction of χ² below ftol (${problem.ftol})`
+        ? msg('fit.stop.chi2-settled', 'χ² stopped decreasing.')
         : machineHit
-          ? 'no further reduction possible at machine precision'
-          : `relative step below xtol (${problem.xtol})`;
+          ? msg('fit.stop.machine-precision', 'χ² cannot decrease any further at the precision of the computer.')
+          : msg('fit.stop.parameters-settled', 'The parameters stopped changing.');
       return out(true, which);
     }
   }

@@ -18,8 +18,11 @@
  * a χ² inconsistent with the binary64 one at the same parameters.
  */
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/core';
 import { add, mulNumber, sqr, sub } from '../numeric/dd/core';
+import { wholeNumber } from '../numeric/messageArgs';
 import { FIT_DEFAULTS } from './defaults';
 import type { ResidualEvaluator } from './evaluator';
 import { costNoise } from './kernels';
@@ -43,10 +46,15 @@ export interface IRefinement {
   residuals: Float64Array | null;
   /** Gauss–Newton steps taken (0 when not refined). */
   steps: number;
-  /** Text appended to the fit's reason when refined, else null. */
-  note: string | null;
-  /** Warning when refinement was wanted but could not run, else null. */
-  warning: string | null;
+  /** Note for the fit's `notes` when refined (code `fit.note.double-double*`), else null. */
+  note: ICoreMessage | null;
+  /** Warning when refinement was wanted but could not run (codes `fit.refine-skipped.*`), else null. */
+  warning: ICoreMessage | null;
+}
+
+/** Why a precise evaluation failed: the model's error text, or null when it gave NaN or ∞. */
+interface IPreciseFailure {
+  error: string | null;
 }
 
 function ddArray(hi: Float64Array, lo: Float64Array | null): IDoubleDoubleArray {
@@ -64,14 +72,14 @@ function preciseResiduals(
   x: IDoubleDoubleArray,
   y: IDoubleDoubleArray,
   out: IDoubleDoubleArray
-): { r: IDoubleDouble[]; chi2: IDoubleDouble } | string {
+): { r: IDoubleDouble[]; chi2: IDoubleDouble } | IPreciseFailure {
   const n = problem.n;
   out.hi.fill(Number.NaN);
   out.lo.fill(0);
   try {
     problem.model.evaluatePrecise!(p, x, out);
   } catch (err) {
-    return `evaluatePrecise threw: ${err instanceof Error ? err.message : String(err)}`;
+    return { error: err instanceof Error ? err.message : String(err) };
   }
   const w = problem.weights;
   const r: IDoubleDouble[] = new Array<IDoubleDouble>(n);
@@ -85,7 +93,7 @@ function preciseResiduals(
     chi2 = add(chi2, sqr(ri));
   }
   if (!Number.isFinite(chi2.hi) || !Number.isFinite(chi2.lo)) {
-    return 'evaluatePrecise returned NaN or ∞';
+    return { error: null };
   }
   return { r, chi2 };
 }
@@ -110,7 +118,10 @@ function solveStep(jac: Float64Array, rhs: Float64Array, n: number, k: number): 
   }
   const svd = new SingularValueDecomposition(a, { autoTranspose: true });
   const s = svd.diagonal;
-  const smax = Math.max(...s);
+  let smax = 0;
+  for (const v of s) {
+    smax = Math.max(smax, v);
+  }
   if (!s.every((v) => v > FIT_DEFAULTS.singularTolerance * smax)) {
     return null;
   }
@@ -145,7 +156,7 @@ function roundingNoise(problem: IFitProblem, o: ILmOutcome): number {
   return costNoise(o.cost, e2);
 }
 
-function unchanged(o: ILmOutcome, warning: string | null = null): IRefinement {
+function unchanged(o: ILmOutcome, warning: ICoreMessage | null = null): IRefinement {
   return { outcome: o, residuals: null, steps: 0, note: null, warning };
 }
 
@@ -165,23 +176,35 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   if (!(noise > FIT_DEFAULTS.refineNoiseFraction * o.cost)) {
     return unchanged(o);
   }
-  const skip = (why: string): IRefinement =>
-    unchanged(o, `χ² is within binary64 rounding noise (noise ${(noise / Math.max(o.cost, Number.MIN_VALUE)).toExponential(1)}·χ²) but double-double refinement was skipped: ${why}`);
+  const share = { value: noise / Math.max(o.cost, Number.MIN_VALUE), digits: 2 };
+  const skip = (warning: ICoreMessage): IRefinement => unchanged(o, warning);
+  const failed = (f: IPreciseFailure): IRefinement =>
+    skip(
+      f.error !== null
+        ? msg('fit.refine-skipped.precise-failed', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: the precise form of the model failed (%2).', share, f.error)
+        : msg('fit.refine-skipped.precise-not-finite', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: the precise form of the model gives values that are not finite.', share)
+    );
   if (n > FIT_DEFAULTS.largeRows) {
-    return skip(`more than ${FIT_DEFAULTS.largeRows} points`);
+    return skip(
+      msg('fit.refine-skipped.too-many-points', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: that is done for at most %2 points.', share, wholeNumber(FIT_DEFAULTS.largeRows))
+    );
   }
   const full = ev.fullParameters(o.p);
   for (const j of free) {
     const tol = 1e-12 * Math.max(1, Math.abs(full[j]));
     if (full[j] - problem.lower[j] <= tol || problem.upper[j] - full[j] <= tol) {
-      return skip(`${problem.names[j]} is at a bound`);
+      return skip(
+        msg('fit.refine-skipped.at-bound', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: %2 is at the edge of its range.', share, problem.names[j])
+      );
     }
   }
   const jac = new Float64Array(n * k);
   if (o.jacobian) {
     jac.set(o.jacobian.subarray(0, n * k));
   } else if (!ev.jacobian(o.p, o.f, jac, 'extrapolated')) {
-    return skip('the Jacobian at the solution is not finite');
+    return skip(
+      msg('fit.refine-skipped.slopes-not-finite', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: the slopes of the model are not finite at the result.', share)
+    );
   }
   const p = ddArray(full, null);
   const x = ddArray(problem.x, problem.xLow);
@@ -190,15 +213,21 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
   let out: IDoubleDoubleArray = { hi: new Float64Array(n), lo: new Float64Array(n) };
   let outTrial: IDoubleDoubleArray = { hi: new Float64Array(n), lo: new Float64Array(n) };
   let current = preciseResiduals(problem, p, x, y, out);
-  if (typeof current === 'string') {
-    return skip(current);
+  if (!('chi2' in current)) {
+    return failed(current);
   }
   // A correct precise model differs from the binary64 one by rounding only:
   // its χ² at the same point is within a few times χ² + noise.
   const chi2Start = current.chi2.hi + current.chi2.lo;
   if (!(chi2Start <= CONSISTENCY_FACTOR * (o.cost + noise))) {
     return skip(
-      `evaluatePrecise disagrees with evaluate (χ² ${chi2Start.toExponential(3)} in double-double against ${o.cost.toExponential(3)} in binary64 at the same parameters)`
+      msg(
+        'fit.refine-skipped.precise-disagrees',
+        'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: the precise form of the model disagrees with the ordinary one (χ² %2 against %3 at the same parameters).',
+        share,
+        chi2Start,
+        o.cost
+      )
     );
   }
   let steps = 0;
@@ -210,7 +239,9 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
     }
     const delta = solveStep(jac, rhs, n, k);
     if (!delta) {
-      return skip('the Jacobian at the solution is rank-deficient');
+      return skip(
+        msg('fit.refine-skipped.rank-deficient', 'χ² is within the rounding noise of double precision (%1 of χ²) and was not recomputed more precisely: the data do not determine every parameter at the result.', share)
+      );
     }
     // Predicted χ² change ‖J·δ‖².
     let predicted = 0;
@@ -235,8 +266,8 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
       break;
     }
     const next = preciseResiduals(problem, trial, x, y, outTrial);
-    if (typeof next === 'string') {
-      return skip(next);
+    if (!('chi2' in next)) {
+      return failed(next);
     }
     const chi2Now = current.chi2.hi + current.chi2.lo;
     const chi2Next = next.chi2.hi + next.chi2.lo;
@@ -265,12 +296,24 @@ export function refineInDoubleDouble(problem: IFitProblem, ev: ResidualEvaluator
     residuals[i] = u.hi + u.lo;
   }
   const chi2 = final.chi2.hi + final.chi2.lo;
-  const lows = problem.xLow || problem.yLow ? ' from the exact data (x + xLow, y + yLow)' : '';
   return {
     outcome: { ...o, p: pRounded, r, f, cost: chi2, jacobian: null, normal: null },
     residuals,
     steps,
-    note: `χ² and residuals in double-double arithmetic${lows} after ${steps} Gauss–Newton refinement step(s) (binary64 rounding noise was ${(noise / Math.max(o.cost, Number.MIN_VALUE)).toExponential(1)}·χ²)`,
+    note:
+      problem.xLow || problem.yLow
+        ? msg(
+            'fit.note.double-double-exact-data',
+            'χ² and the residuals were computed with about 32 significant digits from the data exactly as written, after %1 refinement steps, because double-precision rounding noise was %2 of χ².',
+            steps,
+            share
+          )
+        : msg(
+            'fit.note.double-double',
+            'χ² and the residuals were computed with about 32 significant digits, after %1 refinement steps, because double-precision rounding noise was %2 of χ².',
+            steps,
+            share
+          ),
     warning: null
   };
 }

@@ -18,6 +18,17 @@ export interface ICovarianceFactor {
   condition: number;
 }
 
+/** Smallest and largest value by a loop (spreading a long array into Math.min/max overflows the call stack); NaN propagates. */
+function extremes(values: ArrayLike<number>): { min: number; max: number } {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    min = Math.min(min, values[i]);
+    max = Math.max(max, values[i]);
+  }
+  return { min, max };
+}
+
 /**
  * (JᵀJ)⁻¹ for the weighted row-major n×k Jacobian `jac`, via column
  * equilibration. `normal`, when given, is JᵀJ (k×k, symmetric) already
@@ -57,7 +68,8 @@ export function inverseNormal(
   });
   let s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
   let v: Matrix = evd.eigenvectorMatrix;
-  const ratio = Math.min(...evd.realEigenvalues) / Math.max(...evd.realEigenvalues);
+  const eig = extremes(evd.realEigenvalues);
+  const ratio = eig.min / eig.max;
   const useSvd = n <= FIT_DEFAULTS.largeRows && !(ratio >= FIT_DEFAULTS.normalEquationsMinRatio);
   if (useSvd) {
     const js = new Matrix(n, k);
@@ -74,8 +86,7 @@ export function inverseNormal(
     s2 = svd.diagonal.map((s) => s * s);
     v = svd.rightSingularVectors;
   }
-  const smax = Math.max(...s2);
-  const smin = Math.min(...s2);
+  const { min: smin, max: smax } = extremes(s2);
   const tol = useSvd
     ? FIT_DEFAULTS.singularTolerance * FIT_DEFAULTS.singularTolerance
       : Math.max(FIT_DEFAULTS.singularTolerance ** 2, Number.EPSILON * k);

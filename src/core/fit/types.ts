@@ -6,6 +6,8 @@
  * `evaluate` then reads `H[x[i]]`, `T[x[i]]` for each point `i`.
  */
 import type { IDoubleDoubleArray } from '../numeric/dd/core';
+import { CoreMessageError } from '../messages';
+import type { ICoreMessage } from '../messages';
 
 /** A model y = f(x; p) with named parameters. */
 export interface IFitModel {
@@ -66,7 +68,15 @@ export interface IFitData {
 export interface IFitProgress {
   iteration: number;
   evaluations: number;
+  /** χ² at the current point of the iteration (the best point so far). */
   cost: number;
+  /** Parameter names, in the order of `values`. */
+  parameters?: readonly string[];
+  /**
+   * All parameter values (fixed ones included) at the point whose χ² is
+   * `cost`: what a fit stopped now would return. A fresh array.
+   */
+  values?: number[];
 }
 
 /**
@@ -93,7 +103,7 @@ export interface IFitOptions {
   confidenceLevel?: number;
   /** Called after every accepted or rejected iteration. */
   onProgress?: (p: IFitProgress) => void;
-  /** Cancellation: return true to stop; best-so-far is returned with converged=false, reason 'cancelled'. */
+  /** Cancellation: return true to stop; best-so-far is returned with converged=false, reason code 'fit.stop.cancelled'. */
   shouldStop?: () => boolean;
 }
 
@@ -138,7 +148,7 @@ export interface IFitResult {
    * then polished by Gauss–Newton steps with double-double residuals of the
    * exact data (x + xLow, y + yLow), and χ² = Σr² was summed in
    * double-double (values are the refined parameters rounded to binary64).
-   * `reason` says so too.
+   * `notes` say so too.
    */
   residualArithmetic: 'binary64' | 'double-double';
   /** Unweighted residuals yᵢ − f(xᵢ) (observed minus model). */
@@ -150,8 +160,12 @@ export interface IFitResult {
   iterations: number;
   /** True only when a convergence test was met at a non-degenerate point. */
   converged: boolean;
-  reason: string;
-  warnings: string[];
+  /** Why the fit stopped, as a sentence (codes `fit.stop.*`). */
+  reason: ICoreMessage;
+  /** What limits the result (singular or ill-conditioned covariance, strong correlations, values at a bound …). */
+  warnings: ICoreMessage[];
+  /** How the result was obtained, when that is worth saying (double-double refinement, a coarse first stage …); not warnings. */
+  notes: ICoreMessage[];
   /** Whether each parameter was fixed (fixed ones have zero standard error and covariance). */
   fixed: boolean[];
   /**
@@ -168,10 +182,10 @@ export interface IFitResult {
   };
 }
 
-/** Precise error thrown for invalid inputs at the boundary of the engine. */
-export class FitInputError extends Error {
-  constructor(message: string) {
-    super(message);
+/** Precise error thrown for invalid inputs at the boundary of the engine (`detail` holds the message, codes `fit.*`). */
+export class FitInputError extends CoreMessageError {
+  constructor(detail: ICoreMessage) {
+    super(detail);
     this.name = 'FitInputError';
   }
 }

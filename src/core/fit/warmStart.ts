@@ -84,7 +84,7 @@ export function* warmStartedSteps(
   const coarse = yield* levenbergMarquardtSteps(sub, subEv, {
     shouldStop: hooks.shouldStop,
     onProgress: hooks.onProgress
-      ? (p) => hooks.onProgress!({ iteration: p.iteration, evaluations: 0, cost: p.cost * scale })
+      ? (p) => hooks.onProgress!({ ...p, evaluations: 0, cost: p.cost * scale })
       : undefined
   });
   const info: IWarmStartInfo = {
@@ -94,7 +94,7 @@ export function* warmStartedSteps(
     converged: coarse.converged,
     used: false
   };
-  if (coarse.reason === 'cancelled') {
+  if (coarse.reason.code === 'fit.stop.cancelled') {
     // Nothing on the full data yet: the best point is the subsample's, evaluated on all points.
     const best = { ...problem, start: ev.fullParameters(coarse.p) };
     return { outcome: yield* levenbergMarquardtSteps(best, ev, { ...hooks, shouldStop: () => true }), warmStart: info };
@@ -104,7 +104,7 @@ export function* warmStartedSteps(
   }
   const start = ev.fullParameters(coarse.p);
   const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, hooks);
-  if (fine.converged || fine.reason === 'cancelled') {
+  if (fine.converged || fine.reason.code === 'fit.stop.cancelled') {
     info.used = true;
     return { outcome: fine, warmStart: info };
   }

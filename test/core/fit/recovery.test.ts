@@ -3,6 +3,7 @@
  * bounds, fixed parameters and the uncertainty conventions.
  */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { fitCurve } from '../../../src/core/fit/index';
 import { decay, line, linspace, powerLaw } from './models';
 import { mulberry32, normalGenerator } from './prng';
@@ -86,11 +87,11 @@ describe('recovery of known parameters', () => {
     const r = fitCurve(decay, { x, y }, { start: [2, 0.3, 0.5], upper: [10, 0.5, 10] });
     expect(r.values[1]).toBeLessThanOrEqual(0.5);
     expect(r.values[1]).toBe(0.5);
-    expect(r.warnings.some((w) => w.includes('b = 0.5 is at a bound'))).toBe(true);
+    expect(r.warnings.some((w) => w.code === 'fit.at-bound' && messageText(w).startsWith('b = 0.5 is at the edge'))).toBe(true);
     const inside = fitCurve(decay, { x, y }, { start: [2, 0.3, 0.5], lower: [0, 0, 0], upper: [10, 2, 10] });
     expect(inside.converged).toBe(true);
     expect(Math.abs(inside.values[1] - 0.7)).toBeLessThan(0.05);
-    expect(inside.warnings.some((w) => w.includes('bound'))).toBe(false);
+    expect(inside.warnings.some((w) => w.code === 'fit.at-bound')).toBe(false);
   });
 
   it('finite-difference and analytic Jacobians reach the same optimum', () => {

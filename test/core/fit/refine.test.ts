@@ -8,6 +8,7 @@
  * validation of the low parts.
  */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { FIT_DEFAULTS, FitInputError, fitCurve } from '../../../src/core/fit/index';
 import type { IFitModel, IFitResult } from '../../../src/core/fit/index';
 import * as DD from '../../../src/core/numeric/dd/index';
@@ -141,14 +142,15 @@ describe('double-double refinement', () => {
       expect(plain.converged).toBe(true);
       expect(refined.residualArithmetic).toBe('double-double');
       expect(plain.residualArithmetic).toBe('binary64');
-      expect(refined.reason).toMatch(/double-double arithmetic from the exact data .* Gauss–Newton refinement step/);
+      expect(refined.notes.map((n) => n.code)).toEqual(['fit.note.double-double-exact-data']);
+      expect(messageText(refined.notes[0])).toMatch(/^χ² and the residuals were computed with about 32 significant digits from the data exactly as written, after \d+ refinement steps/);
       // binary64: χ² is off in the first digits; double-double: to ~1e-12 or better.
       expect(relErr(plain.chi2, exact)).toBeGreaterThan(1e-6);
       expect(relErr(refined.chi2, exact)).toBeLessThan(1e-12);
       // The parameters are the exact minimiser TRUE_P, to rounding.
       refined.values.forEach((v, j) => expect(relErr(v, TRUE_P[j])).toBeLessThan(2.3e-16));
       // Residuals y − f are d.
-      const dMax = Math.max(...s.d.map(Math.abs));
+      const dMax = s.d.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
       refined.residuals.forEach((r, i) => expect(Math.abs(r - s.d[i])).toBeLessThan(1e-12 * dMax));
       if (weighted) {
         // Known σ: errors do not depend on χ², so both fits agree on them.
@@ -179,7 +181,7 @@ describe('double-double refinement', () => {
     const s = synthetic(false);
     const r = fitCurve(decayModel('dd'), { x: s.x, y: s.y }, { start: START });
     expect(r.residualArithmetic).toBe('double-double');
-    expect(r.reason).not.toMatch(/exact data/);
+    expect(r.notes.map((n) => n.code)).toEqual(['fit.note.double-double']);
     // Dropping yLow (≈ 1e-17) and xLow moves χ² by far more than 1e-12.
     expect(relErr(r.chi2, toNumber(s.chi2))).toBeGreaterThan(1e-6);
   });
@@ -209,9 +211,12 @@ describe('double-double refinement', () => {
       expect(r.residualArithmetic).toBe('binary64');
       expect(r.values).toEqual(plain.values);
       expect(r.chi2).toBe(plain.chi2);
-      const warning = r.warnings.find((w) => /double-double refinement was skipped/.test(w));
-      const why = { throws: /threw: no precise model today/, nan: /NaN or ∞/, wrong: /evaluatePrecise disagrees with evaluate/ };
-      expect(warning, kind).toMatch(why[kind]);
+      const warning = r.warnings.find((w) => w.code.startsWith('fit.refine-skipped.'));
+      const why = { throws: 'fit.refine-skipped.precise-failed', nan: 'fit.refine-skipped.precise-not-finite', wrong: 'fit.refine-skipped.precise-disagrees' };
+      expect(warning?.code, kind).toBe(why[kind]);
+      if (kind === 'throws') {
+        expect(messageText(warning!)).toMatch(/no precise model today/);
+      }
     }
   });
 
@@ -222,7 +227,8 @@ describe('double-double refinement', () => {
     const r = fitCurve(decayModel('dd'), { x, y }, { start: START });
     expect(r.converged).toBe(true);
     expect(r.residualArithmetic).toBe('binary64');
-    expect(r.warnings.some((w) => /refinement was skipped: more than 20000 points/.test(w))).toBe(true);
+    const warning = r.warnings.find((w) => w.code === 'fit.refine-skipped.too-many-points');
+    expect(warning && messageText(warning)).toMatch(/at most 20000 points/);
   });
 
   it('does not refine a fit that did not converge', () => {
@@ -238,14 +244,14 @@ describe('validation of the low parts', () => {
   const y = [1, 0.5, 0.25, 0.125];
   const opts = { start: [1, 1, 0] };
   it('rejects a wrong length, non-finite entries and entries above one ulp', () => {
-    expect(() => fitCurve(decayModel(), { x, y, xLow: [0, 0, 0] }, opts)).toThrow(/data\.xLow has length 3, expected 4/);
+    expect(() => fitCurve(decayModel(), { x, y, xLow: [0, 0, 0] }, opts)).toThrow('There are 3 low-order parts of x for 4 points: give one per point.');
     expect(() => fitCurve(decayModel(), { x, y, yLow: [0, Number.NaN, 0, 0] }, opts)).toThrow(FitInputError);
-    expect(() => fitCurve(decayModel(), { x, y, yLow: [0, Infinity, 0, 0] }, opts)).toThrow(/data\.yLow\[1\] is Infinity/);
+    expect(() => fitCurve(decayModel(), { x, y, yLow: [0, Infinity, 0, 0] }, opts)).toThrow(/^Low-order part 2 of y is ∞: /);
     expect(() => fitCurve(decayModel(), { x, y, yLow: [0, 1e-15, 0, 0] }, opts)).toThrow(
-      /data\.yLow\[1\] = 1e-15 exceeds one unit in the last place of the high part 0\.5/
+      /^Low-order part 2 of y \(1e-15\) is larger than one unit in the last place of its value \(0\.5\)/
     );
     // Zero high part: only a low part of at most the smallest subnormal.
-    expect(() => fitCurve(decayModel(), { x, y, xLow: [1e-300, 0, 0, 0] }, opts)).toThrow(/data\.xLow\[0\]/);
+    expect(() => fitCurve(decayModel(), { x, y, xLow: [1e-300, 0, 0, 0] }, opts)).toThrow(/^Low-order part 1 of x /);
   });
 
   it('accepts low parts up to one ulp', () => {

@@ -68,7 +68,7 @@ describe('warm start from a strided subsample', () => {
     let calls = 0;
     const r = fitCurve(powerLawModel({ aboveTc: 'signed' }), { x: T, y: Y }, { start: START, shouldStop: () => ++calls > 4 });
     expect(r.converged).toBe(false);
-    expect(r.reason).toBe('cancelled');
+    expect(r.reason.code).toBe('fit.stop.cancelled');
     expect(r.residuals).toHaveLength(N);
     expect(Number.isFinite(r.chi2)).toBe(true);
     // the subsample stage moved away from the start before the stop
