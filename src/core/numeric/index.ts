@@ -4,4 +4,8 @@ export type { PolyCoefficients } from './polyroots';
 export { bracketRoot, goldenMinimum } from './scalar';
 export type { IScalarRootResult } from './scalar';
 export { mulberry32 } from './random';
+export { fitLine, lineRoot, smoothedDerivative } from './linear';
+export type { ILineFit } from './linear';
+export { hessian, invert, nelderMead } from './simplex';
+export type { ISimplexResult } from './simplex';
 export { ulp } from './ulp';

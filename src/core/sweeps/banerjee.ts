@@ -4,7 +4,7 @@
  * along the isotherm. A slope below zero by more than `zThreshold` standard
  * errors flags the isotherm.
  */
-import { fitLine } from './linear';
+import { fitLine } from '../numeric/linear';
 import type { IIsotherm, IValueSigma } from './types';
 
 /** Local-slope summary of one isotherm. */

@@ -7,7 +7,7 @@
  * (Tc, β, γ) by Nelder–Mead. σ from the cost's Hessian, treating the cost as
  * a residual mean square.
  */
-import { hessian, invert, nelderMead } from './simplex';
+import { hessian, invert, nelderMead } from '../numeric/simplex';
 import type { IIsotherm, IValueSigma } from './types';
 
 /** Options of {@link scalingCollapse}. */

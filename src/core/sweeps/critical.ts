@@ -6,7 +6,7 @@
  */
 import type { IMeasuredExponents, IRelationCheck } from '../physics/universality';
 import { checkScalingRelations } from '../physics/universality';
-import { fitLine } from './linear';
+import { fitLine } from '../numeric/linear';
 import type { IIsotherm, IValueSigma } from './types';
 
 /** Options of {@link criticalIsotherm}. */

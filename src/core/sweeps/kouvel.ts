@@ -7,7 +7,7 @@
  * give effective exponents at each T.
  */
 import type { ITemperaturePoint } from './arrott';
-import { fitLine, lineRoot, smoothedDerivative } from './linear';
+import { fitLine, lineRoot, smoothedDerivative } from '../numeric/linear';
 import type { IValueSigma } from './types';
 import { SweepInputError } from './types';
 

@@ -4,8 +4,8 @@
  * high-field part of each isotherm. β = ½, γ = 1 is the Arrott plot [B5 in REFERENCES.md].
  * c0 > 0 gives Ms = c0^β; x0 = −c0/c1 > 0 gives 1/χ0 = x0^γ [B5, B6 in REFERENCES.md].
  */
-import type { ILineFit } from './linear';
-import { fitLine, lineRoot } from './linear';
+import type { ILineFit } from '../numeric/linear';
+import { fitLine, lineRoot } from '../numeric/linear';
 import type { IIsotherm, IValueSigma } from './types';
 import { SweepInputError } from './types';
 

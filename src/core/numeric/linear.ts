@@ -2,6 +2,19 @@
  * Small closed-form least-squares helpers: a straight line with its
  * covariance (errors scaled by the residual variance), and the derivative
  * of a local quadratic (smoothed derivative for Kouvel–Fisher).
+ *
+ * Methods: ordinary least squares from sums centred on the means (two
+ * passes), covariance s²·(XᵀX)⁻¹ with s² = RSS/(n − 2); the root of the
+ * line with σ by first-order propagation of that covariance; the local
+ * quadratic from its 3×3 normal equations in u = x − xᵢ, solved by Cramer's
+ * rule.
+ *
+ * Accuracy: the centred sums keep the line's relative error near
+ * ε·cond (ε = 2⁻⁵², cond ≈ 1 + |x̄|/sd(x)); the propagated σ of the root
+ * is first order, fine while σ(slope) ≪ |slope|. The smoothed derivative
+ * is exact for quadratic data; otherwise its truncation error is
+ * O(w²·|y‴|) for a window of width w, and its rounding error grows as
+ * ε·|y|/w.
  */
 
 /** y = intercept + slope·x with covariance [[var a, cov], [cov, var b]]. */

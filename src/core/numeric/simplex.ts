@@ -2,6 +2,18 @@
  * Nelder–Mead minimisation (standard reflection/expansion/contraction/shrink
  * coefficients 1, 2, ½, ½) with a finite-difference Hessian for error
  * estimates. Reports convergence and keeps the best point seen.
+ *
+ * Methods: the simplex method of Nelder & Mead with the coefficients of
+ * Lagarias et al. [N9 in REFERENCES.md]; the Hessian by central differences
+ * (diagonal from three points, off-diagonal from four); a small matrix
+ * inverse by Gauss–Jordan elimination with partial pivoting.
+ *
+ * Accuracy: Nelder–Mead has no general convergence guarantee (it can stall
+ * away from a minimum in higher dimensions); "converged" means only that the
+ * simplex values agree to ftol relative and its size is below xtol times the
+ * initial steps, so a minimum is located to about that size, and its value
+ * to ftol. The Hessian has truncation error O(h²) and rounding error
+ * O(ε|f|/h²) (ε = 2⁻⁵²): choose h near ε^(1/4) times the parameter scale.
  */
 
 /** Outcome of a minimisation. */
