@@ -17,8 +17,18 @@ import { revealCell } from './reveal';
 import { SourceFollower } from './follow-source';
 import { removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
 import type { ISavedAnalysis } from '../core/saved';
+import { Notification } from '@jupyterlab/apputils';
 import { UUID } from '@lumino/coreutils';
+import { DEFAULT_KIND, isKnownKind } from '../core/analysis';
+import { AnalysisSession } from '../core/analysis/session';
+import { messageText, msg } from '../core/messages';
+import type { ICoreMessage } from '../core/messages';
+import { AnalysisRunner } from '../ui/analysis-runner';
+import { translateMessage } from '../ui/translate';
 import type { IPsiscapeSettings } from './settings';
+
+/** Saved analyses opened at once when a notebook opens; the rest wait for the reopen command. */
+export const RESTORE_AT_ONCE = 4;
 
 /** Command ids. */
 export namespace CommandIDs {
@@ -44,7 +54,7 @@ export interface ICommandContext {
 export function registerCommands(ctx: ICommandContext): {
   panels: AnalysisPanel[];
   followers: Map<AnalysisPanel, SourceFollower>;
-  restore: (panel: NotebookPanel) => number;
+  restore: (panel: NotebookPanel, limit?: number) => number;
   explorers: LandauExplorer[];
 } {
   const { app, tracker, translator } = ctx;
@@ -71,10 +81,17 @@ export function registerCommands(ctx: ICommandContext): {
     }
   };
 
+  /** Ask the user about problems with saved analyses, through JupyterLab's notifications. */
+  const notify = (path: string, problems: readonly ICoreMessage[]): void => {
+    for (const problem of problems) {
+      Notification.warning(trans.__('%1: %2', path, translateMessage(trans, problem)), { autoClose: false });
+    }
+  };
+
   /**
    * Open an analysis of a notebook output. With `saved`, the analysis is one
-   * the notebook holds: same id, columns and fit, and its snapshot stands in
-   * for the output when that is gone.
+   * the notebook holds: same id, columns and settings, and its snapshot stands
+   * in for the output when that is gone.
    */
   const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis): AnalysisPanel => {
     const source: ITableSource | null = saved
@@ -95,12 +112,28 @@ export function registerCommands(ctx: ICommandContext): {
         : trans.__('%1 · cell %2', panel.context.path, cellIndex + 1);
     const cellId = source?.cellId ?? panel.content.widgets[cellIndex]?.model.id ?? '';
     const id = saved?.id ?? UUID.uuid4();
+    const session = new AnalysisSession({ id, source });
+    let restoreFit = false;
+    if (saved) {
+      const restored = session.restore(saved, located ? parse : null, msg('session.snapshot-note', 'Data from the copy saved in the notebook (the plotted columns only).'));
+      restoreFit = restored.runFit;
+      if (!located) {
+        session.setSourceState('lost', msg('source.saved-copy', 'The source output of this saved analysis is not in the notebook; showing the saved copy of its data.'));
+      } else if (restored.problem) {
+        session.setSourceState('stale', msg('source.saved-copy-because', 'Showing the saved copy of the data: %1.', messageText(restored.problem)));
+      } else {
+        session.setSourceHash(hashBundle(located.bundle));
+      }
+    } else {
+      session.setParse(parse);
+    }
     const widget = new AnalysisPanel({
-      parse: saved ? { ok: false, message: trans.__('Restoring the saved analysis…') } : parse,
+      session,
       notebookName: panel.title.label || panel.context.path,
       sourceLabel,
       pointSize: ctx.settings().pointSize,
       translator,
+      runner: new AnalysisRunner(),
       onRevealSource: async () => {
         await revealCell(app, tracker, panel.context.path, cellId);
       },
@@ -109,7 +142,11 @@ export function registerCommands(ctx: ICommandContext): {
       },
       onForget: source
         ? () => {
-            removeAnalysis(panel, id);
+            session.dispose();
+            const blocked = removeAnalysis(panel, id);
+            if (blocked) {
+              notify(panel.context.path, [blocked]);
+            }
             widget.dispose();
           }
         : undefined
@@ -118,50 +155,54 @@ export function registerCommands(ctx: ICommandContext): {
     app.shell.activateById(widget.id);
     opened.push(widget);
     openIds.add(id);
-    widget.disposed.connect(() => openIds.delete(id));
-    if (saved) {
-      const reason = widget.applySaved(saved, located ? parse : null);
-      if (!located) {
-        widget.setSourceState('lost', trans.__('The source output of this saved analysis is not in the notebook; showing the saved copy of its data.'));
-      } else if (reason) {
-        widget.setSourceState('stale', trans.__('Showing the saved copy of the data: %1.', reason));
-      } else if (source) {
-        source.contentHash = hashBundle(located.bundle);
-      }
-    }
+    widget.disposed.connect(() => {
+      openIds.delete(id);
+      session.dispose();
+    });
     if (source) {
-      const follower = new SourceFollower(panel, widget, source, trans);
+      const follower = new SourceFollower(panel, session, () => void widget.fitSection.runFit());
       followers.set(widget, follower);
-      const save = () => {
-        const state = widget.savedState();
-        if (state && !panel.isDisposed && !widget.isDisposed) {
-          upsertAnalysis(panel, { id, source: { ...follower.source }, ...state });
+      session.saveRequested.connect((_, entry) => {
+        if (!panel.isDisposed) {
+          const blocked = upsertAnalysis(panel, entry);
+          if (blocked) {
+            notify(panel.context.path, [blocked]);
+          }
         }
-      };
-      widget.stateChanged.connect(save);
-      widget.disposed.connect(() => followers.delete(widget));
-      save();
+      });
+      widget.disposed.connect(() => {
+        follower.dispose();
+        followers.delete(widget);
+      });
+    }
+    if (restoreFit) {
+      widget.runFitWhenShown();
     }
     return widget;
   };
 
-  /** Reopen the analyses a notebook holds that are not open yet. */
-  const restore = (panel: NotebookPanel): number => {
+  /**
+   * Reopen the analyses a notebook holds that are not open yet: the first
+   * few at once (their fits run when their tab is first shown), the rest on
+   * request, so a notebook with hundreds of analyses opens at once.
+   */
+  const restore = (panel: NotebookPanel, limit = RESTORE_AT_ONCE): number => {
     const { analyses, problems } = savedAnalysesOf(panel);
-    if (problems.length) {
-      console.warn(`psiscape: ${panel.context.path}: ${problems.join('; ')}`);
-    }
-    let count = 0;
-    for (const saved of analyses) {
-      if (openIds.has(saved.id)) {
-        continue;
-      }
+    notify(panel.context.path, problems);
+    const closed = analyses.filter(a => !openIds.has(a.id) && isKnownKind(a.settings?.kind ?? DEFAULT_KIND));
+    const now = closed.slice(0, limit);
+    for (const saved of now) {
       const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
       const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
       open(panel, located, located ? parseOutput(located.bundle) : { ok: false, message: '' }, saved);
-      count++;
     }
-    return count;
+    if (closed.length > now.length) {
+      Notification.info(
+        trans.__('%1 holds %2 more saved analyses. Open them with “Reopen Saved Analyses” in the command palette.', panel.context.path, closed.length - now.length),
+        { autoClose: 8000 }
+      );
+    }
+    return now.length;
   };
 
   app.commands.addCommand(CommandIDs.analyseOutput, {
@@ -235,13 +276,17 @@ export function registerCommands(ctx: ICommandContext): {
       } catch (reason) {
         parse = { ok: false, message: trans.__('%1 could not be read: %2', path, String(reason)) };
       }
+      const session = new AnalysisSession({ id: UUID.uuid4(), source: null });
+      session.setParse(parse);
       const widget = new AnalysisPanel({
-        parse,
+        session,
         notebookName: path.split('/').pop() ?? path,
         sourceLabel: trans.__('file %1', path),
         pointSize: ctx.settings().pointSize,
-        translator
+        translator,
+        runner: new AnalysisRunner()
       });
+      widget.disposed.connect(() => session.dispose());
       place(widget, app.shell.currentWidget?.id ?? null);
       app.shell.activateById(widget.id);
       opened.push(widget);
@@ -255,7 +300,7 @@ export function registerCommands(ctx: ICommandContext): {
     isEnabled: () => tracker.currentWidget !== null,
     execute: () => {
       const panel = tracker.currentWidget;
-      return panel ? restore(panel) : 0;
+      return panel ? restore(panel, Infinity) : 0;
     }
   });
 

@@ -6,12 +6,12 @@
  */
 import type { ICodeCellModel, ICellModel } from '@jupyterlab/cells';
 import type { NotebookPanel } from '@jupyterlab/notebook';
-import type { TranslationBundle } from '@jupyterlab/translation';
 import type { IDisposable } from '@lumino/disposable';
+import type { AnalysisSession } from '../core/analysis/session';
+import { messageText, msg } from '../core/messages';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
 import { parseOutput } from '../core/table';
-import type { AnalysisPanel } from '../ui/analysis-panel';
 
 /** CSS class on a cell whose output an open analysis uses. */
 export const SOURCE_CELL_CLASS = 'jp-psiscape-mod-source';
@@ -21,21 +21,19 @@ export const SETTLE_MS = 150;
 
 /** Follows one analysis's source output. Dispose it when the analysis closes. */
 export class SourceFollower implements IDisposable {
-  constructor(notebook: NotebookPanel, analysis: AnalysisPanel, source: ITableSource, trans: TranslationBundle) {
+  /**
+   * @param onRefreshed - called after new data were taken from a re-run
+   * (the panel reruns a fit that was shown).
+   */
+  constructor(notebook: NotebookPanel, session: AnalysisSession, onRefreshed: () => void = () => undefined) {
     this._notebook = notebook;
-    this._analysis = analysis;
-    this._source = { ...source };
-    this._trans = trans;
+    this._session = session;
+    this._source = { ...session.source! };
+    this._onRefreshed = onRefreshed;
     const model = notebook.content.model;
     model?.cells.changed.connect(this._onCellsChanged, this);
     this._watchCell();
-    analysis.disposed.connect(() => this.dispose());
     notebook.disposed.connect(() => this.dispose());
-  }
-
-  /** The source as last seen (its hash follows the output). */
-  get source(): Readonly<ITableSource> {
-    return this._source;
   }
 
   /** Resolves after the pending check (if any) has run. */
@@ -114,45 +112,46 @@ export class SourceFollower implements IDisposable {
   }
 
   private _check(): void {
-    const analysis = this._analysis;
-    const trans = this._trans;
+    const session = this._session;
     const cell = this._cell;
     if (!cell) {
-      analysis.setSourceState('lost', trans.__('The source cell was deleted; this analysis keeps its last data.'));
+      session.setSourceState('lost', msg('source.cell-deleted', 'The source cell was deleted; this analysis keeps its last data.'));
       return;
     }
     this._setMarker(true);
     const outputs = cell.outputs;
     if (outputs.length === 0) {
-      analysis.setSourceState('waiting', trans.__('The source cell has no output now (is it running?); showing the last data.'));
+      session.setSourceState('waiting', msg('source.no-output', 'The source cell has no output now (is it running?); showing the last data.'));
       return;
     }
     if (this._source.outputIndex >= outputs.length) {
-      analysis.setSourceState(
-        'stale',
-        trans.__('The source cell now has %1 outputs, not output %2; showing the last data.', outputs.length, this._source.outputIndex + 1)
-      );
+      session.setSourceState('stale', msg('source.output-missing', 'The source cell now has %1 outputs, not output %2; showing the last data.', outputs.length, this._source.outputIndex + 1));
       return;
     }
     const bundle = outputs.get(this._source.outputIndex).data as Readonly<Record<string, unknown>>;
     const hash = hashBundle(bundle);
     if (hash === this._source.contentHash) {
-      analysis.setSourceState('live');
+      session.setSourceState('live');
       return;
     }
-    const problem = analysis.refreshFromSource(parseOutput(bundle));
+    const hadOutcome = session.outcome !== null;
+    const problem = session.refresh(parseOutput(bundle));
     if (problem) {
-      analysis.setSourceState('stale', trans.__('Not updated: %1. Showing the last data.', problem));
+      session.setSourceState('stale', msg('source.not-updated', 'Not updated: %1. Showing the last data.', messageText(problem)));
       return;
     }
     this._source.contentHash = hash;
-    analysis.setSourceState('live');
+    session.setSourceHash(hash);
+    session.setSourceState('live');
+    if (hadOutcome) {
+      this._onRefreshed();
+    }
   }
 
   private _notebook: NotebookPanel;
-  private _analysis: AnalysisPanel;
+  private _session: AnalysisSession;
   private _source: ITableSource;
-  private _trans: TranslationBundle;
+  private _onRefreshed: () => void;
   private _cell: ICodeCellModel | null = null;
   private _timer: ReturnType<typeof setTimeout> | undefined = undefined;
   private _idle: Promise<void> = Promise.resolve();

@@ -1,44 +1,32 @@
 /**
- * The fit controls of the analysis panel: model, model options, fit window,
- * Fit / Cancel with progress, and the result (values with standard errors,
- * convergence, warnings and cautions).
+ * The fit part of the analysis panel. It renders an {@link AnalysisSession}
+ * and sends it the user's choices: the analysis kind and its options (built
+ * from the catalogue), the fit window, Fit and Cancel. The result shows the
+ * verdict first (fits / converged but does not describe the data / did not
+ * converge), then values with standard errors, derived values, warnings,
+ * cautions and the convention used.
  */
 import type { TranslationBundle } from '@jupyterlab/translation';
-import { Signal } from '@lumino/signaling';
-import type { ISignal } from '@lumino/signaling';
 import { Widget } from '@lumino/widgets';
-import type { AnalysisModel, IAnalysisJob, IAnalysisOutcome } from '../core/analysis';
-import { formatPlain, formatWithError, parseStarts } from '../core/analysis';
-import type { ISavedFit } from '../core/saved';
-import { AnalysisCancelled, AnalysisRunner } from './analysis-runner';
+import { ANALYSIS_KINDS, formatPlain, kindById } from '../core/analysis';
+import type { IAnalysisOutcome, OptionSpec, OptionValue } from '../core/analysis';
+import type { AnalysisSession } from '../core/analysis/session';
+import type { AnalysisRunner } from './analysis-runner';
+import { runSessionFit } from './fit-run';
+import { renderOutcome } from './fit-result';
 import { outcomeNodes } from './outcome-nodes';
+import { translateMessage } from './translate';
 
 /** Landau coefficients of a fit (convention L). */
 export type ILandauOutcome = NonNullable<IAnalysisOutcome['landau']>;
 
-/** The data a fit runs on. */
-export interface IFitInput {
-  x: number[];
-  y: number[];
-  sigma?: number[];
-}
-
-const SPINS: [string, number][] = [
-  ['½', 0.5],
-  ['1', 1],
-  ['3/2', 1.5],
-  ['2', 2],
-  ['5/2', 2.5],
-  ['7/2', 3.5],
-  ['∞ (Langevin)', Infinity]
-];
-
-/** Fit controls and results. */
+/** Fit controls and results of one session. */
 export class FitSection extends Widget {
   constructor(options: FitSection.IOptions) {
     super();
     this._trans = options.trans;
-    this._runner = options.runner ?? new AnalysisRunner();
+    this._session = options.session;
+    this._runner = options.runner;
     this._onExploreLandau = options.onExploreLandau ?? null;
     this.addClass('jp-psiscape-FitSection');
     this.node.setAttribute('role', 'group');
@@ -46,24 +34,9 @@ export class FitSection extends Widget {
     this._build();
   }
 
-  /** Emitted when a fit finishes (outcome) or the data change (null). */
-  get outcomeChanged(): ISignal<this, IAnalysisOutcome | null> {
-    return this._outcomeChanged;
-  }
-
-  /** The latest outcome, or null. */
-  get outcome(): IAnalysisOutcome | null {
-    return this._outcome;
-  }
-
-  /** The fit window currently entered (falls back to the data range). */
-  get window(): { min: number; max: number } {
-    const min = Number(this._min.value);
-    const max = Number(this._max.value);
-    return {
-      min: this._min.value.trim() === '' || !Number.isFinite(min) ? this._range.min : min,
-      max: this._max.value.trim() === '' || !Number.isFinite(max) ? this._range.max : max
-    };
+  /** The session shown. */
+  get session(): AnalysisSession {
+    return this._session;
   }
 
   /** Resolves when the running fit (if any) has settled. */
@@ -71,286 +44,113 @@ export class FitSection extends Widget {
     return this._settled;
   }
 
-  /**
-   * New data: clears the result and, unless `keepWindow`, resets the window
-   * to the data range (new columns) — a refreshed source keeps the user's window.
-   */
-  setInput(input: IFitInput | null, keepWindow = false): void {
-    this._runner.cancel();
-    this._input = input;
-    let min = Infinity;
-    let max = -Infinity;
-    for (const v of input?.x ?? []) {
-      if (Number.isFinite(v)) {
-        min = Math.min(min, v);
-        max = Math.max(max, v);
-      }
-    }
-    this._range = { min, max };
-    if (!keepWindow) {
-      this._min.value = Number.isFinite(min) ? formatPlain(min) : '';
-      this._max.value = Number.isFinite(max) ? formatPlain(max) : '';
-    }
-    this._setOutcome(null);
-    this._status.textContent = '';
-  }
-
-  /** Choose a model programmatically (as the picker does). */
-  setModel(model: AnalysisModel): void {
-    this._model.value = model;
-    this._syncOptions();
-  }
-
-  /** Run the fit with the current controls. */
+  /** Run the fit with the session's controls (as the Fit button does). */
   runFit(): Promise<void> {
-    if (!this._input) {
-      this._status.textContent = this._trans.__('Choose x and y columns first.');
-      return Promise.resolve();
-    }
-    let job: IAnalysisJob;
-    let starts: Record<string, number> = {};
-    try {
-      job = this._job(this._input);
-      if (job.model === 'expression') {
-        starts = parseStarts(this._starts.value);
-      }
-    } catch (e) {
-      this._fail((e as Error).message);
-      return Promise.resolve();
-    }
-    this._fitButton.disabled = true;
-    this._cancelButton.disabled = false;
-    this._status.textContent = this._trans.__('Fitting…');
-    this._settled = this._runner
-      .run(job, starts, p => {
-        this._status.textContent = this._trans.__('Fitting… iteration %1, %2 evaluations, χ² %3', p.iteration, p.evaluations, formatPlain(2 * p.cost));
-      })
-      .then(
-        outcome => {
-          this._status.textContent = '';
-          this._setOutcome(outcome);
-        },
-        reason => {
-          if (reason instanceof AnalysisCancelled) {
-            this._status.textContent = this._trans.__('Fit cancelled; the previous result is kept.');
-          } else {
-            this._fail((reason as Error).message);
-          }
-        }
-      )
-      .finally(() => {
-        this._fitButton.disabled = false;
-        this._cancelButton.disabled = true;
-      });
+    this._settled = runSessionFit(this._session, this._runner);
     return this._settled;
   }
 
-  /** The controls as saved in a notebook. */
-  get controls(): ISavedFit {
-    const job = this._job({ x: [], y: [] });
-    return { model: job.model, options: job.options, window: job.window, starts: this._starts.value };
-  }
-
-  /** Set the controls from a saved analysis (does not run the fit). */
-  setControls(c: ISavedFit): void {
-    this.setModel(c.model);
-    this._min.value = Number.isFinite(c.window.min) ? formatPlain(c.window.min) : '';
-    this._max.value = Number.isFinite(c.window.max) ? formatPlain(c.window.max) : '';
-    if (c.options.J !== undefined) {
-      this._spin.value = String(c.options.J);
-    }
-    if (c.options.proxyPower !== undefined) {
-      this._proxy.value = String(c.options.proxyPower);
-    }
-    this._background.checked = c.options.background === true;
-    if (c.options.units) {
-      this._units.value = c.options.units;
-    }
-    this._expression.value = c.options.expression ?? '';
-    this._starts.value = c.starts;
-  }
-
-  /** Cancel a running fit. */
+  /** Cancel a running fit (its best values so far are kept, marked as such). */
   cancel(): void {
     this._runner.cancel();
   }
 
-  dispose(): void {
-    if (this.isDisposed) {
-      return;
+  /** Show the session's current state. */
+  render(): void {
+    const s = this._session;
+    const trans = this._trans;
+    if (this._kindSelect.value !== s.kind) {
+      this._kindSelect.value = s.kind;
     }
-    this._runner.dispose();
-    super.dispose();
-  }
-
-  private _job(input: IFitInput): IAnalysisJob {
-    const model = this._model.value as AnalysisModel;
-    return {
-      model,
-      x: input.x,
-      y: input.y,
-      sigma: input.sigma,
-      window: this.window,
-      options: {
-        J: Number(this._spin.value),
-        proxyPower: Number(this._proxy.value),
-        background: this._background.checked,
-        units: this._units.value === 'SI' ? 'SI' : 'cgs-emu',
-        expression: this._expression.value
+    if (this._optionsKind !== s.kind) {
+      this._buildOptions();
+    } else {
+      this._syncOptionValues();
+    }
+    const kind = kindById(s.kind);
+    this._description.textContent = kind ? translateMessage(trans, kind.description) : '';
+    const range = s.xRange();
+    const w = s.windowInput;
+    for (const [input, value, fallback] of [
+      [this._min, w.min, range.min],
+      [this._max, w.max, range.max]
+    ] as const) {
+      if (document.activeElement !== input) {
+        input.value = value === null ? '' : formatPlain(value);
+        input.placeholder = Number.isFinite(fallback) ? formatPlain(fallback) : '';
+        input.removeAttribute('aria-invalid');
       }
-    };
-  }
-
-  private _fail(message: string): void {
-    this._status.textContent = '';
-    this._error.textContent = this._trans.__('The fit could not run: %1', message);
-    this._error.hidden = false;
-  }
-
-  private _setOutcome(outcome: IAnalysisOutcome | null): void {
-    this._outcome = outcome;
-    this._error.hidden = true;
-    this._renderResult(outcome);
-    this._outcomeChanged.emit(outcome);
-  }
-
-  private _renderResult(outcome: IAnalysisOutcome | null): void {
-    const box = this._result;
-    box.replaceChildren();
-    if (!outcome) {
-      return;
     }
-    const fit = outcome.fit;
-    const head = document.createElement('p');
-    head.className = fit.converged ? 'jp-psiscape-fit-ok' : 'jp-psiscape-fit-warn';
-    head.textContent = fit.converged
-      ? this._trans.__('Converged (%1). %2 points fitted, χ²_red = %3.', fit.reason, outcome.used, formatPlain(fit.reducedChi2))
-      : this._trans.__('Not converged: %1. The values below are the best found so far; do not quote them.', fit.reason);
-    const equation = document.createElement('p');
-    equation.className = 'jp-psiscape-fit-equation';
-    equation.textContent = outcome.equation;
-
-    const table = document.createElement('table');
-    table.className = 'jp-psiscape-fit-table';
-    const caption = document.createElement('caption');
-    caption.textContent =
-      fit.errorScaling === 'from-sigma'
-        ? this._trans.__('Standard errors from the σ column (not rescaled).')
-        : this._trans.__('Standard errors scaled by √χ²_red (no σ column given).');
-    table.appendChild(caption);
-    const header = table.createTHead().insertRow();
-    for (const text of [this._trans.__('parameter'), this._trans.__('value ± standard error'), this._trans.__('%1 % interval', formatPlain(100 * fit.confidenceLevel))]) {
-      const th = document.createElement('th');
-      th.scope = 'col';
-      th.textContent = text;
-      header.appendChild(th);
+    const run = s.run;
+    const running = run.phase === 'running';
+    this._fitButton.disabled = running || s.plotted() === null;
+    this._cancelButton.disabled = !running;
+    this.node.dataset.runPhase = run.phase;
+    this._status.textContent =
+      run.phase === 'running'
+        ? run.progress
+          ? trans.__('Fitting… iteration %1, %2 evaluations, χ² %3', run.progress.iteration, run.progress.evaluations, formatPlain(2 * run.progress.cost))
+          : trans.__('Fitting…')
+        : '';
+    if (run.phase === 'failed') {
+      this._error.textContent = trans.__('The fit could not run: %1', translateMessage(trans, run.error));
+      this._error.hidden = false;
+    } else if (run.phase === 'cancelled') {
+      this._error.textContent = run.best
+        ? trans.__('Stopped by you after %1 iterations. Best values so far (no uncertainties, not a fit result): %2; χ² %3.', run.best.iteration, run.best.parameters.map((p, i) => `${p} = ${formatPlain(run.best!.values[i])}`).join(', '), formatPlain(run.best.chi2))
+        : trans.__('Stopped by you before the first iteration finished.');
+      this._error.hidden = false;
+    } else {
+      this._error.hidden = true;
     }
-    const body = table.createTBody();
-    fit.parameters.forEach((name, i) => {
-      const row = body.insertRow();
-      const [lo, hi] = fit.confidenceIntervals[i];
-      for (const text of [name, formatWithError(fit.values[i], fit.standardErrors[i]), `${formatPlain(lo)} … ${formatPlain(hi)}`]) {
-        row.insertCell().textContent = text;
-      }
+    renderOutcome(this._result, {
+      trans,
+      outcome: s.outcome,
+      current: s.outcomeIsCurrent,
+      running,
+      onExploreLandau: this._onExploreLandau
     });
-    // Derived values that repeat a parameter (same name, or the same value and error) are not shown twice.
-    const repeats = (d: { name: string; value: number; sigma: number }): boolean =>
-      fit.parameters.some((name, i) => name === d.name || (fit.values[i] === d.value && fit.standardErrors[i] === d.sigma));
-    for (const d of outcome.derived.filter(d => !repeats(d))) {
-      const row = body.insertRow();
-      row.className = 'jp-psiscape-fit-derived';
-      for (const text of [d.name, formatWithError(d.value, d.sigma), d.note]) {
-        row.insertCell().textContent = text;
-      }
-    }
-    const notes = document.createElement('ul');
-    notes.className = 'jp-psiscape-fit-notes';
-    for (const w of fit.warnings) {
-      const li = document.createElement('li');
-      li.className = 'jp-psiscape-fit-warning';
-      li.textContent = w;
-      notes.appendChild(li);
-    }
-    for (const c of outcome.cautions) {
-      const li = document.createElement('li');
-      li.textContent = c;
-      notes.appendChild(li);
-    }
-    if (outcome.skipped > 0) {
-      const li = document.createElement('li');
-      li.textContent = this._trans._n('%1 row in the window was left out for a missing value.', '%1 rows in the window were left out for missing values.', outcome.skipped);
-      notes.appendChild(li);
-    }
-    const convention = document.createElement('p');
-    convention.className = 'jp-psiscape-fit-convention';
-    convention.textContent = this._trans.__('Convention: %1', outcome.convention);
-    box.append(head, equation, table, notes, convention);
-    const landau = outcome.landau;
-    if (landau && this._onExploreLandau) {
-      const explore = document.createElement('button');
-      explore.type = 'button';
-      explore.className = 'jp-Button jp-mod-styled jp-mod-accept jp-psiscape-fit-explore';
-      explore.textContent = this._trans.__('Explore these coefficients');
-      explore.title = this._trans.__('Open the Landau free-energy explorer with the fitted coefficients');
-      explore.addEventListener('click', () => this._onExploreLandau?.(landau));
-      box.append(explore);
-    }
   }
 
   private _build(): void {
-    const node = this.node;
+    const trans = this._trans;
     const heading = document.createElement('h3');
-    heading.textContent = this._trans.__('Fit');
+    heading.textContent = trans.__('Fit');
     const row1 = document.createElement('div');
     row1.className = 'jp-psiscape-fit-row';
-    this._model = this._select('jp-psiscape-fit-model', [
-      ['power-law', this._trans.__('Critical power law A(1 − T/Tc)^β')],
-      ['weiss', this._trans.__('Weiss mean field M(T)')],
-      ['curie-weiss', this._trans.__('Curie–Weiss χ0 + C/(T − θ)')],
-      ['landau', this._trans.__('Landau 2-4-6 coefficients from ψ(T)')],
-      ['expression', this._trans.__('Your expression in x')]
-    ]);
-    row1.append(this._label(this._trans.__('model'), this._model));
-
-    this._proxy = this._select('jp-psiscape-fit-proxy', [
-      ['1', this._trans.__('y ∝ ψ (magnetisation, polarisation)')],
-      ['2', this._trans.__('y ∝ ψ² (intensity, SHG, superfluid density)')]
-    ]);
-    this._background = document.createElement('input');
-    this._background.type = 'checkbox';
-    this._background.className = 'jp-psiscape-fit-background';
-    this._spin = this._select('jp-psiscape-fit-spin', SPINS.map(([label, J]) => [String(J), label]));
-    this._units = this._select('jp-psiscape-fit-units', [
-      ['cgs-emu', this._trans.__('cgs molar (emu mol⁻¹ Oe⁻¹)')],
-      ['SI', this._trans.__('SI molar (m³ mol⁻¹)')]
-    ]);
-    this._expression = this._text('jp-psiscape-fit-expression', 'A*exp(-x/T0) + c');
-    this._starts = this._text('jp-psiscape-fit-starts', 'A = 1, T0 = 100');
-    this._optionRows = {
-      'power-law': [this._label(this._trans.__('data'), this._proxy), this._label(this._trans.__('constant background'), this._background)],
-      weiss: [this._label(this._trans.__('spin J'), this._spin)],
-      'curie-weiss': [this._label(this._trans.__('χ units'), this._units)],
-      landau: [],
-      expression: [this._label(this._trans.__('y ='), this._expression), this._label(this._trans.__('start values'), this._starts)]
-    };
-    const options = document.createElement('div');
-    options.className = 'jp-psiscape-fit-row jp-psiscape-fit-options';
-    for (const rows of Object.values(this._optionRows)) {
-      options.append(...rows);
+    this._kindSelect = document.createElement('select');
+    this._kindSelect.className = 'jp-mod-styled jp-psiscape-fit-kind';
+    for (const kind of ANALYSIS_KINDS) {
+      const option = document.createElement('option');
+      option.value = kind.id;
+      option.textContent = translateMessage(trans, kind.label);
+      this._kindSelect.appendChild(option);
     }
+    this._kindSelect.addEventListener('change', () => this._session.setKind(this._kindSelect.value));
+    row1.append(label(trans.__('analysis'), this._kindSelect));
+    this._description = document.createElement('p');
+    this._description.className = 'jp-psiscape-fit-description';
+
+    this._options = document.createElement('div');
+    this._options.className = 'jp-psiscape-fit-row jp-psiscape-fit-options';
 
     const row2 = document.createElement('div');
     row2.className = 'jp-psiscape-fit-row';
-    this._min = this._text('jp-psiscape-fit-min', '');
-    this._max = this._text('jp-psiscape-fit-max', '');
+    this._min = textInput('jp-psiscape-fit-min');
+    this._max = textInput('jp-psiscape-fit-max');
     this._min.inputMode = this._max.inputMode = 'decimal';
-    this._windowLabel = this._label(this._trans.__('fit window: x from'), this._min);
-    row2.append(this._windowLabel, this._label(this._trans.__('to'), this._max));
+    this._windowMessage = document.createElement('span');
+    this._windowMessage.className = 'jp-psiscape-fit-window-message';
+    this._windowMessage.setAttribute('aria-live', 'polite');
+    for (const input of [this._min, this._max]) {
+      input.addEventListener('change', () => this._windowChanged());
+    }
+    row2.append(label(trans.__('fit window: x from'), this._min), label(trans.__('to'), this._max), this._windowMessage);
 
     const row3 = document.createElement('div');
     row3.className = 'jp-psiscape-fit-row';
-    this._fitButton = this._button(this._trans.__('Fit'), 'jp-mod-accept jp-psiscape-fit-run', () => void this.runFit());
-    this._cancelButton = this._button(this._trans.__('Cancel'), 'jp-mod-reject jp-psiscape-fit-cancel', () => this.cancel());
+    this._fitButton = button(trans.__('Fit'), 'jp-mod-accept jp-psiscape-fit-run', () => void this.runFit());
+    this._cancelButton = button(trans.__('Cancel'), 'jp-mod-reject jp-psiscape-fit-cancel', () => this.cancel());
     this._cancelButton.disabled = true;
     this._status = document.createElement('span');
     this._status.className = 'jp-psiscape-fit-status';
@@ -358,78 +158,111 @@ export class FitSection extends Widget {
     row3.append(this._fitButton, this._cancelButton, this._status);
 
     ({ error: this._error, result: this._result } = outcomeNodes());
-    node.append(heading, row1, options, row2, row3, this._error, this._result);
-    this._model.addEventListener('change', () => this._syncOptions());
-    this._syncOptions();
+    this.node.append(heading, row1, this._description, this._options, row2, row3, this._error, this._result);
   }
 
-  private _syncOptions(): void {
-    const model = this._model.value as AnalysisModel;
-    for (const [key, rows] of Object.entries(this._optionRows)) {
-      for (const row of rows) {
-        row.hidden = key !== model;
+  /** A window end typed by the user: a number, or empty for the data's end. Anything else is refused and not applied. */
+  private _windowChanged(): void {
+    const read = (input: HTMLInputElement): number | null | undefined => {
+      const text = input.value.trim().replace(/\u2212/g, '-');
+      if (text === '') {
+        return null;
+      }
+      const v = Number(text);
+      return Number.isFinite(v) ? v : undefined;
+    };
+    const min = read(this._min);
+    const max = read(this._max);
+    this._min.toggleAttribute('aria-invalid', min === undefined);
+    this._max.toggleAttribute('aria-invalid', max === undefined);
+    if (min === undefined || max === undefined) {
+      this._windowMessage.textContent = this._trans.__('Write a number, or leave the field empty for the end of the data.');
+      return;
+    }
+    if (min !== null && max !== null && min > max) {
+      this._windowMessage.textContent = this._trans.__('The lower end of the window is above the upper end.');
+      return;
+    }
+    this._windowMessage.textContent = '';
+    this._session.setWindow(min, max);
+  }
+
+  /** Build the controls of the chosen kind's options from its catalogue entry. */
+  private _buildOptions(): void {
+    const s = this._session;
+    const kind = kindById(s.kind);
+    this._optionsKind = s.kind;
+    this._controls = new Map();
+    const items: HTMLElement[] = [];
+    for (const [key, spec] of Object.entries(kind?.options ?? {})) {
+      const control = this._control(key, spec);
+      this._controls.set(key, control);
+      items.push(label(translateMessage(this._trans, spec.label), control));
+    }
+    this._options.replaceChildren(...items);
+    this._options.hidden = items.length === 0;
+    this._syncOptionValues();
+  }
+
+  private _control(key: string, spec: OptionSpec): HTMLInputElement | HTMLSelectElement {
+    const s = this._session;
+    if (spec.type === 'boolean') {
+      const box = document.createElement('input');
+      box.type = 'checkbox';
+      box.className = `jp-psiscape-option jp-psiscape-option-${key}`;
+      box.addEventListener('change', () => s.setOption(key, box.checked));
+      return box;
+    }
+    if (spec.type === 'text') {
+      const input = textInput(`jp-psiscape-option jp-psiscape-option-${key}`);
+      input.placeholder = spec.placeholder;
+      input.addEventListener('change', () => s.setOption(key, input.value));
+      return input;
+    }
+    const select = document.createElement('select');
+    select.className = `jp-mod-styled jp-psiscape-option jp-psiscape-option-${key}`;
+    spec.choices.forEach((choice, i) => {
+      const option = document.createElement('option');
+      option.value = String(i);
+      option.textContent = translateMessage(this._trans, choice.label);
+      select.appendChild(option);
+    });
+    select.addEventListener('change', () => s.setOption(key, spec.choices[Number(select.value)].value));
+    return select;
+  }
+
+  private _syncOptionValues(): void {
+    const kind = kindById(this._session.kind);
+    const values = this._session.options;
+    for (const [key, control] of this._controls) {
+      const spec = kind?.options[key];
+      const value: OptionValue | undefined = values[key];
+      if (!spec || value === undefined || document.activeElement === control) {
+        continue;
+      }
+      if (spec.type === 'boolean') {
+        (control as HTMLInputElement).checked = value === true;
+      } else if (spec.type === 'text') {
+        control.value = String(value);
+      } else {
+        control.value = String(spec.choices.findIndex(c => c.value === value));
       }
     }
   }
 
-  private _label(text: string, control: HTMLElement): HTMLLabelElement {
-    const label = document.createElement('label');
-    label.className = 'jp-psiscape-picker';
-    const span = document.createElement('span');
-    span.textContent = text;
-    label.append(span, control);
-    return label;
-  }
-
-  private _select(cls: string, options: [string, string][]): HTMLSelectElement {
-    const select = document.createElement('select');
-    select.className = `jp-mod-styled ${cls}`;
-    for (const [value, text] of options) {
-      const option = document.createElement('option');
-      option.value = value;
-      option.textContent = text;
-      select.appendChild(option);
-    }
-    return select;
-  }
-
-  private _text(cls: string, placeholder: string): HTMLInputElement {
-    const input = document.createElement('input');
-    input.type = 'text';
-    input.className = `jp-mod-styled ${cls}`;
-    input.placeholder = placeholder;
-    input.spellcheck = false;
-    return input;
-  }
-
-  private _button(text: string, cls: string, onClick: () => void): HTMLButtonElement {
-    const button = document.createElement('button');
-    button.type = 'button';
-    button.className = `jp-Button jp-mod-styled ${cls}`;
-    button.textContent = text;
-    button.addEventListener('click', onClick);
-    return button;
-  }
-
   private _trans: TranslationBundle;
+  private _session: AnalysisSession;
   private _runner: AnalysisRunner;
   private _onExploreLandau: ((k: ILandauOutcome) => void) | null;
-  private _outcomeChanged = new Signal<this, IAnalysisOutcome | null>(this);
-  private _outcome: IAnalysisOutcome | null = null;
-  private _input: IFitInput | null = null;
-  private _range = { min: Number.NaN, max: Number.NaN };
   private _settled: Promise<void> = Promise.resolve();
-  private _model!: HTMLSelectElement;
-  private _proxy!: HTMLSelectElement;
-  private _background!: HTMLInputElement;
-  private _spin!: HTMLSelectElement;
-  private _units!: HTMLSelectElement;
-  private _expression!: HTMLInputElement;
-  private _starts!: HTMLInputElement;
-  private _optionRows!: Record<AnalysisModel, HTMLElement[]>;
+  private _optionsKind: string | null = null;
+  private _controls = new Map<string, HTMLInputElement | HTMLSelectElement>();
+  private _kindSelect!: HTMLSelectElement;
+  private _description!: HTMLParagraphElement;
+  private _options!: HTMLDivElement;
   private _min!: HTMLInputElement;
   private _max!: HTMLInputElement;
-  private _windowLabel!: HTMLLabelElement;
+  private _windowMessage!: HTMLSpanElement;
   private _fitButton!: HTMLButtonElement;
   private _cancelButton!: HTMLButtonElement;
   private _status!: HTMLSpanElement;
@@ -437,12 +270,39 @@ export class FitSection extends Widget {
   private _result!: HTMLDivElement;
 }
 
+function label(text: string, control: HTMLElement): HTMLLabelElement {
+  const node = document.createElement('label');
+  node.className = 'jp-psiscape-picker';
+  const span = document.createElement('span');
+  span.textContent = text;
+  node.append(span, control);
+  return node;
+}
+
+function textInput(cls: string): HTMLInputElement {
+  const input = document.createElement('input');
+  input.type = 'text';
+  input.className = `jp-mod-styled ${cls}`;
+  input.spellcheck = false;
+  return input;
+}
+
+function button(text: string, cls: string, onClick: () => void): HTMLButtonElement {
+  const node = document.createElement('button');
+  node.type = 'button';
+  node.className = `jp-Button jp-mod-styled ${cls}`;
+  node.textContent = text;
+  node.addEventListener('click', onClick);
+  return node;
+}
+
 /** Options of {@link FitSection}. */
 export namespace FitSection {
   export interface IOptions {
     trans: TranslationBundle;
-    /** Job runner (a worker-backed one by default). */
-    runner?: AnalysisRunner;
+    session: AnalysisSession;
+    /** Job runner (the shared worker-backed one in the lab). */
+    runner: AnalysisRunner;
     /** Open the Landau explorer with fitted coefficients (a button shows when given). */
     onExploreLandau?: (k: ILandauOutcome) => void;
   }

@@ -12,17 +12,13 @@ import { formatWithError } from '../core/analysis';
 import type { IIsothermAnalysis, IIsothermSet, ISampleInfo } from '../core/sweeps';
 import { analyseIsotherms, buildIsothermSet } from '../core/sweeps';
 import type { IColumn, ITable } from '../core/table';
+import { guessIsothermRoles } from '../core/table/roles';
+import type { IsothermRole } from '../core/table/roles';
 import { ChartView } from './chart-view';
 import { readChartTheme } from './chart-theme';
 import { outcomeNodes } from './outcome-nodes';
 
-type Role = 'temperature' | 'field' | 'magnetisation';
-
-const GUESS: Record<Role, RegExp> = {
-  temperature: /^(t|temp|temperature|t_?set|t_?sample)\b/i,
-  field: /^(h|b|mu0_?h|μ0h|field|h_?applied)\b/i,
-  magnetisation: /^(m|moment|magnetisation|magnetization|sigma)\b/i
-};
+type Role = IsothermRole;
 
 /** Isotherm controls and results. */
 export class IsothermSection extends Panel {
@@ -56,7 +52,8 @@ export class IsothermSection extends Panel {
     this._error.hidden = true;
     const numeric = (table?.columns ?? []).map((c, i) => ({ c, i })).filter(({ c }) => c.kind === 'number');
     // Shown for tables that look like field sweeps: three numeric columns, one of them a field.
-    this.setHidden(numeric.length < 3 || !numeric.some(({ c }) => GUESS.field.test(c.name)));
+    const guessed = guessIsothermRoles(table);
+    this.setHidden(!guessed.looksLikeSweeps);
     for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
       const select = this._pickers[role];
       select.replaceChildren(
@@ -67,9 +64,9 @@ export class IsothermSection extends Panel {
           return o;
         })
       );
-      const guess = numeric.find(({ c }) => GUESS[role].test(c.name));
-      if (guess) {
-        select.value = String(guess.i);
+      const guess = guessed.roles[role];
+      if (guess !== null) {
+        select.value = String(guess);
       }
       this._units[role].value = '';
     }

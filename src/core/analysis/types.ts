@@ -1,37 +1,30 @@
 /**
- * Jobs the analysis panel runs on two columns of a table: which model, which
- * points (the fit window) and the model's options; and what comes back.
- * Plain data only, so jobs and outcomes can cross a worker boundary.
+ * Jobs the analysis panel runs on two columns of a table: which analysis kind
+ * (see the catalogue in `kinds/`), which points (the fit window) and the kind's
+ * options; and what comes back. Plain data only, so jobs and outcomes can
+ * cross a worker boundary.
  */
 import type { IFitResult } from '../fit/types';
+import type { ICoreMessage } from '../messages';
+import type { IVerdict } from './verdict';
 
-/** The models the panel offers. */
-export type AnalysisModel = 'power-law' | 'weiss' | 'curie-weiss' | 'landau' | 'expression';
-
-/** Model options; each model reads only its own. */
-export interface IAnalysisModelOptions {
-  /** Power law: measured quantity ∝ ψ^proxyPower (2 for intensities); default 1. */
-  proxyPower?: number;
-  /** Power law: fit a constant background. */
-  background?: boolean;
-  /** Weiss: spin J (½, 1, …, Infinity for the Langevin limit). */
-  J?: number;
-  /** Curie–Weiss: molar units of χ, for the effective moment. */
-  units?: 'cgs-emu' | 'SI';
-  /** Expression: the model, e.g. `A*exp(-x/T0) + c`, with x the x column. */
-  expression?: string;
-}
+/** An option value of an analysis kind. */
+export type AnalysisOptionValue = string | number | boolean;
 
 /** A fit of y against x over a window of x. */
 export interface IAnalysisJob {
-  model: AnalysisModel;
-  x: number[];
-  y: number[];
+  /** An analysis kind id from the catalogue. */
+  kind: string;
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
   /** Per-point standard deviations of y (optional; must be > 0). */
-  sigma?: number[];
+  sigma?: ArrayLike<number>;
   /** Only points with min ≤ x ≤ max are fitted. */
   window: { min: number; max: number };
-  options: IAnalysisModelOptions;
+  /** The kind's options (missing ones take the catalogue's defaults). */
+  options: Readonly<Record<string, AnalysisOptionValue>>;
+  /** Names by which a user's expression may call the x column (besides `x`). */
+  xNames?: string[];
 }
 
 /** A number derived from the fit, with its standard error. */
@@ -40,18 +33,20 @@ export interface IDerivedValue {
   value: number;
   sigma: number;
   /** How it was obtained (formula, units). */
-  note: string;
+  note: ICoreMessage;
 }
 
 /** What a job returns. */
 export interface IAnalysisOutcome {
-  model: AnalysisModel;
-  /** The fitted equation, in plain text. */
+  kind: string;
+  /** The fitted equation, in plain mathematical text. */
   equation: string;
   /** Conventions used (t definition, units, factor conventions). */
-  convention: string;
+  convention: ICoreMessage;
   /** The engine's result: values, standard errors, covariance, converged and reason, warnings. */
   fit: IFitResult;
+  /** Whether the result describes the data: computed in core from the fit and the fitted points. */
+  verdict: IVerdict;
   /** The fit window used. */
   window: { min: number; max: number };
   /** Points inside the window that were fitted, and those left out for non-finite values. */
@@ -61,15 +56,7 @@ export interface IAnalysisOutcome {
   curve: { x: number[]; y: number[] };
   derived: IDerivedValue[];
   /** Cautions a careful reader needs next to these numbers. */
-  cautions: string[];
+  cautions: ICoreMessage[];
   /** Landau fits: the coefficients in convention L with a = 1 (for the free-energy explorer). */
   landau?: { a: number; T0: number; b: number; c: number; d: number };
-}
-
-/** Why a job could not run: a message naming the input at fault. */
-export class AnalysisInputError extends Error {
-  constructor(message: string) {
-    super(message);
-    this.name = 'AnalysisInputError';
-  }
 }

@@ -1,8 +1,9 @@
 /**
  * Selecting the points a fit uses: inside the x window and finite.
  */
+import { msg } from '../messages';
+import { AnalysisInputError } from './errors';
 import type { IAnalysisJob } from './types';
-import { AnalysisInputError } from './types';
 
 /** The points of a job that will be fitted. */
 export interface IWindowedPoints {
@@ -19,16 +20,16 @@ export interface IWindowedPoints {
  * @throws AnalysisInputError when the columns differ in length, σ is not
  * positive, or the window is empty or inverted.
  */
-export function windowedPoints(job: IAnalysisJob): IWindowedPoints {
+export function windowedPoints(job: Pick<IAnalysisJob, 'x' | 'y' | 'sigma' | 'window'>): IWindowedPoints {
   const { x, y, sigma, window } = job;
   if (x.length !== y.length) {
-    throw new AnalysisInputError(`the x column has ${x.length} values but the y column has ${y.length}`);
+    throw new AnalysisInputError(msg('window.length-mismatch', 'The x column has %1 values but the y column has %2.', x.length, y.length));
   }
   if (sigma && sigma.length !== x.length) {
-    throw new AnalysisInputError(`the σ column has ${sigma.length} values but the x column has ${x.length}`);
+    throw new AnalysisInputError(msg('window.sigma-length-mismatch', 'The σ column has %1 values but the x column has %2.', sigma.length, x.length));
   }
   if (!(window.min <= window.max)) {
-    throw new AnalysisInputError(`the fit window is empty: from ${window.min} to ${window.max}`);
+    throw new AnalysisInputError(msg('window.empty', 'The fit window is empty: it runs from %1 to %2. Make the lower end smaller than the upper.', window.min, window.max));
   }
   const out: IWindowedPoints = { x: [], y: [], sigma: sigma ? [] : undefined, skipped: 0 };
   for (let i = 0; i < x.length; i++) {
@@ -42,7 +43,7 @@ export function windowedPoints(job: IAnalysisJob): IWindowedPoints {
       continue;
     }
     if (!(si > 0)) {
-      throw new AnalysisInputError(`σ must be > 0, but row ${i + 1} has σ = ${si}`);
+      throw new AnalysisInputError(msg('window.sigma-not-positive', 'Every σ must be greater than 0, but row %1 has σ = %2. Choose another σ column or none.', i + 1, si));
     }
     out.x.push(xi);
     out.y.push(y[i]);

@@ -1,7 +1,7 @@
 /**
  * Which columns of a table can be plotted, and the default x/y pair.
  */
-import type { IColumn, ITable } from '../core/table';
+import type { IColumn, ITable } from './types';
 
 /** A plottable (numeric) column and its position in the table. */
 export interface IPlottableColumn {
@@ -60,4 +60,26 @@ export function guessSigmaColumn(columns: IPlottableColumn[], y: number): number
   }
   const generic = columns.filter(c => c.index !== y && ['sigma', 'err', 'error', 'std'].includes(c.column.name.toLowerCase()));
   return generic.length === 1 ? generic[0].index : null;
+}
+
+/** The columns of a long-format table of M(H) isotherms. */
+export type IsothermRole = 'temperature' | 'field' | 'magnetisation';
+
+/** Header names (without unit) that suggest each isotherm role. */
+const ISOTHERM_NAMES: Record<IsothermRole, RegExp> = {
+  temperature: /^(t|temp|temperature|t_?set|t_?sample)\b/i,
+  field: /^(h|b|mu0_?h|μ0h|field|h_?applied)\b/i,
+  magnetisation: /^(m|moment|magnetisation|magnetization|sigma)\b/i
+};
+
+/**
+ * The first numeric column whose name suggests each isotherm role (index into
+ * the table's columns), or null; and whether the table looks like field
+ * sweeps at all (three numeric columns, one of them a field).
+ */
+export function guessIsothermRoles(table: ITable | null): { looksLikeSweeps: boolean; roles: Record<IsothermRole, number | null> } {
+  const numeric = plottableColumns(table ?? { columns: [], rowCount: 0, format: 'csv', notes: [] });
+  const find = (role: IsothermRole) => numeric.find(c => ISOTHERM_NAMES[role].test(c.column.name))?.index ?? null;
+  const roles = { temperature: find('temperature'), field: find('field'), magnetisation: find('magnetisation') };
+  return { looksLikeSweeps: numeric.length >= 3 && roles.field !== null, roles };
 }

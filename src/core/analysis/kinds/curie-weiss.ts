@@ -1,0 +1,61 @@
+/**
+ * Curie–Weiss susceptibility χ = χ0 + C/(T − θ) and the effective moment
+ * [B2 in REFERENCES.md].
+ */
+import { curieWeissModel, fitCurieWeiss } from '../../physics/curie-weiss';
+import { msg } from '../../messages';
+import { conventionOf, curveOf, requirePoints, valueOf } from './common';
+import type { IAnalysisKind, IChoiceOption } from './types';
+
+export const unitsOption: IChoiceOption<string> = {
+  type: 'choice',
+  label: msg('option.units', 'χ units'),
+  choices: [
+    { value: 'cgs-emu', label: msg('option.units.cgs', 'cgs molar (emu mol⁻¹ Oe⁻¹)') },
+    { value: 'SI', label: msg('option.units.si', 'SI molar (m³ mol⁻¹)') }
+  ],
+  default: 'cgs-emu'
+};
+
+export const curieWeissKind = {
+  id: 'curie-weiss',
+  label: msg('kind.curie-weiss', 'Curie–Weiss χ0 + C/(T − θ)'),
+  description: msg('kind.curie-weiss.description', 'Paramagnetic susceptibility well above the ordering: θ, C and the effective moment.'),
+  options: { units: unitsOption },
+  minPoints: () => 5,
+  run: (job, pts, hooks) => {
+    const units = job.options.units === 'SI' ? 'SI' : 'cgs-emu';
+    requirePoints(pts, 5);
+    const fit = fitCurieWeiss({ T: pts.x, chi: pts.y, sigma: pts.sigma }, { units, engine: { ...hooks } });
+    const C = valueOf(fit, 'C');
+    const theta = valueOf(fit, 'theta');
+    const chi0 = valueOf(fit, 'chi0');
+    return {
+      outcome: {
+        equation: 'χ = χ0 + C/(T − θ)',
+        convention: conventionOf(fit.convention),
+        fit,
+        used: pts.x.length,
+        curve: curveOf(curieWeissModel, fit.values, pts.x),
+        derived: [
+          { name: 'C', value: C.value, sigma: C.sigma, note: units === 'SI' ? msg('derived.curie-si', 'Curie constant, m³ K mol⁻¹') : msg('derived.curie-cgs', 'Curie constant, emu K mol⁻¹ Oe⁻¹') },
+          { name: 'θ', value: theta.value, sigma: theta.sigma, note: msg('derived.theta', 'Weiss temperature, K (> 0: net ferromagnetic)') },
+          { name: 'χ0', value: chi0.value, sigma: chi0.sigma, note: msg('derived.chi0', 'temperature-independent term') },
+          {
+            name: 'p_eff',
+            value: fit.pEff,
+            sigma: fit.pEffError,
+            note: units === 'SI' ? msg('derived.peff-si', 'effective moment in μB per formula unit (SI molar χ assumed)') : msg('derived.peff-cgs', 'effective moment in μB per formula unit (cgs molar χ assumed)')
+          }
+        ],
+        cautions: [
+          msg('caution.curie-weiss-range', 'Fit only well above the ordering temperature (T ≳ 2·max(Tc, |θ|)): critical fluctuations bend 1/χ near Tc.'),
+          msg('caution.peff-units', 'p_eff assumes a molar susceptibility in the stated units; per formula unit, not per magnetic ion.'),
+          msg('caution.remanent-field', 'A nominal zero field in a superconducting magnet can be 0.1–3 mT of remanent field.')
+        ]
+      },
+      fitted: pts
+    };
+  },
+  views: ['data-and-curve']
+} as const satisfies IAnalysisKind<'curie-weiss'>;

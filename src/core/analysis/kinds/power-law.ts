@@ -1,0 +1,135 @@
+/**
+ * Critical power law y = A(1 − T/Tc)^(pβ) [+ y0] with Tc free, for an order
+ * parameter (p = 1) or a quantity that goes as its square (p = 2), and the
+ * same law with Wegner's first correction to scaling [B17 in REFERENCES.md].
+ */
+import { fitPowerLaw, powerLawModel } from '../../physics/critical';
+import type { IPowerLawOptions } from '../../physics/critical';
+import { msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
+import type { IAnalysisJob, IDerivedValue } from '../types';
+import type { IWindowedPoints } from '../window';
+import type { IAnalysisHooks } from '../hooks';
+import { conventionOf, correlation, curveOf, requirePoints, valueOf, windowCaution } from './common';
+import type { IAnalysisKind, IChoiceOption, IKindResult, IBooleanOption } from './types';
+
+/** Tc estimate for data that run through the transition: where |y| last exceeds 10 % of its largest value. */
+export function crossingEstimate(pts: IWindowedPoints): { Tc: number; spansTc: boolean } {
+  let ymax = 0;
+  let Tmax = -Infinity;
+  for (let i = 0; i < pts.x.length; i++) {
+    ymax = Math.max(ymax, Math.abs(pts.y[i]));
+    Tmax = Math.max(Tmax, pts.x[i]);
+  }
+  let last = -Infinity;
+  let above = 0;
+  for (let i = 0; i < pts.x.length; i++) {
+    if (Math.abs(pts.y[i]) > 0.1 * ymax) {
+      last = Math.max(last, pts.x[i]);
+    } else {
+      above++;
+    }
+  }
+  const spansTc = above >= 2 && last < Tmax;
+  return { Tc: spansTc ? last : Tmax, spansTc };
+}
+
+export const proxyOption: IChoiceOption<number> = {
+  type: 'choice',
+  label: msg('option.proxy', 'data'),
+  choices: [
+    { value: 1, label: msg('option.proxy.psi', 'y ∝ ψ (magnetisation, polarisation)') },
+    { value: 2, label: msg('option.proxy.psi2', 'y ∝ ψ² (intensity, SHG, superfluid density)') }
+  ],
+  default: 1
+};
+
+export const backgroundOption: IBooleanOption = { type: 'boolean', label: msg('option.background', 'constant background'), default: false };
+
+/** Correction-to-scaling exponents Δ by universality class [B17]. */
+export const deltaOption: IChoiceOption<number> = {
+  type: 'choice',
+  label: msg('option.wegner-delta', 'correction exponent Δ'),
+  choices: [
+    { value: 0.52, label: msg('option.wegner-delta.ising', '0.52 (3D Ising)') },
+    { value: 0.53, label: msg('option.wegner-delta.xy', '0.53 (3D XY)') },
+    { value: 0.55, label: msg('option.wegner-delta.heisenberg', '0.55 (3D Heisenberg)') }
+  ],
+  default: 0.52
+};
+
+function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHooks, wegnerDelta: number | undefined): IKindResult {
+  const proxyPower = Number(job.options.proxyPower ?? 1);
+  const background = job.options.background === true;
+  const { Tc, spansTc } = crossingEstimate(pts);
+  const options: IPowerLawOptions = { proxyPower, background, allowTcInsideData: spansTc, aboveTc: 'zero', wegnerDelta };
+  const fit = fitPowerLaw(
+    { T: pts.x, y: pts.y, sigma: pts.sigma },
+    { ...options, start: spansTc ? { Tc } : undefined, engine: { ...hooks } }
+  );
+  const Tcv = valueOf(fit, 'Tc');
+  const beta = valueOf(fit, 'beta');
+  const r = correlation(fit, 'Tc', 'beta');
+  const cautions: ICoreMessage[] = [
+    windowCaution(),
+    msg('caution.tc-beta-correlated', 'Tc and β are correlated (r = %1): quote them together, and do not fix Tc from another criterion before fitting β.', { value: r, digits: 2 })
+  ];
+  if (spansTc) {
+    cautions.push(msg('caution.window-through-tc', 'The window runs through Tc: points above Tc are fitted as zero order parameter. Asymptotic exponents need a window close to Tc.'));
+  }
+  if (wegnerDelta !== undefined) {
+    cautions.push(msg('caution.wegner', 'With the correction term, β is the asymptotic exponent only if Δ is that of the right universality class; compare with the fit without it.'));
+  }
+  cautions.push(msg('caution.field-tail', 'A magnetisation measured in a field is not spontaneous: the field-induced tail near Tc biases Tc and β.'));
+  const derived: IDerivedValue[] = [
+    { name: 'Tc', value: Tcv.value, sigma: Tcv.sigma, note: msg('derived.tc', 'transition temperature, in the units of the x column') },
+    {
+      name: 'β',
+      value: beta.value,
+      sigma: beta.sigma,
+      note: proxyPower === 1 ? msg('derived.beta', 'order-parameter exponent') : msg('derived.beta-proxy', 'order-parameter exponent (the data go as ψ^%1, so they fall as (−t)^(%1β))', proxyPower)
+    }
+  ];
+  const p = proxyPower === 1 ? '' : `${proxyPower}·`;
+  const correction = wegnerDelta === undefined ? '' : `·[1 + aW·(1 − T/Tc)^${wegnerDelta}]`;
+  return {
+    outcome: {
+      equation: `y = A·(1 − T/Tc)^(${p}β)${correction}${background ? ' + y0' : ''} below Tc, ${background ? 'y0' : '0'} above`,
+      convention: conventionOf(fit.convention),
+      fit,
+      used: pts.x.length,
+      curve: curveOf(powerLawModel(options), fit.values, pts.x),
+      derived,
+      cautions
+    },
+    fitted: pts
+  };
+}
+
+/** The critical power law with Tc free. */
+export const powerLawKind = {
+  id: 'power-law',
+  label: msg('kind.power-law', 'Critical power law A(1 − T/Tc)^β'),
+  description: msg('kind.power-law.description', 'Tc and β from the ordered side, close to the transition.'),
+  options: { proxyPower: proxyOption, background: backgroundOption },
+  minPoints: o => (o.background === true ? 6 : 5),
+  run: (job, pts, hooks) => {
+    requirePoints(pts, job.options.background === true ? 6 : 5);
+    return runPowerLaw(job, pts, hooks, undefined);
+  },
+  views: ['data-and-curve']
+} as const satisfies IAnalysisKind<'power-law'>;
+
+/** The critical power law with Wegner's first correction to scaling, Δ fixed to a class value. */
+export const powerLawCorrectedKind = {
+  id: 'power-law-corrected',
+  label: msg('kind.power-law-corrected', 'Critical power law with correction to scaling'),
+  description: msg('kind.power-law-corrected.description', 'Asymptotic β from a wider window: A(1 − T/Tc)^β·[1 + aW(1 − T/Tc)^Δ], Δ fixed.'),
+  options: { proxyPower: proxyOption, background: backgroundOption, wegnerDelta: deltaOption },
+  minPoints: o => (o.background === true ? 7 : 6),
+  run: (job, pts, hooks) => {
+    requirePoints(pts, job.options.background === true ? 7 : 6);
+    return runPowerLaw(job, pts, hooks, Number(job.options.wegnerDelta ?? deltaOption.default));
+  },
+  views: ['data-and-curve']
+} as const satisfies IAnalysisKind<'power-law-corrected'>;
