@@ -3,8 +3,9 @@
  * reference values, the fit window, and precise refusals for bad input.
  */
 import { describe, expect, it } from 'vitest';
-import { AnalysisInputError, formatWithError, handleAnalysisMessage, parseStarts, runAnalysisJob } from '../../../src/core/analysis';
-import type { AnalysisResponse, IAnalysisJob } from '../../../src/core/analysis';
+import { ANALYSIS_KINDS, AnalysisInputError, formatWithError, parseStarts, runAnalysisJob } from '../../../src/core/analysis';
+import type { IAnalysisJob } from '../../../src/core/analysis';
+import { messageText } from '../../../src/core/messages';
 import { weissMagnetisation } from '../../../src/core/physics/weiss';
 import { landauEquilibriumPsi } from '../../../src/core/physics/landau';
 import { normal } from '../physics/prng';
@@ -20,7 +21,7 @@ describe('runAnalysisJob', () => {
   it('should recover Tc and Ms of a spin-½ Weiss curve within a few standard errors', () => {
     // Known-parameter recovery: data from the Weiss model itself (REFERENCE.md B1) plus seeded noise.
     const { T, M } = weissData(11);
-    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
+    const out = runAnalysisJob({ kind: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
     expect(out.fit.converged).toBe(true);
     const Tc = out.derived.find(d => d.name === 'Tc')!;
     const Ms = out.derived.find(d => d.name === 'Ms')!;
@@ -30,13 +31,13 @@ describe('runAnalysisJob', () => {
     expect(out.fit.errorScaling).toBe('scaled-by-reduced-chi2');
     expect(out.used).toBe(120);
     expect(out.curve.x).toHaveLength(300);
-    expect(out.convention).toMatch(/tau|T\/Tc/i);
+    expect(messageText(out.convention)).toMatch(/tau|T\/Tc/i);
   });
 
   it('should use σ from a column and say so', () => {
     const { T, M } = weissData(12);
     const sigma = T.map(() => 0.4);
-    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, sigma, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
+    const out = runAnalysisJob({ kind: 'weiss', x: T, y: M, sigma, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
     expect(out.fit.errorScaling).toBe('from-sigma');
     // χ²_red ≈ 1 when σ matches the noise (120 points: 1 ± 0.13 at 1σ, common practice, no source).
     expect(out.fit.reducedChi2).toBeGreaterThan(0.6);
@@ -47,26 +48,26 @@ describe('runAnalysisJob', () => {
     const rnd = normal(5);
     const T = Array.from({ length: 90 }, (_, i) => 200 + i);
     const y = T.map(t => (t < 280 ? 1.7 * Math.pow(1 - t / 280, 0.3265) : 0) + 0.002 * rnd());
-    const out = runAnalysisJob({ model: 'power-law', x: T, y, window: { min: 200, max: 289 }, options: { proxyPower: 1 } });
+    const out = runAnalysisJob({ kind: 'power-law', x: T, y, window: { min: 200, max: 289 }, options: { proxyPower: 1 } });
     expect(out.fit.converged).toBe(true);
     const beta = out.derived.find(d => d.name === 'β')!;
     const Tc = out.derived.find(d => d.name === 'Tc')!;
     expect(Math.abs(beta.value - 0.3265)).toBeLessThan(4 * beta.sigma);
     expect(Math.abs(Tc.value - 280)).toBeLessThan(4 * Tc.sigma);
-    expect(out.cautions.join(' ')).toMatch(/correlated/);
-    expect(out.cautions.join(' ')).toMatch(/window runs through Tc/);
+    expect(out.cautions.map(messageText).join(' ')).toMatch(/correlated/);
+    expect(out.cautions.map(messageText).join(' ')).toMatch(/window runs through Tc/);
   });
 
   it('should say when a large table was fitted from a subsample start, and still fit all points', () => {
     const rnd = normal(6);
     const T = Array.from({ length: 60000 }, (_, i) => 150 + (i * 149.9) / 59999);
     const y = T.map(t => 0.8 * Math.pow(1 - t / 300, 0.36) + 0.004 * rnd());
-    const out = runAnalysisJob({ model: 'power-law', x: T, y, window: { min: 150, max: 300 }, options: { proxyPower: 1 } });
+    const out = runAnalysisJob({ kind: 'power-law', x: T, y, window: { min: 150, max: 300 }, options: { proxyPower: 1 } });
     expect(out.fit.converged).toBe(true);
     expect(out.fit.warmStart?.used).toBe(true);
     expect(out.used).toBe(60000);
     expect(out.fit.residuals).toHaveLength(60000);
-    expect(out.cautions.join(' ')).toMatch(/one point in 3 \(20000 points\).*all 60000 points/);
+    expect(out.cautions.map(messageText).join(' ')).toMatch(/one point in 3 \(20000 points\).*all 60000 points/);
     const beta = out.derived.find(d => d.name === 'β')!;
     expect(Math.abs(beta.value - 0.36)).toBeLessThan(4 * beta.sigma);
   });
@@ -75,7 +76,7 @@ describe('runAnalysisJob', () => {
     // Proxy exponent (REFERENCE.md Part D item 10): I ∝ ψ² falls as (−t)^(2β); the fit must report β.
     const T = Array.from({ length: 60 }, (_, i) => 100 + 2.5 * i);
     const I = T.map(t => 5000 * Math.pow(1 - t / 260, 2 * 0.5));
-    const out = runAnalysisJob({ model: 'power-law', x: T, y: I, window: { min: 100, max: 250 }, options: { proxyPower: 2 } });
+    const out = runAnalysisJob({ kind: 'power-law', x: T, y: I, window: { min: 100, max: 250 }, options: { proxyPower: 2 } });
     expect(out.derived.find(d => d.name === 'β')!.value).toBeCloseTo(0.5, 6);
   });
 
@@ -83,7 +84,7 @@ describe('runAnalysisJob', () => {
     // REFERENCE.md C4 [computed here]: C_mol = 7.878110 emu K/mol/Oe gives p_eff = √63 = 7.93725393319 (7 digits given in C).
     const T = Array.from({ length: 40 }, (_, i) => 100 + 5 * i);
     const chi = T.map(t => 0.001 + 7.87811 / (t - 15));
-    const out = runAnalysisJob({ model: 'curie-weiss', x: T, y: chi, window: { min: 100, max: 400 }, options: { units: 'cgs-emu' } });
+    const out = runAnalysisJob({ kind: 'curie-weiss', x: T, y: chi, window: { min: 100, max: 400 }, options: { units: 'cgs-emu' } });
     const p = out.derived.find(d => d.name === 'p_eff')!;
     expect(p.value).toBeCloseTo(7.937254, 5);
     expect(out.derived.find(d => d.name === 'θ')!.value).toBeCloseTo(15, 6);
@@ -98,7 +99,7 @@ describe('runAnalysisJob', () => {
   ])('should recover Landau coefficients %o from ψ(T) and report T1 and T**', (k, T1, Tss) => {
     const T = Array.from({ length: 60 }, (_, i) => 95 + 0.1 * i);
     const y = T.map(t => landauEquilibriumPsi(k, t));
-    const out = runAnalysisJob({ model: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
+    const out = runAnalysisJob({ kind: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
     expect(out.fit.converged).toBe(true);
     expect(out.landau!.T0).toBeCloseTo(100, 8);
     expect(out.landau!.b).toBeCloseTo(k.b, 8);
@@ -106,7 +107,7 @@ describe('runAnalysisJob', () => {
     expect(out.derived.find(d => d.name === 'T1')!.value).toBeCloseTo(T1, 8);
     const tss = out.derived.find(d => d.name === 'T**');
     expect(tss?.value ?? null).toEqual(Tss === null ? null : expect.closeTo(Tss, 8));
-    expect(out.cautions.join(' ')).toMatch(/overall scale a is arbitrary/);
+    expect(out.cautions.map(messageText).join(' ')).toMatch(/overall scale a is arbitrary/);
   });
 
   it('should give Landau coefficients with standard errors from noisy ψ(T)', () => {
@@ -114,7 +115,7 @@ describe('runAnalysisJob', () => {
     const k = { a: 1, T0: 100, b: -2, c: 4, d: 0 };
     const T = Array.from({ length: 80 }, (_, i) => 92 + 0.1 * i);
     const y = T.map(t => landauEquilibriumPsi(k, t) + 0.003 * rnd());
-    const out = runAnalysisJob({ model: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
+    const out = runAnalysisJob({ kind: 'landau', x: T, y, window: { min: 90, max: 110 }, options: {} });
     const i = out.fit.parameters.indexOf('T0');
     expect(Math.abs(out.fit.values[i] - 100)).toBeLessThan(4 * out.fit.standardErrors[i]);
   });
@@ -122,11 +123,7 @@ describe('runAnalysisJob', () => {
   it('should fit a user expression from given start values', () => {
     const x = Array.from({ length: 50 }, (_, i) => i * 10);
     const y = x.map(v => 3 * Math.exp(-v / 120) + 0.5);
-    const out = runAnalysisJob(
-      { model: 'expression', x, y, window: { min: 0, max: 500 }, options: { expression: 'A*exp(-x/T0) + c' } },
-      {},
-      parseStarts('A = 2, T0 = 100, c = 0')
-    );
+    const out = runAnalysisJob({ kind: 'expression', x, y, window: { min: 0, max: 500 }, options: { expression: 'A*exp(-x/T0) + c', starts: 'A = 2, T0 = 100, c = 0' } });
     expect(out.fit.converged).toBe(true);
     expect(out.fit.parameters).toEqual(['A', 'T0', 'c']);
     expect(out.fit.values[1]).toBeCloseTo(120, 6);
@@ -135,65 +132,40 @@ describe('runAnalysisJob', () => {
   it('should fit only the points inside the window and count skipped missing values', () => {
     const { T, M } = weissData(3);
     M[10] = Number.NaN;
-    const out = runAnalysisJob({ model: 'weiss', x: T, y: M, window: { min: 30, max: 200 }, options: { J: 0.5 } });
+    const out = runAnalysisJob({ kind: 'weiss', x: T, y: M, window: { min: 30, max: 200 }, options: { J: 0.5 } });
     const inside = T.filter(t => t >= 30 && t <= 200).length;
     expect(out.used + out.skipped).toBe(inside);
     expect(out.skipped).toBe(1);
-    expect(Math.min(...out.curve.x)).toBeGreaterThanOrEqual(30);
-    expect(Math.max(...out.curve.x)).toBeLessThanOrEqual(200);
+    expect(out.curve.x[0]).toBeGreaterThanOrEqual(30);
+    expect(out.curve.x.at(-1)).toBeLessThanOrEqual(200);
     expect(out.window).toEqual({ min: 30, max: 200 });
   });
 
   describe('bad input', () => {
-    const base: IAnalysisJob = { model: 'weiss', x: [1, 2, 3, 4, 5], y: [5, 4, 3, 2, 1], window: { min: 0, max: 10 }, options: {} };
+    const base: IAnalysisJob = { kind: 'weiss', x: [1, 2, 3, 4, 5], y: [5, 4, 3, 2, 1], window: { min: 0, max: 10 }, options: {} };
     it.each([
-      [{ ...base, y: [1, 2] }, 'the x column has 5 values but the y column has 2'],
-      [{ ...base, window: { min: 5, max: 1 } }, 'the fit window is empty: from 5 to 1'],
-      [{ ...base, sigma: [1, 1, 0, 1, 1] }, 'σ must be > 0, but row 3 has σ = 0'],
-      [{ ...base, window: { min: 0, max: 2.5 } }, 'The Weiss mean-field fit needs at least 4 points in the fit window, but the window holds 2. Widen the window.'],
-      [{ ...base, x: [], y: [] }, 'The Weiss mean-field fit needs at least 4 points in the fit window, but the window holds 0. Widen the window.'],
-      [{ ...base, x: [-5, 2, 3, 4, 5], window: { min: -10, max: 10 } }, 'The Weiss fit needs absolute temperatures (K > 0) in the x column; convert °C to K first.'],
-      [{ ...base, model: 'expression', options: { expression: '' } }, 'Write a model expression in x, e.g. A*exp(-x/T0) + c.']
+      [{ ...base, y: [1, 2] }, 'The x column has 5 values but the y column has 2.'],
+      [{ ...base, window: { min: 5, max: 1 } }, 'The fit window is empty: it runs from 5 to 1.'],
+      [{ ...base, sigma: [1, 1, 0, 1, 1] }, 'Every σ must be greater than 0, but row 3 has σ = 0.'],
+      [{ ...base, window: { min: 0, max: 2.5 } }, 'This analysis needs at least 4 points in the fit window, but the window holds 2. Widen the window.'],
+      [{ ...base, x: [], y: [] }, 'This analysis needs at least 4 points in the fit window, but the window holds 0. Widen the window.'],
+      [{ ...base, x: [-5, 2, 3, 4, 5], window: { min: -10, max: 10 } }, 'The Weiss fit needs absolute temperatures (K > 0) in the x column, but it holds −5; convert °C to K first.'],
+      [{ ...base, kind: 'no-such-kind' }, 'This psiscape has no analysis called "no-such-kind".'],
+      [{ ...base, kind: 'expression', options: { expression: '' } }, 'Write a model expression in x, e.g. A*exp(-x/T0) + c.']
     ] as [IAnalysisJob, string][])('should refuse %#: %s', (job, message) => {
       expect(() => runAnalysisJob(job)).toThrow(message);
       expect(() => runAnalysisJob(job)).toThrow(AnalysisInputError);
     });
 
     it('should name a start value the expression does not use', () => {
-      const job: IAnalysisJob = { ...base, model: 'expression', options: { expression: 'a*x + b' } };
-      expect(() => runAnalysisJob(job, {}, { c: 1 })).toThrow('start values name c, which the expression does not use (its parameters: a, b)');
+      const job: IAnalysisJob = { ...base, kind: 'expression', options: { expression: 'a*x + b', starts: 'c = 1' } };
+      expect(() => runAnalysisJob(job)).toThrow('The start values name c, which the expression does not use (its parameters: a, b).');
     });
 
     it('should refuse unreadable start values', () => {
-      expect(() => parseStarts('A = one')).toThrow('cannot read the start value "A = one"');
+      expect(() => parseStarts('A = one')).toThrow('Cannot read the start value "A = one"');
       expect(parseStarts(' A=1.5e3 ; b = -2\n')).toEqual({ A: 1500, b: -2 });
     });
-  });
-});
-
-describe('handleAnalysisMessage', () => {
-  it('should reply with progress and the same outcome as a direct run', () => {
-    const { T, M } = weissData(21);
-    const job: IAnalysisJob = { model: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } };
-    const replies: AnalysisResponse[] = [];
-    let clock = 0;
-    handleAnalysisMessage({ id: 7, kind: 'run', job }, r => replies.push(r), () => (clock += 1000));
-    const done = replies.at(-1)!;
-    expect(done.kind).toBe('done');
-    expect(replies.every(r => r.id === 7)).toBe(true);
-    expect(replies.some(r => r.kind === 'progress')).toBe(true);
-    const direct = runAnalysisJob(job);
-    expect(done.kind === 'done' && done.outcome.fit.values).toEqual(direct.fit.values);
-  });
-
-  it('should turn bad requests and bad jobs into failed replies', () => {
-    const replies: AnalysisResponse[] = [];
-    handleAnalysisMessage('nonsense', r => replies.push(r));
-    handleAnalysisMessage({ id: 2, kind: 'run', job: { model: 'weiss', x: [1], y: [], window: { min: 0, max: 1 }, options: {} } }, r => replies.push(r));
-    expect(replies).toEqual([
-      { id: -1, kind: 'failed', message: 'malformed analysis request' },
-      { id: 2, kind: 'failed', message: 'the x column has 1 values but the y column has 0' }
-    ]);
   });
 });
 
@@ -209,5 +181,40 @@ describe('formatWithError', () => {
     [Number.NaN, 1, '—']
   ])('should write %s ± %s as %s (common practice, no source)', (value, sigma, text) => {
     expect(formatWithError(value, sigma)).toBe(text);
+  });
+});
+
+describe('every analysis kind in the catalogue', () => {
+  it.each(ANALYSIS_KINDS.map(k => [k.id]))('should run %s with its default options on suitable data and carry a verdict', id => {
+    // Spin-½ Weiss data (REFERENCE.md B1) below Tc = 287.4 serve every kind that fits an order parameter;
+    // a Curie–Weiss law above it serves the susceptibility kind.
+    const { T, M } = weissData(41, 80, 287.4, 92.3, 0.2);
+    const para = T.map(t => 350 + t);
+    const job: IAnalysisJob =
+      id === 'curie-weiss'
+        ? { kind: id, x: para, y: para.map(t => 0.002 + 4 / (t - 300)), window: { min: -Infinity, max: Infinity }, options: {} }
+        : id === 'expression'
+          ? { kind: id, x: T, y: M, window: { min: 20, max: 280 }, options: { expression: 'A*(1 - (x/Tc)^2)^0.5', starts: 'A = 90, Tc = 290' } }
+          : { kind: id, x: T, y: M, window: { min: 200, max: 286 }, options: {} };
+    const out = runAnalysisJob(job);
+    expect(out.kind).toBe(id);
+    expect(['fits', 'does-not-describe', 'not-converged']).toContain(out.verdict.state);
+    expect(out.verdict.summary.code).toMatch(/^[a-z]/);
+    expect(out.curve.x.length).toBeGreaterThan(1);
+  });
+
+  it('should offer a kind added by one catalogue entry: the power law with a correction to scaling', () => {
+    // Data with a Wegner correction [B17]: β = 0.3265, Δ = 0.52 (3D Ising), aW = 0.8, Tc = 300.
+    const rnd = normal(77);
+    const T = Array.from({ length: 120 }, (_, i) => 150 + i * 1.2);
+    const y = T.map(t => {
+      const u = 1 - t / 300;
+      return 2 * Math.pow(u, 0.3265) * (1 + 0.8 * Math.pow(u, 0.52)) + 0.0005 * rnd();
+    });
+    const out = runAnalysisJob({ kind: 'power-law-corrected', x: T, y, window: { min: 150, max: 299 }, options: { wegnerDelta: 0.52 } });
+    expect(out.fit.converged).toBe(true);
+    const beta = out.derived.find(d => d.name === 'β')!;
+    expect(Math.abs(beta.value - 0.3265)).toBeLessThan(4 * beta.sigma);
+    expect(out.fit.parameters).toContain('aW');
   });
 });
