@@ -1,30 +1,81 @@
 /**
- * Runs analysis jobs off the main thread. Each job gets a fresh Web Worker;
- * cancelling ends the worker at once, so a long fit never blocks the page.
+ * Runs analysis jobs in the one analysis worker of the lab session.
+ *
+ * {@link AnalysisWorkerHost.shared} owns a single Web Worker, started on the
+ * first job and reused by every panel. Jobs of all panels wait in one FIFO
+ * queue on this side and go to the worker one at a time, so a job never sits
+ * in a worker that may have to be ended. Each panel has an
+ * {@link AnalysisRunner}, which cancels only its own previous job.
+ *
+ * The job's x, y and σ are copied into Float64Arrays whose buffers are
+ * transferred, not cloned.
+ *
+ * Cancel stops the engine and gives the best point so far:
+ * - with shared memory (a cross-origin isolated page), each job carries an
+ *   Int32Array flag over a SharedArrayBuffer; the engine reads it at every
+ *   iteration and stops, and the worker stays warm (if it has not answered
+ *   within {@link CANCEL_GRACE_MS}, it is ended as below);
+ * - otherwise a busy worker cannot read messages, so the host ends it,
+ *   answers with the best point of the job's last progress report, and
+ *   starts a fresh worker at once so the next job finds it ready.
+ *
  * Where workers are unavailable (tests under jsdom), jobs run on the main
- * thread after a yield, through the same message handler.
+ * thread after a yield, through the same handler and queue.
  */
-import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis';
-import { handleAnalysisMessage } from '../core/analysis/protocol';
-import type { AnalysisResponse, IRunRequest } from '../core/analysis/protocol';
+import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis/types';
+import { bestOfFit, handleAnalysisMessage } from '../core/analysis/protocol';
+import type { AnalysisResponse, IBestSoFar, IRunRequest } from '../core/analysis/protocol';
+import { CoreMessageError, messageOf, msg } from '../core/messages';
+import type { ICoreMessage } from '../core/messages';
+
+export type { IBestSoFar } from '../core/analysis/protocol';
 
 /** Progress of a running job. */
 export interface IRunProgress {
   iteration: number;
   evaluations: number;
+  /** χ² at the best point so far (the residual sum of squares when no σ were given). */
   cost: number;
+  /** The best point so far, or null before the engine's first report. */
+  best: IBestSoFar | null;
 }
 
-/** Thrown (as a rejection) when a job is cancelled. */
-export class AnalysisCancelled extends Error {
-  constructor() {
-    super('cancelled');
-    this.name = 'AnalysisCancelled';
-  }
+/** The job finished: its outcome. */
+export interface IRunDone {
+  kind: 'done';
+  outcome: IAnalysisOutcome;
 }
 
-/** Creates the worker; replaced in tests. */
-export type WorkerFactory = () => Worker;
+/**
+ * The user stopped the job. `best` holds the best values reached so far and
+ * their χ², without uncertainties ("Stopped by you: best values so far (no
+ * uncertainties)"); null when the job was stopped before the engine reported
+ * a point (e.g. while it waited its turn).
+ */
+export interface IRunCancelled {
+  kind: 'cancelled';
+  cancelled: true;
+  bestSoFar: true;
+  best: IBestSoFar | null;
+}
+
+/** What {@link AnalysisRunner.run} resolves to. Failures reject with a {@link CoreMessageError}. */
+export type AnalysisRunResult = IRunDone | IRunCancelled;
+
+/** Creates the worker (null: run on the main thread); replaced in tests. */
+export type WorkerFactory = () => Worker | null;
+
+/** Longest wait for a worker to answer a shared-memory cancel before it is ended, in ms. */
+export const CANCEL_GRACE_MS = 1000;
+
+/** Whether a SharedArrayBuffer can be shared with a worker on this page. */
+export function sharedMemoryUsable(): boolean {
+  return (
+    typeof SharedArrayBuffer === 'function' &&
+    typeof Atomics === 'object' &&
+    (globalThis as { crossOriginIsolated?: boolean }).crossOriginIsolated === true
+  );
+}
 
 function defaultWorkerFactory(): Worker | null {
   if (typeof Worker === 'undefined') {
@@ -33,99 +84,378 @@ function defaultWorkerFactory(): Worker | null {
   return new Worker(new URL('../worker/analysis.worker.js', import.meta.url));
 }
 
-/** Runs one job at a time; a new run cancels the previous one. */
-export class AnalysisRunner {
-  constructor(options: { workerFactory?: () => Worker | null } = {}) {
+function cancelledResult(best: IBestSoFar | null): IRunCancelled {
+  return { kind: 'cancelled', cancelled: true, bestSoFar: true, best };
+}
+
+/** A submitted job. */
+interface ITask {
+  readonly id: number;
+  readonly request: IRunRequest;
+  readonly transfer: Transferable[];
+  readonly onProgress: ((p: IRunProgress) => void) | undefined;
+  readonly resolve: (result: AnalysisRunResult) => void;
+  readonly reject: (reason: Error) => void;
+  /** The best point of the last progress report. */
+  best: IBestSoFar | null;
+  cancelRequested: boolean;
+  graceTimer: ReturnType<typeof setTimeout> | null;
+}
+
+let sharedHost: AnalysisWorkerHost | null = null;
+
+/** The analysis worker and its queue of jobs; one per lab session ({@link AnalysisWorkerHost.shared}). */
+export class AnalysisWorkerHost {
+  /** The host of the lab session, created on first use; its worker starts with the first job. */
+  static shared(): AnalysisWorkerHost {
+    sharedHost ??= new AnalysisWorkerHost();
+    return sharedHost;
+  }
+
+  constructor(options: AnalysisWorkerHost.IOptions = {}) {
     this._factory = options.workerFactory ?? defaultWorkerFactory;
+    this._sharedMemory = options.sharedMemory ?? sharedMemoryUsable();
+    this._graceMs = options.cancelGraceMs ?? CANCEL_GRACE_MS;
   }
 
-  /** True while a job runs. */
-  get busy(): boolean {
-    return this._pending !== null;
+  /** Whether jobs run in a worker: null until the first job decides it. */
+  get usesWorker(): boolean | null {
+    return this._mode === 'unknown' ? null : this._mode === 'worker';
   }
 
-  /** Whether jobs run in a worker (false: main thread). */
-  get usesWorker(): boolean {
-    return this._usesWorker;
+  /** Whether cancel uses a shared-memory flag (false: the worker is ended). */
+  get sharedMemory(): boolean {
+    return this._sharedMemory;
+  }
+
+  /** Jobs waiting or running. */
+  get pending(): number {
+    return this._queue.length + (this._running ? 1 : 0);
   }
 
   /**
-   * Run a job.
-   *
-   * @returns the outcome; rejects with an Error carrying the handler's message
-   * when the job fails, or with {@link AnalysisCancelled}.
+   * Queue a job. Its x, y and σ are copied at once (the caller may keep
+   * using its arrays).
    */
-  run(job: IAnalysisJob, starts: Record<string, number>, onProgress: (p: IRunProgress) => void): Promise<IAnalysisOutcome> {
-    this.cancel();
-    const id = ++this._id;
-    const request: IRunRequest = { id, kind: 'run', job, starts };
-    return new Promise<IAnalysisOutcome>((resolve, reject) => {
-      this._pending = { id, reject };
-      const reply = (message: AnalysisResponse): void => {
-        if (!this._pending || this._pending.id !== message.id) {
-          return;
-        }
-        if (message.kind === 'progress') {
-          onProgress(message);
-          return;
-        }
-        this._finish();
-        if (message.kind === 'done') {
-          resolve(message.outcome);
-        } else {
-          reject(new Error(message.message));
-        }
-      };
-      let worker: Worker | null = null;
-      try {
-        worker = this._factory();
-      } catch (reason) {
-        console.warn('psiscape: analysis worker unavailable, running on the main thread', reason);
-      }
-      this._usesWorker = worker !== null;
-      if (worker) {
-        this._worker = worker;
-        worker.onmessage = (event: MessageEvent<AnalysisResponse>) => reply(event.data);
-        worker.onerror = event => {
-          if (this._pending?.id === id) {
-            this._finish();
-            reject(new Error(`the analysis worker failed: ${event.message}`));
-          }
-        };
-        worker.postMessage(request);
-      } else {
-        setTimeout(() => {
-          if (this._pending?.id === id) {
-            handleAnalysisMessage(request, reply);
-          }
-        }, 0);
-      }
+  submit(job: IAnalysisJob, onProgress?: (p: IRunProgress) => void): { id: number; result: Promise<AnalysisRunResult> } {
+    const id = ++this._lastId;
+    const x = Float64Array.from(job.x);
+    const y = Float64Array.from(job.y);
+    const sigma = job.sigma ? Float64Array.from(job.sigma) : undefined;
+    const copy: IAnalysisJob = { ...job, x, y, sigma };
+    if (!sigma) {
+      delete copy.sigma;
+    }
+    const request: IRunRequest = { id, kind: 'run', job: copy };
+    if (this._sharedMemory) {
+      request.cancelFlag = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT));
+    }
+    const transfer: Transferable[] = sigma ? [x.buffer, y.buffer, sigma.buffer] : [x.buffer, y.buffer];
+    let task!: ITask;
+    const result = new Promise<AnalysisRunResult>((resolve, reject) => {
+      task = { id, request, transfer, onProgress, resolve, reject, best: null, cancelRequested: false, graceTimer: null };
     });
+    if (this._disposed) {
+      task.resolve(cancelledResult(null));
+    } else {
+      this._queue.push(task);
+      this._pump();
+    }
+    return { id, result };
   }
 
-  /** Cancel the running job, if any (its promise rejects with AnalysisCancelled). */
-  cancel(): void {
-    const pending = this._pending;
-    this._finish();
-    pending?.reject(new AnalysisCancelled());
-  }
-
-  /** End any worker. */
-  dispose(): void {
-    this.cancel();
-  }
-
-  private _finish(): void {
-    this._pending = null;
-    if (this._worker) {
-      this._worker.terminate();
-      this._worker = null;
+  /**
+   * Stop job `id`: a waiting job leaves the queue; a running one stops at
+   * its best point so far. Its promise resolves with a cancelled result.
+   */
+  cancel(id: number): void {
+    const i = this._queue.findIndex(t => t.id === id);
+    if (i >= 0) {
+      const [task] = this._queue.splice(i, 1);
+      task.resolve(cancelledResult(null));
+      return;
+    }
+    const task = this._running;
+    if (!task || task.id !== id || task.cancelRequested) {
+      return;
+    }
+    task.cancelRequested = true;
+    if (!this._worker) {
+      // Main thread: the job has not started (it runs in one piece after a yield).
+      this._settle(task, cancelledResult(task.best));
+    } else if (task.request.cancelFlag) {
+      Atomics.store(task.request.cancelFlag, 0, 1);
+      task.graceTimer = setTimeout(() => this._abandon(task), this._graceMs);
+    } else {
+      this._abandon(task);
     }
   }
 
-  private _factory: () => Worker | null;
+  /** End the worker; waiting and running jobs resolve as cancelled. */
+  dispose(): void {
+    if (this._disposed) {
+      return;
+    }
+    this._disposed = true;
+    const tasks = this._running ? [this._running, ...this._queue] : [...this._queue];
+    this._queue = [];
+    this._running = null;
+    this._endWorker();
+    for (const task of tasks) {
+      this._clearTimer(task);
+      task.resolve(cancelledResult(task.best));
+    }
+    if (sharedHost === this) {
+      sharedHost = null;
+    }
+  }
+
+  /** Send the next job when none runs. */
+  private _pump(): void {
+    if (this._running || this._queue.length === 0 || this._disposed) {
+      return;
+    }
+    const task = this._queue.shift()!;
+    this._running = task;
+    const worker = this._worker ?? (this._mode === 'main-thread' ? null : this._startWorker());
+    if (!worker) {
+      setTimeout(() => {
+        if (this._running === task) {
+          handleAnalysisMessage(task.request, message => this._onReply(null, message));
+        }
+      }, 0);
+      return;
+    }
+    try {
+      worker.postMessage(task.request, task.transfer);
+    } catch (reason) {
+      this._settleFailure(task, messageOf(reason));
+    }
+  }
+
+  private _startWorker(): Worker | null {
+    let worker: Worker | null = null;
+    try {
+      worker = this._factory();
+    } catch (reason) {
+      console.warn('psiscape: analysis worker unavailable, running on the main thread', reason);
+    }
+    if (!worker) {
+      this._mode = 'main-thread';
+      return null;
+    }
+    this._mode = 'worker';
+    this._worker = worker;
+    worker.onmessage = (event: MessageEvent<AnalysisResponse>) => this._onReply(worker, event.data);
+    worker.onerror = (event: ErrorEvent) => this._onWorkerError(worker, event.message || 'the worker script could not run');
+    worker.onmessageerror = () => this._onWorkerError(worker, 'a reply could not be read');
+    return worker;
+  }
+
+  private _endWorker(): void {
+    if (this._worker) {
+      const worker = this._worker;
+      this._worker = null;
+      worker.onmessage = null;
+      worker.onerror = null;
+      worker.onmessageerror = null;
+      worker.terminate();
+    }
+  }
+
+  private _onReply(source: Worker | null, message: AnalysisResponse): void {
+    const task = this._running;
+    if (source !== this._worker || !task || !message || message.id !== task.id) {
+      return;
+    }
+    switch (message.kind) {
+      case 'progress':
+        task.best = message.best ?? task.best;
+        if (!task.cancelRequested && task.onProgress) {
+          try {
+            task.onProgress({ iteration: message.iteration, evaluations: message.evaluations, cost: message.cost, best: message.best });
+          } catch (reason) {
+            console.error('psiscape: analysis progress handler failed', reason);
+          }
+        }
+        return;
+      case 'done':
+        // A job cancelled after it had finished still answers as cancelled: the caller asked to stop.
+        this._settle(task, task.cancelRequested ? cancelledResult(bestOfFit(message.outcome.fit)) : { kind: 'done', outcome: message.outcome });
+        return;
+      case 'cancelled':
+        this._settle(task, cancelledResult(message.best ?? task.best));
+        return;
+      case 'failed':
+        if (task.cancelRequested) {
+          this._settle(task, cancelledResult(task.best));
+        } else {
+          this._settleFailure(task, message.message);
+        }
+        return;
+    }
+  }
+
+  private _onWorkerError(source: Worker, text: string): void {
+    if (source !== this._worker) {
+      return;
+    }
+    // The worker's state is unknown: end it; the next job starts a fresh one.
+    this._endWorker();
+    const task = this._running;
+    if (!task) {
+      return;
+    }
+    if (task.cancelRequested) {
+      this._settle(task, cancelledResult(task.best));
+    } else {
+      this._settleFailure(task, msg('analysis.worker-failed', 'The analysis worker stopped: %1', text));
+    }
+  }
+
+  /** End the worker running `task` (it cannot see a cancel), answer with the last best point, start a fresh worker. */
+  private _abandon(task: ITask): void {
+    if (this._running !== task) {
+      return;
+    }
+    this._endWorker();
+    this._startWorker();
+    this._settle(task, cancelledResult(task.best));
+  }
+
+  private _settle(task: ITask, result: AnalysisRunResult): void {
+    this._finish(task);
+    task.resolve(result);
+    this._pump();
+  }
+
+  private _settleFailure(task: ITask, message: ICoreMessage): void {
+    this._finish(task);
+    task.reject(new CoreMessageError(message));
+    this._pump();
+  }
+
+  private _finish(task: ITask): void {
+    this._clearTimer(task);
+    if (this._running === task) {
+      this._running = null;
+    }
+  }
+
+  private _clearTimer(task: ITask): void {
+    if (task.graceTimer !== null) {
+      clearTimeout(task.graceTimer);
+      task.graceTimer = null;
+    }
+  }
+
+  private readonly _factory: WorkerFactory;
+  private readonly _sharedMemory: boolean;
+  private readonly _graceMs: number;
+  private _mode: 'unknown' | 'worker' | 'main-thread' = 'unknown';
   private _worker: Worker | null = null;
-  private _pending: { id: number; reject: (reason: unknown) => void } | null = null;
-  private _id = 0;
-  private _usesWorker = false;
+  private _queue: ITask[] = [];
+  private _running: ITask | null = null;
+  private _lastId = 0;
+  private _disposed = false;
+}
+
+export namespace AnalysisWorkerHost {
+  export interface IOptions {
+    /** Creates the worker; default: the bundled analysis worker, or null where Worker is missing. */
+    workerFactory?: WorkerFactory;
+    /** Cancel through a SharedArrayBuffer flag; default: {@link sharedMemoryUsable}. */
+    sharedMemory?: boolean;
+    /** Longest wait for a shared-memory cancel, in ms; default {@link CANCEL_GRACE_MS}. */
+    cancelGraceMs?: number;
+  }
+}
+
+/** One panel's access to the analysis worker: one job at a time; a new run cancels its previous one. */
+export class AnalysisRunner {
+  constructor(options: AnalysisRunner.IOptions = {}) {
+    if (options.host) {
+      this._host = options.host;
+    } else if (options.workerFactory) {
+      this._host = new AnalysisWorkerHost({ workerFactory: options.workerFactory });
+      this._ownsHost = true;
+    } else {
+      this._host = AnalysisWorkerHost.shared();
+    }
+  }
+
+  /** The host whose worker runs this runner's jobs. */
+  get host(): AnalysisWorkerHost {
+    return this._host;
+  }
+
+  /** True while this runner's job waits or runs (false from the moment it is cancelled). */
+  get busy(): boolean {
+    return this._current !== null;
+  }
+
+  /** Whether jobs run in a worker (false: main thread, or not known before the first job). */
+  get usesWorker(): boolean {
+    return this._host.usesWorker === true;
+  }
+
+  /**
+   * Run a job, cancelling this runner's previous one (other runners' jobs are
+   * left alone; they share the worker's queue).
+   *
+   * @returns `{ kind: 'done', outcome }`, or `{ kind: 'cancelled', best }`
+   * when {@link cancel} (or a later run) stopped it; rejects with a
+   * {@link CoreMessageError} (its `detail` is the message to translate) when
+   * the job fails.
+   */
+  run(job: IAnalysisJob, onProgress?: (p: IRunProgress) => void): Promise<AnalysisRunResult> {
+    if (this._disposed) {
+      return Promise.resolve(cancelledResult(null));
+    }
+    this.cancel();
+    const { id, result } = this._host.submit(job, onProgress);
+    this._current = id;
+    const clear = (): void => {
+      if (this._current === id) {
+        this._current = null;
+      }
+    };
+    result.then(clear, clear);
+    return result;
+  }
+
+  /** Cancel this runner's job, if any (its promise resolves with a cancelled result). */
+  cancel(): void {
+    const id = this._current;
+    this._current = null;
+    if (id !== null) {
+      this._host.cancel(id);
+    }
+  }
+
+  /** Cancel this runner's job; the shared worker stays for the other panels. */
+  dispose(): void {
+    if (this._disposed) {
+      return;
+    }
+    this.cancel();
+    this._disposed = true;
+    if (this._ownsHost) {
+      this._host.dispose();
+    }
+  }
+
+  private readonly _host: AnalysisWorkerHost;
+  private readonly _ownsHost: boolean = false;
+  private _current: number | null = null;
+  private _disposed = false;
+}
+
+export namespace AnalysisRunner {
+  export interface IOptions {
+    /** The host to share (default: {@link AnalysisWorkerHost.shared}). */
+    host?: AnalysisWorkerHost;
+    /** A private host with this worker factory (null from it: main thread); ended with the runner. */
+    workerFactory?: WorkerFactory;
+  }
 }

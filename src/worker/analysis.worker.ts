@@ -1,6 +1,7 @@
 /**
- * Web Worker entry for the analysis panel's fits: wires messages to the pure
- * handler in src/core/analysis/protocol.ts.
+ * Web Worker entry of the one analysis worker: wires messages to the pure
+ * handler in src/core/analysis/protocol.ts. Jobs run one at a time, in the
+ * order they arrive (the client sends the next one when a job ends).
  */
 import { handleAnalysisMessage } from '../core/analysis/protocol';
 import type { AnalysisResponse } from '../core/analysis/protocol';

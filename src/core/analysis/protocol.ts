@@ -1,13 +1,26 @@
 /**
- * Messages between the analysis panel and its worker. The handler is pure:
- * the worker entry wires it to `postMessage`, tests call it directly.
+ * Messages between the UI and the one analysis worker. The handler is pure:
+ * the worker entry (src/worker/analysis.worker.ts) wires it to `postMessage`,
+ * tests call it directly or from a Node worker thread.
  *
- * Request:  { id, kind: 'run', job, starts? }
- * Replies:  { id, kind: 'progress', iteration, evaluations, cost }
- *           { id, kind: 'done', outcome } | { id, kind: 'failed', message }
- * Cancelling is done by the client (it ends the worker and keeps the
- * previous outcome); a fit itself never blocks the page.
+ * Request:  { id, kind: 'run', job, cancelFlag? }
+ *           The job's x, y and σ may be Float64Arrays (the UI transfers
+ *           their buffers). `cancelFlag` is an Int32Array over a
+ *           SharedArrayBuffer: the client stores a non-zero value in element
+ *           0 to stop the job; the engine reads it with Atomics at every
+ *           iteration and stops at the best point so far.
+ * Replies:  { id, kind: 'progress', iteration, evaluations, cost, best }  (at most every PROGRESS_INTERVAL_MS)
+ *           { id, kind: 'done', outcome }
+ *           { id, kind: 'cancelled', best }   (the flag stopped the job)
+ *           { id, kind: 'failed', message }   (an ICoreMessage, for the UI to translate)
+ *
+ * Without shared memory a busy worker cannot see a cancel request, so the
+ * client ends the worker instead and keeps the best point of the last
+ * progress reply: that is why every progress reply carries it.
  */
+import { msg, messageOf } from '../messages';
+import type { ICoreMessage } from '../messages';
+import type { IFitProgress, IFitResult } from '../fit/types';
 import type { IAnalysisJob, IAnalysisOutcome } from './types';
 import { runAnalysisJob } from './run';
 
@@ -16,44 +29,127 @@ export interface IRunRequest {
   id: number;
   kind: 'run';
   job: IAnalysisJob;
-  /** Start values for expression models, by parameter name. */
-  starts?: Record<string, number>;
+  /** Cooperative cancel: element 0 ≠ 0 stops the job (Int32Array over a SharedArrayBuffer). */
+  cancelFlag?: Int32Array;
 }
 export type AnalysisRequest = IRunRequest;
 
-export type AnalysisResponse =
-  | { id: number; kind: 'progress'; iteration: number; evaluations: number; cost: number }
-  | { id: number; kind: 'done'; outcome: IAnalysisOutcome }
-  | { id: number; kind: 'failed'; message: string };
+/**
+ * The best point a fit has reached so far: values and χ² without
+ * uncertainties (a stopped fit has no covariance worth quoting).
+ */
+export interface IBestSoFar {
+  /** Parameter names, in the order of `values`. */
+  parameters: string[];
+  values: number[];
+  /** χ² at `values` (the residual sum of squares when no σ were given). */
+  chi2: number;
+  /** Iterations done when this point was reached. */
+  iteration: number;
+}
 
-/** Least time between two progress messages, in ms. */
+/** Progress of a running job, with the best point so far (null before the engine's first report). */
+export interface IProgressReply {
+  id: number;
+  kind: 'progress';
+  iteration: number;
+  evaluations: number;
+  /** χ² at the best point so far. */
+  cost: number;
+  best: IBestSoFar | null;
+}
+
+export interface IDoneReply {
+  id: number;
+  kind: 'done';
+  outcome: IAnalysisOutcome;
+}
+
+/** The cancel flag stopped the job: the best point the engine had reached (null when it had none). */
+export interface ICancelledReply {
+  id: number;
+  kind: 'cancelled';
+  best: IBestSoFar | null;
+}
+
+export interface IFailedReply {
+  id: number;
+  kind: 'failed';
+  message: ICoreMessage;
+}
+
+export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply;
+
+/** Least time between two progress replies, in ms. */
 export const PROGRESS_INTERVAL_MS = 100;
 
-/** Run a request and post its replies. Never throws: failures become 'failed' replies. */
+/** The best point of an engine progress report, or null when the report carries no values. */
+export function bestOfProgress(p: IFitProgress): IBestSoFar | null {
+  if (!p.values || !p.parameters) {
+    return null;
+  }
+  return { parameters: [...p.parameters], values: [...p.values], chi2: p.cost, iteration: p.iteration };
+}
+
+/** The point a finished (or stopped) fit returned, as a best-so-far point. */
+export function bestOfFit(fit: IFitResult): IBestSoFar {
+  return { parameters: [...fit.parameters], values: [...fit.values], chi2: fit.chi2, iteration: fit.iterations };
+}
+
+function isArrayLikeOfNumbers(v: unknown): boolean {
+  return Array.isArray(v) || v instanceof Float64Array;
+}
+
+/** Whether `v` looks like a run request (the job itself is checked by the job's own validation). */
+function isRunRequest(v: unknown): v is IRunRequest {
+  const r = v as Partial<IRunRequest> | null;
+  return (
+    typeof r === 'object' &&
+    r !== null &&
+    r.kind === 'run' &&
+    typeof r.id === 'number' &&
+    typeof r.job === 'object' &&
+    r.job !== null &&
+    isArrayLikeOfNumbers(r.job.x) &&
+    isArrayLikeOfNumbers(r.job.y) &&
+    (r.job.sigma === undefined || isArrayLikeOfNumbers(r.job.sigma)) &&
+    (r.cancelFlag === undefined || (r.cancelFlag instanceof Int32Array && r.cancelFlag.length >= 1))
+  );
+}
+
+/**
+ * Run a request and post its replies: progress (throttled), then exactly one
+ * of done, cancelled or failed. Never throws.
+ *
+ * @param now - clock for the progress throttle, in ms (tests pass their own)
+ */
 export function handleAnalysisMessage(request: unknown, post: (response: AnalysisResponse) => void, now: () => number = Date.now): void {
-  const r = request as Partial<IRunRequest> | null;
-  const id = r && typeof r.id === 'number' ? r.id : -1;
-  if (!r || r.kind !== 'run' || !r.job) {
-    post({ id, kind: 'failed', message: 'malformed analysis request' });
+  if (!isRunRequest(request)) {
+    const id = typeof (request as { id?: unknown } | null)?.id === 'number' ? (request as { id: number }).id : -1;
+    post({ id, kind: 'failed', message: msg('analysis.malformed-request', 'The analysis worker received a request it cannot read.') });
     return;
   }
+  const { id, job, cancelFlag } = request;
+  const stopped = cancelFlag ? (): boolean => Atomics.load(cancelFlag, 0) !== 0 : (): boolean => false;
   let last = -Infinity;
+  let best: IBestSoFar | null = null;
+  let outcome: IAnalysisOutcome;
   try {
-    const outcome = runAnalysisJob(
-      r.job,
-      {
-        onProgress: p => {
-          const t = now();
-          if (t - last >= PROGRESS_INTERVAL_MS) {
-            last = t;
-            post({ id, kind: 'progress', iteration: p.iteration, evaluations: p.evaluations, cost: p.cost });
-          }
+    outcome = runAnalysisJob(job, {
+      shouldStop: cancelFlag ? stopped : undefined,
+      onProgress: p => {
+        best = bestOfProgress(p) ?? best;
+        const t = now();
+        if (t - last >= PROGRESS_INTERVAL_MS) {
+          last = t;
+          post({ id, kind: 'progress', iteration: p.iteration, evaluations: p.evaluations, cost: p.cost, best });
         }
-      },
-      r.starts ?? {}
-    );
-    post({ id, kind: 'done', outcome });
+      }
+    });
   } catch (e) {
-    post({ id, kind: 'failed', message: e instanceof Error ? e.message : String(e) });
+    // A job stopped by its flag may still fail afterwards (e.g. a curve at a wild point): the stop wins.
+    post(stopped() ? { id, kind: 'cancelled', best } : { id, kind: 'failed', message: messageOf(e) });
+    return;
   }
+  post(stopped() ? { id, kind: 'cancelled', best: bestOfFit(outcome.fit) } : { id, kind: 'done', outcome });
 }

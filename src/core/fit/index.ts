@@ -20,20 +20,3 @@ export { FIT_DEFAULTS } from './defaults';
 export { studentTQuantileTwoSided, normalQuantileTwoSided } from './studentT';
 export { startFit } from './fitCurve';
 export type { IFitRun } from './fitCurve';
-export { fitCurveAsync, DEFAULT_SLICE_MS } from './fitAsync';
-export { FitModelRegistry, defaultFitModelRegistry } from './registry';
-export type { FitModelFactory } from './registry';
-export { FitProtocolHandler, modelFromSpec, DEFAULT_PROGRESS_INTERVAL_MS } from './protocol';
-export type {
-  FitModelSpec,
-  IExpressionModelSpec,
-  IRegisteredModelSpec,
-  SerializableFitOptions,
-  IFitRequest,
-  ICancelRequest,
-  FitRequest,
-  IProgressResponse,
-  IResultResponse,
-  IErrorResponse,
-  FitResponse
-} from './protocol';
