@@ -15,6 +15,8 @@
  * accepted when |p| ≤ B there, and is then accurate only to about
  * √(B/|p″|), as for any method in binary64.
  */
+import { msg } from '../messages';
+import { NumericInputError } from './errors';
 
 /** Coefficients in ascending order: p(x) = c[0] + c[1] x + … */
 export type PolyCoefficients = readonly number[];
@@ -86,17 +88,18 @@ function refine(c: PolyCoefficients, d: PolyCoefficients, lo: number, hi: number
 
 /**
  * All distinct real roots of p (ascending coefficients), sorted ascending.
- * A polynomial that is identically zero throws; constants give no roots.
+ * A polynomial that is identically zero, or a non-finite coefficient, throws
+ * `NumericInputError`; constants give no roots.
  */
 export function realPolynomialRoots(coefficients: PolyCoefficients): number[] {
   for (const v of coefficients) {
     if (!Number.isFinite(v)) {
-      throw new RangeError(`polynomial coefficients must be finite, got ${String(v)}`);
+      throw new NumericInputError(msg('numeric.polynomial-not-finite', 'A coefficient of the polynomial is %1: every coefficient must be a finite number.', v));
     }
   }
   const c = trim(coefficients);
   if (c.length === 0) {
-    throw new RangeError('the zero polynomial has no isolated roots');
+    throw new NumericInputError(msg('numeric.polynomial-zero', 'Every coefficient of the polynomial is 0, so it has no isolated roots.'));
   }
   if (c.length === 1) {
     return [];

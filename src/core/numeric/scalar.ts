@@ -16,6 +16,8 @@
  * a unimodal f; near a smooth minimum f is flat to O(δ²), so its location is
  * resolved to about √ε relative at best, whatever xtol.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 
 /** Outcome of a bracketed root search. */
 export interface IScalarRootResult {
@@ -23,8 +25,12 @@ export interface IScalarRootResult {
   value: number;
   iterations: number;
   converged: boolean;
-  reason: string;
+  /** How the search ended (codes `numeric.root.*`). */
+  reason: ICoreMessage;
 }
+
+const NOT_FINITE_AT_ENDS = (): ICoreMessage => msg('numeric.root.not-finite-at-ends', 'The function is not finite at an end of the search interval.');
+const EXACT_AT_END = (): ICoreMessage => msg('numeric.root.exact-at-end', 'The root lies exactly at an end of the search interval.');
 
 /**
  * Root of f in [a, b] given f(a) f(b) ≤ 0, by Brent's method (inverse
@@ -40,16 +46,16 @@ export function bracketRoot(
   let fa = f(a);
   let fb = f(b);
   if (!Number.isFinite(fa) || !Number.isFinite(fb)) {
-    return { root: NaN, value: NaN, iterations: 0, converged: false, reason: 'function not finite at the bracket ends' };
+    return { root: NaN, value: NaN, iterations: 0, converged: false, reason: NOT_FINITE_AT_ENDS() };
   }
   if (fa === 0) {
-    return { root: a, value: 0, iterations: 0, converged: true, reason: 'exact root at bracket end' };
+    return { root: a, value: 0, iterations: 0, converged: true, reason: EXACT_AT_END() };
   }
   if (fb === 0) {
-    return { root: b, value: 0, iterations: 0, converged: true, reason: 'exact root at bracket end' };
+    return { root: b, value: 0, iterations: 0, converged: true, reason: EXACT_AT_END() };
   }
   if (fa * fb > 0) {
-    return { root: NaN, value: NaN, iterations: 0, converged: false, reason: 'no sign change over the bracket' };
+    return { root: NaN, value: NaN, iterations: 0, converged: false, reason: msg('numeric.root.no-sign-change', 'The function does not change sign over the search interval.') };
   }
   let c = a;
   let fc = fa;
@@ -73,7 +79,7 @@ export function bracketRoot(
     const tol = 2 * Number.EPSILON * Math.abs(b) + 0.5 * xtol;
     const m = 0.5 * (c - b);
     if (Math.abs(m) <= tol || fb === 0) {
-      return { root: b, value: fb, iterations: it, converged: true, reason: 'bracket below tolerance' };
+      return { root: b, value: fb, iterations: it, converged: true, reason: msg('numeric.root.converged', 'The root was located to within the requested tolerance.') };
     }
     if (Math.abs(e) >= tol && Math.abs(fa) > Math.abs(fb)) {
       const s = fb / fa;
@@ -109,10 +115,16 @@ export function bracketRoot(
     b += Math.abs(d) > tol ? d : m > 0 ? tol : -tol;
     fb = f(b);
     if (!Number.isFinite(fb)) {
-      return { root: a, value: fa, iterations: it, converged: false, reason: 'function not finite inside the bracket' };
+      return { root: a, value: fa, iterations: it, converged: false, reason: msg('numeric.root.not-finite-inside', 'The function is not finite inside the search interval.') };
     }
   }
-  return { root: b, value: fb, iterations: maxIterations, converged: false, reason: 'iteration limit reached' };
+  return {
+    root: b,
+    value: fb,
+    iterations: maxIterations,
+    converged: false,
+    reason: msg('numeric.root.iteration-limit', 'The search for the root reached its limit of %1 iterations before it settled.', maxIterations)
+  };
 }
 
 /** Bounded minimum of a unimodal f on [a, b] by golden-section search. */

@@ -6,12 +6,15 @@
  */
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { beanRodbellMagnetisation, beanRodbellTransition } from './bean-rodbell';
-import { PhysicsInputError, requireSpin } from './errors';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite, requireSpin, temperatureNotPositive, tooFewPoints } from './errors';
 
 /** Result of a Bean–Rodbell fit. */
 export interface IBeanRodbellFitResult extends IFitResult {
-  convention: string;
+  /** The model and its variables, for people (code `physics.bean-rodbell.convention`). */
+  convention: ICoreMessage;
   J: number;
   /** Transition temperature implied by the fitted (T0, η): T0 for η ≤ 1, T0 τc(η) above. */
   Tc: number;
@@ -29,14 +32,17 @@ export function fitBeanRodbell(
   requireSpin(options.J);
   const n = data.T.length;
   if (n !== data.M.length || (data.sigma !== undefined && data.sigma.length !== n)) {
-    throw new PhysicsInputError('T, M (and sigma) must have equal lengths');
+    throw new PhysicsInputError(lengthsDiffer(data.sigma !== undefined ? { T: n, M: data.M.length, sigma: data.sigma.length } : { T: n, M: data.M.length }));
   }
   if (n < 4) {
-    throw new PhysicsInputError(`need at least 4 points, got ${n}`);
+    throw new PhysicsInputError(tooFewPoints(4, n));
   }
   for (let i = 0; i < n; i++) {
-    if (!(data.T[i] > 0) || !Number.isFinite(data.T[i]) || !Number.isFinite(data.M[i])) {
-      throw new PhysicsInputError(`point ${i} must have finite T > 0 and finite M`);
+    if (!(data.T[i] > 0) || !Number.isFinite(data.T[i])) {
+      throw new PhysicsInputError(temperatureNotPositive(i, data.T[i]));
+    }
+    if (!Number.isFinite(data.M[i])) {
+      throw new PhysicsInputError(pointNotFinite(i, 'M', data.M[i]));
     }
   }
   const J = options.J;
@@ -70,7 +76,7 @@ export function fitBeanRodbell(
   const tr = beanRodbellTransition(J, res.values[2]);
   return {
     ...res,
-    convention: 'Bean-Rodbell: M = Ms*sigma(T/T0), sigma = B_J((3J/(J+1))(T0/T)(sigma + kappa_J eta sigma^3))',
+    convention: msg('physics.bean-rodbell.convention', 'Bean–Rodbell model: M = Ms·σ(T/T0) with σ = B_J((3J/(J + 1))(T0/T)(σ + κ_J·η·σ³)).'),
     J,
     Tc: res.values[1] * tr.tauC,
     firstOrder: tr.firstOrder

@@ -7,6 +7,8 @@
  * η < 1 second order, η = 1 tricritical, η > 1 first order (Tc > T0).
  * The equilibrium is the global minimum of G over all self-consistent roots.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { bracketRoot } from '../numeric/scalar';
 import { brillouin, inverseBrillouin, weissCoupling } from './brillouin';
 import { PhysicsInputError, requireFinite, requireSpin } from './errors';
@@ -61,10 +63,10 @@ export function beanRodbellState(J: number, eta: number, tau: number, h = 0): IB
   requireFinite('eta', eta);
   requireFinite('h', h);
   if (!(eta >= 0)) {
-    throw new PhysicsInputError(`eta must be >= 0, got ${eta}`);
+    throw new PhysicsInputError(msg('physics.eta-negative', 'η must be at least 0, but it is %1.', eta));
   }
   if (!(tau > 0)) {
-    throw new PhysicsInputError(`tau must be > 0, got ${tau}`);
+    throw new PhysicsInputError(msg('physics.tau-not-positive', 'The reduced temperature τ must be above 0, but it is %1.', tau));
   }
   const k = weissCoupling(J);
   const kap = beanRodbellKappa(J);
@@ -118,7 +120,8 @@ export function beanRodbellMagnetisation(J: number, eta: number, tau: ArrayLike<
 
 /** Transition of the Bean–Rodbell model at h = 0. */
 export interface IBeanRodbellTransition {
-  convention: string;
+  /** The reduced variables, for people (code `physics.bean-rodbell.reduced`). */
+  convention: ICoreMessage;
   firstOrder: boolean;
   /** Tc/T0. */
   tauC: number;
@@ -129,7 +132,7 @@ export interface IBeanRodbellTransition {
 
 /** Tc/T0 and the σ jump: = 1 for η ≤ 1; for η > 1 from G_ordered(τ) = G(0). */
 export function beanRodbellTransition(J: number, eta: number): IBeanRodbellTransition {
-  const convention = 'Bean-Rodbell reduced: tau = T/T0, sigma = M/Ms';
+  const convention = msg('physics.bean-rodbell.reduced', 'Bean–Rodbell model in reduced variables: τ = T/T0, σ = M/Ms.');
   if (!(eta > 1)) {
     beanRodbellState(J, eta, 1); // validates
     return { convention, firstOrder: false, tauC: 1, sigmaJump: 0, converged: true };

@@ -6,6 +6,7 @@
  * small x; L uses its Taylor series for |y| < 0.3 and an expm1 form beyond,
  * which stays finite (→ 1) for huge x.
  */
+import { msg } from '../messages';
 import { requireSpin, PhysicsInputError } from './errors';
 
 /** Taylor coefficients of coth(y) − 1/y (odd powers y, y³, …). */
@@ -92,7 +93,7 @@ export function brillouinDerivative(J: number, x: number): number {
 export function brillouinChecked(J: number, x: number): number {
   requireSpin(J);
   if (Number.isNaN(x)) {
-    throw new PhysicsInputError('x must not be NaN');
+    throw new PhysicsInputError(msg('physics.brillouin-argument', 'The argument x of the Brillouin function is not a number.'));
   }
   if (x === Infinity) {
     return 1;
@@ -116,7 +117,7 @@ export function weissCoupling(J: number): number {
 export function inverseBrillouin(J: number, m: number): number {
   requireSpin(J);
   if (Number.isNaN(m) || Math.abs(m) > 1) {
-    throw new PhysicsInputError(`m must lie in [-1, 1], got ${m}`);
+    throw new PhysicsInputError(msg('physics.reduced-magnetisation-range', 'The reduced magnetisation m must lie between −1 and 1, but it is %1.', m));
   }
   if (m === 1) {
     return Infinity;

@@ -6,11 +6,14 @@
  * equilibrium is the lowest-F phase; boundaries are located by bisection on
  * a temperature grid.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { PhysicsInputError, requireFinite } from './errors';
 
-/** Convention tag stored with coupled-order-parameter results. */
-export const COUPLED_CONVENTION =
-  'F = (a1/2)(T - T1)psi^2 + (b1/4)psi^4 + (a2/2)(T - T2)phi^2 + (b2/4)phi^4 + (lambda/2)psi^2 phi^2';
+/** Convention stored with coupled-order-parameter results (code `physics.coupled.convention`). */
+export const COUPLED_CONVENTION: ICoreMessage = Object.freeze(
+  msg('physics.coupled.convention', 'F = (a1/2)(T − T1)ψ² + (b1/4)ψ⁴ + (a2/2)(T − T2)φ² + (b2/4)φ⁴ + (λ/2)ψ²φ²')
+);
 
 /** Coefficients of the coupled free energy. */
 export interface ICoupledCoefficients {
@@ -41,10 +44,12 @@ function validate(k: ICoupledCoefficients): void {
     requireFinite(n, v);
   }
   if (!(k.a1 > 0) || !(k.a2 > 0) || !(k.b1 > 0) || !(k.b2 > 0)) {
-    throw new PhysicsInputError('need a1, a2, b1, b2 > 0');
+    throw new PhysicsInputError(msg('physics.coupled.not-positive', 'The coefficients a1, a2, b1 and b2 must all be above 0.'));
   }
   if (!(k.b1 * k.b2 > 0) || k.lambda < -Math.sqrt(k.b1 * k.b2)) {
-    throw new PhysicsInputError('free energy unbounded below: need lambda > -sqrt(b1 b2)');
+    throw new PhysicsInputError(
+      msg('physics.coupled.unbounded', 'The free energy has no lower bound: the coupling λ (%1) must be above −√(b1·b2) (%2).', k.lambda, -Math.sqrt(k.b1 * k.b2))
+    );
   }
 }
 
@@ -52,7 +57,7 @@ function validate(k: ICoupledCoefficients): void {
 export function coupledPhases(
   k: ICoupledCoefficients,
   T: number
-): { states: ICoupledPhaseState[]; equilibrium: ICoupledPhaseState; convention: string } {
+): { states: ICoupledPhaseState[]; equilibrium: ICoupledPhaseState; convention: ICoreMessage } {
   validate(k);
   requireFinite('T', T);
   const A1 = k.a1 * (T - k.T1);

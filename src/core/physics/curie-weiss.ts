@@ -6,8 +6,11 @@
  */
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { PHYS } from './constants';
-import { PhysicsInputError } from './errors';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite, tooFewPoints } from './errors';
 
 /** Unit system of a molar susceptibility. */
 export type MolarUnits = 'cgs-emu' | 'SI';
@@ -27,16 +30,21 @@ export function effectiveMoment(
   Cmol: number,
   units: MolarUnits,
   ionsPerFormulaUnit = 1
-): { pEff: number; convention: string } {
+): { pEff: number; convention: ICoreMessage } {
   if (!(Cmol > 0) || !Number.isFinite(Cmol)) {
-    throw new PhysicsInputError(`Curie constant must be finite and > 0, got ${Cmol}`);
+    throw new PhysicsInputError(msg('physics.curie-constant-not-positive', 'The Curie constant must be a finite number above 0, but it is %1.', Cmol));
   }
   if (!(ionsPerFormulaUnit > 0)) {
-    throw new PhysicsInputError(`ionsPerFormulaUnit must be > 0, got ${ionsPerFormulaUnit}`);
+    throw new PhysicsInputError(
+      msg('physics.ions-not-positive', 'The number of magnetic ions per formula unit must be above 0, but it is %1.', ionsPerFormulaUnit)
+    );
   }
   return {
     pEff: Math.sqrt(Cmol / (ionsPerFormulaUnit * curiePrefactor(units))),
-    convention: `molar ${units}: C_mol = ${units === 'SI' ? 'mu0 ' : ''}N_A muB^2 p_eff^2/(3 kB), per magnetic ion`
+    convention:
+      units === 'SI'
+        ? msg('physics.curie-weiss.moment-si', 'Molar SI units: C_mol = μ0·N_A·μB²·p_eff²/(3kB), with p_eff per magnetic ion.')
+        : msg('physics.curie-weiss.moment-cgs', 'Molar cgs-emu units: C_mol = N_A·μB²·p_eff²/(3kB), with p_eff per magnetic ion.')
   };
 }
 
@@ -47,7 +55,8 @@ export function freeIonMoment(g: number, J: number): number {
 
 /** Result of a Curie–Weiss fit. */
 export interface ICurieWeissFitResult extends IFitResult {
-  convention: string;
+  /** The model, units and normalisation, for people (code `physics.curie-weiss.convention`). */
+  convention: ICoreMessage;
   /** p_eff per ion with its standard error (propagated from C). */
   pEff: number;
   pEffError: number;
@@ -98,11 +107,11 @@ export function fitCurieWeiss(
   const y: number[] = [];
   const s: number[] = [];
   if (data.T.length !== data.chi.length) {
-    throw new PhysicsInputError('T and chi must have equal lengths');
+    throw new PhysicsInputError(lengthsDiffer({ T: data.T.length, chi: data.chi.length }));
   }
   for (let i = 0; i < data.T.length; i++) {
     if (!Number.isFinite(data.T[i]) || !Number.isFinite(data.chi[i])) {
-      throw new PhysicsInputError(`point ${i} is not finite`);
+      throw new PhysicsInputError(Number.isFinite(data.T[i]) ? pointNotFinite(i, 'chi', data.chi[i]) : pointNotFinite(i, 'T', data.T[i]));
     }
     if (data.T[i] >= Tmin) {
       T.push(data.T[i]);
@@ -113,7 +122,11 @@ export function fitCurieWeiss(
     }
   }
   if (T.length < 4) {
-    throw new PhysicsInputError(`need at least 4 points at T >= Tmin, got ${T.length}`);
+    throw new PhysicsInputError(
+      Tmin === -Infinity
+        ? tooFewPoints(4, T.length)
+        : msg('physics.curie-weiss.too-few-above', 'The Curie–Weiss fit needs at least 4 points at T ≥ %1 K, but there are %2: lower the lowest temperature of the fit.', Tmin, wholeNumber(T.length))
+    );
   }
   let start = options.start;
   if (!start) {
@@ -123,7 +136,10 @@ export function fitCurieWeiss(
     const C0 = (T[i1] - T[i0]) / (1 / y[i1] - 1 / y[i0]);
     start = [C0, T[i0] - C0 / y[i0], 0];
   }
-  const minT = Math.min(...T);
+  let minT = Infinity;
+  for (const t of T) {
+    minT = Math.min(minT, t);
+  }
   const res = fitCurve(
     curieWeissModel,
     { x: T, y, sigma: data.sigma ? s : undefined },
@@ -135,7 +151,7 @@ export function fitCurieWeiss(
   const pEff = C > 0 ? effectiveMoment(C, options.units, n).pEff : NaN;
   return {
     ...res,
-    convention: `chi = chi0 + C/(T - theta), molar ${options.units}; p_eff per ion`,
+    convention: msg('physics.curie-weiss.convention', 'χ = χ0 + C/(T − θ) in molar %1 units; p_eff per magnetic ion.', options.units),
     pEff,
     pEffError: C > 0 ? (pEff * sC) / (2 * C) : NaN,
     units: options.units,

@@ -4,6 +4,8 @@
  * convention L with a cubic term d = −B, quartic b = C and c = 0, so the
  * Landau machinery (stationary points, paths) applies unchanged.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { PhysicsInputError, requireFinite } from './errors';
 import type { ILandauCoefficients } from './landau/conventions';
 import { landauTransitionNumeric } from './landau/derived';
@@ -23,7 +25,8 @@ export function deGennesToLandau(k: IDeGennesCoefficients): ILandauCoefficients 
 
 /** Closed-form N–I quantities, with a numerical cross-check of T_NI. */
 export interface IDeGennesResult {
-  convention: string;
+  /** The free energy, for people (code `physics.de-gennes.convention`). */
+  convention: ICoreMessage;
   TNI: number;
   SNI: number;
   superheatingLimit: number;
@@ -40,13 +43,13 @@ export function deGennesTransition(k: IDeGennesCoefficients): IDeGennesResult {
   requireFinite('B', k.B);
   requireFinite('C', k.C);
   if (!(k.a > 0) || !(k.C > 0) || !(k.B > 0)) {
-    throw new PhysicsInputError('Landau–de Gennes needs a > 0, B > 0 and C > 0');
+    throw new PhysicsInputError(msg('physics.de-gennes.not-positive', 'The Landau–de Gennes coefficients a, B and C must all be above 0.'));
   }
   const TNI = k.Tstar + (2 * k.B * k.B) / (9 * k.a * k.C);
   const SNI = (2 * k.B) / (3 * k.C);
   const num = landauTransitionNumeric(deGennesToLandau(k));
   return {
-    convention: 'Landau-de Gennes: F = (a/2)(T - T*)S^2 - (B/3)S^3 + (C/4)S^4',
+    convention: msg('physics.de-gennes.convention', 'Landau–de Gennes free energy: F = (a/2)(T − T*)S² − (B/3)S³ + (C/4)S⁴.'),
     TNI,
     SNI,
     superheatingLimit: k.Tstar + (k.B * k.B) / (4 * k.a * k.C),

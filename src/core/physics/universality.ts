@@ -3,6 +3,8 @@
  * provenance in [C2 in REFERENCES.md]) and the scaling
  * relations used to check a set of measured exponents.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 
 /** A value with its standard uncertainty (0 for exact values). */
 export interface IValueError {
@@ -134,7 +136,7 @@ export interface IClassComparison {
  * exponent is weak evidence; a class needs at least two plus the
  * scaling relations (`warning` says so when fewer than two were given).
  */
-export function compareWithClasses(m: IMeasuredExponents): { ranking: IClassComparison[]; warning: string | null } {
+export function compareWithClasses(m: IMeasuredExponents): { ranking: IClassComparison[]; warning: ICoreMessage | null } {
   const keys = (['alpha', 'beta', 'gamma', 'delta', 'nu'] as const).filter(k => m[k] !== undefined);
   const ranking = UNIVERSALITY_CLASSES.map(c => {
     const z: Record<string, number> = {};
@@ -151,7 +153,10 @@ export function compareWithClasses(m: IMeasuredExponents): { ranking: IClassComp
   }).sort((a, b) => a.chi2 - b.chi2);
   return {
     ranking,
-    warning: keys.length < 2 ? 'fewer than two exponents: a class cannot be assigned from one exponent' : null
+    warning:
+      keys.length < 2
+        ? msg('physics.universality.one-exponent', 'A universality class cannot be assigned from fewer than two exponents: measure at least two, and check the scaling relations.')
+        : null
   };
 }
 

@@ -7,13 +7,20 @@
  */
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { PHYS } from './constants';
-import { PhysicsInputError, requireSpin } from './errors';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite, requireSpin, temperatureNotPositive, tooFewPoints } from './errors';
 import { solveWeiss } from './weiss';
 
-/** Convention tag stored with every Weiss fit. */
-export const WEISS_CONVENTION =
-  'Weiss mean field: M = Ms*B_J(x), x = (3J/(J+1) m + h)/tau, tau = T/Tc, h = mu*muB*B/(kB*Tc), mu = g*J in Bohr magnetons';
+/** Convention stored with every Weiss fit (code `physics.weiss.convention`). */
+export const WEISS_CONVENTION: ICoreMessage = Object.freeze(
+  msg(
+    'physics.weiss.convention',
+    'Weiss mean field: M = Ms·B_J(x) with x = (3J/(J + 1)·m + h)/τ, τ = T/Tc, h = μ·μB·B/(kB·Tc) and μ = g·J in Bohr magnetons.'
+  )
+);
 
 /**
  * Stopping tolerances of the Weiss fits (override through `engine`): the
@@ -26,7 +33,8 @@ export const WEISS_TOLERANCES = { ftol: 1e-8, xtol: 1e-8 } as const;
 
 /** Result of a Weiss fit: the engine result plus the model description. */
 export interface IWeissFitResult extends IFitResult {
-  convention: string;
+  /** The model, for people (code `physics.weiss.convention`). */
+  convention: ICoreMessage;
   /** Spin used (the fitted value when J was free). */
   J: number;
   jFitted: boolean;
@@ -58,17 +66,17 @@ export interface IWeissMTOptions {
 
 function checkColumns(T: ArrayLike<number>, y: ArrayLike<number>, sigma?: ArrayLike<number>): void {
   if (T.length !== y.length || (sigma !== undefined && sigma.length !== T.length)) {
-    throw new PhysicsInputError('T, M (and sigma) must have equal lengths');
+    throw new PhysicsInputError(lengthsDiffer(sigma !== undefined ? { T: T.length, M: y.length, sigma: sigma.length } : { T: T.length, M: y.length }));
   }
   if (T.length < 3) {
-    throw new PhysicsInputError(`need at least 3 points, got ${T.length}`);
+    throw new PhysicsInputError(tooFewPoints(3, T.length));
   }
   for (let i = 0; i < T.length; i++) {
     if (!(T[i] > 0) || !Number.isFinite(T[i])) {
-      throw new PhysicsInputError(`T[${i}] must be a finite temperature in kelvin > 0, got ${T[i]}`);
+      throw new PhysicsInputError(temperatureNotPositive(i, T[i]));
     }
     if (!Number.isFinite(y[i])) {
-      throw new PhysicsInputError(`M[${i}] must be finite, got ${y[i]}`);
+      throw new PhysicsInputError(pointNotFinite(i, 'M', y[i]));
     }
   }
 }
@@ -202,7 +210,9 @@ export function fitWeissMT(
   checkColumns(data.T, data.M, data.sigma);
   const field = options.fieldTesla ?? 0;
   if (field !== 0 && !(options.momentBohr !== undefined && options.momentBohr > 0)) {
-    throw new PhysicsInputError('momentBohr (g*J, > 0) is required when fieldTesla is not 0');
+    throw new PhysicsInputError(
+      msg('physics.weiss.moment-needed', 'A field of %1 T is applied, so the moment g·J (in Bohr magnetons, above 0) is needed as well.', field)
+    );
   }
   const fitJ = options.fitJ === true;
   const model = weissMTModel(options.J, fitJ, field, options.momentBohr ?? 0);
@@ -215,7 +225,7 @@ export function fitWeissMT(
   const upper = fitJ ? [Infinity, Infinity, 50] : [Infinity, Infinity];
   const n = data.T.length;
   const coarseAbove = options.coarseAbove ?? 2000;
-  let coarseNote: string | null = null;
+  let coarseNote: ICoreMessage | null = null;
   if (n > coarseAbove) {
     // coarse stage: the same model fitted to block means of T-sorted data (about
     // `coarsePoints` blocks). Block means keep nearly all the information, so the
@@ -228,12 +238,17 @@ export function fitWeissMT(
     );
     if (coarse.values.every(Number.isFinite) && Number.isFinite(coarse.chi2)) {
       start = coarse.values.slice();
-      coarseNote = `started from a coarse fit of ${blocks.T.length} block means of the T-sorted data (${coarse.iterations} iterations, ${coarse.reason})`;
+      coarseNote = msg(
+        'physics.weiss.coarse-start',
+        'The fit started from a first fit to %1 block means of the data sorted by temperature (%2 iterations).',
+        wholeNumber(blocks.T.length),
+        coarse.iterations
+      );
     }
   }
   const res = fitCurve(model, { x: Float64Array.from(data.T), y: data.M, sigma: data.sigma }, { ...WEISS_TOLERANCES, lower, upper, ...options.engine, start });
   if (coarseNote !== null) {
-    res.warnings = [...res.warnings, coarseNote];
+    res.notes = [...res.notes, coarseNote];
   }
   return { ...res, convention: WEISS_CONVENTION, J: fitJ ? res.values[2] : options.J, jFitted: fitJ };
 }
@@ -259,7 +274,7 @@ export function fitWeissIsotherms(
   requireSpin(options.J);
   checkColumns(data.T, data.M, data.sigma);
   if (data.B.length !== data.T.length) {
-    throw new PhysicsInputError('B must have the same length as T');
+    throw new PhysicsInputError(lengthsDiffer({ T: data.T.length, B: data.B.length }));
   }
   const T = Float64Array.from(data.T);
   const B = Float64Array.from(data.B);
@@ -302,7 +317,9 @@ export function fitWeissIsotherms(
 export function weissCurieConstantSI(N: number, g: number, J: number): number {
   requireSpin(J);
   if (J === Infinity) {
-    throw new PhysicsInputError('use the classical moment form for J = Infinity');
+    throw new PhysicsInputError(
+      msg('physics.weiss.classical-curie', 'For J = ∞ (classical moments) the Curie constant needs the moment itself: use the classical form.')
+    );
   }
   return (PHYS.mu0 * N * g * g * PHYS.muB * PHYS.muB * J * (J + 1)) / (3 * PHYS.kB);
 }

@@ -9,7 +9,9 @@
  * convex function g(m) = m − B_J(x(m)) inside the bracket (0, 1].
  */
 import { brillouin, brillouinDerivative, inverseBrillouin, weissCoupling } from './brillouin';
-import { PhysicsInputError, requireSpin } from './errors';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite, requireSpin } from './errors';
 
 /** Point-wise result with the implicit derivatives used by fit Jacobians. */
 export interface IWeissSolution {
@@ -106,7 +108,7 @@ export function solveWeiss(J: number, tau: ArrayLike<number>, h: ArrayLike<numbe
   const n = tau.length;
   const hh = toArray(h, n);
   if (hh.length !== n) {
-    throw new PhysicsInputError(`tau and h must have the same length (${n} vs ${hh.length})`);
+    throw new PhysicsInputError(lengthsDiffer({ tau: n, h: hh.length }));
   }
   const k = weissCoupling(J);
   const m = new Float64Array(n);
@@ -231,13 +233,15 @@ export function weissMagnetisation(J: number, tau: ArrayLike<number>, h: ArrayLi
   requireSpin(J);
   for (let i = 0; i < tau.length; i++) {
     if (!(tau[i] > 0) || !Number.isFinite(tau[i])) {
-      throw new PhysicsInputError(`tau[${i}] must be finite and > 0, got ${tau[i]}`);
+      throw new PhysicsInputError(
+        msg('physics.tau-not-positive-at', 'Point %1 has τ = %2: every reduced temperature must be a finite number above 0.', wholeNumber(i + 1), tau[i])
+      );
     }
   }
   const hh = toArray(h, tau.length);
   for (let i = 0; i < hh.length; i++) {
     if (!Number.isFinite(hh[i])) {
-      throw new PhysicsInputError(`h[${i}] must be finite, got ${hh[i]}`);
+      throw new PhysicsInputError(pointNotFinite(i, 'h', hh[i]));
     }
   }
   return solveWeiss(J, tau, hh).m;
@@ -250,7 +254,7 @@ export function weissMagnetisation(J: number, tau: ArrayLike<number>, h: ArrayLi
 export function weissInverseIsotherm(J: number, tau: number, m: number): number {
   requireSpin(J);
   if (!(tau > 0)) {
-    throw new PhysicsInputError(`tau must be > 0, got ${tau}`);
+    throw new PhysicsInputError(msg('physics.tau-not-positive', 'The reduced temperature τ must be above 0, but it is %1.', tau));
   }
   return tau * inverseBrillouin(J, m) - weissCoupling(J) * m;
 }

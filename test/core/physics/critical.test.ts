@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import {
   fitPowerLaw,
   effectiveExponentScan,
@@ -37,7 +38,8 @@ describe('critical power law fits', () => {
     const r = fitPowerLaw({ T, y: I }, { proxyPower: 2, start: { A: 4, Tc: 352, beta: 0.3 } });
     expect(r.proxyPower).toBe(2);
     expect(Math.abs(r.values[2] - 0.3265)).toBeLessThan(3 * r.standardErrors[2]);
-    expect(r.convention).toContain('2*beta');
+    expect(r.convention.code).toBe('physics.power-law.convention');
+    expect(messageText(r.convention)).toContain('(2·β)');
   });
 
   it('background and Wegner term: recovers beta with Delta fixed', () => {
@@ -126,7 +128,7 @@ describe('effective exponent against window (REFERENCE.md B17, C6)', () => {
     }
     // a window with too few points is reported, not fitted
     const few = effectiveExponentScan({ T, y }, [0.19], [0.2], { referenceTc: Tc, minPoints: 50 });
-    expect(few.cells[0].reason).toBe('too few points');
+    expect(few.cells[0].reason.code).toBe('physics.window.too-few-points');
   });
 });
 
@@ -181,7 +183,7 @@ describe('universality classes and scaling relations (REFERENCE.md C2, C6)', () 
     const r = compareWithClasses({ beta: { value: 0.349, error: 0.002 }, gamma: { value: 1.32, error: 0.01 } });
     expect(r.ranking[0].id).toBe('3d-xy');
     expect(r.warning).toBeNull();
-    expect(compareWithClasses({ beta: { value: 0.5, error: 0.01 } }).warning).not.toBeNull();
+    expect(compareWithClasses({ beta: { value: 0.5, error: 0.01 } }).warning?.code).toBe('physics.universality.one-exponent');
     const bad = checkScalingRelations({
       alpha: { value: 0.1, error: 0.01 },
       beta: { value: 0.5, error: 0.01 },

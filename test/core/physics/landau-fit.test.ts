@@ -31,7 +31,7 @@ describe('Landau coefficient fits (convention L)', () => {
     const r = fitLandau({ psi: { T, y } }, { start: { a: 0.5, b: -1, c: 3, T0: 99 } });
     expect(r.convention).toBe('L');
     expect(r.scaleFixed).toBe(true);
-    expect(r.warnings.some(w => w.includes('scale'))).toBe(true);
+    expect(r.warnings.some(w => w.code === 'physics.landau.scale-fixed')).toBe(true);
     expect(Math.abs(r.values[1] - 100)).toBeLessThan(4 * r.standardErrors[1]);
     expect(Math.abs(r.values[2] + 2)).toBeLessThan(4 * r.standardErrors[2]);
     expect(Math.abs(r.values[3] - 4)).toBeLessThan(4 * r.standardErrors[3]);
@@ -92,7 +92,7 @@ describe('Landau fit reporting in another convention', () => {
     const gl = fitLandau({ psi: { T, y: y6 } }, { start: { a: 0.5, b: 0.4, c: 1.5, T0: 99.5 }, reportIn: 'ginzburg-landau' });
     expect(gl.values[3]).toBeGreaterThan(0.5);
     expect(gl.converted).toBeNull();
-    expect(gl.warnings.some(w => w.includes('cannot express'))).toBe(true);
+    expect(gl.warnings.map(w => w.code)).toEqual(expect.arrayContaining(['physics.landau.cannot-convert', 'physics.landau.ginzburg-landau-terms']));
     expect(() => fromConventionL({ a: 1, b: 1, c: 1, T0: 0 }, 'ginzburg-landau')).toThrow(PhysicsInputError);
   });
 });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import {
   fitWeissMT,
   fitWeissIsotherms,
@@ -22,7 +23,7 @@ describe('Weiss M(T) fits', () => {
     const M = T.map((_, i) => 1.5 * m[i] + 0.005 * g());
     const r = fitWeissMT({ T, M }, { J: 0.5, start: [1, 500] });
     expect(r.converged).toBe(true);
-    expect(r.convention).toContain('Weiss');
+    expect(messageText(r.convention)).toContain('Weiss');
     expect(Math.abs(r.values[0] - 1.5)).toBeLessThan(3 * r.standardErrors[0]);
     expect(Math.abs(r.values[1] - 630)).toBeLessThan(3 * r.standardErrors[1]);
     expect(r.errorScaling).toBe('scaled-by-reduced-chi2');
@@ -123,7 +124,7 @@ describe('Weiss M(T) fits', () => {
     const M = T.map((_, i) => 1.5 * m[i] + 0.005 * g());
     const a = fitWeissMT({ T, M }, { J: 0.5, start: [1.4, 620] });
     const b = fitWeissMT({ T, M }, { J: 0.5, start: [1.4, 620], coarseAbove: Infinity });
-    expect(a.warnings.some(w => w.includes('coarse'))).toBe(true);
+    expect(a.notes.some(n => n.code === 'physics.weiss.coarse-start')).toBe(true);
     expect(Math.abs(a.values[1] - b.values[1])).toBeLessThan(0.01 * a.standardErrors[1]);
   });
 

@@ -6,14 +6,16 @@
  * Accuracy: exact rational arithmetic, so hi is correctly rounded and
  * hi + lo is the decimal to within half an ulp of lo (≈ 1e-32 relative).
  */
+import { CoreMessageError, msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
 import type { IDoubleDouble } from './core';
 
 const DECIMAL = /^([-+]?)(\d+\.?\d*|\.\d+)(?:[eE]([-+]?\d+))?$/;
 
-/** Error for text that is not a plain decimal number. */
-export class DecimalFormatError extends Error {
-  constructor(message: string) {
-    super(message);
+/** Error for text that is not a plain decimal number (code `numeric.not-a-decimal`). */
+export class DecimalFormatError extends CoreMessageError {
+  constructor(detail: ICoreMessage) {
+    super(detail);
     this.name = 'DecimalFormatError';
   }
 }
@@ -86,7 +88,10 @@ function doubleAsRational(v: number): [bigint, bigint] {
 export function decimalToDoubleDouble(text: string): IDoubleDouble {
   const m = DECIMAL.exec(typeof text === 'string' ? text.trim() : '');
   if (!m) {
-    throw new DecimalFormatError(`"${String(text)}" is not a decimal number`);
+    const shown = String(text);
+    throw new DecimalFormatError(
+      msg('numeric.not-a-decimal', '“%1” is not a decimal number such as 2.5, -0.05 or 1e-3.', shown.length > 40 ? `${shown.slice(0, 40)}…` : shown)
+    );
   }
   const negative = m[1] === '-';
   const [intPart, fracPart = ''] = m[2].split('.');

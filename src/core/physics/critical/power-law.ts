@@ -7,7 +7,9 @@
  */
 import { fitCurve } from '../../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
-import { PhysicsInputError } from '../errors';
+import { msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite } from '../errors';
 import { PowerLawScratch, powerLawKernel } from './power-law-kernel';
 import type { IPowerLawLayout } from './power-law-kernel';
 
@@ -35,7 +37,8 @@ export interface IPowerLawOptions {
 
 /** Result of a power-law fit with the convention used. */
 export interface IPowerLawResult extends IFitResult {
-  convention: string;
+  /** The model and the reduced temperature, for people (code `physics.power-law.convention`). */
+  convention: ICoreMessage;
   proxyPower: number;
 }
 
@@ -83,20 +86,22 @@ export function fitPowerLaw(
 ): IPowerLawResult {
   const n = data.T.length;
   if (n !== data.y.length) {
-    throw new PhysicsInputError('T and y must have equal lengths');
+    throw new PhysicsInputError(lengthsDiffer({ T: n, y: data.y.length }));
   }
   const pw = options.proxyPower ?? 1;
   if (!(pw > 0)) {
-    throw new PhysicsInputError(`proxyPower must be > 0, got ${pw}`);
+    throw new PhysicsInputError(
+      msg('physics.power-law.proxy-power', 'The power of the order parameter in the measured quantity must be above 0 (1 for ψ itself, 2 for an intensity), but it is %1.', pw)
+    );
   }
   if (options.wegnerDelta !== undefined && !(options.wegnerDelta > 0)) {
-    throw new PhysicsInputError(`wegnerDelta must be > 0, got ${options.wegnerDelta}`);
+    throw new PhysicsInputError(msg('physics.power-law.wegner-delta', 'The correction exponent Δ must be above 0, but it is %1.', options.wegnerDelta));
   }
   let Tmax = -Infinity;
   let ymax = 0;
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(data.T[i]) || !Number.isFinite(data.y[i])) {
-      throw new PhysicsInputError(`point ${i} is not finite`);
+      throw new PhysicsInputError(Number.isFinite(data.T[i]) ? pointNotFinite(i, 'y', data.y[i]) : pointNotFinite(i, 'T', data.T[i]));
     }
     Tmax = Math.max(Tmax, data.T[i]);
     ymax = Math.max(ymax, Math.abs(data.y[i]));
@@ -121,6 +126,6 @@ export function fitPowerLaw(
   return {
     ...res,
     proxyPower: pw,
-    convention: `y = A(-t)^(${pw}*beta)[1 + aW(-t)^Delta] + y0, t = (T - Tc)/Tc; beta is the order-parameter exponent`
+    convention: msg('physics.power-law.convention', 'y = A(−t)^(%1·β)·[1 + aW(−t)^Δ] + y0 with t = (T − Tc)/Tc; β is the exponent of the order parameter.', pw)
   };
 }

@@ -4,7 +4,9 @@
  * Tc free inside each fit), and the closed-form Wegner effective exponent
  * β_eff(t) = β + aM Δ|t|^Δ/(1 + aM|t|^Δ) [B17 in REFERENCES.md].
  */
-import { PhysicsInputError } from '../errors';
+import { msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
+import { lengthsDiffer, PhysicsInputError } from '../errors';
 import type { IPowerLawOptions, IPowerLawResult } from './power-law';
 import { fitPowerLaw } from './power-law';
 
@@ -25,20 +27,22 @@ export interface IWindowCell {
   Tc: number;
   TcError: number;
   converged: boolean;
-  reason: string;
+  /** Why this window's fit stopped (codes `fit.stop.*`), or why there is none (`physics.window.too-few-points`). */
+  reason: ICoreMessage;
 }
 
 /** β_eff against window, with the reference Tc that defined |t|. */
 export interface IWindowScan {
   referenceTc: number;
   cells: IWindowCell[];
-  convention: string;
+  /** How |t| was defined, for people (code `physics.window.convention`). */
+  convention: ICoreMessage;
 }
 
 /**
  * Fits every window of the (tMins × tMaxs) grid with tMin < tMax. Windows
- * with fewer than `minPoints` points are reported with NaN and reason
- * 'too few points'. `referenceTc` defaults to Tc of a fit over all points.
+ * with fewer than `minPoints` points are reported with NaN and reason code
+ * 'physics.window.too-few-points'. `referenceTc` defaults to Tc of a fit over all points.
  */
 export function effectiveExponentScan(
   data: { T: ArrayLike<number>; y: ArrayLike<number>; sigma?: ArrayLike<number> },
@@ -47,7 +51,7 @@ export function effectiveExponentScan(
   options: IPowerLawOptions & { referenceTc?: number; minPoints?: number } = {}
 ): IWindowScan {
   if (data.T.length !== data.y.length) {
-    throw new PhysicsInputError('T and y must have equal lengths');
+    throw new PhysicsInputError(lengthsDiffer({ T: data.T.length, y: data.y.length }));
   }
   const minPoints = options.minPoints ?? 6;
   let Tc0 = options.referenceTc;
@@ -76,7 +80,7 @@ export function effectiveExponentScan(
         }
       }
       if (T.length < minPoints) {
-        cells.push({ tMin, tMax, n: T.length, beta: NaN, betaError: NaN, Tc: NaN, TcError: NaN, converged: false, reason: 'too few points' });
+        cells.push({ tMin, tMax, n: T.length, beta: NaN, betaError: NaN, Tc: NaN, TcError: NaN, converged: false, reason: msg('physics.window.too-few-points', 'This window holds %1 points, fewer than the %2 a fit needs here.', T.length, minPoints) });
         continue;
       }
       const start = { ...(options.start ?? {}), Tc: Tc0, beta: global?.values[2] ?? options.start?.beta, A: global?.values[0] ?? options.start?.A };
@@ -94,5 +98,9 @@ export function effectiveExponentScan(
       });
     }
   }
-  return { referenceTc: Tc0, cells, convention: 't = (T - Tc)/Tc with Tc from the reference fit; Tc free in each window fit' };
+  return {
+    referenceTc: Tc0,
+    cells,
+    convention: msg('physics.window.convention', 't = (T − Tc)/Tc with Tc from the fit over all points; Tc is free in the fit of each window.')
+  };
 }

@@ -10,6 +10,8 @@
  *
  * Every result object in this package states the convention it used.
  */
+import { msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
 import { PhysicsInputError, requireFinite } from '../errors';
 import { PHYS } from '../constants';
 
@@ -58,6 +60,10 @@ export type AnyLandauCoefficients =
   | { convention: 'devonshire'; coefficients: IDevonshireCoefficients }
   | { convention: 'ginzburg-landau'; coefficients: IGinzburgLandauCoefficients };
 
+function unknownConvention(convention: unknown): ICoreMessage {
+  return msg('physics.landau.unknown-convention', 'There is no Landau convention called “%1”.', String(convention));
+}
+
 /** Converts coefficients given in any convention into convention L. */
 export function toConventionL(input: AnyLandauCoefficients): ILandauCoefficients {
   switch (input.convention) {
@@ -71,7 +77,9 @@ export function toConventionL(input: AnyLandauCoefficients): ILandauCoefficients
       const k = input.coefficients;
       const eps0 = k.eps0 ?? PHYS.eps0;
       if (!(k.curieConstant > 0)) {
-        throw new PhysicsInputError(`curieConstant must be > 0, got ${k.curieConstant}`);
+        throw new PhysicsInputError(
+          msg('physics.landau.curie-constant', 'The Curie constant of the Devonshire form must be above 0, but it is %1.', k.curieConstant)
+        );
       }
       return { a: 1 / (eps0 * k.curieConstant), T0: k.T0, b: 4 * k.alpha11, c: 6 * k.alpha111, d: 0 };
     }
@@ -80,7 +88,7 @@ export function toConventionL(input: AnyLandauCoefficients): ILandauCoefficients
       return { a: 2 * k.alphaPrime, T0: k.Tc, b: 2 * k.beta, c: 0, d: 0 };
     }
     default:
-      throw new PhysicsInputError('unknown Landau convention');
+      throw new PhysicsInputError(unknownConvention((input as { convention?: unknown }).convention));
   }
 }
 
@@ -92,7 +100,9 @@ export function toNoFractions(k: ILandauCoefficients): INoFractionsCoefficients 
 /** Expresses convention-L coefficients in the Devonshire form (no cubic term allowed). */
 export function toDevonshire(k: ILandauCoefficients, eps0: number = PHYS.eps0): IDevonshireCoefficients {
   if ((k.d ?? 0) !== 0) {
-    throw new PhysicsInputError('the Devonshire form has no cubic term');
+    throw new PhysicsInputError(
+      msg('physics.landau.devonshire-no-cubic', 'The Devonshire form has no cubic term, so coefficients with d ≠ 0 cannot be written in it.')
+    );
   }
   return { curieConstant: 1 / (eps0 * k.a), T0: k.T0, alpha11: k.b / 4, alpha111: k.c / 6, eps0 };
 }
@@ -100,7 +110,9 @@ export function toDevonshire(k: ILandauCoefficients, eps0: number = PHYS.eps0): 
 /** Expresses convention-L coefficients in the Ginzburg–Landau form (requires c = d = 0). */
 export function toGinzburgLandau(k: ILandauCoefficients): IGinzburgLandauCoefficients {
   if (k.c !== 0 || (k.d ?? 0) !== 0) {
-    throw new PhysicsInputError('the Ginzburg–Landau form has no sextic or cubic term');
+    throw new PhysicsInputError(
+      msg('physics.landau.ginzburg-landau-terms', 'The Ginzburg–Landau form has no sextic or cubic term, so coefficients with c ≠ 0 or d ≠ 0 cannot be written in it.')
+    );
   }
   return { alphaPrime: k.a / 2, Tc: k.T0, beta: k.b / 2 };
 }
@@ -117,7 +129,7 @@ export function fromConventionL(k: ILandauCoefficients, convention: LandauConven
     case 'ginzburg-landau':
       return { convention, coefficients: toGinzburgLandau(k) };
     default:
-      throw new PhysicsInputError(`unknown Landau convention ${String(convention)}`);
+      throw new PhysicsInputError(unknownConvention(convention));
   }
 }
 
@@ -132,11 +144,11 @@ export function validateLandau(k: ILandauCoefficients): void {
   requireFinite('c', k.c);
   requireFinite('d', k.d ?? 0);
   if (!(k.a > 0)) {
-    throw new PhysicsInputError(`a must be > 0 in convention L, got ${k.a}`);
+    throw new PhysicsInputError(msg('physics.landau.a-not-positive', 'The coefficient a must be above 0 in convention L, but it is %1.', k.a));
   }
   if (k.c < 0 || (k.c === 0 && !(k.b > 0))) {
     throw new PhysicsInputError(
-      `free energy unbounded below: need c > 0, or c = 0 with b > 0 (got b = ${k.b}, c = ${k.c})`
+      msg('physics.landau.unbounded', 'The free energy has no lower bound: c must be above 0, or c = 0 with b above 0 (here b = %1, c = %2).', k.b, k.c)
     );
   }
 }

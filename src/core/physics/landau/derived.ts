@@ -4,6 +4,8 @@
  * counterparts that also work with a cubic term.
  */
 import { bracketRoot } from '../../numeric/scalar';
+import { msg } from '../../messages';
+import type { ICoreMessage } from '../../messages';
 import { PhysicsInputError } from '../errors';
 import type { ILandauCoefficients } from './conventions';
 import { validateLandau } from './conventions';
@@ -47,7 +49,9 @@ export interface ILandauDerived {
 export function landauDerived(k: ILandauCoefficients): ILandauDerived {
   validateLandau(k);
   if ((k.d ?? 0) !== 0) {
-    throw new PhysicsInputError('closed forms need d = 0; use landauTransitionNumeric for a cubic term');
+    throw new PhysicsInputError(
+      msg('physics.landau.closed-forms-need-no-cubic', 'The closed forms hold only without a cubic term (d = 0); with a cubic term the transition is found numerically.')
+    );
   }
   const { a, b, c, T0 } = k;
   const nan = { T: NaN, psi: NaN, h: NaN };
@@ -125,7 +129,8 @@ export interface ILandauTransitionNumeric {
   /** T1 · a ψ1²/2 (entropy S = S0 − (a/2)ψ² holds with a cubic term too). */
   latentHeat: number;
   converged: boolean;
-  reason: string;
+  /** How the transition was found (`physics.landau.continuous`, or the root search's `numeric.root.*`). */
+  reason: ICoreMessage;
 }
 
 /**
@@ -154,7 +159,7 @@ export function landauTransitionNumeric(k: ILandauCoefficients): ILandauTransiti
       psiJump: 0,
       latentHeat: 0,
       converged: true,
-      reason: 'continuous: no ordered minimum above T0'
+      reason: msg('physics.landau.continuous', 'The transition is continuous: there is no ordered minimum above T0.')
     };
   }
   let lo = T0;

@@ -9,7 +9,9 @@
  */
 import { fitCurve } from '../../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../../fit/index';
-import { PhysicsInputError } from '../errors';
+import { messageOf, msg } from '../../messages';
+import { wholeNumber } from '../../numeric/messageArgs';
+import { lengthsDiffer, PhysicsInputError, tooFewPoints } from '../errors';
 import type { AnyLandauCoefficients, ILandauCoefficients, LandauConvention } from './conventions';
 import { fromConventionL } from './conventions';
 
@@ -35,6 +37,13 @@ export function landauEquilibriumPsi(k: ILandauCoefficients, T: number): number 
   const disc = B * B + 4 * c * x;
   return Math.sqrt((B + Math.sqrt(Math.max(0, disc))) / (2 * c));
 }
+
+/** The data sets of a Landau fit, by kind, as named in messages. */
+const DATA_SETS = [
+  { name: 'ψ(T)', value: 'ψ' },
+  { name: '1/χ(T)', value: '1/χ' },
+  { name: 'ΔC', value: 'ΔC' }
+];
 
 /** Data for a Landau fit. */
 export interface ILandauFitData {
@@ -73,12 +82,15 @@ export function fitLandau(
   const ss: number[] = [];
   const joint = data.inverseChi !== undefined || data.specificHeatJump !== undefined;
   const add = (kind: number, T: ArrayLike<number>, y: ArrayLike<number>, s?: ArrayLike<number>): void => {
+    const set = DATA_SETS[kind];
     if (T.length !== y.length || (s !== undefined && s.length !== T.length)) {
-      throw new PhysicsInputError('each data set needs equal-length T, y (and sigma)');
+      throw new PhysicsInputError(lengthsDiffer(s !== undefined ? { T: T.length, [set.value]: y.length, σ: s.length } : { T: T.length, [set.value]: y.length }));
     }
     for (let i = 0; i < T.length; i++) {
       if (!Number.isFinite(T[i]) || !Number.isFinite(y[i])) {
-        throw new PhysicsInputError(`non-finite point ${i} in data set ${kind}`);
+        throw new PhysicsInputError(
+          msg('physics.landau.point-not-finite', 'Point %1 of the %2 data is not finite (T = %3, %4 = %5).', wholeNumber(i + 1), set.name, T[i], set.value, y[i])
+        );
       }
       kinds.push(kind);
       Ts.push(T[i]);
@@ -87,7 +99,9 @@ export function fitLandau(
     }
   };
   if (joint && data.psi.sigma === undefined) {
-    throw new PhysicsInputError('a joint fit needs sigma for psi(T) as well, so that data sets are weighted consistently');
+    throw new PhysicsInputError(
+      msg('physics.landau.joint-needs-sigma', 'A joint fit needs σ for ψ(T) as well, so that the data sets are weighted consistently.')
+    );
   }
   add(0, data.psi.T, data.psi.y, data.psi.sigma);
   if (data.inverseChi) {
@@ -97,7 +111,7 @@ export function fitLandau(
     add(2, [0], [data.specificHeatJump.value], [data.specificHeatJump.sigma]);
   }
   if (Ts.length < 4) {
-    throw new PhysicsInputError(`need at least 4 points, got ${Ts.length}`);
+    throw new PhysicsInputError(tooFewPoints(4, Ts.length));
   }
   const sextic = options.sextic !== false;
   const model: IFitModel = {
@@ -133,7 +147,9 @@ export function fitLandau(
   );
   const warnings = res.warnings.slice();
   if (!joint) {
-    warnings.push('only psi(T) given: a held at its start value; T0, b/a and c/a are determined, the overall scale is not');
+    warnings.push(
+      msg('physics.landau.scale-fixed', 'Only ψ(T) was given, so a is held at its start value: T0, b/a and c/a are determined, the overall scale is not.')
+    );
   }
   const coefficients: ILandauCoefficients = { a: res.values[0], T0: res.values[1], b: res.values[2], c: res.values[3], d: 0 };
   let converted: AnyLandauCoefficients | null = null;
@@ -141,7 +157,8 @@ export function fitLandau(
     try {
       converted = fromConventionL(coefficients, options.reportIn);
     } catch (e) {
-      warnings.push(`cannot express the result in convention ${options.reportIn}: ${(e as Error).message}`);
+      warnings.push(msg('physics.landau.cannot-convert', 'The result cannot be written in convention %1.', options.reportIn));
+      warnings.push(messageOf(e));
     }
   }
   return { ...res, warnings, convention: 'L', coefficients, scaleFixed: !joint, converted };

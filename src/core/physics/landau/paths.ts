@@ -5,7 +5,9 @@
  * until that branch ends (saddle-node), then jumps. Heating and cooling
  * sweeps in T give thermal hysteresis; sweeps in h give P–E / M–H loops.
  */
-import { PhysicsInputError, requireFinite } from '../errors';
+import { msg } from '../../messages';
+import { wholeNumber } from '../../numeric/messageArgs';
+import { lengthsDiffer, PhysicsInputError, pointNotFinite } from '../errors';
 import type { ILandauCoefficients } from './conventions';
 import { validateLandau } from './conventions';
 import type { IStationaryResult, StationaryKind } from './free-energy';
@@ -92,7 +94,7 @@ export function followPath(
 ): ILandauPath {
   validateLandau(k);
   if (T.length !== h.length) {
-    throw new PhysicsInputError(`T and h must have equal lengths (${T.length} vs ${h.length})`);
+    throw new PhysicsInputError(lengthsDiffer({ T: T.length, h: h.length }));
   }
   const points: IPathPoint[] = [];
   const jumps: IPathJump[] = [];
@@ -100,8 +102,12 @@ export function followPath(
   let prevResult: IStationaryResult | null = null;
   let prevIdx = -1;
   for (let i = 0; i < T.length; i++) {
-    requireFinite(`T[${i}]`, T[i]);
-    requireFinite(`h[${i}]`, h[i]);
+    if (!Number.isFinite(T[i])) {
+      throw new PhysicsInputError(pointNotFinite(i, 'T', T[i]));
+    }
+    if (!Number.isFinite(h[i])) {
+      throw new PhysicsInputError(pointNotFinite(i, 'h', h[i]));
+    }
     const r = stationaryUnchecked(k, T[i], h[i]);
     const idx = prevResult === null ? r.global : basinMinimum(r, prev, h[i] >= 0);
     const p = r.points[idx];
@@ -121,7 +127,9 @@ export function followPath(
 /** Evenly spaced values from `from` to `to` inclusive. */
 export function linspace(from: number, to: number, n: number): number[] {
   if (!(n >= 2) || !Number.isInteger(n) || !Number.isFinite(from) || !Number.isFinite(to)) {
-    throw new PhysicsInputError(`need finite ends and an integer n >= 2, got (${from}, ${to}, ${n})`);
+    throw new PhysicsInputError(
+      msg('physics.grid-invalid', 'A grid needs finite ends and a whole number of at least 2 points, but here it runs from %1 to %2 with %3 points.', from, to, typeof n === 'number' ? wholeNumber(n) : String(n))
+    );
   }
   return Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
 }

@@ -74,5 +74,14 @@ describe('decimalToDoubleDouble', () => {
     for (const t of ['', 'abc', '1.2.3', 'NaN', 'Infinity', '0x10', '1e', '--1', '1,5']) {
       expect(() => decimalToDoubleDouble(t), t).toThrow(DecimalFormatError);
     }
+    let caught: unknown = null;
+    try {
+      decimalToDoubleDouble('1,5');
+    } catch (e) {
+      caught = e;
+    }
+    expect((caught as DecimalFormatError).name).toBe('DecimalFormatError');
+    expect((caught as DecimalFormatError).detail.code).toBe('numeric.not-a-decimal');
+    expect((caught as Error).message).toBe('“1,5” is not a decimal number such as 2.5, -0.05 or 1e-3.');
   });
 });
