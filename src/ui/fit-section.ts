@@ -55,6 +55,14 @@ export class FitSection extends Widget {
     this._runner.cancel();
   }
 
+  dispose(): void {
+    if (this.isDisposed) {
+      return;
+    }
+    this._runner.dispose();
+    super.dispose();
+  }
+
   /** Show the session's current state. */
   render(): void {
     const s = this._session;
@@ -89,7 +97,7 @@ export class FitSection extends Widget {
     this._status.textContent =
       run.phase === 'running'
         ? run.progress
-          ? trans.__('Fitting… iteration %1, %2 evaluations, χ² %3', run.progress.iteration, run.progress.evaluations, formatPlain(2 * run.progress.cost))
+          ? trans.__('Fitting… iteration %1, %2 evaluations, χ² %3', run.progress.iteration, run.progress.evaluations, formatPlain(run.progress.cost))
           : trans.__('Fitting…')
         : '';
     if (run.phase === 'failed') {

@@ -1,28 +1,13 @@
 /**
- * The analysis panel as a real Lumino widget attached to the document: column
- * pickers, the chart drawn by Vega as SVG, messages instead of blank panels,
- * and the source control.
+ * The analysis panel as a real Lumino widget attached to the document, over a
+ * real session: column pickers, the chart drawn by Vega as SVG, messages
+ * instead of blank panels, the source control, and one draw per change.
  */
-import { afterEach, describe, expect, it, vi } from 'vitest';
-import { nullTranslator } from '@jupyterlab/translation';
-import { Widget } from '@lumino/widgets';
+import { afterEach, describe, expect, it } from 'vitest';
 import { parseMime } from '../../src/core/table';
-import { AnalysisPanel } from '../../src/ui/analysis-panel';
+import { choose, panelFor } from './helpers';
 
 const CSV = 'T (K),M (emu/g),sigma\n10,5.0,0.1\n20,4.5,0.1\n30,NaN,0.1\n40,3.0,0.1\n';
-
-function panelFor(parse: ReturnType<typeof parseMime>, onRevealSource = vi.fn()) {
-  const panel = new AnalysisPanel({
-    parse,
-    notebookName: 'sample.ipynb',
-    sourceLabel: 'sample.ipynb · cell 2 · output 1',
-    pointSize: 30,
-    translator: nullTranslator,
-    onRevealSource
-  });
-  Widget.attach(panel, document.body);
-  return { panel, onRevealSource };
-}
 
 describe('AnalysisPanel', () => {
   afterEach(() => {
@@ -30,40 +15,57 @@ describe('AnalysisPanel', () => {
   });
 
   it('should pick the first two numeric data columns and draw one mark per finite row', async () => {
-    const { panel } = panelFor(parseMime('text/csv', CSV));
+    const { panel, session } = panelFor(parseMime('text/csv', CSV));
     await panel.rendered;
-    expect(panel.selection).toEqual({ x: 0, y: 1 });
+    expect(session.roles).toEqual({ x: 0, y: 1, sigma: 2 });
     const x = panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-x')!;
     expect(Array.from(x.options).map(o => o.textContent)).toEqual(['T (K)', 'M (emu/g)', 'sigma']);
-    const marks = panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-symbol path');
-    expect(marks.length).toBe(3);
-    const status = panel.node.querySelector('.jp-psiscape-AnalysisPanel-status')!.textContent;
-    expect(status).toBe('3 points plotted; 1 rows left out (missing or infinite values).');
+    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-symbol path').length).toBe(3);
+    expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-status')!.textContent).toBe('3 points plotted; 1 rows left out (missing or infinite values).');
     expect(panel.node.getAttribute('role')).toBe('region');
+    expect(panel.title.label).toBe('M vs T · sample.ipynb');
   });
 
-  it('should redraw when the user picks another y column', async () => {
-    const { panel } = panelFor(parseMime('text/csv', CSV));
+  it('should draw once for a burst of changes', async () => {
+    const { panel, session } = panelFor(parseMime('text/csv', CSV));
     await panel.rendered;
-    const y = panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-y')!;
-    y.value = '2';
-    y.dispatchEvent(new Event('change'));
+    const before = panel.drawCount;
+    session.setRoles({ sigma: null });
+    session.setRoles({ y: 2 });
+    session.setWindow(15, 35);
     await panel.rendered;
-    expect(panel.selection).toEqual({ x: 0, y: 2 });
+    expect(panel.drawCount).toBe(before + 1);
+  });
+
+  it('should send the user’s column choice to the session and redraw', async () => {
+    const { panel, session } = panelFor(parseMime('text/csv', CSV));
+    await panel.rendered;
+    choose(panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-y')!, '2');
+    await panel.rendered;
+    expect(session.roles).toMatchObject({ x: 0, y: 2 });
     expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-symbol path').length).toBe(4);
   });
 
+  it('should tell two columns with the same header apart in the pickers', async () => {
+    const { panel } = panelFor(parseMime('text/csv', 'T,M,M,S\n1,10,20,0.5\n2,11,21,0.5\n3,12,22,0.5\n'));
+    await panel.rendered;
+    const y = panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-y')!;
+    expect(Array.from(y.options).map(o => o.textContent)).toEqual(['T', 'M (column 2)', 'M (column 3)', 'S']);
+  });
+
   it('should show the parser message, and no chart, for an output without a table', async () => {
-    const { panel } = panelFor({ ok: false, message: 'This output holds no table: it has only image/png.' });
+    const { panel, session } = panelFor({ ok: false, message: 'This output holds no table: it has only image/png.' });
+    await panel.rendered;
     const message = panel.node.querySelector('.jp-psiscape-AnalysisPanel-message')!;
     expect(message.textContent).toBe('This output holds no table: it has only image/png.');
     expect(message.getAttribute('role')).toBe('alert');
     expect(panel.node.querySelector('.jp-psiscape-ChartView svg')).toBeNull();
-    expect(panel.table).toBeNull();
+    expect(session.table).toBeNull();
   });
 
-  it('should explain when a table has fewer than two numeric columns', () => {
+  it('should explain when a table has fewer than two numeric columns', async () => {
     const { panel } = panelFor(parseMime('text/csv', 'sample,T (K)\nA,10\nB,20\n'));
+    await panel.rendered;
     expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-message')!.textContent).toMatch(/fewer than two numeric columns/);
   });
 
@@ -76,8 +78,11 @@ describe('AnalysisPanel', () => {
     expect(onRevealSource).toHaveBeenCalledTimes(1);
   });
 
-  it('should refuse to plot a non-numeric column', () => {
-    const { panel } = panelFor(parseMime('text/csv', 'name,T,M\na,1,2\nb,2,3\n'));
-    expect(() => panel.select(0, 1)).toThrow(RangeError);
+  it('should show why the data are not live', async () => {
+    const { panel, session } = panelFor(parseMime('text/csv', CSV));
+    session.setSourceState('lost', { code: 'source.cell-deleted', text: 'The source cell was deleted; this analysis keeps its last data.', args: [] });
+    await panel.rendered;
+    expect(panel.node.dataset.sourceState).toBe('lost');
+    expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-banner')!.textContent).toMatch(/deleted/);
   });
 });

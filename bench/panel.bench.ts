@@ -1,0 +1,119 @@
+/**
+ * What a user feels, measured in Debian's Chromium against the built demo
+ * lab (never a test): lab start-up to the demo notebook, the first fit (which
+ * pays for starting the analysis worker, once per lab session), and click on
+ * Fit → verdict and curve drawn for the demo's M(T) table, over 20 runs.
+ *
+ *   npm run bench -- --only panel        (builds what is missing first)
+ *
+ * Prints median, 90th percentile and range in ms; with --json-part FILE
+ * writes them as JSON.
+ */
+import { writeFileSync } from 'node:fs';
+import { performance } from 'node:perf_hooks';
+
+interface ILabHelpers {
+  startServer(): Promise<{ server: { close(cb: () => void): void }; url: string }>;
+  openLab(url: string): Promise<{ browser: { close(): Promise<void> }; page: IPage }>;
+  contextMenu(page: IPage, locator: unknown, label: string): Promise<void>;
+}
+interface ILocator {
+  first(): ILocator;
+  last(): ILocator;
+  locator(selector: string, options?: Record<string, unknown>): ILocator;
+  selectOption(value: string): Promise<unknown>;
+  fill(text: string): Promise<void>;
+  waitFor(options?: Record<string, unknown>): Promise<void>;
+}
+interface IPage {
+  locator(selector: string, options?: Record<string, unknown>): ILocator;
+  evaluate<T, A>(fn: (arg: A) => T | Promise<T>, arg?: A): Promise<T>;
+}
+
+const RUNS = 20;
+
+function stats(samples: number[]): { median: number; p90: number; min: number; max: number } {
+  const s = [...samples].sort((a, b) => a - b);
+  const at = (q: number) => s[Math.min(s.length - 1, Math.floor(q * (s.length - 1) + 0.5))];
+  return { median: at(0.5), p90: at(0.9), min: s[0], max: s[s.length - 1] };
+}
+
+async function main(): Promise<void> {
+  const jsonPart = process.argv.includes('--json-part') ? process.argv[process.argv.indexOf('--json-part') + 1] : null;
+  const { ensureExtensionBuilt } = (await import('../scripts/ensure-built.mjs')) as { ensureExtensionBuilt(): void };
+  const { requireChromium } = (await import('../test/e2e/browser.mjs')) as { requireChromium(): void };
+  requireChromium();
+  ensureExtensionBuilt();
+  const { buildDemo } = (await import('../demo/build.mjs')) as { buildDemo(): void };
+  buildDemo();
+  const lab = (await import('../test/e2e/lab.mjs')) as ILabHelpers;
+  const { server, url } = await lab.startServer();
+  const t0 = performance.now();
+  const { browser, page } = await lab.openLab(url);
+  const startup = performance.now() - t0;
+  try {
+    const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
+    await lab.contextMenu(page, output, 'Analyse This Table with psiscape');
+    const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+    await panel.locator('.jp-psiscape-ChartView svg').first().waitFor({ timeout: 60000 });
+    await panel.locator('input.jp-psiscape-fit-min').fill('250');
+    await panel.locator('input.jp-psiscape-fit-max').fill('286');
+    // Measured in the page: from the click event to the frame after the verdict and the curve are in the DOM.
+    const clickToResult = (): Promise<number> =>
+      page.evaluate(
+        () =>
+          new Promise<number>((resolve, reject) => {
+            const root = document.querySelectorAll('.jp-psiscape-AnalysisPanel');
+            const node = root[root.length - 1] as HTMLElement;
+            const button = node.querySelector<HTMLButtonElement>('button.jp-psiscape-fit-run')!;
+            const section = node.querySelector<HTMLElement>('.jp-psiscape-FitSection')!;
+            const start = performance.now();
+            let sawRunning = false;
+            const done = (): boolean => {
+              sawRunning = sawRunning || section.dataset.runPhase === 'running';
+              return (
+                sawRunning &&
+                section.dataset.runPhase === 'done' &&
+                node.querySelector('.jp-psiscape-verdict') !== null &&
+                node.querySelector('.jp-psiscape-ChartView svg .mark-line path') !== null
+              );
+            };
+            const observer = new MutationObserver(() => {
+              if (done()) {
+                observer.disconnect();
+                requestAnimationFrame(() => resolve(performance.now() - start));
+              }
+            });
+            observer.observe(node, { subtree: true, childList: true, attributes: true });
+            setTimeout(() => {
+              observer.disconnect();
+              reject(new Error('no result within 30 s'));
+            }, 30000);
+            button.click();
+          })
+      );
+    const first = await clickToResult();
+    const samples: number[] = [];
+    for (let i = 0; i < RUNS; i++) {
+      samples.push(await clickToResult());
+    }
+    const s = stats(samples);
+    const workers = await page.evaluate(() => performance.getEntriesByType('resource').filter(e => /analysis\.worker|worker/i.test(e.name)).length);
+    console.log('psiscape in Chromium (demo lab, this machine)');
+    console.log(`  lab start-up → demo notebook shown:        ${startup.toFixed(0)} ms`);
+    console.log(`  first Fit (pays for the worker start):      ${first.toFixed(1)} ms`);
+    console.log(`  click Fit → verdict and curve drawn, n=${RUNS}: median ${s.median.toFixed(1)} ms, p90 ${s.p90.toFixed(1)} ms, range ${s.min.toFixed(1)}–${s.max.toFixed(1)} ms`);
+    console.log(`  worker scripts fetched in the session:      ${workers}`);
+    if (jsonPart) {
+      writeFileSync(jsonPart, JSON.stringify({ startupMs: startup, firstFitMs: first, clickToResult: { runs: RUNS, ...s }, workerScripts: workers }, null, 2));
+    }
+  } finally {
+    await browser.close();
+    await new Promise<void>(resolve => server.close(resolve));
+  }
+}
+
+main().catch(error => {
+  console.error(error);
+  process.exit(1);
+});
