@@ -8,6 +8,8 @@
  * μ0H and divided by μ0); magnetisation as volume (A/m), mass (A m²/kg),
  * moment (A m²), molar (A m²/mol, from muB/fu or emu/mol).
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { PHYS } from '../physics/constants';
 import { normaliseUnitText, parseMathUnit, unitMath } from './mathUnits';
 
@@ -39,7 +41,8 @@ export interface INeedsUnit {
   status: 'needs-unit';
   column: string;
   role: ColumnRole;
-  message: string;
+  /** What is missing or ambiguous (codes `units.missing.*`, `units.ambiguous-*`, `units.arbitrary`). */
+  message: ICoreMessage;
   /** Units that would be accepted for this column. */
   options: string[];
 }
@@ -49,7 +52,8 @@ export interface IUnitRefusal {
   status: 'refused';
   column: string;
   role: ColumnRole;
-  message: string;
+  /** Why the unit does not fit the role (codes `units.not-*`, `units.*-not-*`). */
+  message: ICoreMessage;
 }
 
 /** Outcome of reading one column's unit. */
@@ -61,22 +65,46 @@ const OPTIONS: Record<ColumnRole, string[]> = {
   magnetisation: ['emu', 'emu/g', 'emu/cm^3', 'emu/mol', 'A m^2', 'A m^2/kg', 'A/m', 'muB/fu']
 };
 
-/** Units refused as ambiguous whatever the role (G: gauss of B, or 4πM in G?). */
-const AMBIGUOUS: Record<string, string> = {
-  G: '"G" may be gauss of induction B (μ0H), or 4πM in gauss; say which (e.g. Oe or T for a field, emu/cm^3 for M)',
-  kG: '"kG" may be kilogauss of induction B or 4πM; say which',
-  gauss: '"gauss" may be induction B or 4πM; say which',
-  'arb. u.': 'arbitrary units cannot be normalised; give the unit',
-  'a.u.': 'arbitrary units cannot be normalised; give the unit',
-  arb: 'arbitrary units cannot be normalised; give the unit',
-  au: 'arbitrary units cannot be normalised; give the unit'
+/** Units refused as ambiguous whatever the role (G: gauss of B, or 4πM in G?), with the question they raise. */
+const AMBIGUOUS: Record<string, (column: string, unit: string) => ICoreMessage> = {
+  G: gaussQuestion,
+  kG: gaussQuestion,
+  gauss: gaussQuestion,
+  'arb. u.': arbitraryUnits,
+  'a.u.': arbitraryUnits,
+  arb: arbitraryUnits,
+  au: arbitraryUnits
 };
 
-function needs(column: string, role: ColumnRole, message: string): INeedsUnit {
+function gaussQuestion(column: string, unit: string): ICoreMessage {
+  return msg(
+    'units.ambiguous-gauss',
+    'Column “%1”: “%2” may be the induction B (μ0H) or 4πM in gauss: say which (Oe or T for a field, emu/cm^3 for M).',
+    column,
+    unit
+  );
+}
+
+function arbitraryUnits(column: string): ICoreMessage {
+  return msg('units.arbitrary', 'Column “%1” is in arbitrary units, which cannot be normalised: give its unit.', column);
+}
+
+function missingUnit(column: string, role: ColumnRole): ICoreMessage {
+  switch (role) {
+    case 'temperature':
+      return msg('units.missing.temperature', 'Column “%1” has no unit: state the unit of its temperatures.', column);
+    case 'field':
+      return msg('units.missing.field', 'Column “%1” has no unit: state the unit of its fields.', column);
+    default:
+      return msg('units.missing.magnetisation', 'Column “%1” has no unit: state the unit of its magnetisations or moments.', column);
+  }
+}
+
+function needs(column: string, role: ColumnRole, message: ICoreMessage): INeedsUnit {
   return { status: 'needs-unit', column, role, message, options: OPTIONS[role].slice() };
 }
 
-function refuse(column: string, role: ColumnRole, message: string): IUnitRefusal {
+function refuse(column: string, role: ColumnRole, message: ICoreMessage): IUnitRefusal {
   return { status: 'refused', column, role, message };
 }
 
@@ -95,7 +123,7 @@ function factorTo(text: string, target: string): number | null {
 
 function readTemperature(column: string, unit: string): UnitAnswer {
   if (unit === 'T') {
-    return refuse(column, 'temperature', `column "${column}": "T" is tesla, not a temperature unit; give K or degC`);
+    return refuse(column, 'temperature', msg('units.tesla-not-temperature', 'Column “%1”: “T” is the tesla, not a unit of temperature: give K or degC.', column));
   }
   const text = unit === 'C' || unit === '°C' ? 'degC' : normaliseUnitText(unit);
   if (text === 'degC' || text === 'celsius') {
@@ -106,7 +134,7 @@ function readTemperature(column: string, unit: string): UnitAnswer {
   }
   const f = factorTo(text, 'K');
   if (f === null) {
-    return refuse(column, 'temperature', `column "${column}": unit "${unit}" is not a temperature unit`);
+    return refuse(column, 'temperature', msg('units.not-temperature', 'Column “%1”: “%2” is not a unit of temperature.', column, unit));
   }
   return { status: 'ok', column, role: 'temperature', userUnit: unit, siUnit: 'K', factor: f, offset: 0 };
 }
@@ -121,7 +149,7 @@ function readField(column: string, unit: string): UnitAnswer {
   if (fB !== null) {
     return { status: 'ok', column, role: 'field', userUnit: unit, siUnit: 'A/m', factor: fB / PHYS.mu0, offset: 0, fieldForm: 'mu0H' };
   }
-  return refuse(column, 'field', `column "${column}": unit "${unit}" is not a magnetic field unit (H or μ0H)`);
+  return refuse(column, 'field', msg('units.not-field', 'Column “%1”: “%2” is not a unit of magnetic field (H or μ0H).', column, unit));
 }
 
 function readMagnetisation(column: string, unit: string): UnitAnswer {
@@ -139,9 +167,13 @@ function readMagnetisation(column: string, unit: string): UnitAnswer {
     }
   }
   if (factorTo(text, 'T') !== null) {
-    return refuse(column, 'magnetisation', `column "${column}": "${unit}" is an induction (μ0M or 4πM); give M in A/m, emu/cm^3, emu/g or emu`);
+    return refuse(
+      column,
+      'magnetisation',
+      msg('units.induction-not-magnetisation', 'Column “%1”: “%2” is an induction (μ0M or 4πM): give M in A/m, emu/cm^3, emu/g or emu.', column, unit)
+    );
   }
-  return refuse(column, 'magnetisation', `column "${column}": unit "${unit}" is not a moment or magnetisation unit`);
+  return refuse(column, 'magnetisation', msg('units.not-magnetisation', 'Column “%1”: “%2” is not a unit of moment or magnetisation.', column, unit));
 }
 
 /**
@@ -151,11 +183,11 @@ function readMagnetisation(column: string, unit: string): UnitAnswer {
 export function readColumnUnit(column: string, unit: string | null, role: ColumnRole): UnitAnswer {
   const u = unit === null ? '' : unit.trim();
   if (u === '') {
-    return needs(column, role, `column "${column}" has no unit; the ${role} unit must be stated`);
+    return needs(column, role, missingUnit(column, role));
   }
-  const ambiguous = AMBIGUOUS[u];
+  const ambiguous = Object.prototype.hasOwnProperty.call(AMBIGUOUS, u) ? AMBIGUOUS[u] : undefined;
   if (ambiguous !== undefined) {
-    return needs(column, role, `column "${column}": ${ambiguous}`);
+    return needs(column, role, ambiguous(column, u));
   }
   unitMath();
   if (role === 'temperature') {

@@ -3,20 +3,28 @@
  * from a mass magnetisation and the molar mass, and free conversions of a
  * quantity between two units of the private mathjs instance.
  */
+import { CoreMessageError, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { PHYS } from '../physics/constants';
 import { normaliseUnitText, parseMathUnit, unitMath } from './mathUnits';
 
-/** Error for an invalid unit or sample parameter at the boundary. */
-export class UnitInputError extends Error {
-  constructor(message: string) {
-    super(message);
+/** Error for an invalid unit or sample parameter at the boundary (codes `units.*`). */
+export class UnitInputError extends CoreMessageError {
+  constructor(detail: ICoreMessage) {
+    super(detail);
     this.name = 'UnitInputError';
   }
 }
 
 function requireMolarMass(molarMassKgPerMol: number): void {
   if (!(molarMassKgPerMol > 0) || !Number.isFinite(molarMassKgPerMol)) {
-    throw new UnitInputError(`molar mass must be a finite number > 0 in kg/mol, got ${String(molarMassKgPerMol)}`);
+    throw new UnitInputError(
+      msg(
+        'units.molar-mass-invalid',
+        'The molar mass must be a finite number of kg/mol above 0, but it is %1.',
+        typeof molarMassKgPerMol === 'number' ? molarMassKgPerMol : String(molarMassKgPerMol)
+      )
+    );
   }
 }
 
@@ -46,13 +54,15 @@ export function massFromMolar(values: ArrayLike<number>, molarMassKgPerMol: numb
  * converted as absolute temperatures.
  */
 export function convertQuantity(value: number, from: string, to: string): number {
-  if (parseMathUnit(normaliseUnitText(from)) === null) {
-    throw new UnitInputError(`unknown unit "${from}"`);
+  for (const unit of [from, to]) {
+    if (parseMathUnit(normaliseUnitText(unit)) === null) {
+      throw new UnitInputError(msg('units.unknown', 'The unit “%1” is not known.', unit));
+    }
   }
   try {
     return unitMath().unit(value, normaliseUnitText(from)).to(normaliseUnitText(to)).toNumber();
-  } catch (e) {
-    throw new UnitInputError(`cannot convert "${from}" to "${to}": ${(e as Error).message}`);
+  } catch {
+    throw new UnitInputError(msg('units.cannot-convert', 'A quantity in “%1” cannot be expressed in “%2”: they measure different things.', from, to));
   }
 }
 

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import * as mathjs from 'mathjs';
 import { PHYS } from '../../../src/core/physics/index';
 import { convertQuantity, fromSI, magnetisationFromFourPiMGauss, muBPerFormulaUnit, readColumnUnit, susceptibilityCgsToSI, toSI, UnitInputError } from '../../../src/core/units/index';
@@ -102,7 +103,8 @@ describe('ambiguous units are questions or refusals, never guesses (REFERENCE.md
     if (a.status === 'needs-unit') {
       expect(a.column).toBe('M');
       expect(a.options).toContain('emu/g');
-      expect(a.message).toContain('"M"');
+      expect(a.message.code).toBe('units.missing.magnetisation');
+      expect(messageText(a.message)).toContain('“M”');
     }
     expect(readColumnUnit('T', '  ', 'temperature').status).toBe('needs-unit');
   });
@@ -111,6 +113,7 @@ describe('ambiguous units are questions or refusals, never guesses (REFERENCE.md
     for (const role of ['field', 'magnetisation'] as const) {
       const a = readColumnUnit('X', 'G', role);
       expect(a.status).toBe('needs-unit');
+      expect(a.status === 'needs-unit' && a.message.code).toBe('units.ambiguous-gauss');
     }
   });
 
@@ -125,7 +128,7 @@ describe('ambiguous units are questions or refusals, never guesses (REFERENCE.md
       const a = readColumnUnit('col', u, role);
       expect(a.status).toBe('refused');
       if (a.status === 'refused') {
-        expect(a.message).toContain('"col"');
+        expect(messageText(a.message)).toMatch(/^Column “col”: /);
       }
     }
   });
@@ -133,6 +136,8 @@ describe('ambiguous units are questions or refusals, never guesses (REFERENCE.md
   it('convertQuantity refuses unknown units and mismatched dimensions', () => {
     expect(() => convertQuantity(1, 'blorp', 'A/m')).toThrow(UnitInputError);
     expect(() => convertQuantity(1, 'Oe', 'K')).toThrow(UnitInputError);
+    expect(() => convertQuantity(1, 'Oe', 'K')).toThrow('A quantity in “Oe” cannot be expressed in “K”: they measure different things.');
+    expect(() => convertQuantity(1, 'Oe', 'blorp')).toThrow('The unit “blorp” is not known.');
   });
 });
 
