@@ -3,11 +3,12 @@
  * with their legend order, and the themed top-level frame.
  */
 import type { TopLevelSpec } from 'vega-lite';
+import type { StationaryKind } from '../../core/physics/landau/index';
 import type { IChartTheme } from '../theme';
 import { themeConfig } from '../theme';
 
 /** Kinds of stationary point, as classified by the Landau numerics. */
-export type LandauPointKind = 'stable' | 'metastable' | 'unstable' | 'inflection';
+export type LandauPointKind = StationaryKind;
 
 /** Legend order of the kinds. */
 export const KIND_ORDER: readonly LandauPointKind[] = ['stable', 'metastable', 'unstable', 'inflection'];

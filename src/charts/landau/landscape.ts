@@ -2,16 +2,12 @@
  * Free-energy landscape F(ψ) at one (T, h): the curve, its stationary points
  * marked by kind (shape and colour), and the global minimum ringed and named.
  */
+import type { ILandscapePoint } from '../../core/physics/landau/index';
 import type { IChartTheme } from '../theme';
 import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
 import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours, kindEncoding } from './common';
 
-/** A stationary point to mark. */
-export interface ILandscapePoint {
-  psi: number;
-  F: number;
-  kind: LandauPointKind;
-}
+export type { ILandscapePoint };
 
 /** Texts of the landscape chart (translated by the caller). */
 export interface ILandscapeLabels {

@@ -6,15 +6,10 @@
  * end a branch (saddle-node births and deaths). A branch is cut into segments
  * wherever its kind changes, the boundary point belonging to both.
  */
-import type { LandauPointKind } from './common';
+import type { IBranchPoint } from '../../core/physics/landau/index';
 import { finite } from './common';
 
-/** One stationary point at one temperature. */
-export interface IBranchPoint {
-  T: number;
-  psi: number;
-  kind: LandauPointKind;
-}
+export type { IBranchPoint };
 
 /** A point of a drawn segment: `segment` identifies the line, `order` its drawing order. */
 export interface ISegmentPoint extends IBranchPoint {

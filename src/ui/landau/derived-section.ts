@@ -4,7 +4,7 @@
  */
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Widget } from '@lumino/widgets';
-import type { IExplorerDerived, ILandscapeData } from './compute';
+import type { IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
 import { formatValue, renderDerivedTable } from './derived-table';
 
 /** Equilibrium line + derived-values table. */

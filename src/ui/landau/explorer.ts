@@ -9,8 +9,8 @@ import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
 import { readChartTheme } from '../chart-theme';
-import type { IBranchesData, IExplorerDerived } from './compute';
-import { branchesData, defaultTemperature, explorerDerived, landscapeData } from './compute';
+import type { IBranchesData, IExplorerDerived } from '../../core/physics/landau/index';
+import { branchesData, explorerDerived, landscapeData } from '../../core/physics/landau/index';
 import { DerivedSection } from './derived-section';
 import { formatValue } from './derived-table';
 import { PatchableChartView } from './patchable-view';
@@ -18,7 +18,7 @@ import { explorerProblem } from './problems';
 import { ExplorerControls } from './controls';
 import { FrameThrottle } from './frame';
 import { coefficientsFrom, valuesIn } from './fields';
-import { stateRanges } from './ranges';
+import { defaultTemperature, stateRanges } from './ranges';
 import { branchesSpec, landscapeSpec } from './specs';
 
 /** Starting coefficients (convention L) and state. */

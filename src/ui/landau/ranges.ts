@@ -3,10 +3,10 @@
  * spans its sign and magnitude, the temperature range is centred on T0 with
  * a width set by the hysteresis window T** − T0 (or by b²/(4ac) when the
  * transition is continuous), and the field range by the natural field scale
- * a·ΔT·ψ.
+ * a·ΔT·ψ; and the temperature the landscape opens at.
  */
 import type { ILandauCoefficients } from '../../core/physics/landau/index';
-import { stationaryUnchecked } from '../../core/physics/landau/index';
+import { explorerDerived, stationaryUnchecked, validateLandau } from '../../core/physics/landau/index';
 import type { FieldRange } from './fields';
 
 /** Bounds and step of a range input. */
@@ -90,4 +90,22 @@ export function stateRanges(k: ILandauCoefficients, superheat: number, hEnd: num
     H = 1;
   }
   return { T, h: bounded(-H, H) };
+}
+
+/**
+ * Temperature the landscape opens at: T1 for a first-order transition (the
+ * coexisting minima), T0 − S/2 otherwise (S from `temperatureScale`); T0 for
+ * coefficients that give no landscape.
+ */
+export function defaultTemperature(k: ILandauCoefficients): number {
+  try {
+    validateLandau(k);
+    const d = explorerDerived(k);
+    if (d.regime === 'first-order') {
+      return d.T1;
+    }
+    return k.T0 - 0.5 * temperatureScale(k, d.Tsuperheat ?? k.T0);
+  } catch {
+    return Number.isFinite(k.T0) ? k.T0 : 0;
+  }
 }

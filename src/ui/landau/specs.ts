@@ -7,7 +7,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import type { IKindLabels, ITemperatureMarker } from '../../charts/landau/index';
 import { buildBranchesSpec, buildLandscapeSpec } from '../../charts/landau/index';
 import type { IChartTheme } from '../../charts/theme';
-import type { IBranchesData, IExplorerDerived, ILandscapeData } from './compute';
+import type { IBranchesData, IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
 import { formatValue } from './derived-table';
 
 /** A spec with its accessible label. */

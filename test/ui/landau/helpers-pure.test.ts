@@ -1,12 +1,10 @@
 /**
- * The explorer's pure helpers: slider ranges and steps, convention fields and
- * their conversion, degenerate minima, and the derived values with a cubic term.
+ * The explorer's pure helpers: slider ranges and steps, the opening
+ * temperature, and convention fields and their conversion.
  */
 import { describe, expect, it } from 'vitest';
-import { landauTransitionNumeric } from '../../../src/core/physics/landau/index';
-import { branchesData, explorerDerived, stationaryPoints } from '../../../src/ui/landau/compute';
 import { CONVENTIONS, CONVENTION_FIELDS, coefficientsFrom, valuesIn } from '../../../src/ui/landau/fields';
-import { coefficientRange, niceStep, snap, stateRanges, temperatureScale } from '../../../src/ui/landau/ranges';
+import { coefficientRange, defaultTemperature, niceStep, snap, stateRanges, temperatureScale } from '../../../src/ui/landau/ranges';
 
 /** First-order example of REFERENCE.md C5 [computed here]: a = 0.5, b = −2, c = 4, T0 = 100; T** − T0 = 0.5, h_cp = 0.092951600308978. */
 const K = { a: 0.5, b: -2, c: 4, T0: 100, d: 0 };
@@ -45,6 +43,16 @@ describe('slider ranges', () => {
   });
 });
 
+describe('opening temperature', () => {
+  it('should open at T1 for a first-order transition, half a scale below T0 otherwise, T0 for bad coefficients', () => {
+    // T1 = T0 + 3b²/(16ac) = 100.375 (C5)
+    expect(defaultTemperature(K)).toBeCloseTo(100.375, 12);
+    // second order: S = b²/(4ac) = 0.5, T0 − S/2
+    expect(defaultTemperature({ a: 0.5, b: 2, c: 4, T0: 100 })).toBeCloseTo(99.75, 12);
+    expect(defaultTemperature({ a: -1, b: 2, c: 4, T0: 100 })).toBe(100);
+  });
+});
+
 describe('convention fields', () => {
   it('should round-trip every representable convention through the core conversions', () => {
     const second = { a: 0.5, b: 2, c: 0, T0: 100, d: 0 };
@@ -63,42 +71,5 @@ describe('convention fields', () => {
     expect(() => valuesIn(K, 'ginzburg-landau')).toThrow(/no sextic or cubic term/);
     expect(() => valuesIn({ ...K, d: 0.1 }, 'devonshire')).toThrow(/no cubic term/);
     expect(() => coefficientsFrom('devonshire', { curieConstant: -1, T0: 100, alpha11: 1, alpha111: 1 })).toThrow(/curieConstant must be > 0/);
-  });
-});
-
-describe('explorer computations', () => {
-  it('should call every minimum as low as the global one stable (±ψ at h = 0; three minima at T1)', () => {
-    expect(stationaryPoints(K, 99, 0).points.map(p => p.kind)).toEqual(['stable', 'unstable', 'stable']);
-    // at T1 = 100.375 (C5) the three minima have equal F
-    expect(stationaryPoints(K, 100.375, 0).points.map(p => p.kind)).toEqual(['stable', 'unstable', 'stable', 'unstable', 'stable']);
-    // a field lifts the degeneracy
-    expect(stationaryPoints(K, 99, 0.01).points.map(p => p.kind)).toEqual(['metastable', 'unstable', 'stable']);
-  });
-
-  it('should take the cubic-term transition from the core numerics and find the barrier between the minima', () => {
-    const k = { ...K, d: 0.3 };
-    const d = explorerDerived(k);
-    const n = landauTransitionNumeric(k);
-    expect(d.method).toBe('numeric');
-    expect(d.T1).toBe(n.Ttransition);
-    expect(d.Tsuperheat).toBe(n.Tsuperheat);
-    expect(d.barrierHeight!).toBeGreaterThan(0);
-    // with d > 0 the term (d/3)ψ³ lowers F at ψ < 0: the ordered minimum and the barrier before it lie there
-    expect(d.barrierPsi!).toBeLessThan(0);
-    expect(Math.abs(d.barrierPsi!)).toBeLessThan(d.psiJump!);
-  });
-
-  it('should give the closed-form barrier at T1 for d = 0 (REFERENCE.md C5: ψ_b = 0.3535533906, F_b = 0.005208333333)', () => {
-    const d = explorerDerived(K);
-    expect(d.barrierPsi!).toBeCloseTo(0.3535533906, 9);
-    expect(d.barrierHeight!).toBeCloseTo(0.005208333333, 11);
-  });
-
-  it('should bound the ψ range of the charts by the largest stationary ψ', () => {
-    const b = branchesData(K, 99, 101.5, 0, 51);
-    // largest |ψ| at T = 99: ψ² = (|b| + √(b² + 4ac(T0 − T)))/(2c) (B3 ii) = (2 + √12)/8
-    expect(b.psiMax).toBeCloseTo(Math.sqrt((2 + Math.sqrt(12)) / 8), 9);
-    expect(b.heating.jumps).toHaveLength(1);
-    expect(b.cooling.jumps).toHaveLength(1);
   });
 });

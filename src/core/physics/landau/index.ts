@@ -5,3 +5,4 @@ export * from './derived';
 export * from './thermal';
 export * from './paths';
 export * from './fit';
+export * from './explorer';

@@ -1,13 +1,32 @@
 /**
- * What the explorer draws and tabulates, computed from convention-L
- * coefficients with the core Landau numerics: the landscape at (T, h), the
+ * What the Landau explorer draws and tabulates, computed from convention-L
+ * coefficients with the Landau numerics: the landscape at (T, h), the
  * stationary branches and hysteresis paths over a T range, and the zero-field
  * derived quantities (closed forms for d = 0, numerics with a cubic term).
  */
-import type { IBranchPoint, ILandscapePoint } from '../../charts/landau/index';
-import type { ILandauCoefficients, ILandauPath, IStationaryResult, LandauRegime } from '../../core/physics/landau/index';
-import { landauDerived, landauF, landauThermalHysteresis, landauTransitionNumeric, linspace, stationaryUnchecked, validateLandau } from '../../core/physics/landau/index';
-import { temperatureScale } from './ranges';
+import type { ICoreMessage } from '../../messages';
+import { msg } from '../../messages';
+import type { ILandauCoefficients } from './conventions';
+import type { LandauRegime } from './derived';
+import { landauDerived, landauTransitionNumeric } from './derived';
+import type { IStationaryResult, StationaryKind } from './free-energy';
+import { landauF, stationaryUnchecked } from './free-energy';
+import type { ILandauPath } from './paths';
+import { landauThermalHysteresis, linspace } from './paths';
+
+/** A stationary point of the landscape F(ψ) at one (T, h). */
+export interface ILandscapePoint {
+  psi: number;
+  F: number;
+  kind: StationaryKind;
+}
+
+/** One stationary point at one temperature. */
+export interface IBranchPoint {
+  T: number;
+  psi: number;
+  kind: StationaryKind;
+}
 
 /** Zero-field quantities shown in the derived-values table (convention L). */
 export interface IExplorerDerived {
@@ -33,7 +52,8 @@ export interface IExplorerDerived {
   /** Closed forms (d = 0) or numerics (cubic term). */
   method: 'closed-form' | 'numeric';
   converged: boolean;
-  reason: string;
+  /** How the values were found (codes `physics.landau.*`). */
+  reason: ICoreMessage;
 }
 
 /** Barrier at T (h = 0): the highest maximum between ψ = 0 and the lowest ordered minimum. */
@@ -78,7 +98,7 @@ export function explorerDerived(k: ILandauCoefficients): IExplorerDerived {
       criticalEndPoint: first ? d.criticalEndPoint : null,
       method: 'closed-form',
       converged: true,
-      reason: 'closed forms'
+      reason: msg('physics.landau.closed-forms', 'closed forms')
     };
   }
   const n = landauTransitionNumeric(k);
@@ -159,22 +179,4 @@ export function branchesData(k: ILandauCoefficients, Tmin: number, Tmax: number,
   }
   const hyst = landauThermalHysteresis(k, Tmin, Tmax, n, h);
   return { branches, heating: hyst.heating, cooling: hyst.cooling, psiMax: psiMax > 0 ? psiMax : 1 };
-}
-
-/**
- * Temperature the landscape opens at: T1 for a first-order transition (the
- * coexisting minima), T0 − S/2 otherwise (S from `temperatureScale`); T0 for
- * coefficients that give no landscape.
- */
-export function defaultTemperature(k: ILandauCoefficients): number {
-  try {
-    validateLandau(k);
-    const d = explorerDerived(k);
-    if (d.regime === 'first-order') {
-      return d.T1;
-    }
-    return k.T0 - 0.5 * temperatureScale(k, d.Tsuperheat ?? k.T0);
-  } catch {
-    return Number.isFinite(k.T0) ? k.T0 : 0;
-  }
 }
