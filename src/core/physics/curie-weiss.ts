@@ -9,7 +9,7 @@ import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
 import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
-import { PHYS } from './constants';
+import { PHYS } from '../units/constants';
 import { lengthsDiffer, PhysicsInputError, pointNotFinite, tooFewPoints } from './errors';
 
 /** Unit system of a molar susceptibility. */

@@ -5,7 +5,7 @@
  * Ising and reference curves. Every result states the convention it used.
  */
 export * from './errors';
-export * from './constants';
+export * from '../units/constants';
 export * from './brillouin';
 export * from './weiss';
 export * from './weiss-fit';

@@ -10,7 +10,7 @@ import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
 import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
-import { PHYS } from './constants';
+import { PHYS } from '../units/constants';
 import { lengthsDiffer, PhysicsInputError, pointNotFinite, requireSpin, temperatureNotPositive, tooFewPoints } from './errors';
 import { solveWeiss } from './weiss';
 

@@ -7,7 +7,7 @@
  * RC = ∫ |ΔS_M| dT and RCP = |ΔS_M|max × δT_FWHM.
  * Units: J/(kg K) for a mass magnetisation, J/(m³ K) for a volume one.
  */
-import { PHYS } from '../physics/constants';
+import { PHYS } from '../units/constants';
 import type { IIsotherm, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf, setWarnings, SweepInputError } from './types';
 import { selectBranch } from './sets';

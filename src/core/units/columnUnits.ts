@@ -10,7 +10,7 @@
  */
 import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
-import { PHYS } from '../physics/constants';
+import { PHYS } from './constants';
 import { normaliseUnitText, parseMathUnit, unitMath } from './mathUnits';
 
 /** What a column holds. */

@@ -5,7 +5,7 @@
  */
 import { CoreMessageError, msg } from '../messages';
 import type { ICoreMessage } from '../messages';
-import { PHYS } from '../physics/constants';
+import { PHYS } from './constants';
 import { normaliseUnitText, parseMathUnit, unitMath } from './mathUnits';
 
 /** Error for an invalid unit or sample parameter at the boundary (codes `units.*`). */

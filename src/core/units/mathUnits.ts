@@ -6,7 +6,7 @@
  */
 import { all, create } from 'mathjs';
 import type { MathJsInstance, Unit } from 'mathjs';
-import { PHYS } from '../physics/constants';
+import { PHYS } from './constants';
 
 let instance: MathJsInstance | null = null;
 

@@ -4,7 +4,7 @@
  * keyboard use of the sliders.
  */
 import { afterEach, describe, expect, it } from 'vitest';
-import { PHYS } from '../../../src/core/physics/constants';
+import { PHYS } from '../../../src/core/units/constants';
 import { chartsMarkup, derivedCell, explorer, message, numberField, range, slide, stationaryMarks, type } from './helpers';
 
 function pickConvention(w: ReturnType<typeof explorer>, value: string): void {

@@ -13,7 +13,7 @@
 import { msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
 import { PhysicsInputError, requireFinite } from '../errors';
-import { PHYS } from '../constants';
+import { PHYS } from '../../units/constants';
 
 /** Names of the supported conventions. */
 export type LandauConvention = 'L' | 'no-fractions' | 'devonshire' | 'ginzburg-landau';
