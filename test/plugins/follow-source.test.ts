@@ -45,36 +45,38 @@ describe('source tie-back', () => {
     const { analysis, cellModel } = await setup();
     rerun(cellModel, null);
     await wait(SETTLE_MS + 50);
-    expect(analysis.sourceState).toBe('waiting');
+    expect(analysis.session.sourceState).toBe('waiting');
     rerun(cellModel, ',T (K),M [emu/g],flag\n0,10,2.5,True\n1,20,2.0,False\n2,30,1.0,True\n3,40,0.5,False\n');
     await wait(SETTLE_MS + 50);
-    expect(analysis.sourceState).toBe('live');
-    const M = analysis.table!.columns.find(c => c.header === 'M [emu/g]')!;
+    expect(analysis.session.sourceState).toBe('live');
+    const M = analysis.session.table!.columns.find(c => c.header === 'M [emu/g]')!;
     expect(Array.from(M.values as Float64Array)).toEqual([2.5, 2.0, 1.0, 0.5]);
-    const sel = analysis.selection!;
-    expect(analysis.table!.columns[sel.x].header).toBe('T (K)');
-    expect(analysis.table!.columns[sel.y].header).toBe('M [emu/g]');
+    const sel = analysis.session.roles!;
+    expect(analysis.session.table!.columns[sel.x].header).toBe('T (K)');
+    expect(analysis.session.table!.columns[sel.y].header).toBe('M [emu/g]');
   });
 
   it('should mark itself stale, naming the missing column, and keep the last data', async () => {
     const { analysis, cellModel } = await setup();
-    const before = Array.from(analysis.table!.columns.find(c => c.header === 'M [emu/g]')!.values as Float64Array);
+    const before = Array.from(analysis.session.table!.columns.find(c => c.header === 'M [emu/g]')!.values as Float64Array);
     rerun(cellModel, 'T (K),chi\n10,1\n20,2\n');
     await wait(SETTLE_MS + 50);
-    expect(analysis.sourceState).toBe('stale');
+    expect(analysis.session.sourceState).toBe('stale');
+    await analysis.rendered;
     const banner = analysis.node.querySelector('.jp-psiscape-AnalysisPanel-banner')!.textContent;
-    expect(banner).toBe('Not updated: the source output no longer has the column(s) M [emu/g]. Showing the last data.');
-    expect(Array.from(analysis.table!.columns.find(c => c.header === 'M [emu/g]')!.values as Float64Array)).toEqual(before);
+    expect(banner).toBe('Not updated: the source output no longer has a numeric column "M [emu/g]". Showing the last data.');
+    expect(Array.from(analysis.session.table!.columns.find(c => c.header === 'M [emu/g]')!.values as Float64Array)).toEqual(before);
   });
 
   it('should keep its last data when the source cell is deleted', async () => {
     const { panel, analysis } = await setup();
     panel.content.model!.sharedModel.deleteCell(1);
     await wait(SETTLE_MS + 50);
-    expect(analysis.sourceState).toBe('lost');
+    expect(analysis.session.sourceState).toBe('lost');
+    await analysis.rendered;
     expect(analysis.node.querySelector('.jp-psiscape-AnalysisPanel-banner')!.textContent).toBe(
       'The source cell was deleted; this analysis keeps its last data.'
     );
-    expect(analysis.table!.rowCount).toBe(3);
+    expect(analysis.session.table!.rowCount).toBe(3);
   });
 });

@@ -37,13 +37,13 @@ describe('jupyterlab-psiscape:plugin', () => {
     await lab.app.commands.execute(ANALYSE_SELECTED);
     const [analysis] = analysisPanels(lab.app);
     expect(analysis).toBeDefined();
-    expect(analysis.table?.columns.map(c => [c.header, c.isIndex])).toEqual([
+    expect(analysis.session.table?.columns.map(c => [c.header, c.isIndex])).toEqual([
       ['index', true],
       ['T (K)', false],
       ['M [emu/g]', false],
       ['flag', false]
     ]);
-    const t = analysis.table!;
+    const t = analysis.session.table!;
     const T = t.columns.find(c => c.name === 'T')!;
     const M = t.columns.find(c => c.name === 'M')!;
     expect(T.unit).toBe('K');
@@ -51,7 +51,7 @@ describe('jupyterlab-psiscape:plugin', () => {
     // Values come from the generator's DataFrame (demo/generate_notebooks.py).
     expect(Array.from(T.values as Float64Array)).toEqual([10, 20, 30]);
     expect(Array.from(M.values as Float64Array)).toEqual([1.25, 1.5, -0.75]);
-    expect(analysis.selection).toEqual({ x: t.columns.indexOf(T), y: t.columns.indexOf(M) });
+    expect(analysis.session.roles).toEqual({ x: t.columns.indexOf(T), y: t.columns.indexOf(M), sigma: null });
     expect(analysis.title.caption).toBe('fixtures/outputs.ipynb · cell 2 · output 1');
   });
 
@@ -61,7 +61,8 @@ describe('jupyterlab-psiscape:plugin', () => {
     panel.content.activeCellIndex = 3; // print("no table here")
     await lab.app.commands.execute(ANALYSE_SELECTED);
     const [analysis] = analysisPanels(lab.app);
-    expect(analysis.table).toBeNull();
+    expect(analysis.session.table).toBeNull();
+    await analysis.rendered;
     const message = analysis.node.querySelector('.jp-psiscape-AnalysisPanel-message');
     expect(message?.textContent).toMatch(/no output of the selected cell holds a table/i);
     expect(message?.textContent).toMatch(/stdout/);
@@ -73,8 +74,8 @@ describe('jupyterlab-psiscape:plugin', () => {
     panel.content.activeCellIndex = 2;
     await lab.app.commands.execute(ANALYSE_SELECTED);
     const [analysis] = analysisPanels(lab.app);
-    expect(analysis.table?.format).toBe('dataresource');
-    const T = analysis.table!.columns.find(c => c.header === 'T_K')!;
+    expect(analysis.session.table?.format).toBe('dataresource');
+    const T = analysis.session.table!.columns.find(c => c.header === 'T_K')!;
     expect(Array.from(T.values as Float64Array)).toEqual([100.5, 200.25, 300.125]);
   });
 
@@ -104,6 +105,6 @@ describe('jupyterlab-psiscape:plugin', () => {
     await lab.app.commands.execute(ANALYSE_OUTPUT);
     const [analysis] = analysisPanels(lab.app);
     expect(analysis.title.caption).toBe('fixtures/outputs.ipynb · cell 3 · output 1');
-    expect(analysis.table?.format).toBe('dataresource');
+    expect(analysis.session.table?.format).toBe('dataresource');
   });
 });

@@ -20,7 +20,7 @@ describe('AnalysisPanel', () => {
     expect(session.roles).toEqual({ x: 0, y: 1, sigma: 2 });
     const x = panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-x')!;
     expect(Array.from(x.options).map(o => o.textContent)).toEqual(['T (K)', 'M (emu/g)', 'sigma']);
-    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-symbol path').length).toBe(3);
+    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').length).toBe(3);
     expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-status')!.textContent).toBe('3 points plotted; 1 rows left out (missing or infinite values).');
     expect(panel.node.getAttribute('role')).toBe('region');
     expect(panel.title.label).toBe('M vs T · sample.ipynb');
@@ -43,7 +43,7 @@ describe('AnalysisPanel', () => {
     choose(panel.node.querySelector<HTMLSelectElement>('select.jp-psiscape-y')!, '2');
     await panel.rendered;
     expect(session.roles).toMatchObject({ x: 0, y: 2 });
-    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-symbol path').length).toBe(4);
+    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').length).toBe(4);
   });
 
   it('should tell two columns with the same header apart in the pickers', async () => {

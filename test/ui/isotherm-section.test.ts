@@ -4,11 +4,10 @@
  * mean-field answers, and missing units or bad N_d are refused in words.
  */
 import { afterEach, describe, expect, it } from 'vitest';
-import { nullTranslator } from '@jupyterlab/translation';
-import { Widget } from '@lumino/widgets';
 import { parseMime } from '../../src/core/table';
 import { weissMagnetisation } from '../../src/core/physics/weiss';
-import { AnalysisPanel } from '../../src/ui/analysis-panel';
+import type { AnalysisPanel } from '../../src/ui/analysis-panel';
+import { panelFor } from './helpers';
 
 /** Long-format isotherms: Tc = 300 K, h = g μB J B/(kB Tc) scaled to Oe by 1e4, M = 100 m emu/g. */
 function isothermCsv(header = 'T (K),H (Oe),M (emu/g)'): string {
@@ -28,15 +27,9 @@ function isothermCsv(header = 'T (K),H (Oe),M (emu/g)'): string {
   return rows.join('\n');
 }
 
-function open(csv: string): AnalysisPanel {
-  const panel = new AnalysisPanel({
-    parse: parseMime('text/csv', csv),
-    notebookName: 'n.ipynb',
-    sourceLabel: 'n.ipynb · cell 1 · output 1',
-    pointSize: 20,
-    translator: nullTranslator
-  });
-  Widget.attach(panel, document.body);
+async function open(csv: string): Promise<AnalysisPanel> {
+  const { panel } = panelFor(parseMime('text/csv', csv));
+  await panel.rendered;
   return panel;
 }
 
@@ -46,7 +39,7 @@ describe('IsothermSection', () => {
   });
 
   it('should find Tc near 300 K and mean-field exponents from exact Weiss isotherms, and draw the Arrott plot', async () => {
-    const panel = open(isothermCsv());
+    const panel = await open(isothermCsv());
     const section = panel.isothermSection;
     expect(section.isHidden).toBe(false);
     section.node.querySelector<HTMLButtonElement>('button.jp-psiscape-iso-run')!.click();
@@ -65,8 +58,8 @@ describe('IsothermSection', () => {
     expect(text).toMatch(/Banerjee criterion:/);
   });
 
-  it('should ask for the unit of a column that has none, naming the column', () => {
-    const panel = open(isothermCsv('T (K),H,M (emu/g)'));
+  it('should ask for the unit of a column that has none, naming the column', async () => {
+    const panel = await open(isothermCsv('T (K),H,M (emu/g)'));
     panel.isothermSection.run();
     const error = panel.isothermSection.node.querySelector<HTMLElement>('.jp-psiscape-fit-error')!;
     expect(error.hidden).toBe(false);
@@ -77,8 +70,8 @@ describe('IsothermSection', () => {
     expect(panel.isothermSection.analysis).not.toBeNull();
   });
 
-  it('should refuse a demagnetising factor outside 0..1', () => {
-    const panel = open(isothermCsv());
+  it('should refuse a demagnetising factor outside 0..1', async () => {
+    const panel = await open(isothermCsv());
     panel.isothermSection.node.querySelector<HTMLInputElement>('input.jp-psiscape-iso-demag')!.value = '4.2';
     panel.isothermSection.run();
     expect(panel.isothermSection.node.querySelector('.jp-psiscape-fit-error')!.textContent).toBe(
@@ -86,8 +79,8 @@ describe('IsothermSection', () => {
     );
   });
 
-  it('should stay hidden for a two-column table', () => {
-    const panel = open('T (K),M (emu/g)\n1,2\n3,4\n');
+  it('should stay hidden for a two-column table', async () => {
+    const panel = await open('T (K),M (emu/g)\n1,2\n3,4\n');
     expect(panel.isothermSection.isHidden).toBe(true);
   });
 });
