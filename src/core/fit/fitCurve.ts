@@ -13,7 +13,7 @@ import { warmStartedSteps, withWarmStart } from './warmStart';
 import type { IWarmStartInfo } from './warmStart';
 import type { IRefinement } from './refine';
 import { informationCriteria, inverseNormal } from './statistics';
-import { normalQuantileTwoSided, studentTQuantileTwoSided } from './studentT';
+import { normalQuantileTwoSided, studentTQuantileTwoSided } from '../numeric/studentT';
 import type { IFitData, IFitModel, IFitOptions, IFitResult } from './types';
 
 /**

@@ -17,6 +17,5 @@ export { FitInputError } from './types';
 export type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/core';
 export { fitCurve } from './fitCurve';
 export { FIT_DEFAULTS } from './defaults';
-export { studentTQuantileTwoSided, normalQuantileTwoSided } from './studentT';
 export { startFit } from './fitCurve';
 export type { IFitRun } from './fitCurve';

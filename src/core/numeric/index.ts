@@ -8,4 +8,5 @@ export { fitLine, lineRoot, smoothedDerivative } from './linear';
 export type { ILineFit } from './linear';
 export { hessian, invert, nelderMead } from './simplex';
 export type { ISimplexResult } from './simplex';
+export { studentTQuantileTwoSided, normalQuantileTwoSided } from './studentT';
 export { ulp } from './ulp';

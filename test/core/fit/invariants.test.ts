@@ -6,7 +6,7 @@
 import fc from 'fast-check';
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
-import { fitCurve, normalQuantileTwoSided, studentTQuantileTwoSided } from '../../../src/core/fit/index';
+import { fitCurve } from '../../../src/core/fit/index';
 import { decay, expectStationary, linspace } from './models';
 import { mulberry32, normalGenerator } from './prng';
 
@@ -65,28 +65,5 @@ describe('invariants at the solution', () => {
     const warning = r.warnings.find((w) => w.code === 'fit.strong-correlation' && w.args[0] === 'a' && w.args[1] === 'c');
     expect(warning).toBeDefined();
     expect(Math.abs((warning!.args[2] as { value: number }).value)).toBeGreaterThan(0.99);
-  });
-});
-
-describe('quantiles', () => {
-  // Two-sided Student-t critical values from standard tables
-  // (Abramowitz & Stegun, Handbook of Mathematical Functions, Table 26.10).
-  it.each([
-    [0.95, 1, 12.706],
-    [0.95, 10, 2.228],
-    [0.99, 5, 4.032],
-    [0.9, 30, 1.697]
-  ])('t quantile level %f, dof %d = %f', (level, dof, t) => {
-    expect(studentTQuantileTwoSided(level, dof)).toBeCloseTo(t, 3);
-  });
-
-  it('normal quantiles: 1.959964 for 95 %, 1 for 68.2689 % (A&S Table 26.1)', () => {
-    expect(normalQuantileTwoSided(0.95)).toBeCloseTo(1.959964, 6);
-    expect(normalQuantileTwoSided(0.682689492)).toBeCloseTo(1, 6);
-  });
-
-  it('t tends to the normal quantile for large dof and is NaN for dof ≤ 0', () => {
-    expect(studentTQuantileTwoSided(0.95, 1e6)).toBeCloseTo(normalQuantileTwoSided(0.95), 5);
-    expect(studentTQuantileTwoSided(0.95, 0)).toBeNaN();
   });
 });
