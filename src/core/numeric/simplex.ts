@@ -15,6 +15,9 @@
  * to ftol. The Hessian has truncation error O(h²) and rounding error
  * O(ε|f|/h²) (ε = 2⁻⁵²): choose h near ε^(1/4) times the parameter scale.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from './messageArgs';
 
 /** Outcome of a minimisation. */
 export interface ISimplexResult {
@@ -22,7 +25,8 @@ export interface ISimplexResult {
   value: number;
   evaluations: number;
   converged: boolean;
-  reason: string;
+  /** How the search ended (codes `numeric.simplex.*`). */
+  reason: ICoreMessage;
 }
 
 /** Minimises f from x0 with initial steps `step`; stops when the simplex values agree to ftol (relative) and its size to xtol·step. */
@@ -52,10 +56,10 @@ export function nelderMead(f: (x: number[]) => number, x0: readonly number[], st
       }
     }
     if (spread <= ftol * (Math.abs(vals[0]) + 1e-300) && size <= 1e3 * xtol) {
-      return { x: pts[0], value: vals[0], evaluations: evals, converged: true, reason: 'simplex values and size below tolerance' };
+      return { x: pts[0], value: vals[0], evaluations: evals, converged: true, reason: msg('numeric.simplex.settled', 'The search for the minimum settled: the values and the spread of its trial points are within the tolerances.') };
     }
     if (size <= xtol) {
-      return { x: pts[0], value: vals[0], evaluations: evals, converged: true, reason: 'simplex size below tolerance' };
+      return { x: pts[0], value: vals[0], evaluations: evals, converged: true, reason: msg('numeric.simplex.closed-in', 'The search for the minimum settled: its trial points closed in on one point.') };
     }
     const c = new Array<number>(n).fill(0);
     for (let i = 0; i < n; i++) {
@@ -97,8 +101,19 @@ export function nelderMead(f: (x: number[]) => number, x0: readonly number[], st
       }
     }
   }
-  const best = vals.indexOf(Math.min(...vals));
-  return { x: pts[best], value: vals[best], evaluations: evals, converged: false, reason: 'evaluation limit reached' };
+  let best = 0;
+  for (let i = 1; i < vals.length; i++) {
+    if (vals[i] < vals[best]) {
+      best = i;
+    }
+  }
+  return {
+    x: pts[best],
+    value: vals[best],
+    evaluations: evals,
+    converged: false,
+    reason: msg('numeric.simplex.budget', 'The search for the minimum used its %1 evaluations before it settled.', wholeNumber(maxEvaluations))
+  };
 }
 
 /** Central finite-difference Hessian of f at x with steps h. */

@@ -4,6 +4,8 @@
  * isotherm at the iteration's Tc and the Widom/Rushbrooke checks; optionally
  * the global equation-of-state fit and the scaling collapse.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IArrottResult } from './arrott';
 import { arrottAnalysis } from './arrott';
 import type { ICollapseResult } from './collapse';
@@ -19,7 +21,7 @@ import type { IModifiedArrottResult } from './map';
 import { modifiedArrottIteration } from './map';
 import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions } from './types';
-import { conventionsOf } from './types';
+import { conventionsOf, uniqueMessages } from './types';
 
 /** Options of {@link analyseIsotherms}. */
 export interface IIsothermAnalysisOptions {
@@ -49,7 +51,8 @@ export interface IIsothermAnalysis {
   global: IGlobalResult | null;
   collapse: ICollapseResult | null;
   conventions: ISweepConventions;
-  warnings: string[];
+  /** Every warning of the analyses, each once. */
+  warnings: ICoreMessage[];
 }
 
 /** Runs the analyses on a set. */
@@ -72,7 +75,14 @@ export function analyseIsotherms(set: IIsothermSet, options: IIsothermAnalysisOp
     options.collapse === true && Number.isFinite(map.Tc.value)
       ? scalingCollapse(iso, { Tc: map.Tc.value, beta: map.beta.value, gamma: map.gamma.value }, { tMax })
       : null;
-  const warnings = Array.from(new Set([...arrott.warnings, ...map.warnings, ...kf.warnings, ...crit.warnings, ...(global?.warnings ?? []), ...(collapse?.warnings ?? [])]));
+  const warnings = uniqueMessages([
+    ...arrott.warnings,
+    ...map.warnings,
+    ...kf.warnings,
+    ...crit.warnings,
+    ...(global?.warnings ?? []),
+    ...(collapse?.warnings ?? [])
+  ]);
   return {
     arrott,
     modifiedArrott: map,
@@ -81,7 +91,10 @@ export function analyseIsotherms(set: IIsothermSet, options: IIsothermAnalysisOp
     checks,
     global,
     collapse,
-    conventions: conventionsOf(set, [`exponent window |t| <= ${tMax}`, 'delta from the critical isotherm at the modified-Arrott Tc']),
+    conventions: conventionsOf(set, [
+      msg('sweeps.convention.exponent-window', 'Exponent window: |t| ≤ %1.', tMax),
+      msg('sweeps.convention.delta-source', 'δ from the critical isotherm at the Tc of the modified Arrott iteration.')
+    ]),
     warnings
   };
 }

@@ -4,10 +4,12 @@
  * (intercept on the H/M axis, T > Tc), Tc where the intercept crosses zero,
  * and the Banerjee criterion as evidence.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IBanerjeeEvidence } from './banerjee';
 import { banerjeeEvidence } from './banerjee';
 import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
-import { interceptCrossing, isothermLines, validateWindow } from './lines';
+import { highFieldRegion, interceptCrossing, isothermLines, validateWindow } from './lines';
 import { selectBranch } from './sets';
 import type { Branch, IIsothermSet, ISweepConventions, IValueSigma } from './types';
 import { conventionsOf, setWarnings } from './types';
@@ -40,7 +42,7 @@ export interface IArrottResult {
   inverseChi: ITemperaturePoint[];
   banerjee: IBanerjeeEvidence;
   conventions: ISweepConventions;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 /** Runs the Arrott analysis on a set. */
@@ -49,18 +51,23 @@ export function arrottAnalysis(set: IIsothermSet, options: IArrottOptions = {}):
   const sel = selectBranch(set, options.branch);
   const warnings = setWarnings(set).concat(sel.warnings);
   const region = options.region ?? {};
-  if (sel.isotherms.length < (options.minIsotherms ?? 5)) {
-    warnings.push(`only ${sel.isotherms.length} isotherm(s): too few for a reliable Tc from the intercept crossing`);
+  const minIsotherms = options.minIsotherms ?? 5;
+  if (sel.isotherms.length < minIsotherms) {
+    warnings.push(
+      msg('sweeps.arrott.few-isotherms', 'Too few isotherms (%1) for a reliable Tc from where the intercept changes sign: %2 or more are advisable.', sel.isotherms.length, minIsotherms)
+    );
   }
   const lines = isothermLines(sel.isotherms, 0.5, 1, region);
   for (const l of lines) {
     if (l.n < 3) {
-      warnings.push(`isotherm at ${l.T} K has ${l.n} point(s) in the high-field region: no uncertainty for its line`);
+      warnings.push(
+        msg('sweeps.arrott.line-few-points', 'The isotherm at %1 K has too few points in the high-field region (%2) for an uncertainty of its line.', { value: l.T, digits: 6 }, l.n)
+      );
     }
   }
   const crossing = interceptCrossing(lines, options.perSide ?? 2);
   if (!crossing.converged) {
-    warnings.push(`Tc not found: ${crossing.reason}`);
+    warnings.push(crossing.reason);
   }
   const spontaneousSquared: ITemperaturePoint[] = [];
   const inverseChi: ITemperaturePoint[] = [];
@@ -72,7 +79,9 @@ export function arrottAnalysis(set: IIsothermSet, options: IArrottOptions = {}):
     }
   }
   const banerjee = banerjeeEvidence(sel.isotherms);
-  const notes = ['Arrott plot: y = M^2 against x = H/M; high-field straight line y = c0 + c1 x per isotherm'];
-  notes.push(region.hMin !== undefined ? `high-field region: H >= ${region.hMin} A/m` : `high-field region: upper ${(region.topFraction ?? 0.5) * 100}% of each isotherm's field range`);
+  const notes = [
+    msg('sweeps.convention.arrott', 'Arrott plot: M² against H/M, with a straight line M² = c0 + c1·H/M through the high-field part of each isotherm.'),
+    highFieldRegion(region)
+  ];
   return { lines, Tc: crossing.Tc, TcCrossing: crossing, spontaneousSquared, inverseChi, banerjee, conventions: conventionsOf(set, notes), warnings };
 }

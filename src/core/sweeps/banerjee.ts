@@ -4,6 +4,8 @@
  * along the isotherm. A slope below zero by more than `zThreshold` standard
  * errors flags the isotherm.
  */
+import { formatNumberArg, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { fitLine } from '../numeric/linear';
 import type { IIsotherm, IValueSigma } from './types';
 
@@ -21,16 +23,22 @@ export interface IBanerjeeIsotherm {
 export interface IBanerjeeEvidence {
   isotherms: IBanerjeeIsotherm[];
   negativeCount: number;
-  /** Plain statement of what was seen (never a verdict on the order). */
-  evidence: string;
-  caveats: string[];
+  /** Plain statement of what was seen, never a verdict on the order (codes `sweeps.banerjee.negative`, `sweeps.banerjee.none`). */
+  evidence: ICoreMessage;
+  /** Codes `sweeps.banerjee.caveat-*`. */
+  caveats: ICoreMessage[];
 }
 
-const CAVEATS = [
-  'The Banerjee criterion is necessary rather than sufficient.',
-  'Negative or S-shaped Arrott slopes can also come from demagnetisation, sample inhomogeneity, antiferromagnetic or metamagnetic components, and non-mean-field exponents.',
-  'Corroborate with thermal hysteresis, latent heat and a volume discontinuity before calling the transition first order.'
-];
+function caveats(): ICoreMessage[] {
+  return [
+    msg('sweeps.banerjee.caveat-necessary', 'The Banerjee criterion is necessary rather than sufficient.'),
+    msg(
+      'sweeps.banerjee.caveat-other-causes',
+      'Negative or S-shaped Arrott slopes can also come from demagnetisation, sample inhomogeneity, antiferromagnetic or metamagnetic components, and exponents other than mean-field ones.'
+    ),
+    msg('sweeps.banerjee.caveat-corroborate', 'Corroborate with thermal hysteresis, latent heat and a volume discontinuity before calling the transition first order.')
+  ];
+}
 
 /** Local slopes along one isotherm (points with H > 0 and M > 0, in field order). */
 export function banerjeeIsotherm(iso: IIsotherm, window?: number, zThreshold = 3): IBanerjeeIsotherm {
@@ -69,7 +77,17 @@ export function banerjeeEvidence(isotherms: readonly IIsotherm[], window?: numbe
   const neg = list.filter(l => l.negative);
   const evidence =
     neg.length > 0
-      ? `${neg.length} of ${list.length} Arrott isotherms have a significantly negative local slope (at T = ${neg.map(l => l.T.toPrecision(6)).join(', ')} K): consistent with b < 0, i.e. a first-order transition, if the caveats are excluded`
-      : `no Arrott isotherm has a significantly negative local slope (${list.length} isotherms): consistent with a second-order transition; this alone does not prove it`;
-  return { isotherms: list, negativeCount: neg.length, evidence, caveats: CAVEATS.slice() };
+      ? msg(
+          'sweeps.banerjee.negative',
+          '%1 of %2 Arrott isotherms have a significantly negative local slope (at T = %3 K): consistent with b < 0, i.e. a first-order transition, if the caveats are excluded.',
+          neg.length,
+          list.length,
+          neg.map(l => formatNumberArg(l.T, 6)).join(', ')
+        )
+      : msg(
+          'sweeps.banerjee.none',
+          'No Arrott isotherm has a significantly negative local slope (%1 isotherms): consistent with a second-order transition, which this alone does not prove.',
+          list.length
+        );
+  return { isotherms: list, negativeCount: neg.length, evidence, caveats: caveats() };
 }

@@ -4,6 +4,8 @@
  * iteration is rerun, and the spread of β, γ and Tc is reported beside the
  * covariance errors of the full data.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IModifiedArrottOptions } from './map';
 import { iterateModifiedArrott } from './map';
 import { selectBranch } from './sets';
@@ -26,7 +28,8 @@ export interface IBootstrapResult {
   /** Samples whose iteration failed or did not converge (left out of the statistics). */
   failed: number;
   seed: number;
-  convention: string;
+  /** How the samples were drawn and counted (code `sweeps.bootstrap.convention`). */
+  convention: ICoreMessage;
 }
 
 
@@ -44,7 +47,7 @@ export function bootstrapModifiedArrott(set: IIsothermSet, options: IModifiedArr
   const samples = options.samples ?? 50;
   const seed = options.seed ?? 1;
   if (!Number.isInteger(samples) || samples < 2) {
-    throw new SweepInputError(`samples must be an integer >= 2, got ${samples}`);
+    throw new SweepInputError(msg('sweeps.bootstrap.samples', 'The number of bootstrap samples must be a whole number of at least 2, but it is %1.', samples));
   }
   const iso = selectBranch(set, options.branch).isotherms;
   const rand = mulberry32(seed);
@@ -74,6 +77,6 @@ export function bootstrapModifiedArrott(set: IIsothermSet, options: IModifiedArr
     samples,
     failed,
     seed,
-    convention: 'isotherms resampled with replacement (mulberry32 seed); statistics over converged samples only'
+    convention: msg('sweeps.bootstrap.convention', 'Isotherms resampled with replacement (seed %1); statistics over the samples whose iteration converged.', seed)
   };
 }

@@ -7,6 +7,8 @@
  * (Tc, β, γ) by Nelder–Mead. σ from the cost's Hessian, treating the cost as
  * a residual mean square.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { hessian, invert, nelderMead } from '../numeric/simplex';
 import type { IIsotherm, IValueSigma } from './types';
 
@@ -102,8 +104,9 @@ export interface ICollapseResult {
   count: number;
   evaluations: number;
   converged: boolean;
-  reason: string;
-  warnings: string[];
+  /** How the minimisation ended (codes `numeric.simplex.*`). */
+  reason: ICoreMessage;
+  warnings: ICoreMessage[];
 }
 
 /** Minimises the collapse cost over (Tc, β, γ) from a start (e.g. the modified Arrott result). */
@@ -115,7 +118,7 @@ export function scalingCollapse(isotherms: readonly IIsotherm[], start: { Tc: nu
   const f = (x: number[]): number => (x[1] > 0.01 && x[2] > 0.05 && x[0] > 0 ? cost(prep, x[0], x[1], x[2], tMin, tMax, k).cost : Infinity);
   const x0 = [start.Tc, start.beta, start.gamma];
   const startCost = f(x0);
-  const warnings = ['a collapse that looks good on log axes is weak evidence on its own; the cost quantifies it'];
+  const warnings = [msg('sweeps.collapse.weak-evidence', 'A collapse that looks good on log axes is weak evidence on its own; its cost says how good it is.')];
   const r = nelderMead(f, x0, [2e-3 * start.Tc, 0.02, 0.05], 3000, 1e-10, 1e-7);
   const best = cost(prep, r.x[0], r.x[1], r.x[2], tMin, tMax, k);
   const steps = [1e-4 * r.x[0], 2e-3, 5e-3];
@@ -125,10 +128,10 @@ export function scalingCollapse(isotherms: readonly IIsotherm[], start: { Tc: nu
   const s2 = best.count > 3 ? best.sum / (best.count - 3) : NaN;
   const sig = (i: number): number => (inv !== null && inv[i][i] > 0 ? Math.sqrt(2 * s2 * inv[i][i]) : NaN);
   if (inv === null || !(sig(0) >= 0)) {
-    warnings.push('the cost curvature is not positive definite at the minimum: no uncertainties');
+    warnings.push(msg('sweeps.collapse.no-curvature', 'The cost does not rise in every direction from its minimum, so there are no uncertainties.'));
   }
   if (best.count === 0) {
-    warnings.push('no overlapping isotherms in scaled coordinates');
+    warnings.push(msg('sweeps.collapse.no-overlap', 'No isotherms overlap in the scaled coordinates.'));
   }
   return {
     Tc: { value: r.x[0], sigma: sig(0) },

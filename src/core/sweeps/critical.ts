@@ -4,6 +4,8 @@
  * isotherms that bracket Tc (flagged: never across a jump); and the Widom and
  * Rushbrooke checks [B4 in REFERENCES.md].
  */
+import { formatNumberArg, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IMeasuredExponents, IRelationCheck } from '../physics/universality';
 import { checkScalingRelations } from '../physics/universality';
 import { fitLine } from '../numeric/linear';
@@ -28,7 +30,7 @@ export interface ICriticalIsothermResult {
   temperatures: number[];
   Tc: number;
   n: number;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 function interpolate(x: Float64Array, y: Float64Array, at: number): number {
@@ -51,11 +53,11 @@ function interpolate(x: Float64Array, y: Float64Array, at: number): number {
 
 /** δ from ln M against ln H on the critical isotherm (isotherms sorted by T, fields sorted). */
 export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, options: ICriticalIsothermOptions = {}): ICriticalIsothermResult {
-  const warnings: string[] = [];
+  const warnings: ICoreMessage[] = [];
   const nan = { value: NaN, sigma: NaN };
-  const fail = (msg: string): ICriticalIsothermResult => ({ delta: nan, D: nan, source: 'isotherm', temperatures: [], Tc, n: 0, warnings: [msg] });
+  const fail = (why: ICoreMessage): ICriticalIsothermResult => ({ delta: nan, D: nan, source: 'isotherm', temperatures: [], Tc, n: 0, warnings: [why] });
   if (!Number.isFinite(Tc) || isotherms.length === 0) {
-    return fail('critical isotherm: Tc is not finite or there are no isotherms');
+    return fail(msg('sweeps.critical.no-tc', 'There is no critical isotherm: Tc is unknown, or there are no isotherms.'));
   }
   const sorted = isotherms.slice().sort((a, b) => a.T - b.T);
   let nearest = sorted[0];
@@ -77,7 +79,9 @@ export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, op
     const below = sorted.filter(i => i.T < Tc);
     const above = sorted.filter(i => i.T > Tc);
     if (below.length === 0 || above.length === 0) {
-      return fail(`critical isotherm: Tc = ${Tc} is not bracketed by isotherms and none lies within |t| <= ${tol}`);
+      return fail(
+        msg('sweeps.critical.not-bracketed', 'There is no critical isotherm: Tc = %1 K does not lie between two isotherms, and none lies within |t| ≤ %2 of it.', { value: Tc, digits: 6 }, tol)
+      );
     }
     source = 'interpolated';
     // up to two isotherms each side: Lagrange polynomial in T of ln M at fixed H
@@ -107,8 +111,11 @@ export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, op
     H = Float64Array.from(h);
     M = Float64Array.from(m);
     warnings.push(
-      `critical isotherm interpolated in T at fixed H (ln M, Lagrange polynomial through the isotherms at ${temperatures.join(', ')} K), across Tc; ` +
-        'if the transition is discontinuous between them this is invalid, and an isotherm slightly off Tc biases delta'
+      msg(
+        'sweeps.critical.interpolated',
+        'The critical isotherm was interpolated in T at fixed H (ln M, Lagrange polynomial through the isotherms at %1 K), across Tc: this is invalid if the transition is discontinuous between them, and an isotherm slightly off Tc biases δ.',
+        temperatures.map(t => formatNumberArg(t, 6)).join(', ')
+      )
     );
   }
   const lnH: number[] = [];
@@ -121,7 +128,7 @@ export function criticalIsotherm(isotherms: readonly IIsotherm[], Tc: number, op
   }
   const f = fitLine(lnH, lnM);
   if (!Number.isFinite(f.slope) || f.n < 3) {
-    return { ...fail(`critical isotherm: only ${f.n} usable point(s)`), source, temperatures };
+    return { ...fail(msg('sweeps.critical.few-points', 'The critical isotherm has too few usable points (%1) for δ: at least 3 are needed.', f.n)), source, temperatures };
   }
   const delta = { value: 1 / f.slope, sigma: Math.sqrt(f.varSlope) / (f.slope * f.slope) };
   const D = { value: Math.exp(f.intercept), sigma: Math.exp(f.intercept) * Math.sqrt(f.varIntercept) };
@@ -133,20 +140,20 @@ export interface IScalingChecks {
   relations: IRelationCheck[];
   /** α implied by Rushbrooke from β and γ (2 − 2β − γ) when α was not measured. */
   alphaFromRushbrooke: IValueSigma | null;
-  notes: string[];
+  notes: ICoreMessage[];
 }
 
 /** Runs the scaling-relation checks (k = coverage factor, default 2). */
 export function scalingChecks(m: IMeasuredExponents, k = 2): IScalingChecks {
   const relations = checkScalingRelations(m, k);
-  const notes: string[] = [];
+  const notes: ICoreMessage[] = [];
   let alphaFromRushbrooke: IValueSigma | null = null;
   if (m.alpha === undefined && m.beta !== undefined && m.gamma !== undefined) {
     alphaFromRushbrooke = { value: 2 - 2 * m.beta.value - m.gamma.value, sigma: Math.hypot(2 * m.beta.error, m.gamma.error) };
-    notes.push('alpha was not measured: Rushbrooke cannot be tested, only the alpha it implies is given');
+    notes.push(msg('sweeps.checks.alpha-implied', 'α was not measured, so Rushbrooke cannot be tested: only the α it implies is given.'));
   }
   if (m.delta === undefined) {
-    notes.push('delta was not measured independently: Widom cannot be tested');
+    notes.push(msg('sweeps.checks.no-delta', 'δ was not measured independently, so Widom cannot be tested.'));
   }
   return { relations, alphaFromRushbrooke, notes };
 }

@@ -3,6 +3,8 @@
  * N_d dimensionless (0..1, sphere 1/3), cgs H_int = H_a − 4π N_d M, and
  * tables that quote N_cgs = 4π N_d (0..4π). M must be a volume magnetisation.
  */
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { SweepInputError } from './types';
 
 /** Demagnetising factor as given by the user. */
@@ -15,12 +17,17 @@ export interface IDemagnetisingFactor {
 /** N_d (SI, dimensionless) from either convention; throws on values outside the physical range. */
 export function demagnetisingFactorSI(N: IDemagnetisingFactor): number {
   if (!Number.isFinite(N.value)) {
-    throw new SweepInputError(`demagnetising factor must be finite, got ${String(N.value)}`);
+    throw new SweepInputError(
+      msg('sweeps.demag-not-finite', 'The demagnetising factor must be a finite number, but it is %1.', typeof N.value === 'number' ? N.value : String(N.value))
+    );
   }
   const si = N.convention === 'cgs' ? N.value / (4 * Math.PI) : N.value;
   if (si < 0 || si > 1) {
-    const range = N.convention === 'cgs' ? '0..4π' : '0..1';
-    throw new SweepInputError(`demagnetising factor ${N.value} (${N.convention}) is outside ${range}`);
+    throw new SweepInputError(
+      N.convention === 'cgs'
+        ? msg('sweeps.demag-out-of-range-cgs', 'The demagnetising factor %1 (cgs) is outside 0 to 4π.', N.value)
+        : msg('sweeps.demag-out-of-range-si', 'The demagnetising factor %1 (SI) is outside 0 to 1.', N.value)
+    );
   }
   return si;
 }
@@ -28,7 +35,9 @@ export function demagnetisingFactorSI(N: IDemagnetisingFactor): number {
 /** H_int = H_a − N_d·M, all in A/m (SI). Returns a new array. */
 export function internalField(Ha: ArrayLike<number>, M: ArrayLike<number>, N: IDemagnetisingFactor): Float64Array {
   if (Ha.length !== M.length) {
-    throw new SweepInputError(`field and magnetisation lengths differ (${Ha.length} vs ${M.length})`);
+    throw new SweepInputError(
+      msg('sweeps.field-magnetisation-lengths', 'There are %1 fields but %2 magnetisations: give one of each per point.', wholeNumber(Ha.length), wholeNumber(M.length))
+    );
   }
   const n = demagnetisingFactorSI(N);
   const out = new Float64Array(Ha.length);
@@ -46,7 +55,9 @@ export function internalFieldCgs(HaOe: number, MemuPerCm3: number, N: IDemagneti
 /** Volume magnetisation (A/m) from a mass magnetisation (A m²/kg) and the density (kg/m³). */
 export function volumeMagnetisation(sigma: ArrayLike<number>, densityKgPerM3: number): Float64Array {
   if (!(densityKgPerM3 > 0) || !Number.isFinite(densityKgPerM3)) {
-    throw new SweepInputError(`density must be a finite number > 0 in kg/m^3, got ${String(densityKgPerM3)}`);
+    throw new SweepInputError(
+      msg('sweeps.density-invalid', 'The density must be a finite number of kg/m³ above 0, but it is %1.', typeof densityKgPerM3 === 'number' ? densityKgPerM3 : String(densityKgPerM3))
+    );
   }
   const out = new Float64Array(sigma.length);
   for (let i = 0; i < sigma.length; i++) {

@@ -3,6 +3,8 @@
  * table was read in, when the normalisation allows it, otherwise SI with a
  * note (a moment normalised by mass cannot be shown in emu without the mass).
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { fromSI, readColumnUnit } from '../units/index';
 import type { IIsothermSet } from './types';
 
@@ -10,7 +12,8 @@ import type { IIsothermSet } from './types';
 export interface IDisplayValues {
   values: Float64Array;
   unit: string;
-  note: string | null;
+  /** Why the values are in SI rather than the table's unit (code `sweeps.display.si`), else null. */
+  note: ICoreMessage | null;
 }
 
 /** Converts SI temperature (K), field (A/m) or magnetisation values of `set` to the user's unit. */
@@ -24,6 +27,6 @@ export function toDisplayUnits(set: IIsothermSet, quantity: 'temperature' | 'fie
   return {
     values: Float64Array.from(values),
     unit: siUnit,
-    note: `shown in ${siUnit}: the data were normalised from ${unit}, which cannot be shown directly`
+    note: msg('sweeps.display.si', 'Shown in %1: the data were normalised from %2, which cannot be shown directly.', siUnit, unit)
   };
 }

@@ -7,6 +7,8 @@
  * RC = ∫ |ΔS_M| dT and RCP = |ΔS_M|max × δT_FWHM.
  * Units: J/(kg K) for a mass magnetisation, J/(m³ K) for a volume one.
  */
+import { formatNumberArg, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { PHYS } from '../units/constants';
 import type { IIsotherm, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf, setWarnings, SweepInputError } from './types';
@@ -35,7 +37,7 @@ export interface IEntropyCurve {
   refrigerantCapacity: number;
   /** RCP = |ΔS_M|max × FWHM. */
   relativeCoolingPower: number;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 /** Result over all field changes. */
@@ -43,7 +45,7 @@ export interface IEntropyResult {
   curves: IEntropyCurve[];
   unit: 'J/(kg K)' | 'J/(m^3 K)';
   conventions: ISweepConventions;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 /** Noise of M along an isotherm from second differences: σ² ≈ ⟨Δ²M⟩/6. */
@@ -89,15 +91,31 @@ export function fieldIntegral(iso: IIsotherm, deltaH: number): { value: number; 
 }
 
 function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
-  const warnings: string[] = [];
+  const warnings: ICoreMessage[] = [];
   const I = isotherms.map(iso => fieldIntegral(iso, deltaH));
   const short = isotherms.filter((_iso, k) => !Number.isFinite(I[k].value)).map(i => i.T);
   if (short.length > 0) {
-    warnings.push(`isotherm(s) at ${short.join(', ')} K do not reach the field change ${deltaH} A/m and were left out`);
+    warnings.push(
+      msg(
+        'sweeps.entropy.short-isotherms',
+        'The isotherms at %1 K do not reach the field change of %2 A/m and were left out.',
+        short.map(t => formatNumberArg(t, 6)).join(', '),
+        deltaH
+      )
+    );
   }
-  const gap = Math.max(...I.map(v => (Number.isFinite(v.lowGap) ? v.lowGap : 0)));
+  let gap = -Infinity;
+  for (const v of I) {
+    gap = Math.max(gap, Number.isFinite(v.lowGap) ? v.lowGap : 0);
+  }
   if (gap > 0.01 * deltaH) {
-    warnings.push(`the lowest measured field (${gap} A/m) exceeds 1% of the field change: the part from 0 was taken as M(H_lowest) x H_lowest`);
+    warnings.push(
+      msg(
+        'sweeps.entropy.low-field-gap',
+        'The lowest measured field (%1 A/m) exceeds 1 % of the field change: the part from 0 was taken as M(H_lowest)·H_lowest.',
+        gap
+      )
+    );
   }
   const ok = isotherms.map((iso, k) => ({ T: iso.T, ...I[k] })).filter(v => Number.isFinite(v.value));
   const points: IEntropyPoint[] = [];
@@ -113,7 +131,7 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
     });
   }
   if (ok.length < 3) {
-    warnings.push(`only ${ok.length} isotherm(s) reach this field change: too few for a ΔS_M(T) curve`);
+    warnings.push(msg('sweeps.entropy.few-isotherms', 'Too few isotherms (%1) reach this field change for a ΔS_M(T) curve.', ok.length));
   }
   let peak: IEntropyPoint | null = null;
   for (const p of points) {
@@ -128,8 +146,12 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
     const b = Math.abs(points[k + 1].dS);
     if (Math.max(a, b) > big && Math.max(a, b) > 3 * Math.min(a, b)) {
       warnings.push(
-        `|ΔS_M| changes more than 3x between ${points[k].T} K and ${points[k + 1].T} K: the isotherms may straddle a discontinuity ` +
-          '(first-order jump), and the finite difference across it is not a derivative; measure more isotherms there'
+        msg(
+          'sweeps.entropy.jump',
+          '|ΔS_M| changes more than threefold between %1 K and %2 K: the isotherms may straddle a discontinuity (a first-order jump), where the finite difference is not a derivative; measure more isotherms there.',
+          { value: points[k].T, digits: 6 },
+          { value: points[k + 1].T, digits: 6 }
+        )
       );
     }
   }
@@ -158,7 +180,9 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
         rc += 0.5 * (abs[k] + abs[k + 1]) * (points[k + 1].T - points[k].T);
       }
     } else {
-      warnings.push('the half maximum of |ΔS_M| is not reached on both sides of the peak within the data: no FWHM, RC or RCP');
+      warnings.push(
+        msg('sweeps.entropy.no-fwhm', 'The half maximum of |ΔS_M| is not reached on both sides of the peak within the data, so there is no FWHM, RC or RCP.')
+      );
     }
   }
   return {
@@ -177,15 +201,18 @@ function curve(isotherms: readonly IIsotherm[], deltaH: number): IEntropyCurve {
 /** ΔS_M(T) for each field change (A/m). */
 export function magneticEntropyChange(set: IIsothermSet, deltaHs: readonly number[], branch?: Branch): IEntropyResult {
   if (deltaHs.length === 0 || deltaHs.some(d => !(d > 0) || !Number.isFinite(d))) {
-    throw new SweepInputError('field changes must be finite numbers > 0 (A/m)');
+    throw new SweepInputError(msg('sweeps.entropy.field-changes', 'Every field change must be a finite number of A/m above 0, and at least one is needed.'));
   }
   const sel = selectBranch(set, branch);
   const warnings = setWarnings(set).concat(sel.warnings);
   const isotherms = sel.isotherms.slice().sort((a, b) => a.T - b.T);
   const notes = [
-    'Maxwell relation: dS_M(T, dH) = mu0 * integral_0^dH (dM/dT)_H dH, finite difference between neighbouring isotherms at their mid temperature',
-    'RC: integral of |dS_M| over the FWHM of |dS_M|(T); RCP = |dS_M|max x FWHM',
-    'sigma from the noise of M estimated by second differences along each isotherm'
+    msg(
+      'sweeps.convention.maxwell',
+      'Maxwell relation: ΔS_M(T, ΔH) = μ0 ∫₀^ΔH (∂M/∂T)_H dH, as a finite difference between neighbouring isotherms at their mid temperature.'
+    ),
+    msg('sweeps.convention.refrigerant-capacity', 'RC: the integral of |ΔS_M| over the FWHM of |ΔS_M|(T); RCP = |ΔS_M|max × FWHM.'),
+    msg('sweeps.convention.entropy-sigma', 'σ from the noise of M, estimated by second differences along each isotherm.')
   ];
   return {
     curves: deltaHs.map(d => curve(isotherms, d)),

@@ -3,11 +3,13 @@
  * modified Arrott iteration (β, γ, Tc; M1 from the line slopes, T1 from the
  * 1/χ0 amplitude), then one nonlinear fit of all points in the window.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { IEquationOfStateStart, IGlobalFit } from './global';
 import { fitEquationOfState } from './global';
 import type { IFitRegion } from './lines';
 import { validateWindow } from './lines';
-import { iterateModifiedArrott } from './map';
+import { iterateModifiedArrott, tcBetaCorrelated } from './map';
 import { selectBranch } from './sets';
 import type { Branch, IIsotherm, IIsothermSet, ISweepConventions } from './types';
 import { conventionsOf, setWarnings } from './types';
@@ -29,7 +31,7 @@ export interface IGlobalOptions {
 export interface IGlobalResult extends IGlobalFit {
   start: IEquationOfStateStart | null;
   conventions: ISweepConventions;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 /** Starting values for the global fit from the modified Arrott iteration. */
@@ -56,20 +58,21 @@ export function globalEquationOfStateFit(set: IIsothermSet, options: IGlobalOpti
   validateWindow(options.region, tMax);
   const start = options.start ?? equationOfStateStart(sel.isotherms, tMax, options.region);
   const notes = [
-    'Arrott-Noakes equation of state (H/M)^(1/gamma) = (T - Tc)/T1 + (M/M1)^(1/beta), fitted to ln M of every point',
-    `window: |t| <= ${tMax} around the starting Tc, H >= ${options.hMin ?? 0} A/m`
+    msg('sweeps.convention.equation-of-state', 'Arrott–Noakes equation of state (H/M)^(1/γ) = (T − Tc)/T1 + (M/M1)^(1/β), fitted to ln M of every point.'),
+    msg('sweeps.convention.eos-window', 'Window: |t| ≤ %1 around the starting Tc, and H ≥ %2 A/m.', tMax, options.hMin ?? 0)
   ];
   if (start === null) {
     const nan = { value: NaN, sigma: NaN };
-    warnings.push('no starting values: the modified Arrott iteration failed; give options.start');
-    return { Tc: nan, beta: nan, gamma: nan, T1: nan, M1: nan, delta: nan, correlationTcBeta: NaN, n: 0, converged: false, reason: 'no starting values', fit: null, start, conventions: conventionsOf(set, notes), warnings };
+    const none = msg('sweeps.eos.no-start', 'The global fit has no start values because the modified Arrott iteration failed: give start values.');
+    warnings.push(none);
+    return { Tc: nan, beta: nan, gamma: nan, T1: nan, M1: nan, delta: nan, correlationTcBeta: NaN, n: 0, converged: false, reason: none, fit: null, start, conventions: conventionsOf(set, notes), warnings };
   }
   const g = fitEquationOfState(sel.isotherms, start, { tMax, hMin: options.hMin });
   if (!g.converged) {
-    warnings.push(`global fit did not converge: ${g.reason}`);
+    warnings.push(msg('sweeps.eos.not-converged', 'The global fit of the equation of state did not converge.'), g.reason);
   }
   if (Number.isFinite(g.correlationTcBeta)) {
-    warnings.push(`Tc and beta are correlated (r = ${g.correlationTcBeta.toFixed(3)}); quote them together`);
+    warnings.push(tcBetaCorrelated(g.correlationTcBeta));
   }
   return { ...g, start, conventions: conventionsOf(set, notes), warnings: warnings.concat(g.fit?.warnings ?? []) };
 }

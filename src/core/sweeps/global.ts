@@ -6,6 +6,9 @@
  * solving the equation (unique root: the residual is strictly decreasing in
  * ln M); the Jacobian follows from the implicit-function theorem.
  */
+import { messageOf, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitResult } from '../fit/index';
 import type { IIsotherm, IValueSigma } from './types';
@@ -31,7 +34,8 @@ export interface IGlobalFit {
   correlationTcBeta: number;
   n: number;
   converged: boolean;
-  reason: string;
+  /** Why the fit stopped (the engine's `fit.stop.*`), or why there is none. */
+  reason: ICoreMessage;
   fit: IFitResult | null;
 }
 
@@ -142,9 +146,9 @@ export function fitEquationOfState(isotherms: readonly IIsotherm[], start: IEqua
   }
   const n = y.length;
   const nan: IValueSigma = { value: NaN, sigma: NaN };
-  const fail = (reason: string): IGlobalFit => ({ Tc: nan, beta: nan, gamma: nan, T1: nan, M1: nan, delta: nan, correlationTcBeta: NaN, n, converged: false, reason, fit: null });
+  const fail = (reason: ICoreMessage): IGlobalFit => ({ Tc: nan, beta: nan, gamma: nan, T1: nan, M1: nan, delta: nan, correlationTcBeta: NaN, n, converged: false, reason, fit: null });
   if (n < 10) {
-    return fail(`only ${n} point(s) in the window`);
+    return fail(msg('sweeps.global.too-few', 'Too few points in the window (%1) for the global fit: at least 10 are needed.', wholeNumber(n)));
   }
   const x = Float64Array.from({ length: n }, (_v, i) => i);
   const model = eosModel(Float64Array.from(lnH), Float64Array.from(T), Float64Array.from(y));
@@ -156,7 +160,7 @@ export function fitEquationOfState(isotherms: readonly IIsotherm[], start: IEqua
       upper: [Infinity, 3, 6, Infinity, Infinity]
     });
   } catch (e) {
-    return fail(`fit refused: ${(e as Error).message}`);
+    return fail(messageOf(e));
   }
   const v = fit.values;
   const se = fit.standardErrors;

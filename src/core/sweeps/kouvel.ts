@@ -6,6 +6,8 @@
  * Y(T) give 1/β, 1/γ and Tc with σ from the line covariance. Local slopes
  * give effective exponents at each T.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { ITemperaturePoint } from './arrott';
 import { fitLine, lineRoot, smoothedDerivative } from '../numeric/linear';
 import type { IValueSigma } from './types';
@@ -20,7 +22,8 @@ export interface IKouvelFisherSide {
   /** Effective exponent from the local slope (two-point) between neighbours, at their mid temperature. */
   effective: { T: number; exponent: number }[];
   n: number;
-  reason: string;
+  /** How the side was fitted, or why it was not (codes `sweeps.kouvel.*`). */
+  reason: ICoreMessage;
 }
 
 /** Kouvel–Fisher exponents on both sides. */
@@ -31,16 +34,16 @@ export interface IKouvelFisherResult {
   Tc: IValueSigma;
   /** Points in each local quadratic. */
   span: number;
-  /** Definitions used (X, Y, derivative smoothing). */
-  convention: string;
-  warnings: string[];
+  /** Definitions used (X, Y, derivative smoothing), code `sweeps.kouvel.convention`. */
+  convention: ICoreMessage;
+  warnings: ICoreMessage[];
 }
 
 function side(points: readonly ITemperaturePoint[], span: number, power: number): IKouvelFisherSide {
   const pts = points.filter(p => Number.isFinite(p.value) && p.value > 0).slice().sort((a, b) => a.T - b.T);
   const nan = { value: NaN, sigma: NaN };
   if (pts.length < 3) {
-    return { points: [], exponent: nan, Tc: nan, effective: [], n: pts.length, reason: `only ${pts.length} point(s): at least 3 are needed` };
+    return { points: [], exponent: nan, Tc: nan, effective: [], n: pts.length, reason: msg('sweeps.kouvel.too-few', 'Too few points (%1) for Kouvel–Fisher on this side of Tc: at least 3 are needed.', pts.length) };
   }
   const T = pts.map(p => p.T);
   // X = Ms/(dMs/dT) = p·y/(dy/dT) with y = Ms^p exactly; a p that makes y nearly linear in T
@@ -64,7 +67,10 @@ function side(points: readonly ITemperaturePoint[], span: number, power: number)
     Tc: root,
     effective,
     n: pts.length,
-    reason: pts.length < 5 ? 'fewer than 5 points: σ from very few degrees of freedom' : 'straight-line fit of X(T)'
+    reason:
+      pts.length < 5
+        ? msg('sweeps.kouvel.few', 'Straight line through fewer than 5 points: its σ rests on very few degrees of freedom.')
+        : msg('sweeps.kouvel.line', 'Straight line through the Kouvel–Fisher points of this side of Tc.')
   };
 }
 
@@ -80,14 +86,14 @@ export function kouvelFisher(
 ): IKouvelFisherResult {
   for (const v of [powers.below, powers.above]) {
     if (!(v > 0) || !Number.isFinite(v)) {
-      throw new SweepInputError(`Kouvel-Fisher smoothing powers must be finite and > 0, got ${v}`);
+      throw new SweepInputError(msg('sweeps.kouvel.powers', 'The smoothing powers of Kouvel–Fisher must be finite numbers above 0, but one is %1.', v));
     }
   }
   const below = side(Ms, span, powers.below);
   const above = side(inverseChi, span, powers.above);
-  const warnings: string[] = [];
+  const warnings: ICoreMessage[] = [];
   if (below.n < 5 || above.n < 5) {
-    warnings.push(`Kouvel-Fisher: ${below.n} point(s) below and ${above.n} above Tc; five or more on each side are advisable`);
+    warnings.push(msg('sweeps.kouvel.few-points', 'Kouvel–Fisher has %1 points below and %2 above Tc, where 5 or more on each side are advisable.', below.n, above.n));
   }
   let Tc: IValueSigma = { value: NaN, sigma: NaN };
   const a = below.Tc;
@@ -100,8 +106,12 @@ export function kouvelFisher(
   } else {
     Tc = Number.isFinite(a.value) ? a : b;
   }
-  const convention =
-    `X = Ms/(dMs/dT) = (T - Tc)/beta, Y = (1/chi0)/(d(1/chi0)/dT) = (T - Tc)/gamma; derivatives from local quadratics through ${span} points ` +
-    `of Ms^${powers.below} and (1/chi0)^${powers.above} (X = p y/(dy/dT) for y = Ms^p, exact for any p); T in K`;
+  const convention = msg(
+    'sweeps.kouvel.convention',
+    'X = Ms/(dMs/dT) = (T − Tc)/β and Y = (1/χ0)/(d(1/χ0)/dT) = (T − Tc)/γ, with derivatives from local quadratics through %1 points of Ms^%2 and (1/χ0)^%3 (X = p·y/(dy/dT) for y = Ms^p, exact for any p); T in K.',
+    span,
+    powers.below,
+    powers.above
+  );
   return { below, above, Tc, span, convention, warnings };
 }

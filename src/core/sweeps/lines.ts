@@ -4,6 +4,8 @@
  * high-field part of each isotherm. β = ½, γ = 1 is the Arrott plot [B5 in REFERENCES.md].
  * c0 > 0 gives Ms = c0^β; x0 = −c0/c1 > 0 gives 1/χ0 = x0^γ [B5, B6 in REFERENCES.md].
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import type { ILineFit } from '../numeric/linear';
 import { fitLine, lineRoot } from '../numeric/linear';
 import type { IIsotherm, IValueSigma } from './types';
@@ -33,17 +35,31 @@ export interface IIsothermLine {
   fit: ILineFit;
 }
 
+/** A value that may not be a number, as a message argument. */
+function shown(v: unknown): number | string {
+  return typeof v === 'number' ? v : String(v);
+}
+
 /** Throws `SweepInputError` for a region or window that cannot select points. */
 export function validateWindow(region: IFitRegion | undefined, tMax?: number): void {
   if (region?.topFraction !== undefined && !(region.topFraction > 0 && region.topFraction <= 1)) {
-    throw new SweepInputError(`region.topFraction must lie in (0, 1], got ${String(region.topFraction)}`);
+    throw new SweepInputError(
+      msg('sweeps.top-fraction-invalid', 'The high-field share of each isotherm must lie above 0 and at most 1, but it is %1.', shown(region.topFraction))
+    );
   }
   if (region?.hMin !== undefined && !Number.isFinite(region.hMin)) {
-    throw new SweepInputError(`region.hMin must be a finite field in A/m, got ${String(region.hMin)}`);
+    throw new SweepInputError(msg('sweeps.h-min-invalid', 'The lowest field of the high-field region must be a finite field in A/m, but it is %1.', shown(region.hMin)));
   }
   if (tMax !== undefined && !(tMax > 0 && Number.isFinite(tMax))) {
-    throw new SweepInputError(`tMax must be a finite number > 0, got ${String(tMax)}`);
+    throw new SweepInputError(msg('sweeps.t-max-invalid', 'The largest |t| of the window must be a finite number above 0, but it is %1.', shown(tMax)));
   }
+}
+
+/** The high-field region as written in the conventions of a result. */
+export function highFieldRegion(region: IFitRegion): ICoreMessage {
+  return region.hMin !== undefined
+    ? msg('sweeps.convention.region-h-min', 'High-field region: H ≥ %1 A/m.', region.hMin)
+    : msg('sweeps.convention.region-share', 'High-field region: the upper %1 % of the field range of each isotherm.', (region.topFraction ?? 0.5) * 100);
 }
 
 /** Indices of the points of an isotherm inside the region (H > 0, M > 0 only). */
@@ -97,7 +113,8 @@ export function isothermLines(isotherms: readonly IIsotherm[], beta: number, gam
 export interface ICrossing {
   Tc: IValueSigma;
   converged: boolean;
-  reason: string;
+  /** How Tc was found, or why it was not (codes `sweeps.crossing.*`), as a sentence that can stand as a warning. */
+  reason: ICoreMessage;
   /** Temperatures of the isotherms either side of the crossing. */
   bracket: [number, number] | null;
 }
@@ -118,7 +135,12 @@ export function interceptCrossing(lines: readonly IIsothermLine[], perSide = 2):
   }
   if (k < 0) {
     const allPos = pts.every(p => p.intercept.value > 0);
-    const reason = pts.length < 2 ? 'fewer than two usable isotherms' : allPos ? 'no zero crossing: every isotherm is below Tc (all intercepts > 0)' : 'no zero crossing: every isotherm is above Tc (all intercepts <= 0)';
+    const reason =
+      pts.length < 2
+        ? msg('sweeps.crossing.too-few', 'Tc was not found: fewer than two isotherms have a usable high-field line.')
+        : allPos
+          ? msg('sweeps.crossing.all-below', 'Tc was not found: every isotherm has a positive intercept, so all of them lie below Tc.')
+          : msg('sweeps.crossing.all-above', 'Tc was not found: no isotherm has a positive intercept, so all of them lie above Tc.');
     return { Tc: { value: NaN, sigma: NaN }, converged: false, reason, bracket: null };
   }
   const lo = Math.max(0, k - perSide + 1);
@@ -134,5 +156,5 @@ export function interceptCrossing(lines: readonly IIsothermLine[], perSide = 2):
     const v = a.T + (a.intercept.value * (b.T - a.T)) / (a.intercept.value - b.intercept.value);
     root = { value: v, sigma: Number.isFinite(root.sigma) ? root.sigma : NaN };
   }
-  return { Tc: root, converged: Number.isFinite(root.value), reason: `line through ${T.length} isotherms around the sign change`, bracket: [pts[k].T, pts[k + 1].T] };
+  return { Tc: root, converged: Number.isFinite(root.value), reason: msg('sweeps.crossing.line', 'Tc from a straight line through %1 isotherms around the sign change of the intercept.', T.length), bracket: [pts[k].T, pts[k + 1].T] };
 }

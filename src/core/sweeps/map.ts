@@ -3,6 +3,8 @@
  * straight high-field lines of M^(1/β) against (H/M)^(1/γ) give Ms(T) and
  * 1/χ0(T); power laws with Tc free give new β, γ, Tc; repeat until stable.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { UNIVERSALITY_CLASSES } from '../physics/universality';
 import type { ITemperaturePoint } from './arrott';
 import type { ICrossing, IFitRegion, IIsothermLine } from './lines';
@@ -55,12 +57,18 @@ export interface IModifiedArrottResult {
   history: IIterationStep[];
   iterations: number;
   converged: boolean;
-  reason: string;
+  /** How the iteration ended (codes `sweeps.map.*`), as a sentence that can stand as a warning. */
+  reason: ICoreMessage;
   conventions: ISweepConventions;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 const HEIS = UNIVERSALITY_CLASSES.find(c => c.id === '3d-heisenberg');
+
+/** The warning that Tc and β (or the exponent fitted with Tc) are correlated by `r`. */
+export function tcBetaCorrelated(r: number): ICoreMessage {
+  return msg('sweeps.tc-beta-correlated', 'Tc and β are correlated (r = %1): quote them together.', { value: r, digits: 3 });
+}
 
 /** σ-weighted mean of two values (plain mean when a σ is missing); σ is the larger of the statistical σ and half their difference. */
 export function combine(a: IValueSigma, b: IValueSigma): IValueSigma {
@@ -114,7 +122,7 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
   const tol = options.tolerance ?? 1e-6;
   let lines = isothermLines(isotherms, beta, gamma, region);
   let first = interceptCrossing(lines);
-  let startNote: string | null = null;
+  let startNote: ICoreMessage | null = null;
   if (!first.converged && options.start === undefined) {
     // the default trial exponents give no intercept crossing: try the other classes of [C2 in REFERENCES.md]
     for (const c of UNIVERSALITY_CLASSES) {
@@ -125,7 +133,13 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
         gamma = c.gamma.value;
         lines = trial;
         first = cross;
-        startNote = `no intercept crossing with 3D Heisenberg trial exponents; started from ${c.name} (beta = ${beta}, gamma = ${gamma})`;
+        startNote = msg(
+          'sweeps.map.other-start',
+          'The 3D Heisenberg exponents gave no sign change of the intercept, so the iteration started from the %1 exponents (β = %2, γ = %3).',
+          c.name,
+          beta,
+          gamma
+        );
         break;
       }
     }
@@ -135,14 +149,22 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
   let MsFit: IPowerFit | null = null;
   let chiFit: IPowerFit | null = null;
   let converged = false;
-  let reason = 'iteration limit reached';
+  let reason = msg('sweeps.map.iteration-limit', 'The modified Arrott iteration reached its limit of %1 steps before the exponents and Tc settled.', maxIt);
+  // The failed power-law fit that stopped the iteration, if one did.
+  let cause: ICoreMessage | null = null;
   let it = 0;
   for (it = 1; it <= maxIt; it++) {
     const pts = windowPoints(lines, Tc, tMin, tMax);
     const fm = fitCriticalPower(pts.ms.map(p => p.T), pts.ms.map(p => p.value), 'below', { Tc, exponent: beta }, pts.ms.map(p => p.sigma));
     const fc = fitCriticalPower(pts.chi.map(p => p.T), pts.chi.map(p => p.value), 'above', { Tc, exponent: gamma }, pts.chi.map(p => p.sigma));
     if (!Number.isFinite(fm.exponent.value) || !Number.isFinite(fc.exponent.value)) {
-      reason = `stopped: ${!Number.isFinite(fm.exponent.value) ? `Ms fit failed (${fm.reason})` : `1/chi0 fit failed (${fc.reason})`}`;
+      if (!Number.isFinite(fm.exponent.value)) {
+        reason = msg('sweeps.map.ms-fit-failed', 'The modified Arrott iteration stopped: the power law of Ms(T) could not be fitted.');
+        cause = fm.reason;
+      } else {
+        reason = msg('sweeps.map.chi-fit-failed', 'The modified Arrott iteration stopped: the power law of 1/χ0(T) could not be fitted.');
+        cause = fc.reason;
+      }
       MsFit = MsFit ?? fm;
       chiFit = chiFit ?? fc;
       break;
@@ -160,18 +182,18 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
     lines = isothermLines(isotherms, beta, gamma, region);
     if (change < tol) {
       converged = true;
-      reason = `exponents and Tc changed by less than ${tol} (relative for Tc)`;
+      reason = msg('sweeps.map.converged', 'The exponents and Tc changed by less than %1 (relative for Tc) in the last step.', { value: tol, digits: 2 });
       break;
     }
   }
-  return { beta, gamma, Tc, lines, MsFit, chiFit, history, iterations: Math.min(it, maxIt), converged, reason, region, tMin, tMax, startNote };
+  return { beta, gamma, Tc, lines, MsFit, chiFit, history, iterations: Math.min(it, maxIt), converged, reason, cause, region, tMin, tMax, startNote };
 }
 
 /** Runs the modified Arrott iteration on a set. */
 export function modifiedArrottIteration(set: IIsothermSet, options: IModifiedArrottOptions = {}): IModifiedArrottResult {
   validateWindow(options.region, options.tMax);
   if (options.start !== undefined && !(options.start.beta > 0 && options.start.gamma > 0)) {
-    throw new SweepInputError(`trial exponents must be > 0, got beta = ${options.start.beta}, gamma = ${options.start.gamma}`);
+    throw new SweepInputError(msg('sweeps.trial-exponents', 'The trial exponents must be above 0, but β = %1 and γ = %2.', options.start.beta, options.start.gamma));
   }
   const sel = selectBranch(set, options.branch);
   const warnings = setWarnings(set).concat(sel.warnings);
@@ -190,25 +212,38 @@ export function modifiedArrottIteration(set: IIsothermSet, options: IModifiedArr
   if (Number.isFinite(TcFromMs.value) && Number.isFinite(TcFromChi.value)) {
     const s = Math.hypot(TcFromMs.sigma, TcFromChi.sigma);
     if (Math.abs(TcFromMs.value - TcFromChi.value) > 3 * s) {
-      warnings.push(`Tc from Ms(T) (${TcFromMs.value}) and from 1/chi0(T) (${TcFromChi.value}) differ by more than 3 sigma`);
+      warnings.push(
+        msg('sweeps.map.tc-disagree', 'Tc from Ms(T) (%1 K) and Tc from 1/χ0(T) (%2 K) differ by more than 3σ.', { value: TcFromMs.value, digits: 6 }, { value: TcFromChi.value, digits: 6 })
+      );
     }
   }
   if (r.startNote !== null) {
     warnings.push(r.startNote);
   }
   if (!r.converged) {
-    warnings.push(`modified Arrott iteration did not converge: ${r.reason}`);
+    warnings.push(r.reason);
+    if (r.cause !== null) {
+      warnings.push(r.cause);
+    }
   }
   const pts = windowPoints(r.lines, r.Tc, r.tMin, r.tMax);
   if (pts.ms.length < 4 || pts.chi.length < 4) {
-    warnings.push(`too few isotherms in the window |t| <= ${r.tMax}: ${pts.ms.length} below and ${pts.chi.length} above Tc`);
+    warnings.push(
+      msg(
+        'sweeps.map.few-in-window',
+        'Too few isotherms in the window |t| ≤ %1: %2 below and %3 above Tc, where 4 or more on each side are advisable.',
+        r.tMax,
+        pts.ms.length,
+        pts.chi.length
+      )
+    );
   }
   if (fm && Number.isFinite(fm.correlationTcExponent)) {
-    warnings.push(`Tc and beta are correlated (r = ${fm.correlationTcExponent.toFixed(3)}); quote them together`);
+    warnings.push(tcBetaCorrelated(fm.correlationTcExponent));
   }
   const notes = [
-    'modified Arrott plot: y = M^(1/beta) against x = (H/M)^(1/gamma); Ms = c0^beta, 1/chi0 = (-c0/c1)^gamma',
-    `power laws Ms = M0(-t)^beta and 1/chi0 = G t^gamma fitted with Tc free over ${r.tMin} <= |t| <= ${r.tMax}`
+    msg('sweeps.convention.modified-arrott', 'Modified Arrott plot: M^(1/β) against (H/M)^(1/γ); Ms = c0^β and 1/χ0 = (−c0/c1)^γ.'),
+    msg('sweeps.convention.power-laws', 'Power laws Ms = M0(−t)^β and 1/χ0 = G·t^γ fitted with Tc free over %1 ≤ |t| ≤ %2.', r.tMin, r.tMax)
   ];
   return {
     beta,

@@ -4,6 +4,8 @@
  *   below Tc: Ms = M0 (−t)^β        above Tc: 1/χ0 = G t^γ,   t = (T − Tc)/Tc.
  * Tc is bounded to lie above (below) every temperature used.
  */
+import { messageOf, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitResult } from '../fit/index';
 import type { IValueSigma } from './types';
@@ -17,7 +19,8 @@ export interface IPowerFit {
   correlationTcExponent: number;
   n: number;
   converged: boolean;
-  reason: string;
+  /** Why the fit stopped (the engine's `fit.stop.*`), or why there is none. */
+  reason: ICoreMessage;
   fit: IFitResult | null;
 }
 
@@ -50,7 +53,7 @@ function model(side: 'below' | 'above'): IFitModel {
   };
 }
 
-const failed = (n: number, reason: string): IPowerFit => ({
+const failed = (n: number, reason: ICoreMessage): IPowerFit => ({
   amplitude: { value: NaN, sigma: NaN },
   Tc: { value: NaN, sigma: NaN },
   exponent: { value: NaN, sigma: NaN },
@@ -71,7 +74,7 @@ export function fitCriticalPower(
 ): IPowerFit {
   const n = T.length;
   if (n < 4) {
-    return failed(n, `only ${n} point(s): at least 4 are needed for amplitude, Tc and exponent`);
+    return failed(n, msg('sweeps.power-fit.too-few', 'Too few points (%1) for a power law: at least 4 are needed for the amplitude, Tc and the exponent.', n));
   }
   let tMax = -Infinity;
   let tMin = Infinity;
@@ -110,7 +113,7 @@ export function fitCriticalPower(
     const useSigma = sigma !== undefined && sigma.length === n && sigma.every(v => v > 0 && Number.isFinite(v));
     fit = fitCurve(model(side), useSigma ? { x: T, y, sigma } : { x: T, y }, { start: s0, lower, upper });
   } catch (e) {
-    return failed(n, `fit refused: ${(e as Error).message}`);
+    return failed(n, messageOf(e));
   }
   // with per-point σ, errors are scaled up by √χ²_red when the scatter exceeds σ
   const scale = fit.errorScaling === 'from-sigma' ? Math.sqrt(Math.max(1, fit.reducedChi2)) : 1;

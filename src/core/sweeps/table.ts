@@ -5,6 +5,9 @@
  * field steps in row order), converted to SI, normalised by sample mass /
  * molar mass / density, and corrected for demagnetisation when N_d is given.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { massFromMolar, readColumnUnit, toSI } from '../units/index';
 import type { INeedsUnit, IUnitConversion, IUnitRefusal } from '../units/index';
 import type { IDemagnetisingFactor } from './demag';
@@ -46,7 +49,8 @@ export interface IIsothermTableInput {
 export interface INeedsSample {
   status: 'needs-sample';
   parameter: keyof ISampleInfo;
-  message: string;
+  /** Which sample parameter is needed and why (codes `sweeps.needs-*`). */
+  message: ICoreMessage;
 }
 
 /** Outcome of building an isotherm family. */
@@ -130,14 +134,26 @@ function resolve(col: ISweepColumn, role: 'temperature' | 'field' | 'magnetisati
 export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer {
   const n = input.temperature.values.length;
   if (input.field.values.length !== n || input.magnetisation.values.length !== n) {
-    throw new SweepInputError(`columns differ in length (T ${n}, H ${input.field.values.length}, M ${input.magnetisation.values.length})`);
+    throw new SweepInputError(
+      msg(
+        'sweeps.column-lengths',
+        'The columns differ in length (T %1, H %2, M %3 rows): give one value of each per row.',
+        wholeNumber(n),
+        wholeNumber(input.field.values.length),
+        wholeNumber(input.magnetisation.values.length)
+      )
+    );
   }
   if (input.branch !== undefined && input.branch.values.length !== n) {
-    throw new SweepInputError(`branch column has ${input.branch.values.length} rows, expected ${n}`);
+    throw new SweepInputError(
+      msg('sweeps.branch-column-length', 'The branch column has %1 rows, but the other columns have %2.', wholeNumber(input.branch.values.length), wholeNumber(n))
+    );
   }
   const tol = input.temperatureTolerance ?? 0.5;
   if (!(tol >= 0) || !Number.isFinite(tol)) {
-    throw new SweepInputError(`temperatureTolerance must be a finite number >= 0 K, got ${String(tol)}`);
+    throw new SweepInputError(
+      msg('sweeps.tolerance-invalid', 'The temperature grouping tolerance must be a finite number of kelvin, at least 0, but it is %1.', typeof tol === 'number' ? tol : String(tol))
+    );
   }
   const uT = resolve(input.temperature, 'temperature', input.unitOverrides);
   const uH = resolve(input.field, 'field', input.unitOverrides);
@@ -151,32 +167,47 @@ export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer 
   const cH = uH as IUnitConversion;
   const cM = uM as IUnitConversion;
   const sample = input.sample ?? {};
-  const warnings: string[] = [];
-  const conventions: string[] = [`temperature from ${cT.userUnit} to K`, `field from ${cH.userUnit} to A/m (${cH.fieldForm === 'mu0H' ? 'mu0H divided by mu0, CODATA 2018' : 'H'})`];
+  const warnings: ICoreMessage[] = [];
+  const conventions: ICoreMessage[] = [
+    msg('sweeps.convention.temperature-unit', 'Temperatures converted from %1 to K.', cT.userUnit),
+    cH.fieldForm === 'mu0H'
+      ? msg('sweeps.convention.field-unit-mu0h', 'Fields converted from %1 to A/m (μ0H divided by μ0, CODATA 2018).', cH.userUnit)
+      : msg('sweeps.convention.field-unit', 'Fields converted from %1 to A/m.', cH.userUnit)
+  ];
   let M = toSI(numeric(input.magnetisation), cM);
   let unit: 'A/m' | 'A m^2/kg' = 'A m^2/kg';
   if (cM.basis === 'moment') {
     if (sample.massKg === undefined) {
-      return { status: 'needs-sample', parameter: 'massKg', message: `column "${cM.column}" is a moment (${cM.userUnit}); the sample mass is needed to normalise it` };
+      return {
+        status: 'needs-sample',
+        parameter: 'massKg',
+        message: msg('sweeps.needs-mass', 'Column “%1” holds a moment (%2): the sample mass is needed to normalise it.', cM.column, cM.userUnit)
+      };
     }
     if (!(sample.massKg > 0)) {
-      throw new SweepInputError(`sample mass must be > 0 kg, got ${sample.massKg}`);
+      throw new SweepInputError(msg('sweeps.mass-invalid', 'The sample mass must be above 0 kg, but it is %1 kg.', sample.massKg));
     }
     M = M.map(v => v / (sample.massKg as number));
-    conventions.push(`moment divided by the sample mass ${sample.massKg} kg`);
+    conventions.push(msg('sweeps.convention.per-mass', 'Moments divided by the sample mass, %1 kg.', { value: sample.massKg, digits: 6 }));
   } else if (cM.basis === 'molar') {
     if (sample.molarMassKgPerMol === undefined) {
-      return { status: 'needs-sample', parameter: 'molarMassKgPerMol', message: `column "${cM.column}" is per mole / formula unit (${cM.userUnit}); the molar mass is needed` };
+      return {
+        status: 'needs-sample',
+        parameter: 'molarMassKgPerMol',
+        message: msg('sweeps.needs-molar-mass', 'Column “%1” is per mole or per formula unit (%2): the molar mass is needed to normalise it.', cM.column, cM.userUnit)
+      };
     }
     M = massFromMolar(M, sample.molarMassKgPerMol);
-    conventions.push(`per formula unit converted with molar mass ${sample.molarMassKgPerMol} kg/mol (N_A muB, CODATA 2018)`);
+    conventions.push(
+      msg('sweeps.convention.per-formula-unit', 'Values per formula unit converted with the molar mass %1 kg/mol (N_A·μB, CODATA 2018).', { value: sample.molarMassKgPerMol, digits: 6 })
+    );
   } else if (cM.basis === 'volume') {
     unit = 'A/m';
   }
   if (unit === 'A m^2/kg' && sample.densityKgPerM3 !== undefined) {
     M = volumeMagnetisation(M, sample.densityKgPerM3);
     unit = 'A/m';
-    conventions.push(`volume magnetisation = mass magnetisation x density ${sample.densityKgPerM3} kg/m^3`);
+    conventions.push(msg('sweeps.convention.volume', 'Volume magnetisation = mass magnetisation × density %1 kg/m³.', { value: sample.densityKgPerM3, digits: 6 }));
   }
   const Ha = toSI(numeric(input.field), cH);
   let H = Ha;
@@ -184,10 +215,14 @@ export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer 
   if (input.demag !== undefined) {
     nSI = demagnetisingFactorSI(input.demag);
     if (unit !== 'A/m') {
-      return { status: 'needs-sample', parameter: 'densityKgPerM3', message: 'the demagnetisation correction needs a volume magnetisation: give the sample density' };
+      return {
+        status: 'needs-sample',
+        parameter: 'densityKgPerM3',
+        message: msg('sweeps.needs-density', 'The demagnetisation correction needs a volume magnetisation: give the sample density.')
+      };
     }
     H = Ha.map((h, i) => h - (nSI as number) * M[i]);
-    conventions.push(`internal field H_int = H_a - N_d M with N_d(SI) = ${nSI}`);
+    conventions.push(msg('sweeps.convention.internal-field', 'Internal field H_int = H_a − N_d·M with N_d (SI) = %1.', { value: nSI, digits: 6 }));
   } else {
     warnings.push(DEMAG_UNSET_WARNING);
   }
@@ -202,7 +237,7 @@ export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer 
     }
   }
   if (dropped > 0) {
-    warnings.push(`${dropped} row(s) with a missing or non-finite T, H or M were left out`);
+    warnings.push(msg('sweeps.rows-dropped', 'Rows left out for a missing or non-finite T, H or M: %1.', wholeNumber(dropped)));
   }
   const group = groupTemperatures(T, valid, tol);
   const groups = new Map<number, number[]>();
@@ -239,7 +274,14 @@ export function buildIsothermSet(input: IIsothermTableInput): IsothermSetAnswer 
         rows: sel
       });
       if (tMax - tMin > 2 * tol && tol > 0) {
-        warnings.push(`isotherm near ${(tSum / sel.length).toFixed(3)} K spans ${(tMax - tMin).toFixed(3)} K (> 2x the grouping tolerance); temperatures may not be on setpoints`);
+        warnings.push(
+          msg(
+            'sweeps.isotherm-spread',
+            'The isotherm near %1 K spans %2 K, more than twice the grouping tolerance: its temperatures may not be on one setpoint.',
+            { value: tSum / sel.length, digits: 6 },
+            tMax - tMin
+          )
+        );
       }
     }
   }

@@ -2,6 +2,8 @@
  * Data model of field sweeps: a family of M(H) isotherms in SI units, with
  * the conventions used to build it and the warnings collected on the way.
  */
+import { CoreMessageError, msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 
 /** A value with its standard uncertainty σ (NaN when unknown). */
 export interface IValueSigma {
@@ -44,33 +46,36 @@ export interface IIsothermSet {
   /** Demagnetising factor used (SI, 0..1), or null when unset. */
   demagnetisingFactorSI: number | null;
   display: IDisplayUnits;
-  conventions: string[];
-  warnings: string[];
+  /** How the table was read: unit conversions, normalisations, the field correction (codes `sweeps.convention.*`). */
+  conventions: ICoreMessage[];
+  /** What limits every analysis of the set (codes `sweeps.*`). */
+  warnings: ICoreMessage[];
 }
 
-/** Invalid input to a sweep analysis (thrown at the boundary with a precise message). */
-export class SweepInputError extends Error {
-  constructor(message: string) {
-    super(message);
+/** Invalid input to a sweep analysis (thrown at the boundary; `detail` holds the message, codes `sweeps.*`). */
+export class SweepInputError extends CoreMessageError {
+  constructor(detail: ICoreMessage) {
+    super(detail);
     this.name = 'SweepInputError';
   }
 }
 
 /** Field and temperature conventions written into every analysis result. */
 export interface ISweepConventions {
-  /** Reduced temperature definition. */
-  t: string;
+  /** Reduced temperature definition (code `sweeps.convention.t`). */
+  t: ICoreMessage;
   /** 'internal' or 'applied' field. */
   field: 'internal' | 'applied';
   units: { T: 'K'; H: 'A/m'; M: 'A/m' | 'A m^2/kg' };
-  notes: string[];
+  /** How the analysis was done (plots, fitted forms, windows). */
+  notes: ICoreMessage[];
 }
 
 /** Standard text of the reduced temperature used throughout. */
-export const T_CONVENTION = 't = (T - Tc)/Tc, negative in the ordered phase';
+export const T_CONVENTION: ICoreMessage = Object.freeze(msg('sweeps.convention.t', 't = (T − Tc)/Tc, negative in the ordered phase.'));
 
 /** Conventions block for a set. */
-export function conventionsOf(set: IIsothermSet, notes: string[] = []): ISweepConventions {
+export function conventionsOf(set: IIsothermSet, notes: ICoreMessage[] = []): ISweepConventions {
   return {
     t: T_CONVENTION,
     field: set.fieldKind,
@@ -80,15 +85,32 @@ export function conventionsOf(set: IIsothermSet, notes: string[] = []): ISweepCo
 }
 
 /** The plain warning every Arrott-type analysis carries while N_d is unset. */
-export const DEMAG_UNSET_WARNING =
-  'demagnetising factor N_d is not set: the field is the applied field, not the internal field. ' +
-  'Low-field curvature of Arrott isotherms, a shifted Tc and a wrong delta can follow.';
+export const DEMAG_UNSET_WARNING: ICoreMessage = Object.freeze(
+  msg(
+    'sweeps.demag-unset',
+    'The demagnetising factor N_d is not set, so the field is the applied field, not the internal one. Arrott isotherms may then curve at low field, and Tc and δ may come out shifted: give N_d.'
+  )
+);
 
 /** Warnings inherited by every analysis of a set. */
-export function setWarnings(set: IIsothermSet): string[] {
+export function setWarnings(set: IIsothermSet): ICoreMessage[] {
   const out = set.warnings.slice();
-  if (set.fieldKind === 'applied' && !out.includes(DEMAG_UNSET_WARNING)) {
+  if (set.fieldKind === 'applied' && !out.some(w => w.code === DEMAG_UNSET_WARNING.code)) {
     out.push(DEMAG_UNSET_WARNING);
+  }
+  return out;
+}
+
+/** The messages without repeats (same code and arguments), in their first order. */
+export function uniqueMessages(messages: readonly ICoreMessage[]): ICoreMessage[] {
+  const seen = new Set<string>();
+  const out: ICoreMessage[] = [];
+  for (const m of messages) {
+    const key = `${m.code}\u0000${JSON.stringify(m.args)}`;
+    if (!seen.has(key)) {
+      seen.add(key);
+      out.push(m);
+    }
   }
   return out;
 }

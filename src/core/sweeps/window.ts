@@ -3,6 +3,8 @@
  * Arrott iteration and/or the global equation-of-state fit repeated over a
  * grid of (t_max, H_min), each cell with σ, convergence and reason.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { criticalIsotherm } from './critical';
 import { fitEquationOfState } from './global';
 import { kouvelFisher } from './kouvel';
@@ -30,7 +32,8 @@ export interface IExponentWindowCell {
   /** Isotherms (iteration) or points (global) used. */
   n: number;
   converged: boolean;
-  reason: string;
+  /** How this cell's iteration or fit ended (codes `sweeps.map.*`, `fit.stop.*`, `sweeps.window.no-start` …). */
+  reason: ICoreMessage;
 }
 
 /** Options of {@link exponentWindowScan}. */
@@ -47,7 +50,7 @@ export interface IWindowScanOptions {
 export interface IExponentWindowScan {
   cells: IExponentWindowCell[];
   conventions: ISweepConventions;
-  warnings: string[];
+  warnings: ICoreMessage[];
 }
 
 function widom(beta: IValueSigma, gamma: IValueSigma): IValueSigma {
@@ -60,11 +63,11 @@ function widom(beta: IValueSigma, gamma: IValueSigma): IValueSigma {
 /** Runs every (t_max, H_min) cell with each requested method. */
 export function exponentWindowScan(set: IIsothermSet, options: IWindowScanOptions): IExponentWindowScan {
   if (options.tMaxs.length === 0 || options.hMins.length === 0) {
-    throw new SweepInputError('exponentWindowScan needs at least one tMax and one hMin');
+    throw new SweepInputError(msg('sweeps.window-scan-empty', 'The window scan needs at least one largest |t| and one lowest field.'));
   }
   for (const t of options.tMaxs) {
     if (!(t > 0)) {
-      throw new SweepInputError(`tMax values must be > 0, got ${t}`);
+      throw new SweepInputError(msg('sweeps.t-max-invalid', 'The largest |t| of the window must be a finite number above 0, but it is %1.', t));
     }
   }
   const sel = selectBranch(set, options.branch);
@@ -102,7 +105,7 @@ export function exponentWindowScan(set: IIsothermSet, options: IWindowScanOption
       if (methods.includes('global')) {
         const start = equationOfStateStart(sel.isotherms, tMax, region);
         if (start === null) {
-          cells.push({ tMax, hMin, method: 'global', beta: nan, gamma: nan, Tc: nan, delta: nan, deltaCriticalIsotherm: nan, kouvelFisherBeta: nan, kouvelFisherGamma: nan, n: 0, converged: false, reason: 'no starting values from the iteration' });
+          cells.push({ tMax, hMin, method: 'global', beta: nan, gamma: nan, Tc: nan, delta: nan, deltaCriticalIsotherm: nan, kouvelFisherBeta: nan, kouvelFisherGamma: nan, n: 0, converged: false, reason: msg('sweeps.window.no-start', 'No start values for the global fit: the modified Arrott iteration failed in this window.') });
         } else {
           const g = fitEquationOfState(sel.isotherms, start, { tMax, hMin });
           const dCrit = Number.isFinite(g.Tc.value) ? criticalIsotherm(sel.isotherms, g.Tc.value, { hMin }).delta : nan;
@@ -111,6 +114,11 @@ export function exponentWindowScan(set: IIsothermSet, options: IWindowScanOption
       }
     }
   }
-  const notes = ['each cell: Tc free; |t| from the cell\'s own Tc estimate; H_min applies to the high-field lines (iteration) or to every point (global)'];
+  const notes = [
+    msg(
+      'sweeps.convention.window-scan',
+      'In each cell Tc is free and |t| is measured from that cell’s own Tc; the lowest field applies to the high-field lines (iteration) or to every point (global fit).'
+    )
+  ];
   return { cells, conventions: conventionsOf(set, notes), warnings };
 }

@@ -5,6 +5,7 @@
  * Material constants Tc = 300 K, T1 = 5 K, M1 = 1e5 A/m are arbitrary.
  */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { bootstrapModifiedArrott, collapseCost, exponentWindowScan, globalEquationOfStateFit, modifiedArrottIteration, scalingCollapse, solveEquationOfState } from '../../../src/core/sweeps/index';
 import { anField, anSet, linspace } from './generators';
 
@@ -32,7 +33,7 @@ describe('Arrott–Noakes equation of state', () => {
       expect(Math.abs(r.Tc.value - P.Tc) / P.Tc).toBeLessThan(1e-3);
       expect(r.beta.sigma).toBeGreaterThan(0);
       expect(r.gamma.sigma).toBeGreaterThan(0);
-      expect(r.conventions.t).toContain('(T - Tc)/Tc');
+      expect(messageText(r.conventions.t)).toContain('(T − Tc)/Tc');
     });
 
     it(`global fit of all points: beta, gamma within 0.01, Tc within 0.1 % (seed ${seed})`, () => {
@@ -46,7 +47,7 @@ describe('Arrott–Noakes equation of state', () => {
       // σ from the covariance: the truth lies within 5 σ
       expect(Math.abs(g.beta.value - P.beta)).toBeLessThan(5 * g.beta.sigma);
       expect(Math.abs(g.delta.value - (1 + P.gamma / P.beta))).toBeLessThan(0.05);
-      expect(g.warnings.some(w => w.includes('correlated'))).toBe(true);
+      expect(g.warnings.some(w => w.code === 'sweeps.tc-beta-correlated')).toBe(true);
     });
   }
 

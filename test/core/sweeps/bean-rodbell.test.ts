@@ -4,6 +4,7 @@
  * negative Arrott slopes must be flagged; η = 0.5 is second order, none flagged.
  */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { arrottAnalysis, banerjeeEvidence, isothermSetFromArrays, magneticEntropyChange } from '../../../src/core/sweeps/index';
 import { beanRodbellSet, linspace, normal } from './generators';
 
@@ -18,16 +19,17 @@ describe('Banerjee criterion as evidence', () => {
     // the field-induced transition lies above Tc/T0 = 1.0557369245 (C5)
     expect(Math.min(...flagged)).toBeGreaterThan(1.0557);
     expect(a.banerjee.isotherms.find(i => Math.abs(i.T - 1.0057) < 1e-9)?.negative).toBe(false);
-    expect(a.banerjee.evidence).toContain('consistent with b < 0');
+    expect(a.banerjee.evidence.code).toBe('sweeps.banerjee.negative');
+    expect(messageText(a.banerjee.evidence)).toContain('consistent with b < 0');
     expect(a.banerjee.caveats.length).toBeGreaterThanOrEqual(3);
-    expect(a.banerjee.caveats.join(' ')).toContain('demagnetisation');
+    expect(a.banerjee.caveats.map(messageText).join(' ')).toContain('demagnetisation');
   });
 
   it('eta = 0.5: no isotherm flagged', () => {
     const set = beanRodbellSet(0.5, linspace(0.95, 1.1, 11), hs);
     const a = arrottAnalysis(set);
     expect(a.banerjee.negativeCount).toBe(0);
-    expect(a.banerjee.evidence).toContain('does not prove');
+    expect(a.banerjee.evidence.code).toBe('sweeps.banerjee.none');
   });
 
   it('noise alone does not flag a positive-slope isotherm (common practice, no source: 3-sigma threshold)', () => {
@@ -56,10 +58,10 @@ describe('Banerjee criterion as evidence', () => {
     const taus = linspace(1.0, 1.1, 21);
     const fields = linspace(0, 0.02, 41);
     const first = magneticEntropyChange(beanRodbellSet(2, taus, fields), [0.02]).curves[0];
-    const flagged = first.warnings.filter(w => w.includes('straddle a discontinuity'));
+    const flagged = first.warnings.filter(w => w.code === 'sweeps.entropy.jump');
     expect(flagged.length).toBeGreaterThan(0);
-    expect(flagged[0]).toContain('1.0525');
+    expect(messageText(flagged[0])).toContain('between 1.0525 K and');
     const second = magneticEntropyChange(beanRodbellSet(0.5, taus, fields), [0.02]).curves[0];
-    expect(second.warnings.filter(w => w.includes('discontinuity'))).toEqual([]);
+    expect(second.warnings.filter(w => w.code === 'sweeps.entropy.jump')).toEqual([]);
   });
 });

@@ -44,8 +44,10 @@ describe('long-format CSV to isotherm analysis', () => {
     expect(built.set.isotherms.filter(i => i.branch === 'up').length).toBe(13);
     expect(built.set.isotherms.filter(i => i.branch === 'down').length).toBe(13);
     const a = arrottAnalysis(built.set);
-    expect(a.warnings.some(w => w.includes('up branch'))).toBe(true);
-    expect(a.warnings.some(w => w.includes('N_d is not set'))).toBe(true);
+    expect(a.warnings.some(w => w.code === 'sweeps.up-branch-used')).toBe(true);
+    expect(a.warnings.some(w => w.code === 'sweeps.demag-unset')).toBe(true);
+    // each warning once, though every analysis of the set carries the N_d one
+    expect(a.warnings.filter(w => w.code === 'sweeps.demag-unset')).toHaveLength(1);
     expect(Math.abs(a.Tc.value - Tc)).toBeLessThan(0.3);
     expect(a.conventions.units).toEqual({ T: 'K', H: 'A/m', M: 'A m^2/kg' });
   });

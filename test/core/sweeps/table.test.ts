@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { branchHysteresis, buildIsothermSet, DEMAG_UNSET_WARNING, isothermSetFromArrays, selectBranch, SweepInputError } from '../../../src/core/sweeps/index';
 import type { IIsothermSet, ISweepColumn } from '../../../src/core/sweeps/index';
 import { mulberry32 } from './generators';
@@ -73,7 +74,7 @@ describe('long-format M(H, T) tables (REFERENCE.md A3)', () => {
     expect(fine.isotherms.length).toBeGreaterThan(6);
     const coarse = okSet(buildIsothermSet({ temperature: col('T', 'K', t.T), field: col('H', 'Oe', t.H), magnetisation: col('M', 'emu/g', t.M), temperatureTolerance: 15 }));
     expect(coarse.isotherms.filter(i => i.branch === 'up').length).toBe(1);
-    expect(coarse.warnings.some(w => w.includes('spans'))).toBe(false);
+    expect(coarse.warnings.some(w => w.code === 'sweeps.isotherm-spread')).toBe(false);
   });
 
   it('degrees C are converted to kelvin before grouping', () => {
@@ -95,6 +96,7 @@ describe('long-format M(H, T) tables (REFERENCE.md A3)', () => {
     expect(noMass.status).toBe('needs-sample');
     if (noMass.status === 'needs-sample') {
       expect(noMass.parameter).toBe('massKg');
+      expect(noMass.message.code).toBe('sweeps.needs-mass');
     }
     const noMw = buildIsothermSet({ ...base, magnetisation: col('M', 'muB/fu', [1, 2]) });
     expect(noMw.status === 'needs-sample' && noMw.parameter === 'molarMassKgPerMol').toBe(true);
@@ -137,7 +139,7 @@ describe('long-format M(H, T) tables (REFERENCE.md A3)', () => {
   it('edge inputs: NaN rows are dropped with a warning; empty tables give no isotherms; mismatched lengths throw', () => {
     const set = okSet(buildIsothermSet({ temperature: col('T', 'K', [10, NaN, 10, 10]), field: col('H', 'Oe', [1, 2, Infinity, 3]), magnetisation: col('M', 'emu/g', [1, 2, 3, 4]) }));
     expect(set.isotherms.reduce((s, i) => s + i.H.length, 0)).toBe(2);
-    expect(set.warnings.some(w => w.includes('2 row(s)'))).toBe(true);
+    expect(set.warnings.some(w => w.code === 'sweeps.rows-dropped' && messageText(w) === 'Rows left out for a missing or non-finite T, H or M: 2.')).toBe(true);
     const empty = okSet(buildIsothermSet({ temperature: col('T', 'K', []), field: col('H', 'Oe', []), magnetisation: col('M', 'emu/g', []) }));
     expect(empty.isotherms.length).toBe(0);
     expect(() => buildIsothermSet({ temperature: col('T', 'K', [1]), field: col('H', 'Oe', [1, 2]), magnetisation: col('M', 'emu/g', [1]) })).toThrow(SweepInputError);
