@@ -23,6 +23,7 @@ interface ILocator {
   locator(selector: string, options?: Record<string, unknown>): ILocator;
   selectOption(value: string): Promise<unknown>;
   fill(text: string): Promise<void>;
+  press(key: string): Promise<void>;
   waitFor(options?: Record<string, unknown>): Promise<void>;
 }
 interface IPage {
@@ -57,7 +58,9 @@ async function main(): Promise<void> {
     const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
     await panel.locator('.jp-psiscape-ChartView svg').first().waitFor({ timeout: 60000 });
     await panel.locator('input.jp-psiscape-fit-min').fill('250');
+    await panel.locator('input.jp-psiscape-fit-min').press('Tab');
     await panel.locator('input.jp-psiscape-fit-max').fill('286');
+    await panel.locator('input.jp-psiscape-fit-max').press('Tab');
     // Measured in the page: from the click event to the frame after the verdict and the curve are in the DOM.
     const clickToResult = (): Promise<number> =>
       page.evaluate(

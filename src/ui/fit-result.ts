@@ -21,6 +21,8 @@ export interface IOutcomeView {
   /** Whether the outcome belongs to the data and controls now chosen. */
   current: boolean;
   running: boolean;
+  /** The kind now chosen: a previous result of another kind is not shown at all. */
+  currentKind: string;
   onExploreLandau: ((k: NonNullable<IAnalysisOutcome['landau']>) => void) | null;
 }
 
@@ -46,8 +48,10 @@ function headline(trans: TranslationBundle, state: VerdictState): string {
 export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
   const { trans, outcome } = view;
   box.replaceChildren();
-  box.classList.toggle('jp-psiscape-mod-previous', outcome !== null && !view.current);
-  if (!outcome) {
+  // Another kind's numbers are never left under a new error or a running fit.
+  const shown = outcome !== null && (view.current || outcome.kind === view.currentKind) ? outcome : null;
+  box.classList.toggle('jp-psiscape-mod-previous', shown !== null && !view.current);
+  if (!shown || !outcome) {
     return;
   }
   const fit = outcome.fit;

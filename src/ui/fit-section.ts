@@ -116,6 +116,7 @@ export class FitSection extends Widget {
       outcome: s.outcome,
       current: s.outcomeIsCurrent,
       running,
+      currentKind: s.kind,
       onExploreLandau: this._onExploreLandau
     });
   }

@@ -15,13 +15,13 @@ test('a Weiss fit runs in a worker and reports Tc with its standard error', asyn
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   assert.equal(await panel.locator('select.jp-psiscape-sigma option:checked').textContent(), 'sigma_M (emu/g)');
-  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('weiss');
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('weiss');
   const workers = [];
   page.on('worker', w => workers.push(w.url()));
   await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
   await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
   assert.ok(workers.length >= 1, 'the fit ran in a Web Worker');
-  assert.match(await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-ok').textContent(), /^Converged/);
+  assert.ok(['fits', 'does-not-describe'].includes(await panel.locator('.jp-psiscape-FitSection .jp-psiscape-verdict').getAttribute('data-verdict')), 'a converged fit with a verdict');
   const tc = await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
   // The demo notebook draws its data from a spin-½ Weiss curve with Tc = 287.4 K (demo/generate_notebooks.py).
   const m = /^([\d.]+) ± ([\d.]+)$/.exec(tc);
@@ -36,13 +36,17 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   const section = panel.locator('.jp-psiscape-FitSection');
-  await section.locator('select.jp-psiscape-fit-model').selectOption('power-law');
+  await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
   await section.locator('input.jp-psiscape-fit-min').fill('250');
+  await section.locator('input.jp-psiscape-fit-min').press('Tab');
   await section.locator('input.jp-psiscape-fit-max').fill('286');
+  await section.locator('input.jp-psiscape-fit-max').press('Tab');
   await section.locator('button.jp-psiscape-fit-run').click();
   // the result table of this fit has a beta row (the Weiss fit's has none)
   await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 60000 });
-  assert.match(await section.locator('.jp-psiscape-fit-ok').textContent(), /^Converged/);
+  // Acceptance: the 250–286 K window of the demo is shown as fitting the data.
+  assert.equal(await section.locator('.jp-psiscape-verdict').getAttribute('data-verdict'), 'fits');
+  assert.match(await section.locator('.jp-psiscape-verdict').textContent(), /Describes the data/);
   const read = async label => {
     const text = await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: label }).first().locator('td').nth(1).textContent();
     const m = /^([\d.]+) ± ([\d.]+)$/.exec(text);
@@ -69,12 +73,55 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
 });
 
+test('the power law over the whole demo range is shown as not describing the data, with χ²_red', async () => {
+  const { page } = suite.lab;
+  const section = page.locator('.jp-psiscape-AnalysisPanel').last().locator('.jp-psiscape-FitSection');
+  await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
+  // Empty window fields: the whole range of the data (20–340 K in the demo).
+  await section.locator('input.jp-psiscape-fit-min').fill('');
+  await section.locator('input.jp-psiscape-fit-min').press('Tab');
+  await section.locator('input.jp-psiscape-fit-max').fill('');
+  await section.locator('input.jp-psiscape-fit-max').press('Tab');
+  await section.locator('button.jp-psiscape-fit-run').click();
+  await page.waitForFunction(() => document.querySelector('.jp-psiscape-FitSection')?.getAttribute('data-run-phase') === 'done');
+  const verdict = section.locator('.jp-psiscape-verdict');
+  assert.equal(await verdict.getAttribute('data-verdict'), 'does-not-describe');
+  const text = await verdict.textContent();
+  assert.match(text, /does not describe the data/);
+  assert.match(text, /χ²_red = \d/);
+  assert.equal(await section.locator('.jp-psiscape-verdict.jp-psiscape-verdict-fits').count(), 0, 'never the success style');
+  await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
+  await screenshot(page, 'fit-power-law-whole-range-light');
+});
+
+test('a failed fit never shows another kind’s table', async () => {
+  const { page } = suite.lab;
+  const section = page.locator('.jp-psiscape-AnalysisPanel').last().locator('.jp-psiscape-FitSection');
+  await section.locator('select.jp-psiscape-fit-kind').selectOption('weiss');
+  await section.locator('input.jp-psiscape-fit-min').fill('');
+  await section.locator('input.jp-psiscape-fit-min').press('Tab');
+  await section.locator('button.jp-psiscape-fit-run').click();
+  await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Ms/ }).waitFor({ timeout: 60000 });
+  await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
+  await section.locator('input.jp-psiscape-fit-min').fill('100');
+  await section.locator('input.jp-psiscape-fit-min').press('Tab');
+  await section.locator('input.jp-psiscape-fit-max').fill('105');
+  await section.locator('input.jp-psiscape-fit-max').press('Tab');
+  await section.locator('button.jp-psiscape-fit-run').click();
+  await section.locator('.jp-psiscape-fit-error').waitFor({ state: 'visible', timeout: 30000 });
+  assert.equal(await section.locator('.jp-psiscape-fit-table').count(), 0, 'the Weiss table is gone under the power-law error');
+  assert.equal(await page.locator('.jp-psiscape-AnalysisPanel').last().locator('.jp-psiscape-ChartView svg .mark-line path').count(), 0, 'and so is its curve');
+  await screenshot(page, 'fit-failed-light');
+});
+
 test('a window too narrow gives a message and keeps the controls usable', async () => {
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('power-law');
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('power-law');
   await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('100');
+  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').press('Tab');
   await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').fill('105');
+  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').press('Tab');
   await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
   const error = panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-error');
   await error.waitFor({ state: 'visible', timeout: 30000 });
@@ -85,7 +132,7 @@ test('a window too narrow gives a message and keeps the controls usable', async 
 test('the fit controls are reachable with the keyboard', async () => {
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').focus();
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').focus();
   const order = [];
   for (let i = 0; i < 6; i++) {
     await page.keyboard.press('Tab');

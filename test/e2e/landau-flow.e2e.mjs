@@ -59,7 +59,7 @@ test('Landau coefficients fitted to the demo M(T) open in the explorer', async (
   await output.click({ button: 'right' });
   await page.locator('.lm-Menu-item', { hasText: 'Analyse This Table with psiscape' }).first().click();
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-model').selectOption('landau');
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('landau');
   // Landau expansions hold near the transition: fit the window 240–300 K.
   await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('240');
   await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').fill('300');

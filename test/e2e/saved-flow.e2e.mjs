@@ -12,7 +12,7 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('select.jp-psiscape-fit-model').selectOption('weiss');
+  await panel.locator('select.jp-psiscape-fit-kind').selectOption('weiss');
   await panel.locator('button.jp-psiscape-fit-run').click();
   await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
   const before = await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
@@ -28,6 +28,6 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   const after = await restored.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
   assert.equal(after, before, 'the reopened analysis reruns the same fit');
   assert.equal(await restored.getAttribute('data-source-state'), 'live');
-  assert.equal(await restored.locator('select.jp-psiscape-fit-model').inputValue(), 'weiss');
+  assert.equal(await restored.locator('select.jp-psiscape-fit-kind').inputValue(), 'weiss');
   await screenshot(page, 'saved-after-reload');
 });
