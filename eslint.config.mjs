@@ -8,6 +8,52 @@ const jupyterRecommended = Array.isArray(jupyter.configs.recommended)
   ? jupyter.configs.recommended
   : [jupyter.configs.recommended];
 
+// src/core is pure: no DOM, no JupyterLab, no Lumino, no charts or widgets.
+const CORE_PURE = {
+  group: ['@jupyterlab/*', '@lumino/*', 'vega*', '../charts/*', '../ui/*', '../plugins/*', '../../charts/*', '../../ui/*', '../../plugins/*'],
+  message: 'src/core is pure numerics: no UI, chart or JupyterLab imports.'
+};
+
+// The order of core's folders: what each may import from the rest of src/core
+// (src/core/messages.ts is importable from everywhere; analysis may import
+// everything). A folder not listed here is held to CORE_PURE only.
+const CORE_LAYERS = {
+  numeric: [],
+  fit: ['numeric'],
+  expr: ['fit', 'numeric'],
+  physics: ['fit', 'numeric', 'units'],
+  sweeps: ['fit', 'numeric', 'physics', 'units'],
+  table: ['numeric', 'units'],
+  units: ['numeric']
+};
+
+// One block per folder depth (src/core/<dir>/*.ts, <dir>/*/*.ts, …): at depth d
+// an import leaves <dir> for the rest of core with exactly d × '../', and the
+// regex rejects every name after that which is not an allowed folder or
+// messages. A block's no-restricted-imports replaces the one of
+// 'src/core/**', so each repeats CORE_PURE.
+function coreLayerBlocks(dir, allowed) {
+  const ok = [...allowed, 'messages'].join('|');
+  const may = allowed.length > 0 ? `${allowed.join(', ')} and messages.ts` : 'messages.ts';
+  return [1, 2, 3].map(depth => ({
+    files: [`src/core/${dir}/${'*/'.repeat(depth - 1)}*.ts`],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            CORE_PURE,
+            {
+              regex: `^(?:\\.\\./){${depth}}(?!(?:${ok})(?:/|\\.ts$|$))[^./]`,
+              message: `src/core/${dir} may import from the rest of src/core only ${may} (layers in eslint.config.mjs): move the logic down instead of importing up.`
+            }
+          ]
+        }
+      ]
+    }
+  }));
+}
+
 export default tseslint.config(
   {
     ignores: [
@@ -56,16 +102,10 @@ export default tseslint.config(
     // The core layer is pure: no DOM, no JupyterLab, no Lumino.
     files: ['src/core/**/*.ts'],
     rules: {
-      'no-restricted-imports': [
-        'error',
-        {
-          patterns: [
-            { group: ['@jupyterlab/*', '@lumino/*', 'vega*', '../charts/*', '../ui/*', '../plugins/*', '../../charts/*', '../../ui/*', '../../plugins/*'], message: 'src/core is pure numerics: no UI, chart or JupyterLab imports.' }
-          ]
-        }
-      ]
+      'no-restricted-imports': ['error', { patterns: [CORE_PURE] }]
     }
   },
+  ...Object.entries(CORE_LAYERS).flatMap(([dir, allowed]) => coreLayerBlocks(dir, allowed)),
   {
     files: ['src/charts/**/*.ts'],
     rules: {
