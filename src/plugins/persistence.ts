@@ -1,61 +1,102 @@
 /**
  * Saved analyses in notebook metadata: written whenever an analysis changes
  * (the user saves the notebook as usual), read back when a notebook opens.
+ * The metadata is written only when its value actually changes, and a block
+ * this psiscape cannot read (unreadable, or written by a newer psiscape) is
+ * never written over or removed.
  */
+import { Dialog, Notification, showDialog } from '@jupyterlab/apputils';
 import type { NotebookPanel } from '@jupyterlab/notebook';
+import type { TranslationBundle } from '@jupyterlab/translation';
 import type { ReadonlyPartialJSONValue } from '@lumino/coreutils';
-import { readSavedAnalyses, SAVED_KEY, SAVED_VERSION, toJsonSafe } from '../core/saved';
-import type { ISavedAnalysis } from '../core/saved';
+import { Widget } from '@lumino/widgets';
+import type { ICoreMessage } from '../core/messages';
+import { messageText } from '../core/messages';
+import { readSaved, removeSaved, SAVED_KEY, upsertSaved } from '../core/saved';
+import type { ISavedAnalysis, ISavedRead, SavedWriteResult } from '../core/saved';
+import { translateMessage } from '../ui/translate';
 
-/** The analyses a notebook holds, and descriptions of entries that could not be read. */
-export function savedAnalysesOf(notebook: NotebookPanel): { analyses: ISavedAnalysis[]; problems: string[] } {
-  return readSavedAnalyses(notebook.content.model?.getMetadata(SAVED_KEY));
+/** The analyses a notebook holds, what could not be read, and whether the block may be written. */
+export function savedAnalysesOf(notebook: NotebookPanel): ISavedRead {
+  return readSaved(notebook.content.model?.getMetadata(SAVED_KEY));
 }
 
-function write(notebook: NotebookPanel, analyses: ISavedAnalysis[]): void {
+/** Apply a write result: set (or, for undefined, delete) the key only when the value changed. */
+function apply(notebook: NotebookPanel, result: SavedWriteResult): ICoreMessage | null {
+  if ('blocked' in result) {
+    return result.blocked;
+  }
   const model = notebook.content.model;
-  if (!model) {
-    return;
+  if (!model || !result.changed) {
+    return null;
   }
-  if (analyses.length === 0) {
+  if (result.value === undefined) {
     model.deleteMetadata(SAVED_KEY);
-    return;
+  } else {
+    model.setMetadata(SAVED_KEY, result.value as ReadonlyPartialJSONValue);
   }
-  model.setMetadata(SAVED_KEY, toJsonSafe({ version: SAVED_VERSION, analyses }) as ReadonlyPartialJSONValue);
+  return null;
 }
 
 /**
- * Add or replace one analysis. Entries this psiscape could not read are left
- * untouched only when the metadata as a whole was unreadable (then nothing is
- * written, so nothing is lost); unreadable single entries are dropped once a
- * readable analysis is saved next to them.
+ * Add or replace one analysis in the notebook's metadata. Entries and fields
+ * this psiscape does not know are kept as they are.
  *
- * @returns false when the notebook's metadata is unreadable and was left alone.
+ * @returns null when saved (or nothing changed), else why nothing was written
+ * (for the caller to show).
  */
-export function upsertAnalysis(notebook: NotebookPanel, entry: ISavedAnalysis): boolean {
-  const raw = notebook.content.model?.getMetadata(SAVED_KEY);
-  const { analyses, problems } = readSavedAnalyses(raw);
-  if (raw !== undefined && analyses.length === 0 && problems.length > 0) {
-    return false;
-  }
-  const i = analyses.findIndex(a => a.id === entry.id);
-  const same = (a: ISavedAnalysis) =>
-    JSON.stringify(toJsonSafe({ version: SAVED_VERSION, analyses: [a] })) === JSON.stringify(toJsonSafe({ version: SAVED_VERSION, analyses: [entry] }));
-  if (i >= 0 && same(analyses[i])) {
-    // Unchanged: leave the notebook clean.
-    return true;
-  }
-  if (i >= 0) {
-    analyses[i] = entry;
-  } else {
-    analyses.push(entry);
-  }
-  write(notebook, analyses);
-  return true;
+export function upsertAnalysis(notebook: NotebookPanel, entry: ISavedAnalysis): ICoreMessage | null {
+  const model = notebook.content.model;
+  return model ? apply(notebook, upsertSaved(model.getMetadata(SAVED_KEY), entry)) : null;
 }
 
-/** Remove one analysis from the notebook. */
-export function removeAnalysis(notebook: NotebookPanel, id: string): void {
-  const { analyses } = savedAnalysesOf(notebook);
-  write(notebook, analyses.filter(a => a.id !== id));
+/**
+ * Remove one analysis from the notebook's metadata. Entries this psiscape
+ * cannot read and fields it does not know stay; the key is deleted only when
+ * nothing at all is left in it.
+ *
+ * @returns null when removed (or not there), else why nothing was written.
+ */
+export function removeAnalysis(notebook: NotebookPanel, id: string): ICoreMessage | null {
+  const model = notebook.content.model;
+  return model ? apply(notebook, removeSaved(model.getMetadata(SAVED_KEY), id)) : null;
+}
+
+/**
+ * Show problems with a notebook's saved analyses as one warning: the first
+ * problem in the notification (which shows about 140 characters), all of them
+ * behind its "Details" button, and in the browser console.
+ */
+export function notifyProblems(trans: TranslationBundle, problems: readonly ICoreMessage[], notebookPath: string): void {
+  if (problems.length === 0) {
+    return;
+  }
+  const lines = problems.map(p => translateMessage(trans, p));
+  console.warn(`psiscape: ${notebookPath}: ${problems.map(messageText).join(' ')}`);
+  const message =
+    problems.length === 1
+      ? trans.__('%1: %2', notebookPath, lines[0])
+      : trans.__('%1: %2 problems with the saved psiscape analyses, the first: %3', notebookPath, problems.length, lines[0]);
+  Notification.warning(message, {
+    autoClose: false,
+    actions: [
+      {
+        label: trans.__('Details'),
+        caption: trans.__('Show every problem with the saved psiscape analyses of this notebook'),
+        callback: () => {
+          const body = document.createElement('ul');
+          for (const line of lines) {
+            const item = document.createElement('li');
+            item.textContent = line;
+            body.appendChild(item);
+          }
+          void showDialog({
+            title: trans.__('Saved psiscape analyses in %1', notebookPath),
+            body: new Widget({ node: body }),
+            buttons: [Dialog.okButton({ label: trans.__('Close') })]
+          });
+        }
+      }
+    ]
+  });
 }

@@ -1,0 +1,119 @@
+/**
+ * The JSON Schema (draft-07) of the saved format, version 2. The file
+ * `schema/saved-analyses.v2.json` is this object written out for other tools;
+ * a test keeps the two equal.
+ *
+ * Every object allows fields the schema does not list, so a newer writer's
+ * additions stay valid (and psiscape keeps them when it saves). What JSON
+ * Schema cannot say is checked in code and stated in the descriptions: the
+ * value columns of a snapshot have one length, and headers, units and columns
+ * are as many.
+ */
+
+/** `$id` of the schema. */
+export const SAVED_SCHEMA_ID = 'urn:psiscape:saved-analyses:2';
+
+const columnRefProperties = {
+  index: {
+    type: 'integer',
+    minimum: -1,
+    description: 'Position of the column in the source table, from 0. -1 (only in entries migrated from format 1, which saved headers alone): the first column with this header.'
+  },
+  header: { type: 'string', description: 'Header of the column in the source table.' }
+};
+
+/** The schema object. */
+export const SAVED_SCHEMA = {
+  $schema: 'http://json-schema.org/draft-07/schema#',
+  $id: SAVED_SCHEMA_ID,
+  title: 'psiscape saved analyses, format version 2',
+  description:
+    'The value of the notebook metadata key "psiscape". Readers check each entry of "analyses" on its own: an entry that does not match is kept in the notebook unchanged and not opened. Fields not listed here are allowed everywhere and are kept when psiscape saves.',
+  type: 'object',
+  required: ['version', 'analyses'],
+  properties: {
+    version: { const: 2, description: 'Format version. A block with a higher version is left unchanged by psiscape versions that do not know it.' },
+    analyses: { type: 'array', items: { $ref: '#/definitions/analysis' } }
+  },
+  definitions: {
+    analysis: {
+      type: 'object',
+      description: 'One saved analysis: where its table came from, which columns it plots, a snapshot of them and the settings of its last run.',
+      required: ['id', 'source', 'columns', 'snapshot', 'settings'],
+      properties: {
+        id: { type: 'string', minLength: 1, description: 'Identifier, unique within the notebook.' },
+        source: {
+          type: 'object',
+          description: 'The notebook output the table was read from.',
+          required: ['notebookPath', 'cellId', 'outputIndex', 'contentHash'],
+          properties: {
+            notebookPath: { type: 'string', description: 'Notebook path relative to the contents root, when the analysis was saved.' },
+            cellId: { type: 'string', description: 'nbformat id of the cell.' },
+            outputIndex: { type: 'integer', minimum: 0, description: 'Position of the output among the cell outputs, from 0.' },
+            contentHash: { type: 'string', description: 'Hash of the output MIME bundle when last read, to notice changes.' }
+          }
+        },
+        columns: {
+          type: 'object',
+          description: 'The plotted columns of the source table.',
+          required: ['x', 'y', 'sigma'],
+          properties: {
+            x: { type: 'object', required: ['index', 'header'], properties: columnRefProperties },
+            y: { type: 'object', required: ['index', 'header'], properties: columnRefProperties },
+            sigma: {
+              type: ['object', 'null'],
+              description: 'The column of standard deviations of y, or null.',
+              required: ['index', 'header'],
+              properties: columnRefProperties
+            }
+          }
+        },
+        snapshot: {
+          type: 'object',
+          description:
+            'The plotted columns (x, y, then sigma when picked) as last seen, shown when the source output is gone. headers, units and values have one item per column; all value columns have the same length. A table above 20000 cells (rows x columns) is not copied: then "omitted" is true, "values" is absent, and "rows" and "hash" identify the data; the analysis keeps a reference (its source) and the hash.',
+          required: ['headers', 'units'],
+          properties: {
+            headers: { type: 'array', items: { type: 'string' } },
+            units: { type: 'array', items: { type: ['string', 'null'] } },
+            values: {
+              type: 'array',
+              description: 'One array per column; null for a missing or non-finite value.',
+              items: { type: 'array', items: { type: ['number', 'null'] } }
+            },
+            rows: { type: 'integer', minimum: 0, description: 'Row count (omitted snapshots).' },
+            hash: {
+              type: 'string',
+              pattern: '^[0-9a-f]{16}$',
+              description:
+                'Omitted snapshots: two 32-bit FNV-1a hashes (prime 16777619, offset bases 2166136261 and 84696351), 8 lowercase hex digits each, of the values column after column, each as IEEE-754 binary64 little-endian bytes, a missing value as the bytes of 0x7ff8000000000000.'
+            },
+            omitted: { const: true, description: 'Present (true) when the values were not copied.' }
+          },
+          if: { properties: { omitted: { const: true } }, required: ['omitted'] },
+          then: { required: ['rows', 'hash'] },
+          else: { required: ['values'] }
+        },
+        settings: {
+          type: ['object', 'null'],
+          description: 'The settings of the last analysis run, or null when none was run.',
+          required: ['kind', 'options', 'window'],
+          properties: {
+            kind: { type: 'string', minLength: 1, description: 'Analysis kind id (e.g. "power-law", "weiss", "expression"). Entries of a kind a reader does not know are kept and not opened.' },
+            options: {
+              type: 'object',
+              description: 'Options of the kind by name. Infinite numbers are written as the strings "inf" and "-inf".',
+              additionalProperties: { type: ['string', 'number', 'boolean'] }
+            },
+            window: {
+              type: 'object',
+              description: 'The fit window in units of the x column; null is an open end.',
+              required: ['min', 'max'],
+              properties: { min: { type: ['number', 'null'] }, max: { type: ['number', 'null'] } }
+            }
+          }
+        }
+      }
+    }
+  }
+} as const;
