@@ -13,6 +13,9 @@ import {
 } from './cells';
 import type { IDateParts } from './cells';
 import type { ColumnKind, IColumn } from './types';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { shortHeader } from './limits';
 import { TABLE_LIMITS, TableParseError } from './types';
 import { splitHeader } from './units';
 
@@ -31,19 +34,25 @@ export interface ITextColumnOptions {
   displayed: boolean;
 }
 
-/** Describe a column for messages: `column 3 ('T (K)')`. */
-export function describeColumn(index: number, header: string): string {
-  const shown = header.length > 40 ? `${header.slice(0, 40)}…` : header;
-  return `column ${index + 1} ('${shown}')`;
+/** The refusal of a cell longer than the limit, naming its row and column (0-based `row` and `colIndex`). */
+export function cellTooLong(length: number, row: number, colIndex: number, header: string): TableParseError {
+  return new TableParseError(
+    msg(
+      'table.cell-too-long',
+      'The cell in row %1, column %2 (“%3”) holds %4 characters; at most %5 can be read.',
+      wholeNumber(row + 1),
+      wholeNumber(colIndex + 1),
+      shortHeader(header),
+      wholeNumber(length),
+      wholeNumber(TABLE_LIMITS.maxCellChars)
+    )
+  );
 }
 
 /** Refuse a cell longer than the limit, naming its row and column. */
 export function checkCellLength(text: string, row: number, colIndex: number, header: string): void {
   if (text.length > TABLE_LIMITS.maxCellChars) {
-    throw new TableParseError(
-      `The cell in row ${row + 1}, ${describeColumn(colIndex, header)} holds ${text.length} characters; ` +
-        `the limit is ${TABLE_LIMITS.maxCellChars}.`
-    );
+    throw cellTooLong(text.length, row, colIndex, header);
   }
 }
 

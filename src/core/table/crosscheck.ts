@@ -4,7 +4,10 @@
  * writes ±inf as null; the text/HTML displays of the same output state the full
  * shape and show infinities, so they can reveal truncation and restore ±inf.
  */
-import { shapeFooter, truncatedNote } from './notes';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { shapeFooter, truncatedNotes } from './notes';
 import type { ITable, ParseResult } from './types';
 
 function textOf(v: unknown): string | null {
@@ -39,7 +42,7 @@ function displayedShape(data: Readonly<Record<string, unknown>>): { rows: number
 export function crossCheckDataResource(
   table: ITable,
   data: Readonly<Record<string, unknown>>,
-  parse: (mime: string, payload: unknown) => ParseResult | { ok: false; message: string }
+  parse: (mime: string, payload: unknown) => ParseResult | { ok: false; message: ICoreMessage }
 ): void {
   const shape = displayedShape(data);
   const dataColumns = table.columns.filter(c => !c.isIndex).length;
@@ -51,7 +54,7 @@ export function crossCheckDataResource(
       totalColumns: shape.columns,
       rowGapAt: null
     };
-    table.notes.unshift(truncatedNote(table.truncation, 'dataresource output (pandas sends the first display.max_rows rows)'));
+    table.notes.unshift(...truncatedNotes(table.truncation, 'dataresource'));
   }
   const hasNaN = table.columns.some(c => c.values instanceof Float64Array && c.values.some(v => Number.isNaN(v)));
   const displayMime = data['text/html'] !== undefined ? 'text/html' : data['text/plain'] !== undefined ? 'text/plain' : null;
@@ -80,7 +83,12 @@ export function crossCheckDataResource(
   if (restored > 0) {
     table.notes.push({
       kind: 'info',
-      message: `pandas writes ±inf as null in dataresource JSON; ${restored} infinite value(s) were restored from the ${displayMime} display of the same output.`
+      message: msg(
+        'table.restored-infinities',
+        'pandas writes ±inf as null in dataresource JSON; infinite values restored from the %1 display of the same output: %2.',
+        displayMime,
+        wholeNumber(restored)
+      )
     });
   }
 }

@@ -9,7 +9,9 @@
 import Papa from 'papaparse';
 import type { ParseResult as PapaResult } from 'papaparse';
 import { fastNumber, isMissingText, parseNumber } from './cells';
-import { columnFromText, describeColumn, numberColumn } from './columns';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { cellTooLong, columnFromText, numberColumn } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import type { IColumn, ITable, ITableNote } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
@@ -88,14 +90,16 @@ function plainPieces(text: string): string[] | null {
  * row after checking its width. Unquoted text is fed in line-aligned pieces (fast mode,
  * little garbage held); quoted text goes through papaparse's own chunked streaming.
  */
-function scan(text: string, delimiter: string, what: string, onRow: (row: string[], r: number, header: string[]) => void): IScan {
+function scan(text: string, delimiter: string, what: 'CSV' | 'TSV', onRow: (row: string[], r: number, header: string[]) => void): IScan {
   let header: string[] | null = null;
   let rows = 0;
   let short = 0;
   let blanks = 0;
   const emit = (row: string[], h: string[]): void => {
     if (row.length > h.length) {
-      throw new TableParseError(`Row ${rows + 1} of the ${what} text has ${row.length} cells but the header has ${h.length} columns.`);
+      throw new TableParseError(
+        msg('table.csv.row-too-wide', 'Row %1 of the %2 text has %3 cells but the header has %4 columns.', wholeNumber(rows + 1), what, wholeNumber(row.length), wholeNumber(h.length))
+      );
     }
     if (row.length < h.length) {
       short++;
@@ -117,8 +121,11 @@ function scan(text: string, delimiter: string, what: string, onRow: (row: string
   const take = (results: PapaResult<string[]>): void => {
     const hard = results.errors.find(e => e.type === 'Quotes');
     if (hard) {
-      const at = typeof hard.row === 'number' ? `row ${rows + blanks + hard.row + (header === null ? 0 : 1)}` : 'a row';
-      throw new TableParseError(`The ${what} text has an unclosed quote in ${at}: ${hard.message}.`);
+      throw new TableParseError(
+        typeof hard.row === 'number'
+          ? msg('table.csv.unclosed-quote', 'The %1 text has an unclosed quote in row %2.', what, wholeNumber(rows + blanks + hard.row + (header === null ? 0 : 1)))
+          : msg('table.csv.unclosed-quote-somewhere', 'The %1 text has an unclosed quote.', what)
+      );
     }
     for (const row of results.data) {
       const blank = row.length === 1 && row[0] === '';
@@ -165,16 +172,14 @@ function scan(text: string, delimiter: string, what: string, onRow: (row: string
   }
   const found = header as string[] | null;
   if (found === null) {
-    throw new TableParseError(`The ${what} text is empty: it has no header row.`, 'no-table');
+    throw new TableParseError(msg('table.csv.empty', 'The %1 text is empty: it has no header row.', what), 'no-table');
   }
   flushBlanks(found, trailingBreak);
   return { header: found, rows, short };
 }
 
 function tooLong(cell: string, r: number, c: number, header: readonly string[]): TableParseError {
-  return new TableParseError(
-    `The cell in row ${r + 1}, ${describeColumn(c, header[c] ?? '')} holds ${cell.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`
-  );
+  return cellTooLong(cell.length, r, c, header[c] ?? '');
 }
 
 /**
@@ -185,8 +190,8 @@ function tooLong(cell: string, r: number, c: number, header: readonly string[]):
  */
 export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const format = delimiter === ',' ? 'csv' : 'tsv';
-  const what = format.toUpperCase();
-  checkTextSize(text.length, `The ${what} text`);
+  const what = format === 'csv' ? 'CSV' : 'TSV';
+  checkTextSize(text.length, what);
   const capacity = rowCapacity(text);
   let numbers: (FloatColumn | null)[] = [];
   const first = scan(text, delimiter, what, (row, r, header) => {
@@ -247,7 +252,10 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   });
   const notes: ITableNote[] = [];
   if (short > 0) {
-    notes.push({ kind: 'info', message: `${short} row(s) had fewer cells than the header; the missing cells are read as missing values.` });
+    notes.push({
+      kind: 'info',
+      message: msg('table.csv.short-rows', 'Rows with fewer cells than the header: %1; their missing cells are read as missing values.', wholeNumber(short))
+    });
   }
   return { columns, rowCount, format, notes };
 }

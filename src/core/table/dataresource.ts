@@ -6,7 +6,9 @@ import { columnFromJson } from './columns';
 import type { JsonKindHint } from './columns';
 import { collectRecords, isRecord, jsonType, jsonValue } from './json';
 import { fixedDecimals, significantDigits } from './cells';
-import { checkRowAndColumnCounts } from './limits';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { checkRowAndColumnCounts, shortHeader } from './limits';
 import { roundedNote } from './notes';
 import type { IColumn, ITable } from './types';
 import { TableParseError } from './types';
@@ -33,24 +35,26 @@ function hintFor(type: unknown): JsonKindHint {
 
 /** Parse a dataresource payload (text or parsed value). */
 export function parseDataResource(payload: unknown): ITable {
-  const value = jsonValue(payload, 'The dataresource text');
+  const value = jsonValue(payload, 'dataresource');
   if (!isRecord(value)) {
-    throw new TableParseError(`The dataresource payload is ${jsonType(value)}, not an object with 'schema' and 'data'.`);
+    throw new TableParseError(
+      msg('table.dataresource.not-object', 'The dataresource output holds a value of type %1, not an object with “schema” and “data”.', jsonType(value))
+    );
   }
   const { schema, data } = value;
   if (!Array.isArray(data)) {
-    throw new TableParseError(`The dataresource 'data' is ${jsonType(data)}, not an array of rows.`);
+    throw new TableParseError(msg('table.dataresource.data-not-list', 'The “data” of the dataresource is of type %1, not a list of rows.', jsonType(data)));
   }
   const fields = isRecord(schema) && Array.isArray(schema.fields) ? schema.fields : null;
   if (fields === null) {
-    throw new TableParseError("The dataresource has no 'schema.fields' list naming its columns.");
+    throw new TableParseError(msg('table.dataresource.no-fields', 'The dataresource has no “schema.fields” list naming its columns.'));
   }
   checkRowAndColumnCounts(data.length, fields.length, 'dataresource');
   const names: string[] = [];
   const hints: JsonKindHint[] = [];
   fields.forEach((f, c) => {
     if (!isRecord(f) || f.name === undefined || f.name === null) {
-      throw new TableParseError(`Field ${c + 1} (column ${c + 1}) of the dataresource schema has no name.`);
+      throw new TableParseError(msg('table.dataresource.field-unnamed', 'Column %1 of the dataresource schema has no name.', wholeNumber(c + 1)));
     }
     names.push(typeof f.name === 'string' ? f.name : String(f.name));
     hints.push(hintFor(f.type));
@@ -59,12 +63,14 @@ export function parseDataResource(payload: unknown): ITable {
   const primaryKey = new Set<string>(
     typeof rawKey === 'string' ? [rawKey] : Array.isArray(rawKey) ? rawKey.filter((k): k is string => typeof k === 'string') : []
   );
-  const cells = collectRecords(data, 'dataresource data', names);
+  const cells = collectRecords(data, 'dataresource', names);
   const known = new Set(names);
   const extra = [...cells.keys()].find(k => !known.has(k));
   if (extra !== undefined) {
     const row = data.findIndex(r => isRecord(r) && extra in r);
-    throw new TableParseError(`Row ${row + 1} of the dataresource data has a column '${extra.slice(0, 40)}' that the schema does not list.`);
+    throw new TableParseError(
+      msg('table.dataresource.unlisted-column', 'Row %1 of the dataresource data has a column “%2” that the schema does not list.', wholeNumber(row + 1), shortHeader(extra))
+    );
   }
   const columns: IColumn[] = names.map((name, c) =>
     columnFromJson(name, cells.get(name) ?? [], { isIndex: primaryKey.has(name), hint: hints[c], colIndex: c })
@@ -72,7 +78,7 @@ export function parseDataResource(payload: unknown): ITable {
   const table: ITable = { columns, rowCount: data.length, format: 'dataresource', notes: [] };
   if (isRecord(schema) && schema.pandas_version !== undefined) {
     columns.forEach(markJsonRounding);
-    const note = roundedNote(columns, "pandas' dataresource JSON (to_json) writes floats to 10 decimal places");
+    const note = roundedNote(columns, 'json');
     if (note) {
       table.notes.push(note);
     }

@@ -5,6 +5,8 @@
 import { columnFromText } from './columns';
 import { htmlGrid } from './htmlgrid';
 import type { IGridCell } from './htmlgrid';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { checkTextSize } from './limits';
 import { addDisplayNotes, shapeFooter } from './notes';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
@@ -35,10 +37,10 @@ function indexName(level: number, levels: number): string {
 
 /** Parse a pandas HTML table. */
 export function parsePandasHtml(html: string): ITable {
-  checkTextSize(html.length, 'The HTML text');
+  checkTextSize(html.length, 'HTML');
   const grid = htmlGrid(html);
   if (grid === null) {
-    throw new TableParseError('The HTML holds no table.', 'no-table');
+    throw new TableParseError(msg('table.html.no-table', 'The HTML holds no table.'), 'no-table');
   }
   const head = grid.head.slice();
   const body = grid.body.filter(r => r.length > 0);
@@ -52,7 +54,7 @@ export function parsePandasHtml(html: string): ITable {
     }
   }
   if (width === 0) {
-    throw new TableParseError('The HTML table is empty: it has no cells.', 'no-table');
+    throw new TableParseError(msg('table.html.empty', 'The HTML table is empty: it has no cells.'), 'no-table');
   }
   const firstData = body.find(r => !isEllipsisRow(r));
   let nIndex = firstData ? leadingHeaders(firstData) : head.length > 0 && text(head[0], 0) === '' ? 1 : 0;
@@ -121,10 +123,13 @@ export function parsePandasHtml(html: string): ITable {
     )
   );
   if (short > 0) {
-    notes.push({ kind: 'info', message: `${short} row(s) of the HTML table had fewer cells than the header; the missing cells are read as missing values.` });
+    notes.push({
+      kind: 'info',
+      message: msg('table.html.short-rows', 'Rows of the HTML table with fewer cells than the header: %1; their missing cells are read as missing values.', wholeNumber(short))
+    });
   }
   if (grid.tableCount > 1) {
-    notes.push({ kind: 'info', message: `The HTML holds ${grid.tableCount} tables; the first pandas table was read.` });
+    notes.push({ kind: 'info', message: msg('table.html.several-tables', 'The HTML holds %1 tables; the first pandas table was read.', grid.tableCount) });
   }
   const table: ITable = { columns, rowCount: rows.length, format: 'pandas-html', notes };
   const dataColumns = columns.filter(c => !c.isIndex).length;
@@ -138,6 +143,6 @@ export function parsePandasHtml(html: string): ITable {
   };
   const rowsHidden = rowGapAt !== null || (footer !== null && footer.rows > rows.length);
   const colsHidden = elidedColumns > 0 || (footer !== null && footer.columns > dataColumns);
-  addDisplayNotes(table, truncation, rowsHidden || colsHidden, 'HTML display');
+  addDisplayNotes(table, truncation, rowsHidden || colsHidden, 'html');
   return table;
 }

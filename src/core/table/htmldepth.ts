@@ -8,6 +8,9 @@
  * quoted attribute values may hold '>'), visits every character a bounded number
  * of times, and names the table row and cell where a limit is hit.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { TABLE_LIMITS, TableParseError } from './types';
 
 /** Elements that never hold children. */
@@ -116,7 +119,29 @@ export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDep
   const open: string[] = [];
   let rows = 0;
   let cells = 0;
-  const where = () => (rows === 0 ? 'before the first table row' : `in table row ${rows}, column ${Math.max(cells, 1)}`);
+  const tooManyAttributes = (name: string, attributes: number): ICoreMessage =>
+    rows === 0
+      ? msg('table.html.attributes-before-rows', 'A <%1> tag before the first table row has %2 attributes; at most %3 can be read.', name, wholeNumber(attributes), MAX_ATTRIBUTES)
+      : msg(
+          'table.html.attributes',
+          'A <%1> tag in table row %2, column %3 has %4 attributes; at most %5 can be read.',
+          name,
+          wholeNumber(rows),
+          wholeNumber(Math.max(cells, 1)),
+          wholeNumber(attributes),
+          MAX_ATTRIBUTES
+        );
+  const tooDeep = (at: number): ICoreMessage =>
+    rows === 0
+      ? msg('table.html.too-deep-before-rows', 'The HTML is nested more than %1 elements deep (at character %2, before the first table row); a table needs far fewer.', limit, wholeNumber(at))
+      : msg(
+          'table.html.too-deep',
+          'The HTML is nested more than %1 elements deep (at character %2, in table row %3, column %4); a table needs far fewer.',
+          limit,
+          wholeNumber(at),
+          wholeNumber(rows),
+          wholeNumber(Math.max(cells, 1))
+        );
   let i = html.indexOf('<');
   while (i >= 0 && i < html.length - 1) {
     const next = html.charCodeAt(i + 1);
@@ -129,7 +154,7 @@ export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDep
     } else if (isLetter(next) || (next === 47 && isLetter(html.charCodeAt(i + 2)))) {
       const tag = readTag(html, i);
       if (tag.attributes > MAX_ATTRIBUTES) {
-        throw new TableParseError(`A <${tag.name.slice(0, 20)}> tag ${where()} has ${tag.attributes} attributes; the limit is ${MAX_ATTRIBUTES}.`);
+        throw new TableParseError(tooManyAttributes(tag.name.slice(0, 20), tag.attributes));
       }
       if (tag.end < 0) {
         return;
@@ -153,9 +178,7 @@ export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDep
       } else if (!VOID.has(tag.name) && !SELF_CLOSING_SIBLINGS.has(tag.name) && !foreign) {
         open.push(tag.name);
         if (open.length > limit) {
-          throw new TableParseError(
-            `The HTML is nested more than ${limit} elements deep (at character ${i}, ${where()}); a table needs far fewer.`
-          );
+          throw new TableParseError(tooDeep(i));
         }
       }
     } else {

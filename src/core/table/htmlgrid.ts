@@ -6,7 +6,11 @@
  */
 import { parseFragment } from 'parse5';
 import type { DefaultTreeAdapterTypes } from 'parse5';
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { checkHtmlDepth } from './htmldepth';
+import { checkRowAndColumnCounts } from './limits';
 import { TABLE_LIMITS, TableParseError } from './types';
 
 type Node = DefaultTreeAdapterTypes.Node;
@@ -48,21 +52,51 @@ function span(el: Element, name: string, max: number): number {
   return Number.isFinite(v) && v >= 1 ? Math.min(v, max) : 1;
 }
 
+/** Where a cell is: its section and its 1-based row (within the section) and column. */
+interface ICellPlace {
+  section: 'header' | 'body';
+  row: number;
+  column: number;
+}
+
+/** A cell nested deeper than the limit. */
+function cellTooDeep(p: ICellPlace): ICoreMessage {
+  return p.section === 'header'
+    ? msg('table.html.header-cell-too-deep', 'The cell in header row %1, column %2 is nested more than %3 elements deep.', wholeNumber(p.row), wholeNumber(p.column), TABLE_LIMITS.maxDepth)
+    : msg('table.html.body-cell-too-deep', 'The cell in body row %1, column %2 is nested more than %3 elements deep.', wholeNumber(p.row), wholeNumber(p.column), TABLE_LIMITS.maxDepth);
+}
+
+/** A cell holding more text than the limit. */
+function cellTooLong(p: ICellPlace): ICoreMessage {
+  const max = wholeNumber(TABLE_LIMITS.maxCellChars);
+  return p.section === 'header'
+    ? msg('table.html.header-cell-too-long', 'The cell in header row %1, column %2 holds more than %3 characters, the most that can be read.', wholeNumber(p.row), wholeNumber(p.column), max)
+    : msg('table.html.body-cell-too-long', 'The cell in body row %1, column %2 holds more than %3 characters, the most that can be read.', wholeNumber(p.row), wholeNumber(p.column), max);
+}
+
+/** A cell whose spans would fill more grid cells than the budget. */
+function cellSpansTooMuch(p: ICellPlace, rowspan: number, colspan: number): ICoreMessage {
+  const args = [wholeNumber(p.row), wholeNumber(p.column), wholeNumber(rowspan), wholeNumber(colspan), wholeNumber(MAX_GRID_CELLS)];
+  return p.section === 'header'
+    ? msg('table.html.header-cell-spans', 'The cell in header row %1, column %2 spans %3 rows × %4 columns; the table would exceed %5 cells.', ...args)
+    : msg('table.html.body-cell-spans', 'The cell in body row %1, column %2 spans %3 rows × %4 columns; the table would exceed %5 cells.', ...args);
+}
+
 /** Text of a subtree (iterative), whitespace collapsed; refuses over-deep or over-long cells. */
-function cellText(cell: Element, where: () => string): string {
+function cellText(cell: Element, where: () => ICellPlace): string {
   const parts: string[] = [];
   let length = 0;
   const stack: [Node, number][] = [[cell, 0]];
   while (stack.length > 0) {
     const [node, depth] = stack.pop() as [Node, number];
     if (depth > TABLE_LIMITS.maxDepth) {
-      throw new TableParseError(`The cell in ${where()} is nested more than ${TABLE_LIMITS.maxDepth} elements deep.`);
+      throw new TableParseError(cellTooDeep(where()));
     }
     if (node.nodeName === '#text') {
       const value = (node as DefaultTreeAdapterTypes.TextNode).value;
       length += value.length;
       if (length > TABLE_LIMITS.maxCellChars * 2) {
-        throw new TableParseError(`The cell in ${where()} holds more than ${TABLE_LIMITS.maxCellChars} characters; that is the limit.`);
+        throw new TableParseError(cellTooLong(where()));
       }
       parts.push(value);
       continue;
@@ -80,7 +114,7 @@ function cellText(cell: Element, where: () => string): string {
   }
   const text = parts.join('').replace(/\s+/g, ' ').trim();
   if (text.length > TABLE_LIMITS.maxCellChars) {
-    throw new TableParseError(`The cell in ${where()} holds ${text.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`);
+    throw new TableParseError(cellTooLong(where()));
   }
   return text;
 }
@@ -145,7 +179,7 @@ function sections(table: Element): { head: Element[][]; body: Element[][] } {
  */
 export const MAX_GRID_CELLS = 10_000_000;
 
-function expandSection(rows: Element[], firstRow: number, section: string, budget: { cells: number }): IGridCell[][] {
+function expandSection(rows: Element[], firstRow: number, section: 'header' | 'body', budget: { cells: number }): IGridCell[][] {
   const grid: IGridCell[][] = rows.map(() => []);
   rows.forEach((tr, r) => {
     const out = grid[r];
@@ -160,19 +194,22 @@ function expandSection(rows: Element[], firstRow: number, section: string, budge
       const colspan = span(cell, 'colspan', TABLE_LIMITS.maxColumns + 1);
       const rowspan = span(cell, 'rowspan', rows.length - r);
       const col = c;
-      const text = cellText(cell, () => `${section} row ${firstRow + r + 1}, column ${col + 1}`);
+      const text = cellText(cell, () => ({ section, row: firstRow + r + 1, column: col + 1 }));
       const value: IGridCell = { text, isHeader: cell.tagName === 'th' };
       if (c + colspan > TABLE_LIMITS.maxColumns) {
         throw new TableParseError(
-          `Row ${firstRow + r + 1} of the HTML table reaches column ${c + colspan}; the limit is ${TABLE_LIMITS.maxColumns} columns.`
+          msg(
+            'table.html.row-too-wide',
+            'Row %1 of the HTML table reaches column %2; at most %3 columns can be read.',
+            wholeNumber(firstRow + r + 1),
+            wholeNumber(c + colspan),
+            wholeNumber(TABLE_LIMITS.maxColumns)
+          )
         );
       }
       budget.cells += rowspan * colspan;
       if (budget.cells > MAX_GRID_CELLS) {
-        throw new TableParseError(
-          `The cell in ${section} row ${firstRow + r + 1}, column ${c + 1} spans ${rowspan} rows × ${colspan} columns; ` +
-            `the table would exceed ${MAX_GRID_CELLS} cells.`
-        );
+        throw new TableParseError(cellSpansTooMuch({ section, row: firstRow + r + 1, column: c + 1 }, rowspan, colspan));
       }
       for (let dr = 0; dr < rowspan; dr++) {
         for (let dc = 0; dc < colspan; dc++) {
@@ -206,11 +243,7 @@ export function htmlGrid(html: string): IHtmlGrid | null {
     }
   }
   const bodyRowCount = body.reduce((n, rows) => n + rows.length, 0);
-  if (bodyRowCount > TABLE_LIMITS.maxRows) {
-    throw new TableParseError(
-      `The HTML table has ${bodyRowCount} rows; the limit is ${TABLE_LIMITS.maxRows} (row ${TABLE_LIMITS.maxRows + 1} is the first past it).`
-    );
-  }
+  checkRowAndColumnCounts(bodyRowCount, 0, 'HTML');
   const bodyGrid: IGridCell[][] = [];
   for (const rows of body) {
     for (const row of expandSection(rows, bodyGrid.length, 'body', budget)) {

@@ -4,6 +4,8 @@
  *
  * Pure and DOM-free; nothing from an output is executed or inserted into a page.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
 import { parseDelimited } from './csv';
 import { parseDataResource } from './dataresource';
 import { parsePandasHtml } from './html';
@@ -40,7 +42,7 @@ function textOf(payload: unknown): unknown {
 function requireText(payload: unknown, mime: string): string {
   const text = textOf(payload);
   if (typeof text !== 'string') {
-    throw new TableParseError(`The ${mime} payload is not text.`);
+    throw new TableParseError(msg('table.not-text', 'The %1 part of this output is not text.', mime));
   }
   return text;
 }
@@ -60,11 +62,11 @@ function parseMimeOrThrow(mime: string, payload: unknown): ITable {
     case 'text/plain':
       return parsePandasText(requireText(payload, mime));
     default:
-      throw new TableParseError(`The MIME type ${mime} does not hold a table.`, 'no-table');
+      throw new TableParseError(msg('table.mime-no-table', 'The MIME type %1 does not hold a table.', mime), 'no-table');
   }
 }
 
-type Attempt = ParseResult | { ok: false; message: string; noTable: true };
+type Attempt = { ok: true; table: ITable } | { ok: false; message: ICoreMessage; noTable?: true };
 
 /** Run a parser, turning refusals and unexpected failures into `{ ok: false }`. */
 function attempt(run: () => ITable): Attempt {
@@ -72,12 +74,12 @@ function attempt(run: () => ITable): Attempt {
     return { ok: true, table: run() };
   } catch (e) {
     if (e instanceof TableParseError) {
-      return e.reason === 'no-table' ? { ok: false, message: e.message, noTable: true } : { ok: false, message: e.message };
+      return e.reason === 'no-table' ? { ok: false, message: e.detail, noTable: true } : { ok: false, message: e.detail };
     }
     if (e instanceof RangeError) {
-      return { ok: false, message: `The output is too large or too deeply nested to read as a table (${e.message}).` };
+      return { ok: false, message: msg('table.too-large', 'The output is too large or too deeply nested to read as a table.') };
     }
-    return { ok: false, message: `The output could not be read as a table: ${e instanceof Error ? e.message : String(e)}.` };
+    return { ok: false, message: msg('table.failed', 'The output could not be read as a table (%1).', e instanceof Error ? e.message : String(e)) };
   }
 }
 
@@ -92,31 +94,37 @@ function isObject(v: unknown): v is Record<string, unknown> {
 }
 
 /** The MIME bundle of an output, or a message saying why the output has none. */
-function bundleOf(output: Readonly<Record<string, unknown>>): Readonly<Record<string, unknown>> | string {
+function bundleOf(output: Readonly<Record<string, unknown>>): { data: Readonly<Record<string, unknown>> } | { message: ICoreMessage } {
   if (output.output_type === 'error' || ('ename' in output && 'traceback' in output)) {
-    const name = typeof output.ename === 'string' ? output.ename : 'an exception';
-    return `This output is an error (${name}), not a table.`;
+    return {
+      message:
+        typeof output.ename === 'string'
+          ? msg('table.output-is-error', 'This output is an error (%1), not a table.', output.ename)
+          : msg('table.output-is-exception', 'This output is an error, not a table.')
+    };
   }
   if (output.output_type === 'stream') {
-    return 'This output is printed text (a stream), not a table.';
+    return { message: msg('table.output-is-stream', 'This output is printed text (a stream), not a table.') };
   }
   if (isObject(output.data) && (output.output_type !== undefined || 'metadata' in output)) {
-    return output.data;
+    return { data: output.data };
   }
-  return output;
+  return { data: output };
 }
 
 /** Pick the richest table-bearing MIME type in an output bundle and parse it. */
 export function parseOutput(bundle: Readonly<Record<string, unknown>>): ParseResult {
   if (!isObject(bundle)) {
-    return { ok: false, message: 'This output holds no table: it is not a MIME bundle.' };
+    return { ok: false, message: msg('table.not-bundle', 'This output holds no table: it is not a MIME bundle.') };
   }
-  const data = bundleOf(bundle);
-  if (typeof data === 'string') {
-    return { ok: false, message: data };
+  const found = bundleOf(bundle);
+  if ('message' in found) {
+    return { ok: false, message: found.message };
   }
+  const data = found.data;
   const present = TABLE_MIME_PREFERENCE.filter(m => data[m] !== undefined && data[m] !== null);
-  const refusals: string[] = [];
+  const refused: string[] = [];
+  const refusals: ICoreMessage[] = [];
   for (const mime of present) {
     const result = attempt(() => parseMimeOrThrow(mime, data[mime]));
     if (result.ok) {
@@ -124,27 +132,42 @@ export function parseOutput(bundle: Readonly<Record<string, unknown>>): ParseRes
         try {
           crossCheckDataResource(result.table, data, (m, p) => attempt(() => parseMimeOrThrow(m, p)));
         } catch {
-          result.table.notes.push({ kind: 'info', message: 'The displays beside the dataresource could not be compared with it.' });
+          result.table.notes.push({
+            kind: 'info',
+            message: msg('table.crosscheck-failed', 'The displays beside the dataresource could not be compared with it.')
+          });
         }
       }
       if (refusals.length > 0) {
-        result.table.notes.push({ kind: 'info', message: `Read from ${mime}; richer types of this output could not be read. ${refusals.join(' ')}` });
+        // The refusal of each richer type follows as a note of its own.
+        result.table.notes.push(
+          { kind: 'info', message: msg('table.read-from-poorer', 'Read from %1: the richer types of this output (%2) could not be read.', mime, refused.join(', ')) },
+          ...refusals.map(message => ({ kind: 'info' as const, message }))
+        );
       }
-      return result;
+      return { ok: true, table: result.table };
     }
-    if (!('noTable' in result)) {
-      refusals.push(`${mime}: ${result.message}`);
+    if (result.noTable !== true) {
+      refused.push(mime);
+      refusals.push(result.message);
     }
   }
-  if (refusals.length > 0) {
-    return { ok: false, message: `This output's table could not be read. ${refusals.join(' ')}` };
+  if (refusals.length === 1) {
+    return { ok: false, message: refusals[0] };
+  }
+  if (refusals.length > 1) {
+    return {
+      ok: false,
+      message: msg('table.unreadable', 'This output’s table could not be read from any of its types (%1).', refused.join(', ')),
+      details: refusals
+    };
   }
   const mimes = Object.keys(data);
   return {
     ok: false,
     message:
       mimes.length === 0
-        ? 'This output holds no table: it is empty.'
-        : `This output holds no table: it has only ${mimes.slice(0, 4).join(', ')}.`
+        ? msg('table.output-empty', 'This output holds no table: it is empty.')
+        : msg('table.output-no-table-types', 'This output holds no table: it has only %1.', mimes.slice(0, 4).join(', '))
   };
 }

@@ -4,7 +4,9 @@
  */
 import { columnFromJson, columnFromText } from './columns';
 import type { JsonKindHint } from './columns';
-import { checkCellDepth, checkRowAndColumnCounts, checkTextSize } from './limits';
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { checkCellDepth, checkRowAndColumnCounts, checkTextSize, shortHeader } from './limits';
 import type { IColumn, ITable } from './types';
 import { TableParseError } from './types';
 
@@ -13,21 +15,21 @@ export function isRecord(v: unknown): v is Record<string, unknown> {
   return v !== null && typeof v === 'object' && !Array.isArray(v);
 }
 
-/** Describe a JSON value's type for messages. */
+/** The JSON type of a value, named as JSON names it (for messages: 'null', 'array', 'object', 'string', 'number', 'boolean'). */
 export function jsonType(v: unknown): string {
-  return v === null ? 'null' : Array.isArray(v) ? 'an array' : typeof v === 'object' ? 'an object' : `a ${typeof v}`;
+  return v === null ? 'null' : Array.isArray(v) ? 'array' : typeof v;
 }
 
 /** Parse JSON text, or pass an already-parsed value through. */
-export function jsonValue(payload: unknown, what: string): unknown {
+export function jsonValue(payload: unknown, source: 'JSON' | 'dataresource'): unknown {
   if (typeof payload !== 'string') {
     return payload;
   }
-  checkTextSize(payload.length, what);
+  checkTextSize(payload.length, source);
   try {
     return JSON.parse(payload) as unknown;
   } catch (e) {
-    throw new TableParseError(`${what} is not valid JSON: ${e instanceof Error ? e.message : String(e)}.`);
+    throw new TableParseError(msg('table.json.invalid', 'The %1 output is not valid JSON (%2).', source, e instanceof Error ? e.message : String(e)));
   }
 }
 
@@ -35,7 +37,7 @@ export function jsonValue(payload: unknown, what: string): unknown {
  * Column-wise cells gathered from records, with keys in order of first appearance.
  * Refuses non-object rows and over-deep cells, naming the row (and column).
  */
-export function collectRecords(rows: readonly unknown[], what: string, keys: string[] = []): Map<string, unknown[]> {
+export function collectRecords(rows: readonly unknown[], what: 'JSON' | 'dataresource', keys: string[] = []): Map<string, unknown[]> {
   checkRowAndColumnCounts(rows.length, keys.length, what);
   const columns = new Map<string, unknown[]>();
   for (const k of keys) {
@@ -44,7 +46,9 @@ export function collectRecords(rows: readonly unknown[], what: string, keys: str
   for (let r = 0; r < rows.length; r++) {
     const row = rows[r];
     if (!isRecord(row)) {
-      throw new TableParseError(`Row ${r + 1} of the ${what} is ${jsonType(row)}, not an object of column values.`);
+      throw new TableParseError(
+        msg('table.json.record-not-object', 'Row %1 of the %2 records is of type %3, not an object of column values.', wholeNumber(r + 1), what, jsonType(row))
+      );
     }
     for (const [k, v] of Object.entries(row)) {
       let col = columns.get(k);
@@ -71,16 +75,16 @@ function tableFromColumns(columns: Iterable<[string, unknown[]]>, rowCount: numb
 
 /** Parse a JSON table payload (text or parsed value). */
 export function parseJsonTable(payload: unknown): ITable {
-  const value = jsonValue(payload, 'The JSON text');
+  const value = jsonValue(payload, 'JSON');
   if (Array.isArray(value)) {
     if (value.length === 0) {
-      throw new TableParseError('The JSON records list is empty: it has no rows or columns.', 'no-table');
+      throw new TableParseError(msg('table.json.empty-records', 'The JSON records list is empty: it has no rows or columns.'), 'no-table');
     }
-    const columns = collectRecords(value, 'JSON records');
+    const columns = collectRecords(value, 'JSON');
     return tableFromColumns(columns, value.length, null);
   }
   if (!isRecord(value)) {
-    throw new TableParseError(`The JSON payload is ${jsonType(value)}, not a table (records or column arrays).`, 'no-table');
+    throw new TableParseError(msg('table.json.not-table', 'The JSON output holds a value of type %1, not a table (records or column arrays).', jsonType(value)), 'no-table');
   }
   if (Array.isArray(value.columns) && Array.isArray(value.data)) {
     return parseSplit(value.columns, value.data, value.index);
@@ -91,7 +95,7 @@ export function parseJsonTable(payload: unknown): ITable {
 function parseColumnObject(value: Record<string, unknown>): ITable {
   const entries = Object.entries(value);
   if (entries.length === 0) {
-    throw new TableParseError('The JSON object is empty: it has no columns.', 'no-table');
+    throw new TableParseError(msg('table.json.empty-object', 'The JSON object is empty: it has no columns.'), 'no-table');
   }
   const allArrays = entries.every(([, v]) => Array.isArray(v));
   const allObjects = entries.every(([, v]) => isRecord(v));
@@ -99,18 +103,30 @@ function parseColumnObject(value: Record<string, unknown>): ITable {
     const bad = entries.find(([, v]) => !Array.isArray(v) && !isRecord(v)) ?? entries.find(([, v]) => !Array.isArray(v));
     const [k, v] = bad ?? entries[0];
     throw new TableParseError(
-      `Column '${k.slice(0, 40)}' of the JSON object holds ${jsonType(v)}; every column must be an array, or every column an object keyed by row.`
+      msg(
+        'table.json.mixed-columns',
+        'Column “%1” of the JSON object holds a value of type %2; every column must be an array, or every column an object keyed by row.',
+        shortHeader(k),
+        jsonType(v)
+      )
     );
   }
   if (allArrays) {
     const rowCount = (entries[0][1] as unknown[]).length;
-    checkRowAndColumnCounts(rowCount, entries.length, 'JSON column');
+    checkRowAndColumnCounts(rowCount, entries.length, 'JSON');
     const columns = new Map<string, unknown[]>();
     for (const [k, v] of entries) {
       const arr = v as unknown[];
       if (arr.length !== rowCount) {
         throw new TableParseError(
-          `Column '${k.slice(0, 40)}' of the JSON object has ${arr.length} values but column '${entries[0][0].slice(0, 40)}' has ${rowCount}.`
+          msg(
+            'table.json.column-lengths',
+            'Column “%1” of the JSON object has %2 values but column “%3” has %4.',
+            shortHeader(k),
+            wholeNumber(arr.length),
+            shortHeader(entries[0][0]),
+            wholeNumber(rowCount)
+          )
         );
       }
       arr.forEach((cell, r) => checkCellDepth(cell, r, k));
@@ -126,7 +142,7 @@ function parseColumnObject(value: Record<string, unknown>): ITable {
       }
     }
   }
-  checkRowAndColumnCounts(rowKeys.size, entries.length + 1, 'JSON column');
+  checkRowAndColumnCounts(rowKeys.size, entries.length + 1, 'JSON');
   const columns = new Map<string, unknown[]>();
   for (const [k, v] of entries) {
     const col = new Array<unknown>(rowKeys.size).fill(null);
@@ -143,15 +159,17 @@ function parseColumnObject(value: Record<string, unknown>): ITable {
 
 function parseSplit(names: unknown[], data: unknown[], index: unknown): ITable {
   const keys = names.map(n => (typeof n === 'string' ? n : JSON.stringify(n) ?? String(n)));
-  checkRowAndColumnCounts(data.length, keys.length + 1, 'JSON split');
+  checkRowAndColumnCounts(data.length, keys.length + 1, 'JSON');
   const columns: [string, unknown[]][] = keys.map(k => [k, new Array<unknown>(data.length).fill(null)]);
   const cols = columns.map(([, v]) => v);
   data.forEach((row, r) => {
     if (!Array.isArray(row)) {
-      throw new TableParseError(`Row ${r + 1} of the JSON 'data' is ${jsonType(row)}, not an array of cells.`);
+      throw new TableParseError(msg('table.json.split-row-not-list', 'Row %1 of the JSON “data” is of type %2, not a list of cells.', wholeNumber(r + 1), jsonType(row)));
     }
     if (row.length > keys.length) {
-      throw new TableParseError(`Row ${r + 1} of the JSON 'data' has ${row.length} cells but there are ${keys.length} columns.`);
+      throw new TableParseError(
+        msg('table.json.split-row-too-wide', 'Row %1 of the JSON “data” has %2 cells but there are %3 columns.', wholeNumber(r + 1), wholeNumber(row.length), wholeNumber(keys.length))
+      );
     }
     row.forEach((cell, c) => {
       checkCellDepth(cell, r, keys[c]);
@@ -161,7 +179,9 @@ function parseSplit(names: unknown[], data: unknown[], index: unknown): ITable {
   let indexColumn: IColumn | null = null;
   if (Array.isArray(index)) {
     if (index.length !== data.length) {
-      throw new TableParseError(`The JSON 'index' has ${index.length} entries but 'data' has ${data.length} rows.`);
+      throw new TableParseError(
+        msg('table.json.split-index-length', 'The JSON “index” has %1 entries but “data” has %2 rows.', wholeNumber(index.length), wholeNumber(data.length))
+      );
     }
     index.forEach((cell, r) => checkCellDepth(cell, r, 'index'));
     indexColumn = columnFromJson('index', index, { isIndex: true, hint: 'infer', colIndex: 0 });

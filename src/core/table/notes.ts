@@ -2,6 +2,10 @@
  * Wording of the 'truncated' and 'rounded' notes, with the two remedies:
  * read the underlying CSV file, or display the frame as text/csv.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
+import { shortHeader } from './limits';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 
 /**
@@ -10,44 +14,86 @@ import type { IColumn, ITable, ITableNote, ITruncation } from './types';
  */
 export const CSV_DISPLAY_SNIPPET = "from IPython.display import display\ndisplay({'text/csv': df.to_csv()}, raw=True)";
 
-const REMEDIES =
-  'For every row at full precision, open the underlying CSV file, or display the frame as text/csv ' +
-  `in the notebook (with your frame's name for df):\n${CSV_DISPLAY_SNIPPET}`;
+/** Where a truncated table came from: a pandas HTML or text display, or a dataresource payload. */
+export type TruncatedSource = 'html' | 'text' | 'dataresource';
 
-/** Note for a display that showed only part of the frame. */
-export function truncatedNote(t: ITruncation, source: string): ITableNote {
-  const parts: string[] = [];
-  if (t.totalRows !== null && t.totalRows > t.shownRows) {
-    const gap = t.rowGapAt !== null ? ` (rows elided after row ${t.rowGapAt} are marked '...' in the display)` : '';
-    parts.push(`only ${t.shownRows} of ${t.totalRows} rows are shown${gap}`);
-  } else if (t.rowGapAt !== null) {
-    parts.push(`rows were elided after row ${t.rowGapAt} (marked '...'); the total row count is not stated`);
+/** The first 'truncated' note: what kind of output was cut, and the remedy. */
+function truncatedHeadline(source: TruncatedSource): ICoreMessage {
+  switch (source) {
+    case 'html':
+      return msg(
+        'table.truncated.html',
+        'This HTML display is truncated: the table holds only what was shown. For every row at full precision, open the underlying CSV file, or display the frame as text/csv in the notebook (with your frame’s name for df):\n%1',
+        CSV_DISPLAY_SNIPPET
+      );
+    case 'text':
+      return msg(
+        'table.truncated.text',
+        'This text display is truncated: the table holds only what was shown. For every row at full precision, open the underlying CSV file, or display the frame as text/csv in the notebook (with your frame’s name for df):\n%1',
+        CSV_DISPLAY_SNIPPET
+      );
+    default:
+      return msg(
+        'table.truncated.dataresource',
+        'This dataresource output is truncated (pandas sends only the first display.max_rows rows): the table holds only what was sent. For every row at full precision, open the underlying CSV file, or display the frame as text/csv in the notebook (with your frame’s name for df):\n%1',
+        CSV_DISPLAY_SNIPPET
+      );
   }
-  if (t.totalColumns !== null && t.totalColumns > t.shownColumns) {
-    parts.push(`only ${t.shownColumns} of ${t.totalColumns} data columns are shown`);
-  } else if (t.totalColumns === null && parts.length === 0) {
-    parts.push('some columns were elided (marked \'...\')');
-  }
-  return {
-    kind: 'truncated',
-    message: `This ${source} is truncated: ${parts.join('; ')}. The table holds only what was shown. ${REMEDIES}`
-  };
 }
 
-/** Note for numbers shown rounded; lists the columns concerned. */
-export function roundedNote(columns: readonly IColumn[], how: string): ITableNote | null {
+/**
+ * Notes for a display that showed only part of the frame: the kind of output
+ * and the remedy, then what was cut (rows, columns), all of kind 'truncated'.
+ */
+export function truncatedNotes(t: ITruncation, source: TruncatedSource): ITableNote[] {
+  const parts: ICoreMessage[] = [];
+  if (t.totalRows !== null && t.totalRows > t.shownRows) {
+    parts.push(
+      t.rowGapAt !== null
+        ? msg('table.truncated.rows-gap', 'Only %1 of %2 rows are shown; the rows elided after row %3 are marked “...” in the display.', wholeNumber(t.shownRows), wholeNumber(t.totalRows), wholeNumber(t.rowGapAt))
+        : msg('table.truncated.rows', 'Only %1 of %2 rows are shown.', wholeNumber(t.shownRows), wholeNumber(t.totalRows))
+    );
+  } else if (t.rowGapAt !== null) {
+    parts.push(msg('table.truncated.gap', 'Rows were elided after row %1 (marked “...”); the display does not state how many rows there are.', wholeNumber(t.rowGapAt)));
+  }
+  if (t.totalColumns !== null && t.totalColumns > t.shownColumns) {
+    parts.push(msg('table.truncated.columns', 'Only %1 of %2 data columns are shown.', wholeNumber(t.shownColumns), wholeNumber(t.totalColumns)));
+  } else if (t.totalColumns === null && parts.length === 0) {
+    parts.push(msg('table.truncated.columns-elided', 'Some columns were elided (marked “...”).'));
+  }
+  return [truncatedHeadline(source), ...parts].map(message => ({ kind: 'truncated', message }));
+}
+
+/** How the numbers of a table were rounded: by pandas' display, or by pandas' to_json. */
+export type RoundedBy = 'display' | 'json';
+
+/** Note for numbers shown rounded; lists the columns concerned with the significant digits shown. */
+export function roundedNote(columns: readonly IColumn[], by: RoundedBy): ITableNote | null {
   const rounded = columns.filter(c => c.shownDigits !== undefined);
   if (rounded.length === 0) {
     return null;
   }
-  const names = rounded
-    .slice(0, 6)
-    .map(c => `'${c.header}' (${c.shownDigits} significant digits)`)
-    .join(', ');
-  const more = rounded.length > 6 ? ` and ${rounded.length - 6} more` : '';
+  const names =
+    rounded
+      .slice(0, 6)
+      .map(c => `“${shortHeader(c.header)}” (${c.shownDigits})`)
+      .join(', ') + (rounded.length > 6 ? ', …' : '');
   return {
     kind: 'rounded',
-    message: `Numbers in ${names}${more} are as displayed: ${how}. ${REMEDIES}`
+    message:
+      by === 'display'
+        ? msg(
+            'table.rounded.display',
+            'Numbers in %1 (significant digits shown in brackets) are as displayed: pandas shows floats to 6 decimal places by default (display.precision). For every row at full precision, open the underlying CSV file, or display the frame as text/csv in the notebook (with your frame’s name for df):\n%2',
+            names,
+            CSV_DISPLAY_SNIPPET
+          )
+        : msg(
+            'table.rounded.json',
+            'Numbers in %1 (significant digits shown in brackets) are as sent: pandas’ dataresource JSON (to_json) writes floats to 10 decimal places. For every row at full precision, open the underlying CSV file, or display the frame as text/csv in the notebook (with your frame’s name for df):\n%2',
+            names,
+            CSV_DISPLAY_SNIPPET
+          )
   };
 }
 
@@ -59,15 +105,15 @@ export function shapeFooter(text: string): { rows: number; columns: number } | n
 }
 
 /**
- * Adds to a table read from a pandas display the 'truncated' note first
+ * Adds to a table read from a pandas display the 'truncated' notes first
  * (when `hidden`, also setting `table.truncation`) and the 'rounded' note last.
  */
-export function addDisplayNotes(table: ITable, truncation: ITruncation, hidden: boolean, source: string): void {
+export function addDisplayNotes(table: ITable, truncation: ITruncation, hidden: boolean, source: 'html' | 'text'): void {
   if (hidden) {
     table.truncation = truncation;
-    table.notes.unshift(truncatedNote(truncation, source));
+    table.notes.unshift(...truncatedNotes(truncation, source));
   }
-  const rounded = roundedNote(table.columns, 'pandas shows floats to 6 decimal places by default (display.precision)');
+  const rounded = roundedNote(table.columns, 'display');
   if (rounded) {
     table.notes.push(rounded);
   }

@@ -9,6 +9,9 @@
  * MultiIndex columns take several header lines (upper labels carry over to the
  * columns on their right); a names row below the header gives index names.
  */
+import { msg } from '../messages';
+import type { ICoreMessage } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import { addDisplayNotes, shapeFooter } from './notes';
@@ -16,7 +19,8 @@ import { parseSeriesLines, seriesFooter } from './textseries';
 import type { IColumn, ITable, ITableNote, ITruncation } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
 
-const NO_TABLE = 'The text is not a pandas table display';
+/** The text needs a header line and at least one row. */
+const tooShort = (): ICoreMessage => msg('table.text.too-short', 'The text is not a pandas table display: it needs a header line and at least one row.');
 const ELLIPSIS = new Set(['...', '..', '…']);
 
 interface IField {
@@ -66,7 +70,7 @@ function withoutColumnsName(line: string): string {
 function parseBlock(raw: readonly string[], headerCount: number): IBlock {
   const lines = raw.map(l => (l.endsWith('\\') ? l.slice(0, -1) : l).trimEnd());
   if (lines.length < headerCount + 1) {
-    throw new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
+    throw new TableParseError(tooShort(), 'no-table');
   }
   const headerLines = lines.slice(0, headerCount).map(withoutColumnsName);
   const header = headerLines[headerCount - 1];
@@ -81,12 +85,12 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
   const width = lines.reduce((w, l) => Math.max(w, l.length), 0);
   const rowEnds = new Set(body.filter(l => !isEllipsisLine(l)).map(l => l.length));
   if (body.length === 0 || rowEnds.size > 1 || !rowEnds.has(lines[headerCount - 1].length)) {
-    throw new TableParseError(`${NO_TABLE}: its lines are not aligned in fixed-width columns.`, 'no-table');
+    throw new TableParseError(msg('table.text.not-aligned', 'The text is not a pandas table display: its lines are not aligned in fixed-width columns.'), 'no-table');
   }
   const fields = fieldsOf(body.filter(l => !isEllipsisLine(l)), width);
   const nIndex = fields.findIndex(f => slice(header, f) !== '');
   if (nIndex <= 0) {
-    throw new TableParseError(`${NO_TABLE}: no index column was found left of the column labels.`, 'no-table');
+    throw new TableParseError(msg('table.text.no-index', 'The text is not a pandas table display: no index column was found left of the column labels.'), 'no-table');
   }
   const indexFields = fields.slice(0, nIndex);
   const dataFields: IField[] = [];
@@ -100,7 +104,7 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
     pendingStart = null;
   }
   if (pendingStart !== null || dataFields.length === 0) {
-    throw new TableParseError(`${NO_TABLE}: some of its columns have no label.`, 'no-table');
+    throw new TableParseError(msg('table.text.unlabelled', 'The text is not a pandas table display: some of its columns have no label.'), 'no-table');
   }
   for (let k = 0; k < dataFields.length; k++) {
     const prevEnd = k === 0 ? indexFields[indexFields.length - 1].end : dataFields[k - 1].end;
@@ -125,7 +129,16 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
         t = previous ?? '';
       }
       if (t.length > TABLE_LIMITS.maxCellChars) {
-        throw new TableParseError(`The cell in row ${r + 1}, index level ${k + 1} holds ${t.length} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`);
+        throw new TableParseError(
+          msg(
+            'table.text.index-cell-too-long',
+            'The cell in row %1, index level %2 holds %3 characters; at most %4 can be read.',
+            wholeNumber(r + 1),
+            k + 1,
+            wholeNumber(t.length),
+            wholeNumber(TABLE_LIMITS.maxCellChars)
+          )
+        );
       }
       previous = t;
       cells.push(t);
@@ -167,7 +180,7 @@ function parseBlockAnyHeader(raw: readonly string[]): IBlock {
       first ??= e;
     }
   }
-  throw first ?? new TableParseError(`${NO_TABLE}: it needs a header line and at least one row.`, 'no-table');
+  throw first ?? new TableParseError(tooShort(), 'no-table');
 }
 
 function isEllipsisLine(line: string): boolean {
@@ -177,7 +190,7 @@ function isEllipsisLine(line: string): boolean {
 
 /** Parse the plain-text repr of a pandas DataFrame. */
 export function parsePandasText(text: string): ITable {
-  checkTextSize(text.length, 'The text');
+  checkTextSize(text.length, 'text');
   const lines = text.replace(/\r\n?/g, '\n').split('\n');
   while (lines.length > 0 && lines[lines.length - 1].trim() === '') {
     lines.pop();
@@ -191,7 +204,7 @@ export function parsePandasText(text: string): ITable {
     return parseSeriesLines(lines.slice(0, -1), series);
   }
   if (lines.length > 0 && lines[0].startsWith('Empty DataFrame')) {
-    throw new TableParseError('The text shows an empty DataFrame (no rows).', 'no-table');
+    throw new TableParseError(msg('table.text.empty-frame', 'The text shows an empty DataFrame (no rows).'), 'no-table');
   }
   const blocks: string[][] = [[]];
   for (const line of lines) {
@@ -205,12 +218,21 @@ export function parsePandasText(text: string): ITable {
   }
   const parsed = blocks.filter(b => b.length > 0).map(parseBlockAnyHeader);
   if (parsed.length === 0) {
-    throw new TableParseError(`${NO_TABLE}: it is empty.`, 'no-table');
+    throw new TableParseError(msg('table.text.empty', 'The text is not a pandas table display: it is empty.'), 'no-table');
   }
   const first = parsed[0];
   const bad = parsed.findIndex(b => b.rows !== first.rows);
   if (bad > 0) {
-    throw new TableParseError(`${NO_TABLE}: wrapped block ${bad + 1} has ${parsed[bad].rows} rows but block 1 has ${first.rows}.`, 'no-table');
+    throw new TableParseError(
+      msg(
+        'table.text.blocks-differ',
+        'The text is not a pandas table display: wrapped block %1 has %2 rows but block 1 has %3.',
+        bad + 1,
+        wholeNumber(parsed[bad].rows),
+        wholeNumber(first.rows)
+      ),
+      'no-table'
+    );
   }
   const columns = [...first.index, ...parsed.flatMap(b => b.data)];
   const notes: ITableNote[] = [];
@@ -225,6 +247,6 @@ export function parsePandasText(text: string): ITable {
     rowGapAt: first.rowGapAt
   };
   const hidden = first.rowGapAt !== null || elided > 0 || (footer !== null && (footer.rows > first.rows || footer.columns > dataColumns));
-  addDisplayNotes(table, truncation, hidden, 'text display');
+  addDisplayNotes(table, truncation, hidden, 'text');
   return table;
 }

@@ -3,6 +3,8 @@
  * line, then a footer `Name: x, Length: N, dtype: float64`. Index values are
  * left-justified and followed by at least two spaces; values are right-justified.
  */
+import { msg } from '../messages';
+import { wholeNumber } from '../numeric/messageArgs';
 import { columnFromText } from './columns';
 import { checkRowAndColumnCounts } from './limits';
 import { addDisplayNotes } from './notes';
@@ -26,7 +28,7 @@ export function parseSeriesLines(lines: readonly string[], footer: { name: strin
     body = body.slice(1);
   }
   if (body.length === 0) {
-    throw new TableParseError('The text shows an empty Series (no rows).', 'no-table');
+    throw new TableParseError(msg('table.text.empty-series', 'The text shows an empty Series (no rows).'), 'no-table');
   }
   checkRowAndColumnCounts(body.length, 2, 'text');
   const index: string[] = [];
@@ -39,10 +41,12 @@ export function parseSeriesLines(lines: readonly string[], footer: { name: strin
     }
     const m = /^(\S.*?)\s{2,}(\S.*)$/.exec(line.trimEnd());
     if (!m) {
-      throw new TableParseError(`The text is not a pandas Series display: line ${r + 1} has no index and value.`, 'no-table');
+      throw new TableParseError(msg('table.text.not-series', 'The text is not a pandas Series display: line %1 has no index and value.', wholeNumber(r + 1)), 'no-table');
     }
     if (m[1].length > TABLE_LIMITS.maxCellChars || m[2].length > TABLE_LIMITS.maxCellChars) {
-      throw new TableParseError(`The cell in row ${r + 1} holds more than ${TABLE_LIMITS.maxCellChars} characters; that is the limit.`);
+      throw new TableParseError(
+        msg('table.text.series-cell-too-long', 'The cell in row %1 holds more than %2 characters, the most that can be read.', wholeNumber(r + 1), wholeNumber(TABLE_LIMITS.maxCellChars))
+      );
     }
     index.push(m[1].trim());
     values.push(m[2].trim());
@@ -54,6 +58,6 @@ export function parseSeriesLines(lines: readonly string[], footer: { name: strin
   const notes: ITableNote[] = [];
   const table: ITable = { columns, rowCount: index.length, format: 'pandas-text', notes };
   const truncation: ITruncation = { shownRows: index.length, totalRows: footer.length, shownColumns: 1, totalColumns: 1, rowGapAt };
-  addDisplayNotes(table, truncation, rowGapAt !== null || (footer.length !== null && footer.length > index.length), 'text display');
+  addDisplayNotes(table, truncation, rowGapAt !== null || (footer.length !== null && footer.length > index.length), 'text');
   return table;
 }

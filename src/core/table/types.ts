@@ -5,6 +5,8 @@
  * The parsers are pure: nothing from an output is executed or inserted into
  * a page. HTML is parsed into an inert tree by parse5 and only its text is read.
  */
+import { CoreMessageError } from '../messages';
+import type { ICoreMessage } from '../messages';
 
 /** The value kind of a parsed column. */
 export type ColumnKind = 'number' | 'string' | 'boolean' | 'datetime';
@@ -30,10 +32,15 @@ export interface IColumn {
   shownDigits?: number;
 }
 
-/** A note attached to a parse result: truncation, rounding, or other information. */
+/**
+ * A note attached to a parse result: truncation, rounding, or other
+ * information. A truncated display gives several 'truncated' notes: what was
+ * cut (rows, columns) and the remedy.
+ */
 export interface ITableNote {
   kind: 'truncated' | 'rounded' | 'info';
-  message: string;
+  /** Codes `table.truncated.*`, `table.rounded.*` and others of `table.*`. */
+  message: ICoreMessage;
 }
 
 /** What a truncated display showed and hid. */
@@ -60,8 +67,12 @@ export interface ITable {
   truncation?: ITruncation;
 }
 
-/** Result of a parse: a table, or a plain message saying why there is none. */
-export type ParseResult = { ok: true; table: ITable } | { ok: false; message: string };
+/**
+ * Result of a parse: a table, or a message saying why there is none. When
+ * several types of an output were refused, `message` says so and `details`
+ * holds each refusal (richest type first).
+ */
+export type ParseResult = { ok: true; table: ITable } | { ok: false; message: ICoreMessage; details?: ICoreMessage[] };
 
 /** Size and nesting limits applied to every payload before and while parsing. */
 export interface ITableLimits {
@@ -88,13 +99,14 @@ export const TABLE_LIMITS: ITableLimits = Object.freeze({
 
 /**
  * A refusal raised inside a parser and turned into `{ ok: false, message }`
- * at the public boundary. The message names the row and/or column concerned.
+ * at the public boundary. Its `detail` (codes `table.*`) names the row and/or
+ * column concerned.
  */
-export class TableParseError extends Error {
+export class TableParseError extends CoreMessageError {
   /** 'no-table': the payload holds no table at all; 'refused': a table that is malformed or over a limit. */
   readonly reason: 'refused' | 'no-table';
-  constructor(message: string, reason: 'refused' | 'no-table' = 'refused') {
-    super(message);
+  constructor(detail: ICoreMessage, reason: 'refused' | 'no-table' = 'refused') {
+    super(detail);
     this.name = 'TableParseError';
     this.reason = reason;
   }

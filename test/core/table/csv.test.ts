@@ -1,7 +1,8 @@
 /** CSV / TSV parsing through parseMime. */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
-import { table, values } from './helpers';
+import { plain, table, values } from './helpers';
 
 describe('CSV', () => {
   it('reads a to_csv() frame: unnamed index, units, NaN, ±inf, bools, dates, strings', () => {
@@ -64,27 +65,28 @@ describe('CSV', () => {
 
   it('refuses rows wider than the header, naming the row', () => {
     const r = parseMime('text/csv', 'a,b\n1,2\n3,4,5\n');
-    expect(r).toEqual({ ok: false, message: 'Row 2 of the CSV text has 3 cells but the header has 2 columns.' });
+    expect(plain(r)).toEqual({ ok: false, message: 'Row 2 of the CSV text has 3 cells but the header has 2 columns.' });
   });
 
   it('refuses an unclosed quote, naming the row', () => {
     const r = parseMime('text/csv', 'a,b\n1,2\n3,"4\n');
     expect(r.ok).toBe(false);
-    expect(!r.ok && r.message).toMatch(/unclosed quote in row \d+/);
+    expect(!r.ok && messageText(r.message)).toMatch(/unclosed quote in row \d+/);
   });
 
   it('refuses empty text and a huge cell, naming row and column', () => {
-    expect(parseMime('text/csv', '')).toEqual({ ok: false, message: 'The CSV text is empty: it has no header row.' });
+    expect(plain(parseMime('text/csv', ''))).toEqual({ ok: false, message: 'The CSV text is empty: it has no header row.' });
     const r = parseMime('text/csv', `a,b\n1,${'x'.repeat(TABLE_LIMITS.maxCellChars + 1)}\n`);
-    expect(!r.ok && r.message).toBe(
-      `The cell in row 1, column 2 ('b') holds ${TABLE_LIMITS.maxCellChars + 1} characters; the limit is ${TABLE_LIMITS.maxCellChars}.`
+    expect(!r.ok && messageText(r.message)).toBe(
+      `The cell in row 1, column 2 (“b”) holds ${TABLE_LIMITS.maxCellChars + 1} characters; at most ${TABLE_LIMITS.maxCellChars} can be read.`
     );
   });
 
   it('refuses too many columns, naming the first column past the limit', () => {
     const header = Array.from({ length: TABLE_LIMITS.maxColumns + 1 }, (_, i) => `c${i}`).join(',');
     const r = parseMime('text/csv', `${header}\n`);
-    expect(!r.ok && r.message).toContain(`column ${TABLE_LIMITS.maxColumns + 1} is the first past it`);
+    expect(!r.ok && r.message.code).toBe('table.too-many-columns');
+    expect(!r.ok && messageText(r.message)).toContain(`(column ${TABLE_LIMITS.maxColumns + 1} is the first past the limit)`);
   });
 
   it('header only gives an empty table; a named first column is not an index', () => {

@@ -9,6 +9,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { parseMime, parseOutput } from '../../../src/core/table/index';
 import { CSV_DISPLAY_SNIPPET } from '../../../src/core/table/notes';
 import type { IColumn, ITable } from '../../../src/core/table/index';
@@ -123,7 +124,7 @@ describe('pandas fixtures parse to their to_csv() ground truth', () => {
 
       it('text/html parses to the truth (rounded columns flagged)', () => {
         const r = parseMime('text/html', fx['text/html']);
-        expect(r.ok, r.ok ? '' : r.message).toBe(true);
+        expect(r.ok, r.ok ? '' : messageText(r.message)).toBe(true);
         if (r.ok) {
           expect(r.table.format).toBe('pandas-html');
           expectMatchesTruth(r.table, fx, DISPLAY_TOL);
@@ -132,7 +133,7 @@ describe('pandas fixtures parse to their to_csv() ground truth', () => {
 
       it('text/plain parses to the truth (rounded columns flagged)', () => {
         const r = parseMime('text/plain', fx['text/plain']);
-        expect(r.ok, r.ok ? '' : r.message).toBe(true);
+        expect(r.ok, r.ok ? '' : messageText(r.message)).toBe(true);
         if (r.ok) {
           expect(r.table.format).toBe('pandas-text');
           expectMatchesTruth(r.table, fx, DISPLAY_TOL);
@@ -142,7 +143,7 @@ describe('pandas fixtures parse to their to_csv() ground truth', () => {
       if (fx['application/vnd.dataresource+json'] !== null) {
         it('dataresource parses to the truth (±inf is null in pandas JSON)', () => {
           const r = parseMime('application/vnd.dataresource+json', fx['application/vnd.dataresource+json']);
-          expect(r.ok, r.ok ? '' : r.message).toBe(true);
+          expect(r.ok, r.ok ? '' : messageText(r.message)).toBe(true);
           if (r.ok) {
             expect(r.table.format).toBe('dataresource');
             // pandas sends df.head(display.max_rows); alone, the payload cannot tell (see the cross-check test below).
@@ -179,10 +180,13 @@ describe('truncated displays are explained, never taken as the whole table', () 
     expect(r.ok).toBe(true);
     if (r.ok) {
       expect(r.table.truncation).toEqual({ shownRows: 10, totalRows: 100, shownColumns: 3, totalColumns: 3, rowGapAt: 5 });
-      const note = r.table.notes.find(n => n.kind === 'truncated');
-      expect(note?.message).toContain('only 10 of 100 rows');
-      expect(note?.message).toContain('CSV file');
-      expect(note?.message).toContain("display({'text/csv': df.to_csv()}, raw=True)");
+      const note = r.table.notes
+        .filter(n => n.kind === 'truncated')
+        .map(n => messageText(n.message))
+        .join(' ');
+      expect(note).toContain('Only 10 of 100 rows');
+      expect(note).toContain('CSV file');
+      expect(note).toContain("display({'text/csv': df.to_csv()}, raw=True)");
     }
   });
   it('text repr: "[100 rows x 3 columns]" footer read', () => {
@@ -211,7 +215,7 @@ describe('infinities lost by pandas dataresource JSON are restored from the disp
     if (r.ok) {
       const x = r.table.columns.find(c => c.header === 'x')?.values as Float64Array;
       expect(Array.from(x)).toEqual([1.5, NaN, Infinity, -Infinity, 0.25]);
-      expect(r.table.notes.some(n => n.kind === 'info' && n.message.includes('restored'))).toBe(true);
+      expect(r.table.notes.some(n => n.kind === 'info' && messageText(n.message).includes('restored'))).toBe(true);
     }
   });
 });

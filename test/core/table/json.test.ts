@@ -1,7 +1,8 @@
 /** JSON tables and dataresource payloads through parseMime. */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
-import { table, values } from './helpers';
+import { plain, table, values } from './helpers';
 
 function nested(depth: number): unknown {
   let v: unknown = 1;
@@ -54,22 +55,22 @@ describe('JSON records and columns', () => {
   });
 
   it('refusals name the row or column', () => {
-    expect(parseMime('application/json', [{ a: 1 }, 5])).toEqual({
+    expect(plain(parseMime('application/json', [{ a: 1 }, 5]))).toEqual({
       ok: false,
-      message: 'Row 2 of the JSON records is a number, not an object of column values.'
+      message: 'Row 2 of the JSON records is of type number, not an object of column values.'
     });
-    expect(parseMime('application/json', { a: [1, 2], b: [1] })).toEqual({
+    expect(plain(parseMime('application/json', { a: [1, 2], b: [1] }))).toEqual({
       ok: false,
-      message: "Column 'b' of the JSON object has 1 values but column 'a' has 2."
+      message: 'Column “b” of the JSON object has 1 values but column “a” has 2.'
     });
-    expect(parseMime('application/json', { a: [1], b: 3 })).toEqual({
+    expect(plain(parseMime('application/json', { a: [1], b: 3 }))).toEqual({
       ok: false,
-      message: "Column 'b' of the JSON object holds a number; every column must be an array, or every column an object keyed by row."
+      message: 'Column “b” of the JSON object holds a value of type number; every column must be an array, or every column an object keyed by row.'
     });
     const deep = parseMime('application/json', [{ a: 1 }, { a: nested(TABLE_LIMITS.maxDepth + 5) }]);
-    expect(deep).toEqual({ ok: false, message: `The cell in row 2, column 'a' is nested more than ${TABLE_LIMITS.maxDepth} levels deep.` });
+    expect(plain(deep)).toEqual({ ok: false, message: `The cell in row 2, column “a” is nested more than ${TABLE_LIMITS.maxDepth} levels deep.` });
     expect(parseMime('application/json', '{"a": [1,')).toMatchObject({ ok: false });
-    expect(parseMime('application/json', 42)).toEqual({ ok: false, message: 'The JSON payload is a number, not a table (records or column arrays).' });
+    expect(plain(parseMime('application/json', 42))).toEqual({ ok: false, message: 'The JSON output holds a value of type number, not a table (records or column arrays).' });
   });
 
   it('a shallow nested cell is kept as its JSON text', () => {
@@ -81,7 +82,7 @@ describe('JSON records and columns', () => {
     const n = 200_000;
     const r = parseMime('application/json', `[{"a":${'['.repeat(n)}${']'.repeat(n)}}]`);
     expect(r.ok).toBe(false);
-    expect(!r.ok && r.message).toContain("row 1, column 'a'");
+    expect(!r.ok && messageText(r.message)).toContain('row 1, column “a”');
   });
 });
 
@@ -128,13 +129,13 @@ describe('dataresource', () => {
     expect(t.notes.map(n => n.kind)).toEqual(['rounded']);
   });
   it('refusals name the field or row', () => {
-    expect(parseMime('application/vnd.dataresource+json', { schema: { fields: [{ type: 'number' }] }, data: [] })).toEqual({
+    expect(plain(parseMime('application/vnd.dataresource+json', { schema: { fields: [{ type: 'number' }] }, data: [] }))).toEqual({
       ok: false,
-      message: 'Field 1 (column 1) of the dataresource schema has no name.'
+      message: 'Column 1 of the dataresource schema has no name.'
     });
-    expect(parseMime('application/vnd.dataresource+json', { schema: { fields: [{ name: 'a' }] }, data: [{ a: 1 }, { b: 2 }] })).toEqual({
+    expect(plain(parseMime('application/vnd.dataresource+json', { schema: { fields: [{ name: 'a' }] }, data: [{ a: 1 }, { b: 2 }] }))).toEqual({
       ok: false,
-      message: "Row 2 of the dataresource data has a column 'b' that the schema does not list."
+      message: 'Row 2 of the dataresource data has a column “b” that the schema does not list.'
     });
     expect(parseMime('application/vnd.dataresource+json', { data: [] })).toMatchObject({ ok: false });
   });

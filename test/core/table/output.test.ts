@@ -1,7 +1,8 @@
 /** parseOutput: MIME preference, non-table outputs, nbformat shapes; and the pandas text repr. */
 import { describe, expect, it } from 'vitest';
+import { messageText } from '../../../src/core/messages';
 import { parseMime, parseOutput } from '../../../src/core/table/index';
-import { table, values } from './helpers';
+import { plain, table, values } from './helpers';
 
 const HTML = '<table class="dataframe"><thead><tr><th></th><th>a</th></tr></thead><tbody><tr><th>0</th><td>1.0</td></tr></tbody></table>';
 const PLAIN = '     a\n0  1.0';
@@ -22,17 +23,17 @@ describe('parseOutput', () => {
   });
 
   it('says plainly when there is no table', () => {
-    expect(parseOutput({ 'image/png': 'iVBORw0KGgo=', 'text/plain': '<Figure size 640x480 with 1 Axes>' })).toEqual({
+    expect(plain(parseOutput({ 'image/png': 'iVBORw0KGgo=', 'text/plain': '<Figure size 640x480 with 1 Axes>' }))).toEqual({
       ok: false,
       message: 'This output holds no table: it has only image/png, text/plain.'
     });
-    expect(parseOutput({ 'text/plain': "'just a string'" })).toEqual({ ok: false, message: 'This output holds no table: it has only text/plain.' });
-    expect(parseOutput({})).toEqual({ ok: false, message: 'This output holds no table: it is empty.' });
-    expect(parseOutput({ output_type: 'error', ename: 'NameError', evalue: 'x', traceback: [] })).toEqual({
+    expect(plain(parseOutput({ 'text/plain': "'just a string'" }))).toEqual({ ok: false, message: 'This output holds no table: it has only text/plain.' });
+    expect(plain(parseOutput({}))).toEqual({ ok: false, message: 'This output holds no table: it is empty.' });
+    expect(plain(parseOutput({ output_type: 'error', ename: 'NameError', evalue: 'x', traceback: [] }))).toEqual({
       ok: false,
       message: 'This output is an error (NameError), not a table.'
     });
-    expect(parseOutput({ output_type: 'stream', name: 'stdout', text: 'a b\n1 2\n' })).toEqual({
+    expect(plain(parseOutput({ output_type: 'stream', name: 'stdout', text: 'a b\n1 2\n' }))).toEqual({
       ok: false,
       message: 'This output is printed text (a stream), not a table.'
     });
@@ -46,12 +47,21 @@ describe('parseOutput', () => {
   it('notes when a richer type was refused and a poorer one read', () => {
     const t = table(parseOutput({ 'text/csv': 'a\n1,2\n', 'text/plain': PLAIN }));
     expect(t.format).toBe('pandas-text');
-    expect(t.notes.some(n => n.kind === 'info' && n.message.includes('text/csv: Row 1'))).toBe(true);
+    expect(t.notes.map(n => messageText(n.message))).toEqual([
+      'Read from text/plain: the richer types of this output (text/csv) could not be read.',
+      'Row 1 of the CSV text has 2 cells but the header has 1 columns.'
+    ]);
   });
 
   it('reports a refusal from a table that is over a limit or malformed', () => {
     const r = parseOutput({ 'text/csv': 'a\n1,2\n' });
-    expect(r).toEqual({ ok: false, message: "This output's table could not be read. text/csv: Row 1 of the CSV text has 2 cells but the header has 1 columns." });
+    expect(plain(r)).toEqual({ ok: false, message: 'Row 1 of the CSV text has 2 cells but the header has 1 columns.' });
+    const both = parseOutput({ 'text/csv': 'a\n1,2\n', 'application/json': '[1' });
+    expect(plain(both)).toEqual({
+      ok: false,
+      message: 'This output’s table could not be read from any of its types (text/csv, application/json).',
+      details: ['Row 1 of the CSV text has 2 cells but the header has 1 columns.', expect.stringMatching(/^The JSON output is not valid JSON \(/)]
+    });
   });
 });
 
@@ -76,7 +86,7 @@ describe('pandas text repr', () => {
   it('rejects prose and ragged text as no table', () => {
     expect(parseMime('text/plain', 'hello world')).toMatchObject({ ok: false });
     expect(parseMime('text/plain', 'The fit converged\nafter 12 iterations.')).toMatchObject({ ok: false });
-    expect(parseMime('text/plain', 'Empty DataFrame\nColumns: [a]\nIndex: []')).toEqual({ ok: false, message: 'The text shows an empty DataFrame (no rows).' });
+    expect(plain(parseMime('text/plain', 'Empty DataFrame\nColumns: [a]\nIndex: []'))).toEqual({ ok: false, message: 'The text shows an empty DataFrame (no rows).' });
   });
 
   it('reads wrapped blocks (wide frames printed in several blocks)', () => {
