@@ -15,7 +15,7 @@ import type { ILocatedOutput } from './locate';
 import { locateOutputNode, outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
 import { SourceFollower } from './follow-source';
-import { removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
+import { notifyProblems, removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
 import type { ISavedAnalysis } from '../core/saved';
 import { Notification } from '@jupyterlab/apputils';
 import { UUID } from '@lumino/coreutils';
@@ -24,7 +24,6 @@ import { AnalysisSession } from '../core/analysis/session';
 import { messageText, msg } from '../core/messages';
 import type { ICoreMessage } from '../core/messages';
 import { AnalysisRunner } from '../ui/analysis-runner';
-import { translateMessage } from '../ui/translate';
 import type { IPsiscapeSettings } from './settings';
 
 /** Saved analyses opened at once when a notebook opens; the rest wait for the reopen command. */
@@ -81,12 +80,8 @@ export function registerCommands(ctx: ICommandContext): {
     }
   };
 
-  /** Ask the user about problems with saved analyses, through JupyterLab's notifications. */
-  const notify = (path: string, problems: readonly ICoreMessage[]): void => {
-    for (const problem of problems) {
-      Notification.warning(trans.__('%1: %2', path, translateMessage(trans, problem)), { autoClose: false });
-    }
-  };
+  /** Tell the user about problems with saved analyses, through JupyterLab's notifications. */
+  const notify = (path: string, problems: readonly ICoreMessage[]): void => notifyProblems(trans, problems, path);
 
   /**
    * Open an analysis of a notebook output. With `saved`, the analysis is one
@@ -194,7 +189,7 @@ export function registerCommands(ctx: ICommandContext): {
     for (const saved of now) {
       const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
       const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
-      open(panel, located, located ? parseOutput(located.bundle) : { ok: false, message: '' }, saved);
+      open(panel, located, located ? parseOutput(located.bundle) : { ok: false, message: msg('source.output-gone', 'The source output is not in the notebook.') }, saved);
     }
     if (closed.length > now.length) {
       Notification.info(
@@ -216,7 +211,7 @@ export function registerCommands(ctx: ICommandContext): {
       if (!located) {
         const panel = tracker.currentWidget;
         if (panel) {
-          open(panel, null, { ok: false, message: trans.__('No cell output was found under the pointer.') });
+          open(panel, null, { ok: false, message: msg('command.no-output-under-pointer', 'No cell output was found under the pointer.') });
         }
         return;
       }
@@ -252,8 +247,10 @@ export function registerCommands(ctx: ICommandContext): {
       }
       const message =
         count === 0
-          ? trans.__('The selected cell has no output, so it holds no table. Run the cell first.')
-          : trans.__('No output of the selected cell holds a table. %1', firstFailure && !firstFailure.ok ? firstFailure.message : '');
+          ? msg('command.no-output', 'The selected cell has no output, so it holds no table. Run the cell first.')
+          : firstFailure && !firstFailure.ok
+            ? msg('command.no-table-in-outputs', 'No output of the selected cell holds a table. %1', messageText(firstFailure.message))
+            : msg('command.no-table', 'No output of the selected cell holds a table.');
       open(panel, null, { ok: false, message });
     }
   });
@@ -272,9 +269,9 @@ export function registerCommands(ctx: ICommandContext): {
       let parse: ParseResult;
       try {
         const model = await app.serviceManager.contents.get(path, { content: true, format: 'text' });
-        parse = typeof model.content === 'string' ? parseMime(mime, model.content) : { ok: false, message: trans.__('%1 is not a text file.', path) };
+        parse = typeof model.content === 'string' ? parseMime(mime, model.content) : { ok: false, message: msg('command.not-text', '%1 is not a text file.', path) };
       } catch (reason) {
-        parse = { ok: false, message: trans.__('%1 could not be read: %2', path, String(reason)) };
+        parse = { ok: false, message: msg('command.file-unreadable', '%1 could not be read (%2).', path, reason instanceof Error ? reason.message.slice(0, 120) : String(reason).slice(0, 120)) };
       }
       const session = new AnalysisSession({ id: UUID.uuid4(), source: null });
       session.setParse(parse);

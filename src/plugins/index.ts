@@ -14,7 +14,7 @@ import { ITranslator, nullTranslator } from '@jupyterlab/translation';
 import { CommandIDs, registerCommands } from './commands';
 import { readSettings } from './settings';
 
-/** Plugin id; also the settings schema id (schema/plugin.json). */
+/** Plugin id; also the settings schema id (schema/settings/plugin.json). */
 export const PLUGIN_ID = 'jupyterlab-psiscape:plugin';
 
 const plugin: JupyterFrontEndPlugin<void> = {

@@ -1,5 +1,5 @@
 /**
- * Typed view of the user settings. Defaults live only in schema/plugin.json;
+ * Typed view of the user settings. Defaults live only in schema/settings/plugin.json;
  * the setting registry fills them in, and this module only checks the types.
  */
 

@@ -41,7 +41,7 @@ export function offlineServiceManager(): ServiceManager {
 
 /** Setting registry backed by an in-memory StateDB, serving our real schema. */
 export function settingRegistryWith(pluginId: string): SettingRegistry {
-  const schema = JSON.parse(fs.readFileSync(path.join(repoRoot, 'schema', 'plugin.json'), 'utf8'));
+  const schema = JSON.parse(fs.readFileSync(path.join(repoRoot, 'schema', 'settings', 'plugin.json'), 'utf8'));
   const db = new StateDB();
   const connector: IDataConnector<SettingRegistryTypes.IPlugin, string> = {
     async fetch(id: string) {

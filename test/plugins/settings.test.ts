@@ -1,5 +1,5 @@
 /**
- * Settings: defaults come from schema/plugin.json through a real
+ * Settings: defaults come from schema/settings/plugin.json through a real
  * SettingRegistry, and user values are validated by it.
  */
 import { describe, expect, it } from 'vitest';

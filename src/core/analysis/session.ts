@@ -64,9 +64,9 @@ export type SessionChange = 'table' | 'roles' | 'controls' | 'run' | 'source';
 /** Debounce of save requests, in ms. */
 export const SAVE_DEBOUNCE_MS = 250;
 
-/** A message from a parse result (older parsers give text). */
-function problemOf(message: string | ICoreMessage): ICoreMessage {
-  return typeof message === 'string' ? msg('table.unusable', '%1', message) : message;
+/** The message of a failed parse. */
+function problemOf(message: ICoreMessage): ICoreMessage {
+  return message;
 }
 
 /** A table made of a saved snapshot (the plotted columns only). */
@@ -87,7 +87,7 @@ export function snapshotTable(saved: Pick<ISavedAnalysis, 'snapshot'>, note: ICo
     columns,
     rowCount: snap.values[0]?.length ?? 0,
     format: 'json',
-    notes: [{ kind: 'info', message: note } as unknown as ITable['notes'][number]]
+    notes: [{ kind: 'info', message: note }]
   };
 }
 
@@ -195,7 +195,7 @@ export class AnalysisSession {
    */
   refresh(result: ParseResult): ICoreMessage | null {
     if (!result.ok) {
-      return problemOf(result.message as string | ICoreMessage);
+      return problemOf(result.message);
     }
     if (!this._refs) {
       this.setParse(result);
@@ -454,7 +454,7 @@ export class AnalysisSession {
         problem = found.problem;
       }
     } else if (live && !live.ok) {
-      problem = problemOf(live.message as string | ICoreMessage);
+      problem = problemOf(live.message);
     }
     if (!roles) {
       const table = snapshotTable(saved, snapshotNote);
@@ -463,7 +463,7 @@ export class AnalysisSession {
         this._fromSnapshot = true;
         roles = { x: 0, y: 1, sigma: saved.columns.sigma ? 2 : null };
       } else {
-        this._takeTable({ ok: false, message: msg('session.snapshot-omitted', 'The notebook keeps only a reference to this large table, and its source output is gone: re-run the source cell.') as unknown as string });
+        this._takeTable({ ok: false, message: msg('session.snapshot-omitted', 'The notebook keeps only a reference to this large table, and its source output is gone: re-run the source cell.') });
       }
     }
     this._roles = roles;
@@ -538,7 +538,7 @@ export class AnalysisSession {
     if (!result.ok) {
       this._table = null;
       this._columns = [];
-      this._problem = problemOf(result.message as string | ICoreMessage);
+      this._problem = problemOf(result.message);
       return;
     }
     this._table = result.table;
@@ -586,14 +586,19 @@ export class AnalysisSession {
     return { roles: { x: x as number, y: y as number, sigma: sigma as number | null } };
   }
 
+  /** The saved snapshot of the plotted columns, built once per revision (its hash is cached by identity). */
   private _snapshot(): ISavedAnalysis['snapshot'] {
-    const p = this.plotted();
-    const cols = p ? [p.x, p.y, ...(p.sigma ? [p.sigma] : [])] : [];
-    return snapshotOf(
-      cols.map(c => c.column.header),
-      cols.map(c => c.column.unit),
-      cols.map(c => c.column.values as Float64Array)
-    );
+    if (this._snapshotRevision !== this._revision || !this._snapshotCache) {
+      const p = this.plotted();
+      const cols = p ? [p.x, p.y, ...(p.sigma ? [p.sigma] : [])] : [];
+      this._snapshotCache = snapshotOf(
+        cols.map(c => c.column.header),
+        cols.map(c => c.column.unit),
+        cols.map(c => c.column.values as Float64Array)
+      );
+      this._snapshotRevision = this._revision;
+    }
+    return this._snapshotCache;
   }
 
   private _snapshotHash(): string {
@@ -677,6 +682,8 @@ export class AnalysisSession {
   private _revision = 0;
   private _hash = '';
   private _hashRevision = -1;
+  private _snapshotCache: ISavedAnalysis['snapshot'] | null = null;
+  private _snapshotRevision = -1;
   private _baselineKey: string | null = null;
   private _saveTimer: ReturnType<typeof setTimeout> | undefined = undefined;
   private _isDisposed = false;
