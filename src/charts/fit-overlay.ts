@@ -3,8 +3,9 @@
  * outside it faded, and the model curve over the window.
  */
 import type { TopLevelSpec } from 'vega-lite';
+import type { ChartLayer, Field, PositionFieldDef } from './frame';
+import { layeredChart } from './frame';
 import type { IChartTheme } from './theme';
-import { themeConfig } from './theme';
 
 /** Input of {@link buildFitOverlaySpec}. */
 export interface IFitOverlayOptions {
@@ -49,30 +50,30 @@ export function buildFitOverlaySpec(options: IFitOverlayOptions): TopLevelSpec {
       }
     }
   }
-  const xEnc = { field: 'x', type: 'quantitative' as const, title: options.xTitle, scale: { zero: false } };
-  const yEnc = { field: 'y', type: 'quantitative' as const, title: options.yTitle, scale: { zero: false } };
-  const layers: TopLevelSpec[] = [];
-  const pointLayer = {
-    data: { values: points },
-    mark: { type: 'point' as const, filled: true, size: options.pointSize, color: theme.accent, tooltip: true },
-    encoding: {
-      x: xEnc,
-      y: yEnc,
-      opacity: {
-        field: 'used',
-        type: 'nominal' as const,
-        scale: { domain: ['fitted', 'outside window'], range: [0.9, 0.25] },
-        legend: { title: null, orient: 'bottom' as const }
-      },
-      tooltip: [
-        { field: 'row', type: 'quantitative' as const, title: 'row' },
-        { field: 'x', type: 'quantitative' as const, title: options.xTitle, format: '.6~g' },
-        { field: 'y', type: 'quantitative' as const, title: options.yTitle, format: '.6~g' },
-        { field: 'used', type: 'nominal' as const, title: 'point' }
-      ]
+  const xEnc: PositionFieldDef<Field> = { field: 'x', type: 'quantitative', title: options.xTitle, scale: { zero: false } };
+  const yEnc: PositionFieldDef<Field> = { field: 'y', type: 'quantitative', title: options.yTitle, scale: { zero: false } };
+  const layers: ChartLayer[] = [
+    {
+      data: { values: points },
+      mark: { type: 'point', filled: true, size: options.pointSize, color: theme.accent, tooltip: true },
+      encoding: {
+        x: xEnc,
+        y: yEnc,
+        opacity: {
+          field: 'used',
+          type: 'nominal',
+          scale: { domain: ['fitted', 'outside window'], range: [0.9, 0.25] },
+          legend: { title: null, orient: 'bottom' }
+        },
+        tooltip: [
+          { field: 'row', type: 'quantitative', title: 'row' },
+          { field: 'x', type: 'quantitative', title: options.xTitle, format: '.6~g' },
+          { field: 'y', type: 'quantitative', title: options.yTitle, format: '.6~g' },
+          { field: 'used', type: 'nominal', title: 'point' }
+        ]
+      }
     }
-  };
-  layers.push(pointLayer as unknown as TopLevelSpec);
+  ];
   if (line.length) {
     layers.push({
       data: { values: line.map(p => ({ ...p, series: options.curveLabel })) },
@@ -82,16 +83,11 @@ export function buildFitOverlaySpec(options: IFitOverlayOptions): TopLevelSpec {
         y: yEnc,
         strokeDash: { field: 'series', type: 'nominal', legend: { title: null, orient: 'bottom' } }
       }
-    } as unknown as TopLevelSpec);
+    });
   }
-  return {
-    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
-    description: `${options.yTitle} against ${options.xTitle}${line.length ? ` with ${options.curveLabel}` : ''}`,
-    width: 'container',
-    height: 300,
-    autosize: { type: 'fit', contains: 'padding' },
-    layer: layers,
-    resolve: { scale: { opacity: 'independent', strokeDash: 'independent' } },
-    config: themeConfig(theme)
-  } as unknown as TopLevelSpec;
+  return layeredChart(
+    layers,
+    { description: `${options.yTitle} against ${options.xTitle}${line.length ? ` with ${options.curveLabel}` : ''}`, theme },
+    { scale: { opacity: 'independent', strokeDash: 'independent' } }
+  );
 }

@@ -3,8 +3,8 @@
  * after picking x and y.
  */
 import type { TopLevelSpec } from 'vega-lite';
+import { singleViewChart } from './frame';
 import type { IChartTheme } from './theme';
-import { themeConfig } from './theme';
 
 /** Input of {@link buildScatterSpec}. */
 export interface IScatterOptions {
@@ -49,24 +49,21 @@ export function buildScatterSpec(options: IScatterOptions): IScatterSpec {
       values.push({ x: xi, y: yi, row: i });
     }
   }
-  const spec: TopLevelSpec = {
-    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
-    description: options.description ?? `${options.yTitle} against ${options.xTitle}`,
-    width: 'container',
-    height: 280,
-    autosize: { type: 'fit', contains: 'padding' },
-    data: { values },
-    mark: { type: 'point', filled: true, size: options.pointSize, color: options.theme.accent, tooltip: true },
-    encoding: {
-      x: { field: 'x', type: 'quantitative', title: options.xTitle, scale: { zero: false } },
-      y: { field: 'y', type: 'quantitative', title: options.yTitle, scale: { zero: false } },
-      tooltip: [
-        { field: 'row', type: 'quantitative', title: 'row' },
-        { field: 'x', type: 'quantitative', title: options.xTitle, format: '.6~g' },
-        { field: 'y', type: 'quantitative', title: options.yTitle, format: '.6~g' }
-      ]
+  const spec = singleViewChart(
+    {
+      data: { values },
+      mark: { type: 'point', filled: true, size: options.pointSize, color: options.theme.accent, tooltip: true },
+      encoding: {
+        x: { field: 'x', type: 'quantitative', title: options.xTitle, scale: { zero: false } },
+        y: { field: 'y', type: 'quantitative', title: options.yTitle, scale: { zero: false } },
+        tooltip: [
+          { field: 'row', type: 'quantitative', title: 'row' },
+          { field: 'x', type: 'quantitative', title: options.xTitle, format: '.6~g' },
+          { field: 'y', type: 'quantitative', title: options.yTitle, format: '.6~g' }
+        ]
+      }
     },
-    config: themeConfig(options.theme)
-  };
+    { description: options.description ?? `${options.yTitle} against ${options.xTitle}`, theme: options.theme, height: 280 }
+  );
   return { spec, plotted: values.length, skipped: x.length - values.length };
 }

@@ -3,6 +3,9 @@
  * JupyterLab theme's CSS variables, so charts follow light and dark themes;
  * spec builders only place them in the Vega-Lite `config`.
  */
+import type { Config } from 'vega-lite';
+
+/** Colours and font of a chart (CSS colour strings and a font family). */
 export interface IChartTheme {
   /** Plot background. */
   background: string;
@@ -19,7 +22,7 @@ export interface IChartTheme {
 }
 
 /** Vega-Lite `config` block for a theme. */
-export function themeConfig(theme: IChartTheme): Record<string, unknown> {
+export function themeConfig(theme: IChartTheme): Config {
   return {
     background: theme.background,
     font: theme.font,

@@ -4,9 +4,11 @@
  * cooling paths as wide bands with their jumps, vertical rules at the
  * characteristic temperatures (T0, T1, T**) and at the chosen T.
  */
+import type { ChartLayer, Field, PositionFieldDef } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
-import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours, kindEncoding } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, kindColours, kindEncoding } from './common';
 import type { IBranchPoint } from './trace';
 import { traceBranches } from './trace';
 
@@ -119,9 +121,9 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
 
   const shown = KIND_ORDER.filter(k => k !== 'inflection');
   const colours = kindColours(theme);
-  const x = { field: 'T', type: 'quantitative', title: labels.T, scale: { zero: false, nice: false } };
-  const y = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false } };
-  const layer: unknown[] = [];
+  const x: PositionFieldDef<Field> = { field: 'T', type: 'quantitative', title: labels.T, scale: { zero: false, nice: false } };
+  const y: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false } };
+  const layer: ChartLayer[] = [];
   if (paths.length) {
     layer.push({
       name: 'branches_paths',
@@ -207,7 +209,6 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       ]
     });
   }
-  const spec = frame(`${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, layer, theme);
-  (spec as unknown as Record<string, unknown>).title = labels.title;
+  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, title: labels.title, theme });
   return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length };
 }

@@ -1,11 +1,10 @@
 /**
  * Shared pieces of the Landau chart builders: the kinds of stationary points
- * with their legend order, and the themed top-level frame.
+ * with their legend order, colours and encoding. The frame is `../frame.ts`.
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { StationaryKind } from '../../core/physics/landau/index';
 import type { IChartTheme } from '../theme';
-import { themeConfig } from '../theme';
 
 /** Kinds of stationary point, as classified by the Landau numerics. */
 export type LandauPointKind = StationaryKind;
@@ -40,31 +39,30 @@ export function finite(v: number): boolean {
   return typeof v === 'number' && Number.isFinite(v);
 }
 
-/** Wraps layers into a themed top-level layered spec. */
-export function frame(description: string, layer: unknown[], theme: IChartTheme, resolve?: Record<string, unknown>): TopLevelSpec {
-  return {
-    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
-    description,
-    width: 'container',
-    height: 300,
-    autosize: { type: 'fit', contains: 'padding' },
-    layer,
-    ...(resolve ? { resolve } : {}),
-    config: themeConfig(theme)
-  } as unknown as TopLevelSpec;
+/**
+ * A nominal encoding of the stationary-point kind: the kinds' labels as the
+ * scale domain, mapped to one value of a visual channel each (colour, shape
+ * or dash pattern), with or without a legend at the bottom.
+ */
+export interface IKindEncoding<V extends string | number[]> {
+  field: 'kind';
+  type: 'nominal';
+  title: string;
+  scale: { domain: string[]; range: V[] };
+  legend?: { orient: 'bottom' };
 }
 
 /**
  * Encoding of the stationary-point kind by one visual channel: the kinds
  * `shown` (in legend order) with their labels mapped to `range(kind)`.
  */
-export function kindEncoding(
+export function kindEncoding<V extends string | number[]>(
   title: string,
   shown: readonly LandauPointKind[],
   labels: IKindLabels,
-  range: (kind: LandauPointKind) => unknown,
+  range: (kind: LandauPointKind) => V,
   legend: boolean
-): Record<string, unknown> {
+): IKindEncoding<V> {
   return {
     field: 'kind',
     type: 'nominal',

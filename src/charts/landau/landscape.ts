@@ -3,9 +3,11 @@
  * marked by kind (shape and colour), and the global minimum ringed and named.
  */
 import type { ILandscapePoint } from '../../core/physics/landau/index';
+import type { ChartLayer, Field, PositionFieldDef } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { IKindLabels, ILandauChart, LandauPointKind } from './common';
-import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, frame, kindColours, kindEncoding } from './common';
+import { DEFAULT_KIND_LABELS, KIND_ORDER, finite, kindColours, kindEncoding } from './common';
 
 export type { ILandscapePoint };
 
@@ -105,9 +107,9 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
   const shown = KIND_ORDER.filter(k => k !== 'inflection' || present.has(k));
   const colours = kindColours(theme);
   const focus = options.focus === false ? null : landscapeFocus(points);
-  const x = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, nice: false } };
-  const y = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false, padding: 14 } };
-  const layer: unknown[] = [
+  const x: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, nice: false } };
+  const y: PositionFieldDef<Field> = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false, padding: 14 } };
+  const layer: ChartLayer[] = [
     {
       name: 'landscape_curve',
       data: { name: 'curve', values: curve },
@@ -147,7 +149,6 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
       }
     );
   }
-  const spec = frame(`${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, layer, theme);
-  (spec as unknown as Record<string, unknown>).title = labels.title;
+  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, title: labels.title, theme });
   return { spec, rows: curve.length + marks.length + globalRow.length };
 }

@@ -4,9 +4,11 @@
  * isotherm's high-field straight line drawn from x = 0 to its last point.
  */
 import type { IIsotherm, IIsothermLine } from '../../core/sweeps/index';
+import type { ChartLayer, ColorDef, Field } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
-import { finite, frame } from './common';
+import { finite } from './common';
 
 /** Input of the (modified) Arrott chart builders. */
 export interface IArrottChartOptions {
@@ -52,8 +54,8 @@ function build(o: IArrottChartOptions, beta: number, gamma: number, modified: bo
   const kind = o.fieldKind === 'applied' ? 'applied H' : 'H = H_int';
   const xTitle = modified ? `(H/M)^(1/γ), γ = ${gamma.toPrecision(4)} (${kind}; ${hU}, ${mU})` : `H/M (${kind}; ${hU} per ${mU})`;
   const yTitle = modified ? `M^(1/β), β = ${beta.toPrecision(4)} (${mU})` : `M² ((${mU})²)`;
-  const color = { field: 'T', type: 'quantitative', title: 'T (K)', scale: { scheme: 'viridis' } };
-  const layer: unknown[] = [
+  const color: ColorDef<Field> = { field: 'T', type: 'quantitative', title: 'T (K)', scale: { scheme: 'viridis' } };
+  const layer: ChartLayer[] = [
     {
       data: { values: points },
       mark: { type: 'point', filled: true, size: 12, tooltip: true },
@@ -76,7 +78,7 @@ function build(o: IArrottChartOptions, beta: number, gamma: number, modified: bo
     });
   }
   const what = modified ? 'Modified Arrott plot' : 'Arrott plot';
-  return frame({ description: `${what}: ${yTitle} against ${xTitle}, one colour per isotherm`, layer, rows: points.length + fits.length }, o.theme);
+  return { spec: layeredChart(layer, { description: `${what}: ${yTitle} against ${xTitle}, one colour per isotherm`, theme: o.theme }), rows: points.length + fits.length };
 }
 
 /** Arrott plot M² against H/M. */

@@ -3,9 +3,11 @@
  * axes, one colour per branch (t < 0, t > 0), for given (Tc, β, γ).
  */
 import type { IIsotherm } from '../../core/sweeps/index';
+import type { ChartLayer } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
-import { finite, frame } from './common';
+import { finite } from './common';
 
 /** Builds the scaling plot; isotherms with |t| < tMin are left out (default 1e-3). */
 export function buildCollapseSpec(isotherms: readonly IIsotherm[], scaling: { Tc: number; beta: number; gamma: number }, theme: IChartTheme, tMin = 1e-3): ISweepChart {
@@ -30,7 +32,7 @@ export function buildCollapseSpec(isotherms: readonly IIsotherm[], scaling: { Tc
       }
     }
   }
-  const layer: unknown[] = [
+  const layer: ChartLayer[] = [
     {
       data: { values: rows },
       mark: { type: 'point', filled: true, size: 10, tooltip: true },
@@ -42,5 +44,5 @@ export function buildCollapseSpec(isotherms: readonly IIsotherm[], scaling: { Tc
       }
     }
   ];
-  return frame({ description: 'Scaling plot: renormalised m against h on log axes, two branches', layer, rows: rows.length }, theme);
+  return { spec: layeredChart(layer, { description: 'Scaling plot: renormalised m against h on log axes, two branches', theme }), rows: rows.length };
 }

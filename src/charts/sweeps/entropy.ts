@@ -2,9 +2,11 @@
  * Magnetic entropy change −ΔS_M(T) for each field change, with ±σ bars.
  */
 import type { IEntropyResult } from '../../core/sweeps/index';
+import type { ChartLayer, ColorDef, Field } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
-import { finite, frame } from './common';
+import { finite } from './common';
 
 /** Builds the ΔS_M(T) chart (plotted as −ΔS_M, positive for a ferromagnet near Tc). */
 export function buildEntropySpec(result: IEntropyResult, theme: IChartTheme): ISweepChart {
@@ -18,9 +20,9 @@ export function buildEntropySpec(result: IEntropyResult, theme: IChartTheme): IS
       }
     }
   }
-  const color = { field: 'field', type: 'nominal', title: 'field change' };
+  const color: ColorDef<Field> = { field: 'field', type: 'nominal', title: 'field change' };
   const title = `-ΔS_M (${result.unit})`;
-  const layer: unknown[] = [
+  const layer: ChartLayer[] = [
     {
       data: { values: rows },
       mark: { type: 'rule', color: theme.grid },
@@ -41,5 +43,5 @@ export function buildEntropySpec(result: IEntropyResult, theme: IChartTheme): IS
       }
     }
   ];
-  return frame({ description: `Magnetic entropy change ${title} against T from the Maxwell relation`, layer, rows: 2 * rows.length }, theme);
+  return { spec: layeredChart(layer, { description: `Magnetic entropy change ${title} against T from the Maxwell relation`, theme }), rows: 2 * rows.length };
 }

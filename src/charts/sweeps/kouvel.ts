@@ -3,9 +3,11 @@
  * above Tc, with the fitted straight lines (T − Tc)/β and (T − Tc)/γ.
  */
 import type { IKouvelFisherResult } from '../../core/sweeps/index';
+import type { ChartLayer } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
-import { finite, frame } from './common';
+import { finite } from './common';
 
 /** Builds the Kouvel–Fisher chart. */
 export function buildKouvelFisherSpec(kf: IKouvelFisherResult, theme: IChartTheme): ISweepChart {
@@ -28,7 +30,7 @@ export function buildKouvelFisherSpec(kf: IKouvelFisherResult, theme: IChartThem
       }
     }
   }
-  const layer: unknown[] = [
+  const layer: ChartLayer[] = [
     {
       data: { values: points },
       mark: { type: 'point', filled: true, tooltip: true },
@@ -48,5 +50,5 @@ export function buildKouvelFisherSpec(kf: IKouvelFisherResult, theme: IChartThem
       }
     }
   ];
-  return frame({ description: 'Kouvel-Fisher plot: X(T) slope 1/beta and Y(T) slope 1/gamma, both zero at Tc', layer, rows: points.length + lines.length }, theme);
+  return { spec: layeredChart(layer, { description: 'Kouvel-Fisher plot: X(T) slope 1/beta and Y(T) slope 1/gamma, both zero at Tc', theme }), rows: points.length + lines.length };
 }

@@ -3,9 +3,11 @@
  * (t_max, H_min) cell with ±σ error bars, one colour per H_min.
  */
 import type { IExponentWindowCell } from '../../core/sweeps/index';
+import type { ChartLayer, ColorDef, Field } from '../frame';
+import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
-import { finite, frame } from './common';
+import { finite } from './common';
 
 /** Which exponent to draw. */
 export type WindowExponent = 'beta' | 'gamma' | 'delta' | 'Tc' | 'deltaCriticalIsotherm' | 'kouvelFisherBeta' | 'kouvelFisherGamma';
@@ -30,8 +32,8 @@ export function buildExponentWindowSpec(cells: readonly IExponentWindowCell[], e
     kouvelFisherGamma: 'gamma_eff (Kouvel-Fisher)'
   };
   const name = names[exponent];
-  const color = { field: 'hMin', type: 'nominal', title: 'H_min' };
-  const layer: unknown[] = [
+  const color: ColorDef<Field> = { field: 'hMin', type: 'nominal', title: 'H_min' };
+  const layer: ChartLayer[] = [
     {
       data: { values: rows },
       mark: { type: 'rule', color: theme.grid },
@@ -53,5 +55,5 @@ export function buildExponentWindowSpec(cells: readonly IExponentWindowCell[], e
       }
     }
   ];
-  return frame({ description: `${name} against the fit window t_max, one series per H_min, error bars ±1 sigma`, layer, rows: 2 * rows.length }, theme);
+  return { spec: layeredChart(layer, { description: `${name} against the fit window t_max, one series per H_min, error bars ±1 sigma`, theme }), rows: 2 * rows.length };
 }
