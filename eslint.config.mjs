@@ -107,6 +107,19 @@ export default tseslint.config(
   },
   ...Object.entries(CORE_LAYERS).flatMap(([dir, allowed]) => coreLayerBlocks(dir, allowed)),
   {
+    // Data arrays are long: spreading one into Math.max/Math.min overflows the call stack (~150k points).
+    files: ['src/core/**/*.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: "CallExpression[callee.object.name='Math'][callee.property.name=/^(max|min)$/] > SpreadElement",
+          message: 'Do not spread an array into Math.max/Math.min (a long one overflows the call stack): use a loop.'
+        }
+      ]
+    }
+  },
+  {
     files: ['src/charts/**/*.ts'],
     rules: {
       'no-restricted-imports': [

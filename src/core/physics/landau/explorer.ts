@@ -98,7 +98,7 @@ export function explorerDerived(k: ILandauCoefficients): IExplorerDerived {
       criticalEndPoint: first ? d.criticalEndPoint : null,
       method: 'closed-form',
       converged: true,
-      reason: msg('physics.landau.closed-forms', 'closed forms')
+      reason: msg('physics.landau.closed-forms', 'Found from the closed forms of the free energy without a cubic term.')
     };
   }
   const n = landauTransitionNumeric(k);
@@ -131,7 +131,10 @@ export function stationaryPoints(k: ILandauCoefficients, T: number, h: number): 
   const points: ILandscapePoint[] = r.points.map(p => ({ psi: p.psi, F: p.F, kind: p.kind }));
   if (r.global >= 0) {
     const Fg = points[r.global].F;
-    const scale = Math.max(1e-300, ...points.map(p => Math.abs(p.F)));
+    let scale = 1e-300;
+    for (const p of points) {
+      scale = Math.max(scale, Math.abs(p.F));
+    }
     for (const p of points) {
       if (p.kind === 'metastable' && Math.abs(p.F - Fg) <= 1e-9 * scale) {
         p.kind = 'stable';

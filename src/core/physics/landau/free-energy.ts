@@ -96,7 +96,10 @@ export function stationaryUnchecked(k: ILandauCoefficients, T: number, h: number
   }
   let degenerate = false;
   if (global >= 0) {
-    const scale = Math.max(1e-300, ...points.map(p => Math.abs(p.F)));
+    let scale = 1e-300;
+    for (const p of points) {
+      scale = Math.max(scale, Math.abs(p.F));
+    }
     for (let i = 0; i < points.length; i++) {
       if (i !== global && points[i].kind === 'metastable' && Math.abs(points[i].F - points[global].F) <= 1e-12 * scale) {
         degenerate = true;
