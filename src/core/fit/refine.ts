@@ -1,7 +1,10 @@
 /**
  * Double-double refinement of a converged fit whose χ² is dominated by
  * binary64 rounding (residuals many orders of magnitude below the values,
- * e.g. NIST StRD Lanczos1: residuals ≈ 1e-13 on values ≈ 1).
+ * e.g. NIST StRD Lanczos1: residuals ≈ 1e-13 on values ≈ 1). Double-double
+ * arithmetic [N11 in REFERENCES.md]; accuracy: Lanczos1 reaches the
+ * certified residual sum of squares to ≥ 10 digits and the minimum χ² of
+ * its exact decimal data to ≥ 12 (test/core/fit/nist.test.ts).
  *
  * Only when the fit converged, the model has `evaluatePrecise`, and the
  * rounding noise of χ² (2‖r‖‖e‖ + ‖e‖², eᵢ = 4ε·wᵢ(|fᵢ| + |yᵢ|)) exceeds

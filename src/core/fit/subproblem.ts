@@ -8,6 +8,17 @@
  * and μ ≥ 0 is chosen so that ‖z(μ)‖ ≈ Δ (Hebden / Moré iteration on
  * 1/‖z(μ)‖, which is concave in μ so Newton from the left converges
  * monotonically).
+ *
+ * References (keys of REFERENCES.md): [N2] for the scaling and the
+ * iteration for μ, [N5] for the decompositions (ml-matrix).
+ *
+ * Accuracy: the SVD gives singular values with absolute error ≈ ε·s_max
+ * (ε = 2⁻⁵²), so directions with sᵢ below `singularTolerance`·s_max are
+ * dropped as rank-deficient; the eigen-decomposition of JsᵀJs squares the
+ * condition number and is used only when λmin/λmax ≥
+ * `normalEquationsMinRatio` (or for many points, where statistical error
+ * dwarfs it). μ is found to the accuracy the trust region needs
+ * (‖z(μ)‖ within 10 % of Δ), not to full precision.
  */
 import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { FIT_DEFAULTS } from './defaults';
