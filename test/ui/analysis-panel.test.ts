@@ -54,7 +54,7 @@ describe('AnalysisPanel', () => {
   });
 
   it('should show the parser message, and no chart, for an output without a table', async () => {
-    const { panel, session } = panelFor({ ok: false, message: 'This output holds no table: it has only image/png.' });
+    const { panel, session } = panelFor({ ok: false, message: { code: 'table.no-table', text: 'This output holds no table: it has only %1.', args: ['image/png'] } });
     await panel.rendered;
     const message = panel.node.querySelector('.jp-psiscape-AnalysisPanel-message')!;
     expect(message.textContent).toBe('This output holds no table: it has only image/png.');
