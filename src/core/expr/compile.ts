@@ -1,19 +1,29 @@
 /**
  * Translation of a mathjs expression tree into JavaScript source over a
- * whitelist: numbers, symbols resolved by the caller, + − × ÷ ^ and the
- * functions in `FUNCTIONS`. Anything else is rejected, so the generated
+ * whitelist: numbers, symbols resolved by the caller, + − × ÷ ^, the
+ * functions in `FUNCTIONS`, comparisons (`<`, `<=`, `>`, `>=`, `==`, `!=`,
+ * chains such as `0 < x < a`), `and` / `or` / `xor` / `not` and the
+ * conditional `c ? a : b`. Anything else is rejected, so the generated
  * source never contains user text (symbol names become array accesses,
  * numbers are re-printed from their parsed value).
+ *
+ * Comparisons and logical operators give 1 or 0; a condition is true when
+ * its value is neither 0 nor NaN (as in mathjs). Comparisons are exact:
+ * mathjs' own evaluation treats values within its relative tolerance
+ * (1e-12) as equal, so the two can differ only at such near-ties.
  */
 import {
+  isConditionalNode,
   isConstantNode,
   isFunctionNode,
   isOperatorNode,
   isParenthesisNode,
+  isRelationalNode,
   isSymbolNode
 } from 'mathjs';
 import type { MathNode } from 'mathjs';
-import { ExpressionError } from './normalize';
+import { msg } from '../messages';
+import { ExpressionError, quote } from './normalize';
 
 type Emit = (args: string[]) => string;
 
@@ -68,6 +78,37 @@ const FUNCTIONS: Readonly<Record<string, { arity: number[]; emit: Emit }>> = {
 /** Names of the functions an expression may call. */
 export const SUPPORTED_FUNCTIONS: readonly string[] = Object.freeze(Object.keys(FUNCTIONS));
 
+/** Allowed argument counts of a supported function, or null. */
+export function functionArity(name: string): readonly number[] | null {
+  return Object.prototype.hasOwnProperty.call(FUNCTIONS, name) ? FUNCTIONS[name].arity : null;
+}
+
+/** Comparison operators (mathjs function name → JS operator). */
+export const COMPARISONS: Readonly<Record<string, string>> = {
+  smaller: '<',
+  smallerEq: '<=',
+  larger: '>',
+  largerEq: '>=',
+  equal: '===',
+  unequal: '!=='
+};
+
+/** Logical operators (mathjs function names). */
+export const LOGICAL: readonly string[] = ['and', 'or', 'xor', 'not'];
+
+/** Operators (mathjs function names) a model may use. */
+export const SUPPORTED_OPERATORS: readonly string[] = Object.freeze([
+  'add',
+  'subtract',
+  'multiply',
+  'divide',
+  'pow',
+  'unaryMinus',
+  'unaryPlus',
+  ...Object.keys(COMPARISONS),
+  ...LOGICAL
+]);
+
 const BINARY: Readonly<Record<string, string>> = {
   add: '+',
   subtract: '-',
@@ -81,7 +122,7 @@ export type SymbolResolver = (name: string) => string | null;
 /** Prints a finite number so that it parses back to the same double. */
 export function numberLiteral(v: number): string {
   if (!Number.isFinite(v)) {
-    throw new ExpressionError(`non-finite constant ${v} in expression`);
+    throw new ExpressionError(msg('expression.compile.number', 'A number in the expression is infinite or not a number (%1).', v));
   }
   const s = String(v);
   return v < 0 ? `(${s})` : s;
@@ -96,6 +137,8 @@ export function numberLiteral(v: number): string {
 export class SharedTerms {
   /** Declarations, in dependency order. */
   readonly lines: string[] = [];
+  /** Source already produced per node (trees of derivatives share subtrees). */
+  readonly byNode = new WeakMap<MathNode, string>();
   private readonly _names = new Map<string, string>();
 
   /** Name of the temporary holding `js` (declared on first use). */
@@ -145,6 +188,19 @@ function integerPower(base: string, exponent: MathNode): string | null {
  * `SharedTerms`) and the result is a name or a literal.
  */
 export function toJavaScript(node: MathNode, resolve: SymbolResolver, shared?: SharedTerms): string {
+  if (shared) {
+    const done = shared.byNode.get(node);
+    if (done !== undefined) {
+      return done;
+    }
+    const js = emit(node, resolve, shared);
+    shared.byNode.set(node, js);
+    return js;
+  }
+  return emit(node, resolve);
+}
+
+function emit(node: MathNode, resolve: SymbolResolver, shared?: SharedTerms): string {
   const named = (js: string): string => (shared ? shared.intern(js) : js);
   if (isParenthesisNode(node)) {
     return toJavaScript(node.content, resolve, shared);
@@ -152,16 +208,33 @@ export function toJavaScript(node: MathNode, resolve: SymbolResolver, shared?: S
   if (isConstantNode(node)) {
     const v: unknown = node.value;
     if (typeof v !== 'number') {
-      throw new ExpressionError(`unsupported constant ${String(v)}`);
+      throw new ExpressionError(msg('expression.compile.constant', 'Only numbers can be constants in a model; “%1” is not a number.', quote(String(v), 20)));
     }
     return numberLiteral(v);
   }
   if (isSymbolNode(node)) {
     const js = resolve(node.name);
     if (js === null) {
-      throw new ExpressionError(`unknown symbol "${node.name}"`);
+      throw new ExpressionError(msg('expression.compile.symbol', 'The name “%1” is neither a parameter, a variable nor a constant.', quote(node.name)));
     }
     return js;
+  }
+  if (isConditionalNode(node)) {
+    const c = toJavaScript(node.condition, resolve, shared);
+    const t = toJavaScript(node.trueExpr, resolve, shared);
+    const f = toJavaScript(node.falseExpr, resolve, shared);
+    return named(`((${c}) ? (${t}) : (${f}))`);
+  }
+  if (isRelationalNode(node)) {
+    const params = node.params.map((a) => toJavaScript(a, resolve, shared));
+    const parts = node.conditionals.map((fn, i) => {
+      const op = Object.prototype.hasOwnProperty.call(COMPARISONS, fn) ? COMPARISONS[fn] : null;
+      if (op === null) {
+        throw new ExpressionError(msg('expression.compile.operator', 'The operator “%1” is not supported in model expressions.', fn));
+      }
+      return `(${params[i]}) ${op} (${params[i + 1]})`;
+    });
+    return named(`((${parts.join(' && ')}) ? 1 : 0)`);
   }
   if (isOperatorNode(node)) {
     const args = node.args.map((a) => toJavaScript(a, resolve, shared));
@@ -179,7 +252,22 @@ export function toJavaScript(node: MathNode, resolve: SymbolResolver, shared?: S
     if (op && args.length >= 2) {
       return named(`(${args.map((a) => `(${a})`).join(` ${op} `)})`);
     }
-    throw new ExpressionError(`unsupported operator "${node.op}"`);
+    if (Object.prototype.hasOwnProperty.call(COMPARISONS, fn) && args.length === 2) {
+      return named(`((${args[0]}) ${COMPARISONS[fn]} (${args[1]}) ? 1 : 0)`);
+    }
+    if (fn === 'and' && args.length === 2) {
+      return named(`((${args[0]}) && (${args[1]}) ? 1 : 0)`);
+    }
+    if (fn === 'or' && args.length === 2) {
+      return named(`((${args[0]}) || (${args[1]}) ? 1 : 0)`);
+    }
+    if (fn === 'xor' && args.length === 2) {
+      return named(`(!(${args[0]}) !== !(${args[1]}) ? 1 : 0)`);
+    }
+    if (fn === 'not' && args.length === 1) {
+      return named(`((${args[0]}) ? 0 : 1)`);
+    }
+    throw new ExpressionError(msg('expression.compile.operator', 'The operator “%1” is not supported in model expressions.', String(node.op)));
   }
   if (isFunctionNode(node)) {
     const fnNode: unknown = node.fn;
@@ -187,31 +275,52 @@ export function toJavaScript(node: MathNode, resolve: SymbolResolver, shared?: S
     const spec = Object.prototype.hasOwnProperty.call(FUNCTIONS, name) ? FUNCTIONS[name] : undefined;
     if (!spec) {
       throw new ExpressionError(
-        `unsupported function "${name || '?'}"; supported: ${SUPPORTED_FUNCTIONS.join(', ')}`
+        msg('expression.compile.function', 'There is no function “%1” in model expressions; the functions are: %2.', quote(name) || '?', SUPPORTED_FUNCTIONS.join(', '))
       );
     }
     if (!spec.arity.includes(node.args.length)) {
-      throw new ExpressionError(`${name}() takes ${spec.arity.join(' or ')} argument(s), got ${node.args.length}`);
+      throw new ExpressionError(
+        msg('expression.compile.arity', '%1() takes %2 argument(s); here it has %3.', name, spec.arity.join(' or '), node.args.length)
+      );
     }
     return named(spec.emit(node.args.map((a) => toJavaScript(a, resolve, shared))));
   }
-  throw new ExpressionError(`unsupported construct (${node.type}) in expression`);
+  throw new ExpressionError(msg('expression.compile.construct', 'The expression contains a construction that models cannot use (%1).', node.type));
+}
+
+/** Children of a node that hold values (not a function's name). */
+export function valueChildren(node: MathNode): MathNode[] {
+  if (isParenthesisNode(node)) {
+    return [node.content];
+  }
+  if (isOperatorNode(node) || isFunctionNode(node)) {
+    return node.args;
+  }
+  if (isConditionalNode(node)) {
+    return [node.condition, node.trueExpr, node.falseExpr];
+  }
+  if (isRelationalNode(node)) {
+    return node.params;
+  }
+  return [];
 }
 
 /** Symbols used in `node` (excluding function names), in order of first appearance. */
 export function collectSymbols(node: MathNode, out: string[] = []): string[] {
-  if (isSymbolNode(node)) {
-    if (!out.includes(node.name)) {
-      out.push(node.name);
+  const seen = new Set<string>(out);
+  const stack: MathNode[] = [node];
+  while (stack.length > 0) {
+    const n = stack.pop()!;
+    if (isSymbolNode(n)) {
+      if (!seen.has(n.name)) {
+        seen.add(n.name);
+        out.push(n.name);
+      }
+      continue;
     }
-    return out;
-  }
-  if (isParenthesisNode(node)) {
-    return collectSymbols(node.content, out);
-  }
-  if (isOperatorNode(node) || isFunctionNode(node)) {
-    for (const a of node.args) {
-      collectSymbols(a, out);
+    const children = valueChildren(n);
+    for (let i = children.length - 1; i >= 0; i--) {
+      stack.push(children[i]);
     }
   }
   return out;

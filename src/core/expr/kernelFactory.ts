@@ -3,7 +3,6 @@
  * from whitelisted source (see `compile.ts`), or mathjs `compile` with a
  * scope per point when code generation is not allowed.
  */
-import { compile } from 'mathjs';
 import type { MathNode } from 'mathjs';
 
 /** Writes model values (or k values per point, row-major) for parameters p at points x. */
@@ -57,6 +56,11 @@ function build(
   return factory(...cols.map((c) => (c ? Float64Array.from(c) : null)));
 }
 
+/**
+ * Scope of one point, as a Map: names such as `constructor` or `__proto__`
+ * are ordinary parameters there (a plain object would resolve them to, or
+ * refuse them as, properties of Object.prototype).
+ */
 function scopeFor(
   p: Float64Array,
   x: Float64Array,
@@ -65,16 +69,24 @@ function scopeFor(
   variables: string[],
   constants: Record<string, number>,
   cols: (ArrayLike<number> | null)[]
-): Record<string, number> {
-  const scope: Record<string, number> = { ...constants };
+): Map<string, number> {
+  const scope = new Map<string, number>();
+  for (const name of Object.keys(constants)) {
+    scope.set(name, constants[name]);
+  }
   parameters.forEach((name, j) => {
-    scope[name] = p[j];
+    scope.set(name, p[j]);
   });
   variables.forEach((name, v) => {
     const c = cols[v];
-    scope[name] = c ? c[x[i]] : x[i];
+    scope.set(name, c ? c[x[i]] : x[i]);
   });
   return scope;
+}
+
+/** A mathjs result as a number: booleans (comparisons) are 1 or 0, anything else not numeric is NaN. */
+function asNumber(v: unknown): number {
+  return typeof v === 'number' ? v : typeof v === 'boolean' ? (v ? 1 : 0) : Number.NaN;
 }
 
 /** Fallback when generated functions are not allowed: mathjs compiled evaluation per point. */
@@ -95,15 +107,13 @@ export function interpretMany(
   constants: Record<string, number>,
   cols: (ArrayLike<number> | null)[]
 ): Kernel {
-  const compiled = nodes.map((nd) => compile(nd.toString()));
+  const compiled = nodes.map((nd) => nd.compile());
   return (p, x, out) => {
     for (let i = 0; i < x.length; i++) {
       const scope = scopeFor(p, x, i, parameters, variables, constants, cols);
       compiled.forEach((c, j) => {
-        const v: unknown = c.evaluate(scope);
-        out[i * compiled.length + j] = typeof v === 'number' ? v : Number.NaN;
+        out[i * compiled.length + j] = asNumber(c.evaluate(scope));
       });
     }
   };
 }
-

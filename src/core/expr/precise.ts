@@ -3,15 +3,26 @@
  * engine to refine fits whose χ² is dominated by binary64 rounding (see
  * `IFitModel.evaluatePrecise`). It walks the same mathjs tree as the
  * generated binary64 kernel, over a smaller whitelist: + − × ÷ ^, unary
- * ±, numbers, pi and e, parameters, variables and the functions in
- * `PRECISE_FUNCTIONS`. A tree with anything else gets no precise evaluator.
+ * ±, numbers, pi and e, parameters, variables, the functions in
+ * `PRECISE_FUNCTIONS`, comparisons (exact, on the double-double values;
+ * 1 or 0), `and` / `or` / `xor` / `not` and the conditional `c ? a : b`
+ * (a condition is true when neither 0 nor NaN). A tree with anything else
+ * gets no precise evaluator.
  *
  * Conventions: a numeric literal is taken as the decimal it prints as (the
  * shortest decimal that rounds to its binary64 value, e.g. `0.1` is one
  * tenth exactly); named constants given as numbers are taken as those
  * binary64 values exactly; pi and e are the double-double constants.
  */
-import { isConstantNode, isFunctionNode, isOperatorNode, isParenthesisNode, isSymbolNode } from 'mathjs';
+import {
+  isConditionalNode,
+  isConstantNode,
+  isFunctionNode,
+  isOperatorNode,
+  isParenthesisNode,
+  isRelationalNode,
+  isSymbolNode
+} from 'mathjs';
 import type { MathNode } from 'mathjs';
 import * as DD from '../numeric/dd/index';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/index';
@@ -45,7 +56,7 @@ const UNARY: Readonly<Record<string, Unary>> = {
 };
 
 /** Names of the functions the precise evaluator supports. */
-export const PRECISE_FUNCTIONS: readonly string[] = Object.freeze([...Object.keys(UNARY), 'pow', 'atan2', 'log']);
+export const PRECISE_FUNCTIONS: readonly string[] = Object.freeze([...Object.keys(UNARY), 'pow', 'atan2', 'log', 'min', 'max']);
 
 /** Literal → double-double of its shortest decimal representation. */
 function literal(v: number): IDoubleDouble {
@@ -76,6 +87,35 @@ function compileNode(node: MathNode, resolve: (name: string) => PreciseSymbol | 
     const i = s.index;
     return s.kind === 'parameter' ? (p) => p[i] : (_p, v) => v[i];
   }
+  if (isConditionalNode(node)) {
+    const c = compileNode(node.condition, resolve);
+    const t = compileNode(node.trueExpr, resolve);
+    const f = compileNode(node.falseExpr, resolve);
+    if (c === null || t === null || f === null) {
+      return null;
+    }
+    return (p, v) => (truthy(c(p, v)) ? t(p, v) : f(p, v));
+  }
+  if (isRelationalNode(node)) {
+    const params = node.params.map((a) => compileNode(a, resolve));
+    const tests = node.conditionals.map((fn) => (Object.prototype.hasOwnProperty.call(COMPARE, fn) ? COMPARE[fn] : null));
+    if (params.some((a) => a === null) || tests.some((t) => t === null)) {
+      return null;
+    }
+    const ps = params as PreciseNode[];
+    const ts = tests as ((c: number) => boolean)[];
+    return (p, v) => {
+      let left = ps[0](p, v);
+      for (let i = 0; i < ts.length; i++) {
+        const right = ps[i + 1](p, v);
+        if (!ts[i](DD.compare(left, right))) {
+          return DD.DD_ZERO;
+        }
+        left = right;
+      }
+      return DD.DD_ONE;
+    };
+  }
   const args = isOperatorNode(node) || isFunctionNode(node) ? node.args.map((a) => compileNode(a, resolve)) : [];
   if (args.some((a) => a === null)) {
     return null;
@@ -92,7 +132,38 @@ function compileNode(node: MathNode, resolve: (name: string) => PreciseSymbol | 
   return null;
 }
 
+/** Comparison tests on the sign of `DD.compare` (false when NaN). */
+const COMPARE: Readonly<Record<string, (c: number) => boolean>> = {
+  smaller: (c) => c < 0,
+  smallerEq: (c) => c <= 0,
+  larger: (c) => c > 0,
+  largerEq: (c) => c >= 0,
+  equal: (c) => c === 0,
+  unequal: (c) => c !== 0
+};
+
+/** A condition holds when its value is neither 0 nor NaN (as in mathjs and JavaScript). */
+function truthy(a: IDoubleDouble): boolean {
+  return a.hi !== 0 && !Number.isNaN(a.hi);
+}
+
+const bool = (b: boolean): IDoubleDouble => (b ? DD.DD_ONE : DD.DD_ZERO);
+
 function operator(fn: string, a: PreciseNode[]): PreciseNode | null {
+  if (a.length === 2 && Object.prototype.hasOwnProperty.call(COMPARE, fn)) {
+    const test = COMPARE[fn];
+    const [l, r] = a;
+    return (p, v) => bool(test(DD.compare(l(p, v), r(p, v))));
+  }
+  if (a.length === 2 && (fn === 'and' || fn === 'or' || fn === 'xor')) {
+    const [l, r] = a;
+    const join = fn === 'and' ? (x: boolean, y: boolean) => x && y : fn === 'or' ? (x: boolean, y: boolean) => x || y : (x: boolean, y: boolean) => x !== y;
+    return (p, v) => bool(join(truthy(l(p, v)), truthy(r(p, v))));
+  }
+  if (a.length === 1 && fn === 'not') {
+    const [u] = a;
+    return (p, v) => bool(!truthy(u(p, v)));
+  }
   if (a.length === 1) {
     const [u] = a;
     if (fn === 'unaryMinus') {
@@ -119,6 +190,22 @@ function operator(fn: string, a: PreciseNode[]): PreciseNode | null {
 }
 
 function functionCall(name: string, a: PreciseNode[]): PreciseNode | null {
+  if (a.length >= 2 && (name === 'min' || name === 'max')) {
+    const sign = name === 'min' ? -1 : 1;
+    return (p, v) => {
+      let best = a[0](p, v);
+      for (let j = 1; j < a.length; j++) {
+        const c = a[j](p, v);
+        if (Number.isNaN(c.hi) || Number.isNaN(best.hi)) {
+          return { hi: Number.NaN, lo: Number.NaN };
+        }
+        if (sign * DD.compare(c, best) > 0) {
+          best = c;
+        }
+      }
+      return best;
+    };
+  }
   if (a.length === 1 && Object.prototype.hasOwnProperty.call(UNARY, name)) {
     const f = UNARY[name];
     const [u] = a;
@@ -161,7 +248,7 @@ export function preciseResolver(
     if (pi >= 0) {
       return { kind: 'parameter', index: pi };
     }
-    if (name === 'pi' || name === 'PI') {
+    if (name === 'pi' || name === 'PI' || name === 'π') {
       return { kind: 'constant', value: DD.DD_PI };
     }
     if (name === 'e' || name === 'E') {

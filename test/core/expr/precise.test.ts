@@ -105,7 +105,7 @@ describe('precise expression evaluator', () => {
   });
 
   it('no precise evaluator when a function is outside its whitelist; the binary64 model is unchanged', () => {
-    for (const text of ['a*asinh(x)', 'a*log10(x)', 'a*max(x, 1)', 'a*sign(x)', 'a*log1p(x)']) {
+    for (const text of ['a*asinh(x)', 'a*log10(x)', 'a*cbrt(x)', 'a*sign(x)', 'a*log1p(x)']) {
       const m = parseExpressionModel(text);
       expect(m.evaluatePrecise, text).toBeUndefined();
       expect(m.evaluation).toBe('generated-function');
