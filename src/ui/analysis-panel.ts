@@ -249,8 +249,7 @@ export class AnalysisPanel extends Panel {
     for (const note of notes) {
       const item = document.createElement('li');
       item.className = `jp-psiscape-note jp-psiscape-note-${note.kind}`;
-      const message: unknown = note.message;
-      item.textContent = typeof message === 'string' ? message : translateMessage(this._trans, message as Parameters<typeof translateMessage>[1]);
+      item.textContent = translateMessage(this._trans, note.message);
       list.appendChild(item);
     }
     this._notes.node.replaceChildren(...(notes.length ? [list] : []));

@@ -83,7 +83,7 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
   summary.textContent = translateMessage(trans, verdict.summary);
   const detail = document.createElement('span');
   detail.className = 'jp-psiscape-verdict-detail';
-  detail.textContent = trans.__('%1 points fitted, χ²_red = %2; the optimiser stopped because %3', outcome.used, formatPlain(fit.reducedChi2), reasonText(trans, fit.reason));
+  detail.textContent = trans.__('%1 points fitted, χ²_red = %2; the optimiser stopped because %3', outcome.used, formatPlain(fit.reducedChi2), translateMessage(trans, fit.reason));
   head.append(mark, title, summary, detail);
   nodes.push(head);
 
@@ -107,10 +107,10 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
 
   const notes = document.createElement('ul');
   notes.className = 'jp-psiscape-fit-notes';
-  for (const w of fit.warnings as unknown[]) {
+  for (const w of fit.warnings) {
     const li = document.createElement('li');
     li.className = 'jp-psiscape-fit-warning';
-    li.textContent = typeof w === 'string' ? w : translateMessage(trans, w as Parameters<typeof translateMessage>[1]);
+    li.textContent = translateMessage(trans, w);
     notes.appendChild(li);
   }
   for (const c of outcome.cautions) {
@@ -140,11 +140,6 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
     nodes.push(explore);
   }
   box.append(...nodes);
-}
-
-/** The engine's stopping reason (a message, or text from older engines). */
-function reasonText(trans: TranslationBundle, reason: unknown): string {
-  return typeof reason === 'string' ? reason : translateMessage(trans, reason as Parameters<typeof translateMessage>[1]);
 }
 
 function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome): HTMLTableElement {

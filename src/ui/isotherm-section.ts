@@ -17,6 +17,8 @@ import type { IsothermRole } from '../core/table/roles';
 import { ChartView } from './chart-view';
 import { readChartTheme } from './chart-theme';
 import { outcomeNodes } from './outcome-nodes';
+import { translateMessage } from './translate';
+import { messageOf } from '../core/messages';
 
 type Role = IsothermRole;
 
@@ -119,19 +121,19 @@ export class IsothermSection extends Panel {
       unitOverrides: overrides
     });
     } catch (e) {
-      this._fail((e as Error).message);
+      this._fail(translateMessage(this._trans, messageOf(e)));
       return;
     }
     if (answer.status !== 'ok') {
-      const hint = answer.status === 'needs-unit' ? this._trans.__(' Accepted units: %1.', answer.options.join(', ')) : '';
-      this._fail(`${answer.message}${hint}`);
+      const reason = translateMessage(this._trans, answer.message);
+      this._fail(answer.status === 'needs-unit' ? this._trans.__('%1 Accepted units: %2.', reason, answer.options.join(', ')) : reason);
       return;
     }
     let analysis: IIsothermAnalysis;
     try {
       analysis = analyseIsotherms(answer.set);
     } catch (e) {
-      this._fail((e as Error).message);
+      this._fail(translateMessage(this._trans, messageOf(e)));
       return;
     }
     this._analysis = analysis;
@@ -197,23 +199,24 @@ export class IsothermSection extends Panel {
     count.textContent = this._trans._n('%1 isotherm', '%1 isotherms', set.isotherms.length) + ` · ${set.fieldKind === 'internal' ? this._trans.__('internal field') : this._trans.__('applied field (no demagnetisation correction)')}`;
     const banerjee = document.createElement('p');
     banerjee.className = 'jp-psiscape-isotherm-banerjee';
-    banerjee.textContent = this._trans.__('Banerjee criterion: %1', a.arrott.banerjee.evidence);
+    banerjee.textContent = this._trans.__('Banerjee criterion: %1', translateMessage(this._trans, a.arrott.banerjee.evidence));
     const notes = document.createElement('ul');
     notes.className = 'jp-psiscape-fit-notes';
     const seen = new Set<string>();
     for (const w of [...a.warnings, ...a.arrott.banerjee.caveats]) {
-      if (seen.has(w)) {
+      const text = translateMessage(this._trans, w);
+      if (seen.has(text)) {
         continue;
       }
-      seen.add(w);
+      seen.add(text);
       const li = document.createElement('li');
       li.className = 'jp-psiscape-fit-warning';
-      li.textContent = w;
+      li.textContent = text;
       notes.appendChild(li);
     }
     const conventions = document.createElement('p');
     conventions.className = 'jp-psiscape-fit-convention';
-    conventions.textContent = [a.conventions.t, ...a.conventions.notes].join('; ');
+    conventions.textContent = [a.conventions.t, ...a.conventions.notes].map(m => translateMessage(this._trans, m)).join('; ');
     this._result.replaceChildren(count, table, banerjee, notes, conventions);
   }
 

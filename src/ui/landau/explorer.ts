@@ -5,6 +5,8 @@
  * Redraws at most once per animation frame; bad values show a message and
  * leave the last good picture in place.
  */
+import { messageOf } from '../../core/messages';
+import { translateMessage } from '../translate';
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
@@ -119,7 +121,7 @@ export class LandauExplorer extends Panel {
     try {
       values = valuesIn(this._k, convention);
     } catch (e) {
-      this._notice = this._trans.__('Shown in convention L: the %1 form cannot hold these coefficients (%2).', this._controls.conventionName(convention), (e as Error).message);
+      this._notice = this._trans.__('Shown in convention L: the %1 form cannot hold these coefficients (%2).', this._controls.conventionName(convention), translateMessage(this._trans, messageOf(e)));
       convention = 'L';
       values = valuesIn(this._k, convention);
     }
@@ -156,7 +158,7 @@ export class LandauExplorer extends Panel {
       this._conversionError = null;
     } catch (e) {
       this._k = null;
-      this._conversionError = (e as Error).message;
+      this._conversionError = translateMessage(this._trans, messageOf(e));
     }
     if (before && this._k && before.T0 !== this._k.T0 && Number.isFinite(this._k.T0) && Number.isFinite(before.T0)) {
       // keep T − T0: the landscape keeps its shape when T0 moves
@@ -189,7 +191,7 @@ export class LandauExplorer extends Panel {
       values = valuesIn(this._k, next);
     } catch (e) {
       this._controls.revertConvention();
-      this._notice = trans.__('The %1 form cannot hold these coefficients: %2.', this._controls.conventionName(next), (e as Error).message);
+      this._notice = trans.__('The %1 form cannot hold these coefficients: %2.', this._controls.conventionName(next), translateMessage(this._trans, messageOf(e)));
       this._showMessage(this._notice);
       return;
     }
@@ -280,7 +282,7 @@ export class LandauExplorer extends Panel {
   private _branchesData: IBranchesData | null = null;
   private _throttle = new FrameThrottle(
     () => this._draw(),
-    e => this._showMessage(this._trans.__('The charts could not be drawn: %1', (e as Error).message))
+    e => this._showMessage(this._trans.__('The charts could not be drawn: %1', translateMessage(this._trans, messageOf(e))))
   );
 }
 

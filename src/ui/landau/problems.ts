@@ -2,6 +2,8 @@
  * Why the explorer cannot draw the values entered, as one message, or null
  * when they give a landscape.
  */
+import { messageOf } from '../../core/messages';
+import { translateMessage } from '../translate';
 import type { TranslationBundle } from '@jupyterlab/translation';
 import type { ILandauCoefficients } from '../../core/physics/landau/index';
 import { validateLandau } from '../../core/physics/landau/index';
@@ -30,7 +32,7 @@ export function explorerProblem(v: IEnteredValues, trans: TranslationBundle): st
   try {
     validateLandau(v.k);
   } catch (e) {
-    return trans.__('No landscape for these values (checked in convention L): %1. %2', (e as Error).message, keep);
+    return trans.__('No landscape for these values (checked in convention L): %1. %2', translateMessage(trans, messageOf(e)), keep);
   }
   if (!Number.isFinite(v.T) || !Number.isFinite(v.h)) {
     return trans.__('No landscape for these values: T and h must be finite numbers. %1', keep);

@@ -218,3 +218,52 @@ describe('every analysis kind in the catalogue', () => {
     expect(out.fit.parameters).toContain('aW');
   });
 });
+
+describe('expressions as people type them', () => {
+  const T = Array.from({ length: 60 }, (_, i) => 200 + 1.5 * i);
+  it('should take the x column’s own name as the variable, not as a free parameter', () => {
+    const y = T.map(t => 3 * Math.exp(-t / 120) + 0.5);
+    const out = runAnalysisJob({ kind: 'expression', x: T, y, xNames: ['T'], window: { min: -Infinity, max: Infinity }, options: { expression: 'A·exp(−T/T0) + c' } });
+    expect(out.fit.parameters).toEqual(['A', 'T0', 'c']);
+    expect(out.fit.converged).toBe(true);
+    expect(out.fit.values[1]).toBeCloseTo(120, 4);
+  });
+
+  it('should fit a piecewise order parameter written with a condition, from guessed starts', () => {
+    // ψ = A(1 − T/Tc)^β below Tc, 0 above [B4 in REFERENCES.md]; A = 1.2, Tc = 270, β = 0.5 exactly.
+    const y = T.map(t => (t < 270 ? 1.2 * Math.sqrt(1 - t / 270) : 0));
+    const out = runAnalysisJob({
+      kind: 'expression',
+      x: T,
+      y,
+      xNames: ['T'],
+      window: { min: -Infinity, max: Infinity },
+      options: { expression: 'T < Tc ? A*(1 - T/Tc)^β : 0', starts: 'Tc = 268' }
+    });
+    expect(out.fit.converged).toBe(true);
+    const at = (name: string) => out.fit.values[out.fit.parameters.indexOf(name)];
+    expect(at('Tc')).toBeCloseTo(270, 3);
+    expect(at('β')).toBeCloseTo(0.5, 3);
+  });
+
+  it('should fit parameters whose names are object properties (a case that failed with "options.start[0] is not a number")', () => {
+    const x = Array.from({ length: 20 }, (_, i) => i);
+    const y = x.map(v => 2 * v + 5);
+    const out = runAnalysisJob({ kind: 'expression', x, y, window: { min: -Infinity, max: Infinity }, options: { expression: 'constructor*x + toString', starts: 'constructor = 1' } });
+    expect(out.fit.parameters).toEqual(['constructor', 'toString']);
+    expect(out.fit.values[0]).toBeCloseTo(2, 8);
+    expect(out.fit.values[1]).toBeCloseTo(5, 8);
+  });
+
+  it('should refuse units in an expression instead of fitting them as parameters', () => {
+    const x = Array.from({ length: 20 }, (_, i) => i);
+    expect(() => runAnalysisJob({ kind: 'expression', x, y: x, window: { min: -Infinity, max: Infinity }, options: { expression: 'a*x + 5 cm' } })).toThrow(/unit/i);
+  });
+
+  it('should never call a tanh fit that cannot find Tc a description of the data', () => {
+    // Mean-field-like data (A·√(1 − T/Tc) below Tc) fitted by A·tanh(x/Tc), a wrong model: the verdict must not be "fits".
+    const y = T.map(t => (t < 270 ? 1.2 * Math.sqrt(1 - t / 270) : 0));
+    const out = runAnalysisJob({ kind: 'expression', x: T, y, window: { min: -Infinity, max: Infinity }, options: { expression: 'A*tanh(x/Tc)' } });
+    expect(out.verdict.state).not.toBe('fits');
+  });
+});

@@ -3,8 +3,8 @@
  * column may be called `x` or by its own name (e.g. `T` for "T (K)").
  */
 import { fitCurve } from '../../fit';
-import { parseExpressionModel } from '../../expr';
-import { messageOf, msg } from '../../messages';
+import { guessStarts, parseExpressionModel, variableNamesFromHeader } from '../../expr';
+import { CoreMessageError, msg } from '../../messages';
 import { AnalysisInputError } from '../errors';
 import { curveOf, requirePoints, windowCaution } from './common';
 import type { IAnalysisKind, ITextOption } from './types';
@@ -14,6 +14,7 @@ export const startsOption: ITextOption = { type: 'text', label: msg('option.star
 
 /** Parses "A=1, T0=300" into start values. */
 export function parseStarts(text: string): Record<string, number> {
+  // No prototype: a parameter called "constructor" or "toString" is a name like any other.
   const out: Record<string, number> = Object.create(null) as Record<string, number>;
   for (const part of text.split(/[,;\n]/)) {
     const item = part.trim();
@@ -42,18 +43,20 @@ export const expressionKind = {
       throw new AnalysisInputError(msg('expression.empty', 'Write a model expression in x, e.g. A*exp(-x/T0) + c.'));
     }
     const starts = parseStarts(String(job.options.starts ?? ''));
-    let model;
-    try {
-      model = parseExpressionModel(text, { variables: ['x'] });
-    } catch (e) {
-      throw new AnalysisInputError(msg('expression.unusable', 'The expression cannot be used: %1', messageOf(e).text));
-    }
+    // The x column may be called by its own name (`T` for "T (K)"); such a name is never a parameter.
+    const aliases = (job.xNames ?? []).flatMap(name => variableNamesFromHeader(name)).filter(name => name !== 'x');
+    // The parser's errors are already in our words, with the position.
+    const model = parseExpressionModel(text, { variables: ['x'], aliases });
     requirePoints(pts, model.parameters.length + 1);
     const unknown = Object.keys(starts).filter(k => !model.parameters.includes(k));
     if (unknown.length) {
       throw new AnalysisInputError(msg('expression.unknown-start', 'The start values name %1, which the expression does not use (its parameters: %2).', unknown.join(', '), model.parameters.join(', ')));
     }
-    const start = model.parameters.map(p => starts[p] ?? 1);
+    const guess = guessStarts(model, pts.x, pts.y, starts);
+    if (guess.problems.length) {
+      throw new CoreMessageError(guess.problems[0]);
+    }
+    const start = guess.start;
     const fit = fitCurve(model, { x: pts.x, y: pts.y, sigma: pts.sigma }, { start, ...hooks });
     return {
       outcome: {
@@ -63,7 +66,15 @@ export const expressionKind = {
         used: pts.x.length,
         curve: curveOf(model, fit.values, pts.x),
         derived: [],
-        cautions: [windowCaution(), msg('caution.local-minimum', 'A fit from poor start values can stop in a local minimum: check the curve against the data.')]
+        cautions: [
+          ...model.flags,
+          ...model.notes,
+          ...(guess.guessed.length
+            ? [msg('caution.guessed-starts', 'Start values guessed from the data for %1; give your own if the curve misses the data.', guess.guessed.join(', '))]
+            : []),
+          windowCaution(),
+          msg('caution.local-minimum', 'A fit from poor start values can stop in a local minimum: check the curve against the data.')
+        ]
       },
       fitted: pts
     };
