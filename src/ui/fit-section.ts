@@ -11,6 +11,7 @@ import { Widget } from '@lumino/widgets';
 import { ANALYSIS_KINDS, formatPlain, kindById } from '../core/analysis';
 import type { IAnalysisOutcome, OptionSpec, OptionValue } from '../core/analysis';
 import type { AnalysisSession } from '../core/analysis/session';
+import { inspectExpression, variableNamesFromHeader } from '../core/expr';
 import type { AnalysisRunner } from './analysis-runner';
 import { runSessionFit } from './fit-run';
 import { renderOutcome } from './fit-result';
@@ -208,9 +209,64 @@ export class FitSection extends Widget {
       this._controls.set(key, control);
       items.push(label(translateMessage(this._trans, spec.label), control));
     }
+    this._inspection = null;
+    if ('expression' in (kind?.options ?? {})) {
+      this._inspection = document.createElement('div');
+      this._inspection.className = 'jp-psiscape-fit-inspection';
+      this._inspection.setAttribute('aria-live', 'polite');
+      items.push(this._inspection);
+    }
     this._options.replaceChildren(...items);
     this._options.hidden = items.length === 0;
     this._syncOptionValues();
+    if (this._inspection) {
+      this._inspect(String(s.options.expression ?? ''));
+    }
+  }
+
+  /** Before fitting: the parameters found in the expression, names that look wrong, or where it cannot be read. */
+  private _inspect(text: string): void {
+    const box = this._inspection;
+    if (!box) {
+      return;
+    }
+    const trans = this._trans;
+    if (!text.trim()) {
+      box.replaceChildren();
+      return;
+    }
+    const p = this._session.plotted();
+    const result = inspectExpression(text, {
+      xNames: p ? variableNamesFromHeader(p.x.column.header) : [],
+      columnNames: this._session.columns.map(c => c.column.header)
+    });
+    const nodes: HTMLElement[] = [];
+    if (!result.ok && result.error) {
+      const message = document.createElement('p');
+      message.className = 'jp-psiscape-fit-inspection-error';
+      message.textContent = translateMessage(trans, result.error);
+      nodes.push(message);
+      if (result.caret) {
+        const caret = document.createElement('pre');
+        caret.className = 'jp-psiscape-fit-caret';
+        caret.textContent = result.caret;
+        nodes.push(caret);
+      }
+    } else {
+      const found = document.createElement('p');
+      found.className = 'jp-psiscape-fit-parameters';
+      found.textContent = result.parameters.length
+        ? trans.__('Parameters to fit: %1', result.parameters.join(', '))
+        : trans.__('This expression has no free parameters.');
+      nodes.push(found);
+    }
+    for (const flag of result.flags) {
+      const li = document.createElement('p');
+      li.className = 'jp-psiscape-fit-warning';
+      li.textContent = translateMessage(trans, flag);
+      nodes.push(li);
+    }
+    box.replaceChildren(...nodes);
   }
 
   private _control(key: string, spec: OptionSpec): HTMLInputElement | HTMLSelectElement {
@@ -226,6 +282,9 @@ export class FitSection extends Widget {
       const input = textInput(`jp-psiscape-option jp-psiscape-option-${key}`);
       input.placeholder = spec.placeholder;
       input.addEventListener('change', () => s.setOption(key, input.value));
+      if (key === 'expression') {
+        input.addEventListener('input', () => this._inspect(input.value));
+      }
       return input;
     }
     const select = document.createElement('select');
@@ -265,6 +324,7 @@ export class FitSection extends Widget {
   private _onExploreLandau: ((k: ILandauOutcome) => void) | null;
   private _settled: Promise<void> = Promise.resolve();
   private _optionsKind: string | null = null;
+  private _inspection: HTMLDivElement | null = null;
   private _controls = new Map<string, HTMLInputElement | HTMLSelectElement>();
   private _kindSelect!: HTMLSelectElement;
   private _description!: HTMLParagraphElement;

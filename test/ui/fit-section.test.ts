@@ -146,3 +146,34 @@ describe('FitSection in the analysis panel', () => {
     expect(panel.node.querySelector('.jp-psiscape-fit-table')).toBeNull();
   });
 });
+
+describe('expressions in the fit section', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+  });
+
+  it('should list the parameters found before fitting, with the x column’s own name as the variable', async () => {
+    const { panel } = panelFor(parseMime('text/csv', weissCsv()));
+    await panel.rendered;
+    choose(q(panel.node, 'select.jp-psiscape-fit-kind'), 'expression');
+    await panel.rendered;
+    const input = q<HTMLInputElement>(panel.node, 'input.jp-psiscape-option-expression');
+    input.value = 'A*exp(-T/T0) + c';
+    input.dispatchEvent(new Event('input'));
+    expect(q(panel.node, '.jp-psiscape-fit-parameters').textContent).toBe('Parameters to fit: A, T0, c');
+  });
+
+  it('should show where an expression cannot be read, with a caret under the place', async () => {
+    const { panel } = panelFor(parseMime('text/csv', weissCsv()));
+    await panel.rendered;
+    choose(q(panel.node, 'select.jp-psiscape-fit-kind'), 'expression');
+    await panel.rendered;
+    const input = q<HTMLInputElement>(panel.node, 'input.jp-psiscape-option-expression');
+    input.value = 'A*(1 - T/Tc';
+    input.dispatchEvent(new Event('input'));
+    expect(q(panel.node, '.jp-psiscape-fit-inspection-error').textContent).not.toMatch(/mathjs|SyntaxError|Parenthesis \) expected/);
+    const caret = q(panel.node, '.jp-psiscape-fit-caret').textContent!.split('\n');
+    expect(caret[0]).toContain('A*(1 - T/Tc');
+    expect(caret[1]).toMatch(/^ *\^$/);
+  });
+});

@@ -63,7 +63,7 @@ describe('IsothermSection', () => {
     panel.isothermSection.run();
     const error = panel.isothermSection.node.querySelector<HTMLElement>('.jp-psiscape-fit-error')!;
     expect(error.hidden).toBe(false);
-    expect(error.textContent).toMatch(/^The isotherm analysis could not run: .*"H".*Accepted units: Oe, kOe, A\/m/);
+    expect(error.textContent).toMatch(/^The isotherm analysis could not run: .*“H”.*Accepted units: Oe, kOe, A\/m/);
     // Supplying the unit lets it run.
     panel.isothermSection.node.querySelector<HTMLInputElement>('input.jp-psiscape-iso-field-unit')!.value = 'Oe';
     panel.isothermSection.run();

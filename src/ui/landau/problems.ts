@@ -32,7 +32,7 @@ export function explorerProblem(v: IEnteredValues, trans: TranslationBundle): st
   try {
     validateLandau(v.k);
   } catch (e) {
-    return trans.__('No landscape for these values (checked in convention L): %1. %2', translateMessage(trans, messageOf(e)), keep);
+    return trans.__('No landscape for these values (checked in convention L): %1 %2', translateMessage(trans, messageOf(e)), keep);
   }
   if (!Number.isFinite(v.T) || !Number.isFinite(v.h)) {
     return trans.__('No landscape for these values: T and h must be finite numbers. %1', keep);

@@ -70,6 +70,6 @@ describe('convention fields', () => {
   it('should refuse forms that cannot hold the coefficients', () => {
     expect(() => valuesIn(K, 'ginzburg-landau')).toThrow(/no sextic or cubic term/);
     expect(() => valuesIn({ ...K, d: 0.1 }, 'devonshire')).toThrow(/no cubic term/);
-    expect(() => coefficientsFrom('devonshire', { curieConstant: -1, T0: 100, alpha11: 1, alpha111: 1 })).toThrow(/curieConstant must be > 0/);
+    expect(() => coefficientsFrom('devonshire', { curieConstant: -1, T0: 100, alpha11: 1, alpha111: 1 })).toThrow(/Curie constant of the Devonshire form must be above 0/);
   });
 });
