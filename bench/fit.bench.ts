@@ -19,6 +19,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import * as path from 'node:path';
 import { fitCurve } from '../src/core/fit/index';
+import { messageText } from '../src/core/messages';
 import type { IFitModel, IFitResult } from '../src/core/fit/index';
 import { lre, nistDirectory, nistNames, parseNist } from '../test/core/fit/nistData';
 import type { INistProblem } from '../test/core/fit/nistData';
@@ -82,7 +83,7 @@ function runNist(): INistRow[] {
         start,
         via,
         converged: r.converged,
-        reason: r.reason,
+        reason: messageText(r.reason),
         minLreParams: Math.min(...r.values.map((v, i) => lre(v, q.p.certified[i]))),
         minLreSd: Math.min(...r.standardErrors.map((v, i) => lre(v, q.p.certifiedSd[i]))),
         lreRss: lre(r.chi2, q.p.certifiedRss),

@@ -16,6 +16,7 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { messageText } from '../src/core/messages';
 import { fitWeissMT } from '../src/core/physics/index';
 
 const REFERENCE_SCRIPT = '/work/shared/bench/reference_fits.py';
@@ -104,7 +105,7 @@ export function runPhysicsBench(): boolean | null {
   }
   console.log(
     `physics.bench: Weiss J=1/2 fit, n = ${T.length}: Ms = ${res.values[0].toPrecision(7)} ± ${res.standardErrors[0].toPrecision(2)}, ` +
-      `Tc = ${res.values[1].toPrecision(7)} ± ${res.standardErrors[1].toPrecision(2)}; converged ${res.converged} (${res.reason}); ` +
+      `Tc = ${res.values[1].toPrecision(7)} ± ${res.standardErrors[1].toPrecision(2)}; converged ${res.converged} (${messageText(res.reason)}); ` +
       `${res.evaluations} evaluations, ${res.iterations} iterations`
   );
   console.log(`physics.bench: psiscape best of ${repeats}: ${best.toFixed(2)} ms (coarse-to-fine, ftol = xtol = 1e-8, SciPy's start)`);

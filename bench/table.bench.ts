@@ -10,6 +10,7 @@ import { writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
+import { messageText } from '../src/core/messages';
 import { parseMime } from '../src/core/table/index';
 import { mulberry32 } from '../src/core/numeric/random';
 
@@ -90,8 +91,8 @@ export function runTableBench(): ITableBenchResult {
     meetsTargets: false
   };
   if (!result.ok) {
-    console.log(`table.bench: parse failed: ${result.message}`);
-    return { ...base, error: result.message };
+    console.log(`table.bench: parse failed: ${messageText(result.message)}`);
+    return { ...base, error: messageText(result.message) };
   }
   const rssDelta = after.rss - before.rss;
   const heapDelta = after.heapUsed - before.heapUsed;
