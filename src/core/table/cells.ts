@@ -1,6 +1,7 @@
 /**
  * Reading single displayed cells: numbers (with NaN and ±inf as pandas and
- * CSV writers spell them), booleans, ISO dates, and missing markers.
+ * CSV writers spell them; leniently, as typed or typeset by people, with
+ * {@link readNumber}), booleans, ISO dates, and missing markers.
  */
 
 /** Texts that mean "missing" in pandas displays and CSV files. */
@@ -9,6 +10,111 @@ const MISSING: ReadonlySet<string> = new Set(['', 'NaN', 'nan', '<NA>', 'NaT', '
 /** True when a displayed cell means "missing". */
 export function isMissingText(text: string): boolean {
   return MISSING.has(text);
+}
+
+/**
+ * Further texts that mean "missing" where a number is expected (and only
+ * there: in a text column they stay text): R's `NA`, the other spellings
+ * pandas' read_csv takes as missing, and a lone dash (hyphen, en or em dash,
+ * minus sign), which tables print for "no value".
+ */
+const MISSING_NUMBER: ReadonlySet<string> = new Set([
+  'NA', '#NA', '#N/A N/A', 'NAN', '-NaN', '-nan', '-1.#IND', '1.#IND', '-1.#QNAN', '1.#QNAN', '-', '--', '—'
+]);
+
+/** True when a cell, trimmed and with its minus normalised ({@link numberText}), means "missing" where a number is expected. */
+export function isMissingNumberText(text: string): boolean {
+  return MISSING.has(text) || MISSING_NUMBER.has(text);
+}
+
+/**
+ * Signs read as a minus: the minus sign U+2212 (typeset tables, Unicode-aware
+ * writers), the figure dash U+2012 and en dash U+2013 (word processors turn a
+ * typed hyphen before a number into one), the hyphen U+2010 and non-breaking
+ * hyphen U+2011, and the small and full-width hyphen-minus U+FE63, U+FF0D.
+ * The em dash is not among them: no writer puts it before a number, and on
+ * its own it marks a missing value.
+ */
+const MINUS_LIKE = /[\u2010\u2011\u2012\u2013\u2212\uFE63\uFF0D]/g;
+
+/**
+ * A cell as a number reader sees it: without surrounding whitespace (spaces,
+ * tabs, no-break spaces), every dash-like minus ({@link MINUS_LIKE}) written
+ * as an ASCII hyphen-minus.
+ */
+export function numberText(text: string): string {
+  return text.trim().replace(MINUS_LIKE, '-');
+}
+
+/** Infinity spelled without regard to case (`inf`, `INF`, `Infinity`) or as `∞`, with an optional sign. */
+function infinityOf(text: string): number | undefined {
+  const sign = text.charCodeAt(0) === 45 ? -1 : 1;
+  const body = (text.charCodeAt(0) === 45 || text.charCodeAt(0) === 43 ? text.slice(1) : text).toLowerCase();
+  return body === 'inf' || body === 'infinity' || body === '∞' ? sign * Infinity : undefined;
+}
+
+/**
+ * Read one cell where a number is expected, leniently: surrounding whitespace,
+ * a `+` sign, a Unicode or other dash-like minus (also in the exponent,
+ * `1e−3`), exponents (`1e-3`, `1E+05`), and infinity in any case or as `∞`.
+ * Returns the number (±Infinity included); NaN for a missing-value marker
+ * (empty, `NaN`, `NA`, `N/A`, `None`, `null`, a lone dash…); undefined when
+ * the cell is not a number. Thousands separators are a matter of the whole
+ * column: see {@link groupedNumber}.
+ */
+export function readNumber(text: string): number | undefined {
+  const fast = fastNumber(text);
+  if (fast !== undefined) {
+    return fast;
+  }
+  const t = numberText(text);
+  if (isMissingNumberText(t)) {
+    return NaN;
+  }
+  return parseNumber(t) ?? infinityOf(t);
+}
+
+/** Digits grouped by commas in threes, the first group 1–3 digits not starting with 0, then an optional decimal part. */
+const GROUPED = /^([+-]?)([1-9]\d{0,2}(?:,\d{3})+)(\.\d+)?$/;
+
+/** A number written with thousands separators, as read by {@link groupedNumber}. */
+export interface IGroupedNumber {
+  value: number;
+  /**
+   * True when the commas cannot be a decimal comma: two or more of them
+   * (`1,234,567`), or a decimal point after them (`12,345.5`). A single group
+   * (`1,003`) could also be 1.003 written with a decimal comma.
+   */
+  certain: boolean;
+}
+
+/**
+ * A number written with commas between groups of three digits (`1,003`,
+ * `-12,345.5`, `1,234,567`), given as {@link numberText} returns it; undefined
+ * for anything else. Whether its column may be read that way is decided by the
+ * column (a single group needs a decimal point elsewhere in the column, and no
+ * cell of the column may use a decimal comma).
+ */
+export function groupedNumber(text: string): IGroupedNumber | undefined {
+  if (text.length > 400 || text.indexOf(',') < 0) {
+    return undefined;
+  }
+  const m = GROUPED.exec(text);
+  if (!m) {
+    return undefined;
+  }
+  const value = Number(`${m[1]}${m[2].replace(/,/g, '')}${m[3] ?? ''}`);
+  return { value, certain: m[3] !== undefined || m[2].indexOf(',') !== m[2].lastIndexOf(',') };
+}
+
+/**
+ * True for a number written with a decimal comma that cannot be a thousands
+ * separator (`2,5`, `0,003`, `-12,75`, `,5`), given as {@link numberText}
+ * returns it: its column writes decimals with commas, so none of its commas
+ * are read as thousands separators.
+ */
+export function isDecimalComma(text: string): boolean {
+  return text.length <= 400 && /^[+-]?\d*,\d+$/.test(text) && !GROUPED.test(text);
 }
 
 const POS_INF: ReadonlySet<string> = new Set(['inf', '+inf', 'Inf', '+Inf', 'Infinity', '+Infinity', 'INF', 'infinity']);

@@ -4,18 +4,23 @@
 import {
   canonicalDates,
   decimalsShown,
-  fastNumber,
+  groupedNumber,
+  isDecimalComma,
   isMissingText,
+  numberText,
   parseBoolean,
   parseDateParts,
   parseNumber,
+  readNumber,
   significantDigits
 } from './cells';
 import type { IDateParts } from './cells';
-import type { ColumnKind, IColumn } from './types';
+import type { ColumnKind, IColumn, ITableNote } from './types';
 import { msg } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { shortHeader } from './limits';
+import { LISTED_ROWS, unreadableNote } from './notes';
+import type { IUnreadableCells } from './notes';
 import { TABLE_LIMITS, TableParseError } from './types';
 import { splitHeader } from './units';
 
@@ -32,6 +37,206 @@ export interface ITextColumnOptions {
   isIndex: boolean;
   /** The text is a rounded display (pandas HTML / text repr), not full precision. */
   displayed: boolean;
+  /** The table's notes: a number column with unreadable cells adds its 'unreadable' note here. */
+  notes: ITableNote[];
+}
+
+/**
+ * The rule that makes a column a number column, the same for every format
+ * (see {@link NumberReader}). A column is numbers when every filled cell (not
+ * empty, not a missing-value marker) reads as a number; or, when some do not,
+ * when at least {@link MIN_NUMBERS_BESIDE_UNREADABLE} cells read as numbers and
+ * the unreadable ones are at most max(1, ⌊{@link MAX_UNREADABLE_SHARE} × filled
+ * cells⌋). The unreadable cells become NaN (left out like missing values) and
+ * the table gets an 'unreadable' note naming the column and the rows.
+ *
+ * Why 5 %: a measured column spoiled by a typo (`4..5`), a remark typed into a
+ * cell or a pasted symbol has one or a few such cells among many numbers, while
+ * a column of labels or remarks has far more text than that. One cell in twenty
+ * (two in forty, fifty in a thousand) keeps a column with a few slips a number
+ * column without taking a text column for numbers; one unreadable cell is
+ * always allowed, so that a single slip in a short column (under twenty values)
+ * does not turn it into text and silently change which columns are plotted.
+ */
+export const MAX_UNREADABLE_SHARE = 0.05;
+
+/**
+ * Why four: beside two or three numbers, a word is as likely part of a mixed
+ * column of labels (pandas object columns such as `x, 1, 2.5`) as a slip in a
+ * number column; with four numbers or more beside one unreadable cell, at
+ * least 80 % of the column reads as numbers.
+ */
+export const MIN_NUMBERS_BESIDE_UNREADABLE = 4;
+
+/** Most unreadable cells a number column with `filled` non-missing cells may hold: max(1, ⌊5 % of filled⌋). */
+export function unreadableAllowed(filled: number): number {
+  // The small epsilon keeps 5 % of 60 at 3 whatever the rounding of 0.05 × 60.
+  return Math.max(1, Math.floor(MAX_UNREADABLE_SHARE * filled + 1e-9));
+}
+
+/** A column read as numbers, and the cells of it that could not be read (null when none). */
+export interface INumbersRead {
+  values: Float64Array;
+  unreadable: IUnreadableCells | null;
+}
+
+/** Text of a JSON value that is not a number, for notes. */
+function exampleOf(v: unknown): string {
+  return typeof v === 'object' ? (JSON.stringify(v) ?? String(v)).slice(0, 80) : String(v);
+}
+
+/**
+ * Reads one column's cells, in row order, as numbers and decides by the rule
+ * of {@link MAX_UNREADABLE_SHARE} whether the column is a number column. Every
+ * parser types its columns through this class (CSV/TSV while streaming, HTML,
+ * text reprs and JSON through {@link columnFromText} and {@link columnFromJson}),
+ * so the rule and the note are the same for all formats.
+ *
+ * Cells are read by {@link readNumber} (whitespace, `+`, dash-like minus signs,
+ * exponents, infinities, missing-value markers). Thousands separators are read
+ * only where they cannot be a decimal comma: a cell with comma groups of three
+ * digits (`1,003`) is read as 1003 when its column also has a number written
+ * with a decimal point (`2.5`) or a group that can only be thousands
+ * (`1,234,567`, `12,345.5`), and no cell of the column uses a decimal comma
+ * (`2,5`); otherwise it is an unreadable cell. In comma-separated text such a
+ * cell is quoted (`"1,003"`), which is the usual way it arrives.
+ */
+export class NumberReader {
+  private data: Float64Array;
+  private length = 0;
+  private readable = 0;
+  private bad = 0;
+  private readonly badRows: number[] = [];
+  private badExample: string | null = null;
+  private readonly groupRows: number[] = [];
+  private readonly groupValues: number[] = [];
+  private groupExample: string | null = null;
+  private pointSeen = false;
+  private groupCertain = false;
+  private decimalComma = false;
+  private readonly limit: number;
+
+  /**
+   * @param capacity Expected number of cells (an upper bound saves copying).
+   * @param forced The column is numbers whatever its cells (a dataresource field
+   *   declared number or integer): unreadable cells are noted, never refused.
+   */
+  constructor(
+    capacity: number,
+    private readonly forced = false
+  ) {
+    this.data = new Float64Array(Math.max(0, capacity));
+    this.limit = forced ? Infinity : unreadableAllowed(capacity);
+  }
+
+  /** True once more cells failed than the rule could allow for a column of `capacity` cells: reading on is of no use. */
+  get givenUp(): boolean {
+    return this.bad > this.limit;
+  }
+
+  /** Read the next cell as text (null: missing). */
+  text(cell: string | null): void {
+    if (cell === null) {
+      this.push(NaN);
+      return;
+    }
+    const v = readNumber(cell);
+    if (v === undefined) {
+      this.unreadableText(cell);
+      return;
+    }
+    if (v === v) {
+      this.readable++;
+      if (!this.pointSeen && cell.indexOf('.') >= 0) {
+        this.pointSeen = true;
+      }
+    }
+    this.push(v);
+  }
+
+  /** Read the next cell as a JSON value: numbers as they are, strings as text, null as missing, anything else unreadable. */
+  value(v: unknown): void {
+    if (typeof v === 'number') {
+      if (v === v) {
+        this.readable++;
+        this.pointSeen ||= Number.isFinite(v) && !Number.isInteger(v);
+      }
+      this.push(v);
+    } else if (typeof v === 'string') {
+      this.text(v);
+    } else if (v === null || v === undefined) {
+      this.push(NaN);
+    } else {
+      this.fail(this.badExample === null ? exampleOf(v) : '');
+    }
+  }
+
+  /** The column's numbers when the rule makes it a number column (always when forced), else null. */
+  finish(): INumbersRead | null {
+    const values = this.length === this.data.length ? this.data : this.data.subarray(0, this.length);
+    let readable = this.readable;
+    let bad = this.bad;
+    let rows = this.badRows;
+    let example = this.badExample;
+    if (this.groupRows.length > 0) {
+      if (!this.decimalComma && (this.pointSeen || this.groupCertain)) {
+        this.groupRows.forEach((r, k) => {
+          values[r] = this.groupValues[k];
+        });
+        readable += this.groupRows.length;
+      } else {
+        bad += this.groupRows.length;
+        rows = [...rows, ...this.groupRows.slice(0, LISTED_ROWS)].sort((a, b) => a - b).slice(0, LISTED_ROWS);
+        example = this.badRows.length > 0 && this.badRows[0] < this.groupRows[0] ? example : this.groupExample;
+      }
+    }
+    const filled = readable + bad;
+    if (!this.forced && bad > 0 && (readable < MIN_NUMBERS_BESIDE_UNREADABLE || bad > unreadableAllowed(filled))) {
+      return null;
+    }
+    return { values, unreadable: bad > 0 ? { count: bad, filled, rows, example: example ?? '' } : null };
+  }
+
+  private unreadableText(cell: string): void {
+    const t = numberText(cell);
+    const grouped = groupedNumber(t);
+    if (grouped !== undefined) {
+      this.groupRows.push(this.length);
+      this.groupValues.push(grouped.value);
+      this.groupExample ??= t;
+      this.groupCertain ||= grouped.certain;
+      this.push(NaN);
+      return;
+    }
+    this.decimalComma ||= isDecimalComma(t);
+    this.fail(t);
+  }
+
+  private fail(example: string): void {
+    this.bad++;
+    if (this.badRows.length < LISTED_ROWS) {
+      this.badRows.push(this.length);
+    }
+    this.badExample ??= example;
+    this.push(NaN);
+  }
+
+  private push(v: number): void {
+    if (this.length === this.data.length) {
+      const grown = new Float64Array(Math.max(16, this.data.length * 2));
+      grown.set(this.data);
+      this.data = grown;
+    }
+    this.data[this.length++] = v;
+  }
+}
+
+/** The number column of cells read by a {@link NumberReader}, adding the 'unreadable' note to `notes` when some cells could not be read. */
+export function numberColumnRead(header: string, read: INumbersRead, isIndex: boolean, notes: ITableNote[]): IColumn {
+  if (read.unreadable !== null) {
+    notes.push(unreadableNote(header, read.unreadable));
+  }
+  return numberColumn(header, read.values, isIndex);
 }
 
 /** The refusal of a cell longer than the limit, naming its row and column (0-based `row` and `colIndex`). */
@@ -66,35 +271,26 @@ export function numberColumn(header: string, values: Float64Array, isIndex: bool
   return { ...makeColumn(header, isIndex), kind: 'number', values };
 }
 
-function numberColumnFromText(cells: readonly (string | null)[]): Float64Array | undefined {
-  const out = new Float64Array(cells.length);
-  for (let i = 0; i < cells.length; i++) {
-    const text = cells[i];
-    if (text === null) {
-      out[i] = NaN;
-      continue;
-    }
-    const v = fastNumber(text) ?? parseNumber(text);
-    if (v !== undefined) {
-      out[i] = v;
-    } else if (isMissingText(text)) {
-      out[i] = NaN;
-    } else {
-      return undefined;
-    }
+/** The cells read as numbers by the rule of {@link NumberReader}, or null when they are not a number column. */
+function numbersFromText(cells: readonly (string | null)[]): INumbersRead | null {
+  const reader = new NumberReader(cells.length);
+  for (let i = 0; i < cells.length && !reader.givenUp; i++) {
+    reader.text(cells[i]);
   }
-  return out;
+  return reader.givenUp ? null : reader.finish();
 }
 
 /**
- * Build a typed column from displayed texts (null = missing). Kind is the
- * narrowest that fits every non-missing cell: number, boolean, datetime, else string.
+ * Build a typed column from displayed texts (null = missing). A number column
+ * when {@link NumberReader}'s rule says so (a few unreadable cells become NaN,
+ * noted in `options.notes`); else the narrowest kind that fits every
+ * non-missing cell: boolean, datetime, else string.
  */
 export function columnFromText(header: string, cells: readonly (string | null)[], options: ITextColumnOptions): IColumn {
   const base = makeColumn(header, options.isIndex);
-  const numbers = numberColumnFromText(cells);
+  const numbers = numbersFromText(cells);
   if (numbers) {
-    const column: IColumn = { ...base, kind: 'number', values: numbers };
+    const column = numberColumnRead(header, numbers, options.isIndex, options.notes);
     if (options.displayed) {
       const digits = displayedRounding(cells);
       if (digits !== undefined) {
@@ -141,9 +337,16 @@ function inferTextKind(cells: readonly (string | null)[]): ColumnKind {
 export function displayedRounding(cells: readonly (string | null)[]): number | undefined {
   let rounded = false;
   let maxDigits = 0;
-  for (const c of cells) {
-    const v = c === null ? undefined : parseNumber(c);
-    if (c === null || v === undefined || !Number.isFinite(v)) {
+  for (const cell of cells) {
+    if (cell === null) {
+      continue;
+    }
+    let c = numberText(cell);
+    if (groupedNumber(c) !== undefined) {
+      c = c.replace(/,/g, '');
+    }
+    const v = parseNumber(c);
+    if (v === undefined || !Number.isFinite(v)) {
       continue;
     }
     if (decimalsShown(c) >= PANDAS_DISPLAY_PRECISION) {
@@ -157,22 +360,30 @@ export function displayedRounding(cells: readonly (string | null)[]): number | u
 /** Kind hint for a JSON column (from a dataresource schema), or 'infer'. */
 export type JsonKindHint = ColumnKind | 'infer';
 
-/** Build a typed column from JSON cell values (null/undefined = missing). */
+/**
+ * Build a typed column from JSON cell values (null/undefined = missing). With
+ * the hint 'number' (a dataresource field declared number or integer) the
+ * column is numbers whatever its values, those that cannot be read noted in
+ * `options.notes`; with 'infer' it is numbers by {@link NumberReader}'s rule
+ * (JSON numbers and number strings alike), else the narrowest kind that fits.
+ */
 export function columnFromJson(
   header: string,
   values: readonly unknown[],
-  options: { isIndex: boolean; hint: JsonKindHint; colIndex: number }
+  options: { isIndex: boolean; hint: JsonKindHint; colIndex: number; notes: ITableNote[] }
 ): IColumn {
   const base = makeColumn(header, options.isIndex);
-  const kind = options.hint === 'infer' ? inferJsonKind(values) : options.hint;
-  if (kind === 'number') {
-    const out = new Float64Array(values.length);
-    for (let i = 0; i < values.length; i++) {
-      const v = values[i];
-      out[i] = typeof v === 'number' ? v : typeof v === 'string' ? (parseNumber(v.trim()) ?? NaN) : NaN;
+  if (options.hint === 'number' || options.hint === 'infer') {
+    const reader = new NumberReader(values.length, options.hint === 'number');
+    for (let i = 0; i < values.length && !reader.givenUp; i++) {
+      reader.value(values[i]);
     }
-    return { ...base, kind, values: out };
+    const numbers = reader.givenUp ? null : reader.finish();
+    if (numbers) {
+      return numberColumnRead(header, numbers, options.isIndex, options.notes);
+    }
   }
+  const kind = options.hint === 'infer' ? inferJsonKind(values) : options.hint;
   if (kind === 'boolean') {
     return {
       ...base,
@@ -197,18 +408,16 @@ function jsonText(v: unknown, row: number, colIndex: number, header: string): st
   return text;
 }
 
-function inferJsonKind(values: readonly unknown[]): ColumnKind {
-  let num = true;
+/** The kind of a JSON column that is not a number column: boolean, datetime, else string. */
+function inferJsonKind(values: readonly unknown[]): Exclude<ColumnKind, 'number'> {
   let bool = true;
   let date = true;
   for (const v of values) {
     if (v === null || v === undefined) {
       continue;
     }
-    const special = typeof v === 'string' ? parseNumber(v) : undefined;
-    num &&= typeof v === 'number' || (special !== undefined && !Number.isFinite(special));
     bool &&= typeof v === 'boolean';
     date &&= typeof v === 'string' && parseDateParts(v) !== undefined;
   }
-  return num ? 'number' : bool ? 'boolean' : date ? 'datetime' : 'string';
+  return bool ? 'boolean' : date ? 'datetime' : 'string';
 }

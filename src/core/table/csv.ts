@@ -2,16 +2,18 @@
  * CSV and TSV text (as written by `DataFrame.to_csv()`) parsed with papaparse.
  *
  * Fast path: papaparse streams the text in chunks (no typing, no header mode) and
- * every column is converted straight into a growing Float64Array. Only columns
- * that turn out not to be numeric are read a second time as text, so a large
- * all-numeric file never holds its cells as millions of strings at once.
+ * every column is read straight into a growing Float64Array by a NumberReader,
+ * which types it by the same rule as every other format. Only columns that turn
+ * out not to be numeric are read a second time as text, so a large all-numeric
+ * file never holds its cells as millions of strings at once. Header and cell
+ * text is trimmed (`T, M, S` names columns T, M and S).
  */
 import Papa from 'papaparse';
 import type { ParseResult as PapaResult } from 'papaparse';
-import { fastNumber, isMissingText, parseNumber } from './cells';
 import { msg } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
-import { cellTooLong, columnFromText, numberColumn } from './columns';
+import { cellTooLong, columnFromText, NumberReader, numberColumnRead } from './columns';
+import type { INumbersRead } from './columns';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import type { IColumn, ITable, ITableNote } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
@@ -29,27 +31,6 @@ function countChar(text: string, ch: string): number {
 /** Upper bound on data rows: line breaks plus one (a row spans several lines only when quoted). */
 function rowCapacity(text: string): number {
   return Math.max(countChar(text, '\n'), countChar(text, '\r')) + 1;
-}
-
-/** A number column filled in place; sized once from the line count, so normally never copied. */
-class FloatColumn {
-  private data: Float64Array;
-  length = 0;
-  constructor(capacity: number) {
-    this.data = new Float64Array(Math.max(capacity, 16));
-  }
-  push(v: number): void {
-    if (this.length === this.data.length) {
-      const grown = new Float64Array(this.data.length * 2);
-      grown.set(this.data);
-      this.data = grown;
-    }
-    this.data[this.length++] = v;
-  }
-  /** The filled part (a view on the same buffer, no copy). */
-  values(): Float64Array {
-    return this.length === this.data.length ? this.data : this.data.subarray(0, this.length);
-  }
 }
 
 interface IScan {
@@ -193,34 +174,31 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const what = format === 'csv' ? 'CSV' : 'TSV';
   checkTextSize(text.length, what);
   const capacity = rowCapacity(text);
-  let numbers: (FloatColumn | null)[] = [];
+  let readers: (NumberReader | null)[] = [];
   const first = scan(text, delimiter, what, (row, r, header) => {
     if (r === 0) {
-      numbers = header.map(() => new FloatColumn(capacity));
+      readers = header.map(() => new NumberReader(capacity));
     }
-    for (let c = 0; c < numbers.length; c++) {
-      const col = numbers[c];
-      if (col === null) {
+    for (let c = 0; c < readers.length; c++) {
+      const reader = readers[c];
+      if (reader === null) {
         continue;
       }
-      const cell = c < row.length ? row[c] : '';
-      const v = fastNumber(cell) ?? parseNumber(cell);
-      if (v !== undefined) {
-        col.push(v);
-      } else if (isMissingText(cell)) {
-        col.push(NaN);
-      } else {
-        if (cell.length > TABLE_LIMITS.maxCellChars) {
-          throw tooLong(cell, r, c, header);
-        }
-        numbers[c] = null;
+      const cell = c < row.length ? row[c] : null;
+      if (cell !== null && cell.length > TABLE_LIMITS.maxCellChars) {
+        throw tooLong(cell, r, c, header);
+      }
+      reader.text(cell);
+      if (reader.givenUp) {
+        readers[c] = null;
       }
     }
   });
   const { header, rows: rowCount, short } = first;
-  if (numbers.length < header.length) {
-    numbers = header.map(() => new FloatColumn(0));
+  if (readers.length < header.length) {
+    readers = header.map(() => new NumberReader(0));
   }
+  const numbers: (INumbersRead | null)[] = readers.map(reader => (reader === null ? null : reader.finish()));
   const textColumns = header.map((_, c) => numbers[c] === null);
   const cells: (string | null)[][] = header.map((_, c) => (textColumns[c] ? new Array<string | null>(rowCount) : []));
   if (textColumns.some(Boolean)) {
@@ -233,10 +211,11 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
         if (cell !== null && cell.length > TABLE_LIMITS.maxCellChars) {
           throw tooLong(cell, r, c, header);
         }
-        cells[c][r] = cell;
+        cells[c][r] = cell === null ? null : cell.trim();
       }
     });
   }
+  const notes: ITableNote[] = [];
   let indexLevels = 0;
   while (indexLevels < header.length - 1 && header[indexLevels] === '') {
     indexLevels++;
@@ -244,13 +223,12 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   const columns: IColumn[] = header.map((h, c) => {
     const isIndex = c < indexLevels;
     const name = !isIndex ? h : indexLevels === 1 ? 'index' : `level_${c}`;
-    const col = numbers[c];
-    if (col !== null) {
-      return numberColumn(name, col.values(), isIndex);
+    const read = numbers[c];
+    if (read !== null) {
+      return numberColumnRead(name, read, isIndex, notes);
     }
-    return columnFromText(name, cells[c], { isIndex, displayed: false });
+    return columnFromText(name, cells[c], { isIndex, displayed: false, notes });
   });
-  const notes: ITableNote[] = [];
   if (short > 0) {
     notes.push({
       kind: 'info',

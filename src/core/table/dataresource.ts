@@ -10,7 +10,7 @@ import { msg } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { checkRowAndColumnCounts, shortHeader } from './limits';
 import { roundedNote } from './notes';
-import type { IColumn, ITable } from './types';
+import type { IColumn, ITable, ITableNote } from './types';
 import { TableParseError } from './types';
 
 /** Table Schema field types mapped to column kinds. */
@@ -72,10 +72,11 @@ export function parseDataResource(payload: unknown): ITable {
       msg('table.dataresource.unlisted-column', 'Row %1 of the dataresource data has a column “%2” that the schema does not list.', wholeNumber(row + 1), shortHeader(extra))
     );
   }
+  const notes: ITableNote[] = [];
   const columns: IColumn[] = names.map((name, c) =>
-    columnFromJson(name, cells.get(name) ?? [], { isIndex: primaryKey.has(name), hint: hints[c], colIndex: c })
+    columnFromJson(name, cells.get(name) ?? [], { isIndex: primaryKey.has(name), hint: hints[c], colIndex: c, notes })
   );
-  const table: ITable = { columns, rowCount: data.length, format: 'dataresource', notes: [] };
+  const table: ITable = { columns, rowCount: data.length, format: 'dataresource', notes };
   if (isRecord(schema) && schema.pandas_version !== undefined) {
     columns.forEach(markJsonRounding);
     const note = roundedNote(columns, 'json');

@@ -119,7 +119,7 @@ export function parsePandasHtml(html: string): ITable {
     columnFromText(
       headers[c],
       rows.map(r => (r[c] === undefined ? null : text(r, c))),
-      { isIndex: c < nIndex, displayed: true }
+      { isIndex: c < nIndex, displayed: true, notes }
     )
   );
   if (short > 0) {

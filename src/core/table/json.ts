@@ -7,7 +7,7 @@ import type { JsonKindHint } from './columns';
 import { msg } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { checkCellDepth, checkRowAndColumnCounts, checkTextSize, shortHeader } from './limits';
-import type { IColumn, ITable } from './types';
+import type { IColumn, ITable, ITableNote } from './types';
 import { TableParseError } from './types';
 
 /** Plain object guard (not an array, not null). */
@@ -64,13 +64,14 @@ export function collectRecords(rows: readonly unknown[], what: 'JSON' | 'datares
   return columns;
 }
 
-function tableFromColumns(columns: Iterable<[string, unknown[]]>, rowCount: number, index: IColumn | null): ITable {
+/** The table of JSON columns typed by the common rule; `notes` holds those of the index column, if any. */
+function tableFromColumns(columns: Iterable<[string, unknown[]]>, rowCount: number, index: IColumn | null, notes: ITableNote[] = []): ITable {
   const out: IColumn[] = index ? [index] : [];
   let c = out.length;
   for (const [name, values] of columns) {
-    out.push(columnFromJson(name, values, { isIndex: false, hint: 'infer' satisfies JsonKindHint, colIndex: c++ }));
+    out.push(columnFromJson(name, values, { isIndex: false, hint: 'infer' satisfies JsonKindHint, colIndex: c++, notes }));
   }
-  return { columns: out, rowCount, format: 'json', notes: [] };
+  return { columns: out, rowCount, format: 'json', notes };
 }
 
 /** Parse a JSON table payload (text or parsed value). */
@@ -153,8 +154,9 @@ function parseColumnObject(value: Record<string, unknown>): ITable {
     }
     columns.set(k, col);
   }
-  const index = columnFromText('index', [...rowKeys.keys()], { isIndex: true, displayed: false });
-  return tableFromColumns(columns, rowKeys.size, index);
+  const notes: ITableNote[] = [];
+  const index = columnFromText('index', [...rowKeys.keys()], { isIndex: true, displayed: false, notes });
+  return tableFromColumns(columns, rowKeys.size, index, notes);
 }
 
 function parseSplit(names: unknown[], data: unknown[], index: unknown): ITable {
@@ -177,6 +179,7 @@ function parseSplit(names: unknown[], data: unknown[], index: unknown): ITable {
     });
   });
   let indexColumn: IColumn | null = null;
+  const notes: ITableNote[] = [];
   if (Array.isArray(index)) {
     if (index.length !== data.length) {
       throw new TableParseError(
@@ -184,7 +187,7 @@ function parseSplit(names: unknown[], data: unknown[], index: unknown): ITable {
       );
     }
     index.forEach((cell, r) => checkCellDepth(cell, r, 'index'));
-    indexColumn = columnFromJson('index', index, { isIndex: true, hint: 'infer', colIndex: 0 });
+    indexColumn = columnFromJson('index', index, { isIndex: true, hint: 'infer', colIndex: 0, notes });
   }
-  return tableFromColumns(columns, data.length, indexColumn);
+  return tableFromColumns(columns, data.length, indexColumn, notes);
 }

@@ -97,6 +97,71 @@ export function roundedNote(columns: readonly IColumn[], by: RoundedBy): ITableN
   };
 }
 
+/** Most rows an 'unreadable' note lists by number; the rest are counted. */
+export const LISTED_ROWS = 10;
+
+/** The cells of a number column that could not be read as numbers. */
+export interface IUnreadableCells {
+  /** How many cells could not be read. */
+  count: number;
+  /** How many cells of the column are filled (neither empty nor a missing-value marker). */
+  filled: number;
+  /** The first {@link LISTED_ROWS} of their rows, 0-based data rows in order. */
+  rows: number[];
+  /** The text of the first of them. */
+  example: string;
+}
+
+/** A cell's text shortened and put on one line, for notes. */
+function shortCell(text: string): string {
+  const line = text.replace(/\s+/g, ' ').trim();
+  return line.length > 24 ? `${line.slice(0, 24)}…` : line;
+}
+
+/**
+ * The 'unreadable' note of a number column some of whose cells could not be
+ * read as numbers (they are NaN, left out like missing values): the column,
+ * the 1-based data rows (the first {@link LISTED_ROWS}, then how many more)
+ * and the text of the first such cell.
+ */
+export function unreadableNote(header: string, cells: IUnreadableCells): ITableNote {
+  const column = shortHeader(header);
+  const example = shortCell(cells.example);
+  const rows = cells.rows.map(r => String(r + 1)).join(', ');
+  let message: ICoreMessage;
+  if (cells.count === 1) {
+    message = msg(
+      'table.unreadable.one',
+      'Column “%1” is read as numbers, but the value in data row %2 (“%3”) could not be read as a number; it is left out.',
+      column,
+      wholeNumber(cells.rows[0] + 1),
+      example
+    );
+  } else if (cells.count <= LISTED_ROWS) {
+    message = msg(
+      'table.unreadable.some',
+      'Column “%1” is read as numbers, but %2 of its %3 values could not be read as numbers (the first: “%4”); they are left out: data rows %5.',
+      column,
+      wholeNumber(cells.count),
+      wholeNumber(cells.filled),
+      example,
+      rows
+    );
+  } else {
+    message = msg(
+      'table.unreadable.many',
+      'Column “%1” is read as numbers, but %2 of its %3 values could not be read as numbers (the first: “%4”); they are left out: data rows %5 and %6 more.',
+      column,
+      wholeNumber(cells.count),
+      wholeNumber(cells.filled),
+      example,
+      rows,
+      wholeNumber(cells.count - cells.rows.length)
+    );
+  }
+  return { kind: 'unreadable', message };
+}
+
 /** Read pandas' "N rows × M columns" / "[N rows x M columns]" footer, if present. */
 export function shapeFooter(text: string): { rows: number; columns: number } | null {
   // Bounded repeats and a digit lookbehind keep this linear on long runs of digits or spaces.

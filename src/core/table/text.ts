@@ -34,6 +34,10 @@ interface IBlock {
   rows: number;
   rowGapAt: number | null;
   elidedColumns: number;
+  /** Notes of the block's index columns ('unreadable'); every wrapped block repeats the index. */
+  indexNotes: ITableNote[];
+  /** Notes of the block's data columns ('unreadable'). */
+  dataNotes: ITableNote[];
 }
 
 function slice(line: string, f: IField): string {
@@ -113,6 +117,8 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
   checkRowAndColumnCounts(body.length, nIndex + dataFields.length, 'text');
   let rowGapAt: number | null = null;
   const rows: string[] = [];
+  const indexNotes: ITableNote[] = [];
+  const dataNotes: ITableNote[] = [];
   for (const line of body) {
     if (isEllipsisLine(line)) {
       rowGapAt ??= rows.length;
@@ -145,7 +151,7 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
     });
     const nextStart = k + 1 < nIndex ? indexFields[k + 1].start : undefined;
     const name = namesRow !== null ? namesRow.slice(f.start, nextStart).trim() : '';
-    return columnFromText(name || (nIndex === 1 ? 'index' : `level_${k}`), cells, { isIndex: true, displayed: true });
+    return columnFromText(name || (nIndex === 1 ? 'index' : `level_${k}`), cells, { isIndex: true, displayed: true, notes: indexNotes });
   });
   let elidedColumns = 0;
   const data: IColumn[] = [];
@@ -162,9 +168,9 @@ function parseBlock(raw: readonly string[], headerCount: number): IBlock {
       elidedColumns++;
       continue;
     }
-    data.push(columnFromText(label, cells, { isIndex: false, displayed: true }));
+    data.push(columnFromText(label, cells, { isIndex: false, displayed: true, notes: dataNotes }));
   }
-  return { index, data, rows: rows.length, rowGapAt, elidedColumns };
+  return { index, data, rows: rows.length, rowGapAt, elidedColumns, indexNotes, dataNotes };
 }
 
 /** One header line, else two to four (MultiIndex columns): the first reading that fits. */
@@ -235,7 +241,8 @@ export function parsePandasText(text: string): ITable {
     );
   }
   const columns = [...first.index, ...parsed.flatMap(b => b.data)];
-  const notes: ITableNote[] = [];
+  // Every wrapped block repeats the index: its notes come from the first block only.
+  const notes: ITableNote[] = [...first.indexNotes, ...parsed.flatMap(b => b.dataNotes)];
   const table: ITable = { columns, rowCount: first.rows, format: 'pandas-text', notes };
   const dataColumns = columns.length - first.index.length;
   const elided = parsed.reduce((n, b) => n + b.elidedColumns, 0);

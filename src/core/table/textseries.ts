@@ -51,11 +51,11 @@ export function parseSeriesLines(lines: readonly string[], footer: { name: strin
     index.push(m[1].trim());
     values.push(m[2].trim());
   });
-  const columns = [
-    columnFromText(indexName ?? 'index', index, { isIndex: true, displayed: true }),
-    columnFromText(footer.name ?? '0', values, { isIndex: false, displayed: true })
-  ];
   const notes: ITableNote[] = [];
+  const columns = [
+    columnFromText(indexName ?? 'index', index, { isIndex: true, displayed: true, notes }),
+    columnFromText(footer.name ?? '0', values, { isIndex: false, displayed: true, notes })
+  ];
   const table: ITable = { columns, rowCount: index.length, format: 'pandas-text', notes };
   const truncation: ITruncation = { shownRows: index.length, totalRows: footer.length, shownColumns: 1, totalColumns: 1, rowGapAt };
   addDisplayNotes(table, truncation, rowGapAt !== null || (footer.length !== null && footer.length > index.length), 'text');

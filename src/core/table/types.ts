@@ -24,7 +24,8 @@ export interface IColumn {
   /** True when the column came from the DataFrame index. */
   isIndex: boolean;
   /**
-   * The values: a Float64Array iff kind === 'number' (NaN for missing, ±Infinity kept);
+   * The values: a Float64Array iff kind === 'number' (NaN for missing and for cells
+   * that could not be read as numbers, see the 'unreadable' note; ±Infinity kept);
    * otherwise strings, booleans or null for missing. Datetimes are ISO 8601 strings.
    */
   values: Float64Array | (string | boolean | null)[];
@@ -33,13 +34,14 @@ export interface IColumn {
 }
 
 /**
- * A note attached to a parse result: truncation, rounding, or other
- * information. A truncated display gives several 'truncated' notes: what was
- * cut (rows, columns) and the remedy.
+ * A note attached to a parse result: truncation, rounding, cells left out, or
+ * other information. A truncated display gives several 'truncated' notes: what
+ * was cut (rows, columns) and the remedy. A number column with cells that could
+ * not be read as numbers gives one 'unreadable' note naming it and the rows.
  */
 export interface ITableNote {
-  kind: 'truncated' | 'rounded' | 'info';
-  /** Codes `table.truncated.*`, `table.rounded.*` and others of `table.*`. */
+  kind: 'truncated' | 'rounded' | 'unreadable' | 'info';
+  /** Codes `table.truncated.*`, `table.rounded.*`, `table.unreadable.*` and others of `table.*`. */
   message: ICoreMessage;
 }
 

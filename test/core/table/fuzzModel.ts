@@ -5,7 +5,7 @@
  */
 import fc from 'fast-check';
 import Papa from 'papaparse';
-import { isMissingText, parseBoolean, parseDateParts, parseNumber } from '../../../src/core/table/cells';
+import { groupedNumber, isMissingText, numberText, parseBoolean, parseDateParts, readNumber } from '../../../src/core/table/cells';
 
 export type Kind = 'number' | 'string' | 'boolean' | 'datetime';
 export type Cell = number | string | boolean | null;
@@ -49,10 +49,11 @@ const CHARS = [
 ];
 const LETTERS = [...'abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ'];
 
-/** True when a text would be read as something other than a plain string. */
+/** True when a text would be read as something other than a plain string (a number, also leniently, or a missing number). */
 function typedLooking(s: string): boolean {
   return (
-    parseNumber(s) !== undefined ||
+    readNumber(s) !== undefined ||
+    groupedNumber(numberText(s)) !== undefined ||
     parseBoolean(s) !== undefined ||
     parseDateParts(s) !== undefined ||
     isMissingText(s) ||
