@@ -1,4 +1,6 @@
 /** Small numerical building blocks shared by the physics models. */
+export { NumericInputError } from './errors';
+export { wholeNumber } from './messageArgs';
 export { realPolynomialRoots, polyEval, polyDerivative } from './polyroots';
 export type { PolyCoefficients } from './polyroots';
 export { bracketRoot, goldenMinimum } from './scalar';
