@@ -83,11 +83,12 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
   summary.textContent = translateMessage(trans, verdict.summary);
   const detail = document.createElement('span');
   detail.className = 'jp-psiscape-verdict-detail';
-  detail.textContent = trans.__('%1 points fitted, χ²_red = %2; the optimiser stopped because %3', outcome.used, formatPlain(fit.reducedChi2), translateMessage(trans, fit.reason));
+  detail.textContent = trans.__('%1 points fitted, χ²_red = %2. Optimiser: %3', outcome.used, formatPlain(fit.reducedChi2), translateMessage(trans, fit.reason));
   head.append(mark, title, summary, detail);
   nodes.push(head);
 
-  const failed = verdict.checks.filter(c => !c.passed);
+  // The headline already gives the first failed check; list the others.
+  const failed = verdict.checks.filter(c => !c.passed && c.message.code !== verdict.summary.code);
   if (failed.length) {
     const list = document.createElement('ul');
     list.className = 'jp-psiscape-verdict-checks';
@@ -111,6 +112,12 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
     const li = document.createElement('li');
     li.className = 'jp-psiscape-fit-warning';
     li.textContent = translateMessage(trans, w);
+    notes.appendChild(li);
+  }
+  for (const n of fit.notes ?? []) {
+    const li = document.createElement('li');
+    li.className = 'jp-psiscape-fit-note';
+    li.textContent = translateMessage(trans, n);
     notes.appendChild(li);
   }
   for (const c of outcome.cautions) {
