@@ -23,6 +23,9 @@ import { translateMessage } from './translate';
 
 let panelCount = 0;
 
+/** A fit still running after this long takes the previous curve off the chart, in ms. */
+const RUNNING_REDRAW_MS = 200;
+
 /** Panel showing one analysis. */
 export class AnalysisPanel extends Panel {
   constructor(options: AnalysisPanel.IOptions) {
@@ -65,6 +68,7 @@ export class AnalysisPanel extends Panel {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
+    options.runner.warm();
     this._pending.add('table');
     this._schedule();
   }
@@ -123,6 +127,7 @@ export class AnalysisPanel extends Panel {
       return;
     }
     this._session.changed.disconnect(this._onChanged);
+    clearTimeout(this._runningDraw);
     super.dispose();
   }
 
@@ -200,8 +205,22 @@ export class AnalysisPanel extends Panel {
       }
     }
     this._fit.render();
-    if (changes.has('table') || changes.has('roles') || changes.has('run') || changes.has('controls')) {
+    const run = s.run;
+    if (changes.has('table') || changes.has('roles') || changes.has('controls')) {
       this._draw();
+    } else if (changes.has('run')) {
+      // A running fit takes the previous curve off the chart only if it runs for a while: a fit that
+      // answers at once is drawn once, with its own curve.
+      clearTimeout(this._runningDraw);
+      if (run.phase === 'running') {
+        this._runningDraw = setTimeout(() => {
+          if (!this.isDisposed && this._session.run.phase === 'running' && this._drawnWithCurve) {
+            this._draw();
+          }
+        }, RUNNING_REDRAW_MS);
+      } else {
+        this._draw();
+      }
     }
   }
 
@@ -238,6 +257,7 @@ export class AnalysisPanel extends Panel {
         ? this._trans.__('%1 points plotted; %2 rows left out (missing or infinite values).', plotted, skipped)
         : this._trans._n('%1 point plotted.', '%1 points plotted.', plotted);
     this._drawCount++;
+    this._drawnWithCurve = outcome !== null;
     this._chartDone = this._chart.render(spec, this._trans.__('Scatter of %1 against %2', p.y.label, p.x.label)).catch(reason => {
       this._status.node.textContent = this._trans.__('The chart could not be drawn: %1', reason instanceof Error ? reason.message : String(reason));
     });
@@ -363,6 +383,8 @@ export class AnalysisPanel extends Panel {
   private _renderDone: Promise<void> = Promise.resolve();
   private _chartDone: Promise<void> = Promise.resolve();
   private _drawCount = 0;
+  private _drawnWithCurve = false;
+  private _runningDraw: ReturnType<typeof setTimeout> | undefined = undefined;
   private _fitOnShow = false;
 }
 

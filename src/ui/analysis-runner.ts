@@ -129,6 +129,16 @@ export class AnalysisWorkerHost {
   }
 
   /** Jobs waiting or running. */
+  /**
+   * Start the worker now if it is not running, so that the first fit does not
+   * wait for its scripts (called when an analysis panel opens).
+   */
+  warm(): void {
+    if (!this._worker && this._mode !== 'main-thread' && !this._disposed) {
+      this._startWorker();
+    }
+  }
+
   get pending(): number {
     return this._queue.length + (this._running ? 1 : 0);
   }
@@ -382,6 +392,11 @@ export class AnalysisRunner {
     } else {
       this._host = AnalysisWorkerHost.shared();
     }
+  }
+
+  /** Start the shared worker ahead of the first job. */
+  warm(): void {
+    this._host.warm();
   }
 
   /** The host whose worker runs this runner's jobs. */
