@@ -21,7 +21,7 @@ import { Notification } from '@jupyterlab/apputils';
 import { UUID } from '@lumino/coreutils';
 import { DEFAULT_KIND, isKnownKind } from '../core/analysis';
 import { AnalysisSession } from '../core/analysis/session';
-import { messageText, msg } from '../core/messages';
+import { msg } from '../core/messages';
 import type { ICoreMessage } from '../core/messages';
 import { AnalysisRunner } from '../ui/analysis-runner';
 import type { IPsiscapeSettings } from './settings';
@@ -115,7 +115,7 @@ export function registerCommands(ctx: ICommandContext): {
       if (!located) {
         session.setSourceState('lost', msg('source.saved-copy', 'The source output of this saved analysis is not in the notebook; showing the saved copy of its data.'));
       } else if (restored.problem) {
-        session.setSourceState('stale', msg('source.saved-copy-because', 'Showing the saved copy of the data: %1.', messageText(restored.problem)));
+        session.setSourceState('stale', msg('source.saved-copy-because', 'Showing the copy of the data saved in the notebook.'), restored.problem);
       } else {
         session.setSourceHash(hashBundle(located.bundle));
       }
@@ -248,10 +248,10 @@ export function registerCommands(ctx: ICommandContext): {
       const message =
         count === 0
           ? msg('command.no-output', 'The selected cell has no output, so it holds no table. Run the cell first.')
-          : firstFailure && !firstFailure.ok
-            ? msg('command.no-table-in-outputs', 'No output of the selected cell holds a table. %1', messageText(firstFailure.message))
-            : msg('command.no-table', 'No output of the selected cell holds a table.');
-      open(panel, null, { ok: false, message });
+          : msg('command.no-table', 'No output of the selected cell holds a table.');
+      // The first output's own reasons follow as details.
+      const details = firstFailure && !firstFailure.ok ? [firstFailure.message, ...(firstFailure.details ?? [])] : undefined;
+      open(panel, null, { ok: false, message, details });
     }
   });
 

@@ -8,7 +8,7 @@ import type { ICodeCellModel, ICellModel } from '@jupyterlab/cells';
 import type { NotebookPanel } from '@jupyterlab/notebook';
 import type { IDisposable } from '@lumino/disposable';
 import type { AnalysisSession } from '../core/analysis/session';
-import { messageText, msg } from '../core/messages';
+import { msg } from '../core/messages';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
 import { parseOutput } from '../core/table';
@@ -137,7 +137,7 @@ export class SourceFollower implements IDisposable {
     const hadOutcome = session.outcome !== null;
     const problem = session.refresh(parseOutput(bundle));
     if (problem) {
-      session.setSourceState('stale', msg('source.not-updated', 'Not updated: %1. Showing the last data.', messageText(problem)));
+      session.setSourceState('stale', msg('source.not-updated', 'Not updated from the re-run cell; showing the last data.'), problem);
       return;
     }
     this._source.contentHash = hash;

@@ -177,9 +177,9 @@ export class AnalysisPanel extends Panel {
     const s = this._session;
     // Source state
     this.node.dataset.sourceState = s.sourceState;
-    const sourceMessage = s.sourceMessage;
-    this._banner.node.textContent = sourceMessage ? translateMessage(this._trans, sourceMessage) : '';
-    this._banner.setHidden(s.sourceState === 'live' || !sourceMessage);
+    const sourceMessages = s.sourceMessages;
+    this._banner.node.textContent = sourceMessages.map(m => translateMessage(this._trans, m)).join(' ');
+    this._banner.setHidden(s.sourceState === 'live' || sourceMessages.length === 0);
     if (changes.has('table')) {
       const table = s.table;
       this._isotherms.setTable(table);
@@ -187,7 +187,7 @@ export class AnalysisPanel extends Panel {
     }
     const problem = s.problem;
     const usable = problem === null && s.plotted() !== null;
-    this._message.node.textContent = problem ? translateMessage(this._trans, problem) : '';
+    this._message.node.textContent = problem ? [problem, ...s.problemDetails].map(m => translateMessage(this._trans, m)).join(' ') : '';
     this._message.setHidden(!problem);
     this._controls.setHidden(!usable);
     this._chart.setHidden(!usable);

@@ -64,7 +64,7 @@ describe('source tie-back', () => {
     expect(analysis.session.sourceState).toBe('stale');
     await analysis.rendered;
     const banner = analysis.node.querySelector('.jp-psiscape-AnalysisPanel-banner')!.textContent;
-    expect(banner).toBe('Not updated: the source output no longer has a numeric column "M [emu/g]". Showing the last data.');
+    expect(banner).toBe('Not updated from the re-run cell; showing the last data. The source output no longer has a numeric column “M [emu/g]”.');
     expect(Array.from(analysis.session.table!.columns.find(c => c.header === 'M [emu/g]')!.values as Float64Array)).toEqual(before);
   });
 

@@ -130,17 +130,20 @@ export class AnalysisSession {
     return this._sourceState;
   }
 
-  /** Why the data are not live (null when live). */
-  get sourceMessage(): ICoreMessage | null {
-    return this._sourceMessage;
+  /** Why the data are not live, then the reason behind it when there is one (empty when live). */
+  get sourceMessages(): readonly ICoreMessage[] {
+    return this._sourceMessages;
   }
 
-  setSourceState(state: SourceState, message: ICoreMessage | null = null): void {
-    if (state === this._sourceState && (message?.code ?? null) === (this._sourceMessage?.code ?? null)) {
+  /** Say how the data relate to the source: a message, and optionally the reason behind it. */
+  setSourceState(state: SourceState, message: ICoreMessage | null = null, reason: ICoreMessage | null = null): void {
+    const messages = state === 'live' ? [] : [message, reason].filter((m): m is ICoreMessage => m !== null);
+    const key = (list: readonly ICoreMessage[]) => JSON.stringify(list.map(m => [m.code, m.args]));
+    if (state === this._sourceState && key(messages) === key(this._sourceMessages)) {
       return;
     }
     this._sourceState = state;
-    this._sourceMessage = state === 'live' ? null : message;
+    this._sourceMessages = messages;
     this._changed.emit('source');
   }
 
@@ -154,6 +157,11 @@ export class AnalysisSession {
   /** Why there is no usable table (null when there is one with two numeric columns). */
   get problem(): ICoreMessage | null {
     return this._problem;
+  }
+
+  /** More about the problem (e.g. why each type of the output was refused). */
+  get problemDetails(): readonly ICoreMessage[] {
+    return this._problemDetails;
   }
 
   /** The numeric columns of the table. */
@@ -539,8 +547,10 @@ export class AnalysisSession {
       this._table = null;
       this._columns = [];
       this._problem = problemOf(result.message);
+      this._problemDetails = result.details ?? [];
       return;
     }
+    this._problemDetails = [];
     this._table = result.table;
     this._columns = plottableColumns(result.table);
     this._problem = this._columns.length < 2 ? msg('session.too-few-numeric', 'This table has fewer than two numeric columns, so there is nothing to plot.') : null;
@@ -572,8 +582,8 @@ export class AnalysisSession {
         return same[0];
       }
       return same.length === 0
-        ? msg('session.column-gone', 'the source output no longer has a numeric column "%1"', ref.header)
-        : msg('session.column-ambiguous', 'the source output now has %1 columns called "%2" and the one analysed (column %3) cannot be told apart', same.length, ref.header, ref.index + 1);
+        ? msg('session.column-gone', 'The source output no longer has a numeric column “%1”.', ref.header)
+        : msg('session.column-ambiguous', 'The source output now has %1 columns called “%2”, and the one analysed (column %3) cannot be told apart from the others.', same.length, ref.header, ref.index + 1);
     };
     const x = one(refs.x);
     const y = one(refs.y);
@@ -662,9 +672,10 @@ export class AnalysisSession {
 
   private _source: ITableSource | null;
   private _sourceState: SourceState = 'live';
-  private _sourceMessage: ICoreMessage | null = null;
+  private _sourceMessages: readonly ICoreMessage[] = [];
   private _table: ITable | null = null;
   private _problem: ICoreMessage | null = null;
+  private _problemDetails: readonly ICoreMessage[] = [];
   private _columns: IPlottableColumn[] = [];
   private _roles: IRoles | null = null;
   private _refs: ISavedAnalysis['columns'] | null = null;

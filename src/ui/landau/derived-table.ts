@@ -26,7 +26,7 @@ export function renderDerivedTable(table: HTMLTableElement, d: IExplorerDerived,
   caption.textContent =
     d.method === 'closed-form'
       ? trans.__('Zero-field values in convention L, F = (a/2)(T − T0)ψ² + (b/4)ψ⁴ + (c/6)ψ⁶ − hψ, from the closed forms; coefficients entered as %1.', conventionName)
-      : trans.__('Zero-field values in convention L, F = (a/2)(T − T0)ψ² + (d/3)ψ³ + (b/4)ψ⁴ + (c/6)ψ⁶ − hψ, found numerically (%1); coefficients entered as %2.', translateMessage(trans, d.reason), conventionName);
+      : trans.__('Zero-field values in convention L, F = (a/2)(T − T0)ψ² + (d/3)ψ³ + (b/4)ψ⁴ + (c/6)ψ⁶ − hψ, found numerically; coefficients entered as %1. %2', conventionName, translateMessage(trans, d.reason));
   table.appendChild(caption);
   const head = table.createTHead().insertRow();
   for (const text of [trans.__('quantity'), trans.__('value')]) {
