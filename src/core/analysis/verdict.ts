@@ -12,7 +12,7 @@
  *   standard error above 100 %), pairs the data cannot separate
  *   (|correlation| near 1), and non-finite values or standard errors.
  *
- * Every threshold is in {@link VERDICT_THRESHOLDS}.
+ * Every threshold is in {@link VERDICT_THRESHOLDS}. References: [N14] in REFERENCES.md.
  */
 import type { IFitResult } from '../fit/types';
 import { CoreMessageError, msg } from '../messages';

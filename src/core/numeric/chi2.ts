@@ -4,7 +4,7 @@
  *
  *   P(χ² ≤ c | ν) = P(ν/2, c/2),   P(χ² > c | ν) = Q(ν/2, c/2)
  *
- * (Abramowitz & Stegun 1964, Handbook of Mathematical Functions, §26.4).
+ * (Abramowitz & Stegun 1964, Handbook of Mathematical Functions, §26.4; [N14] in REFERENCES.md).
  * Each tail is computed directly, never as one minus the other when that
  * would cancel: P by its power series where x < a + 1, Q by its continued
  * fraction elsewhere, so a tiny tail keeps its relative precision (a lower
