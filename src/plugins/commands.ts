@@ -5,7 +5,7 @@
 import type { JupyterFrontEnd } from '@jupyterlab/application';
 import type { INotebookTracker, NotebookPanel } from '@jupyterlab/notebook';
 import type { ITranslator } from '@jupyterlab/translation';
-import { parseMime, parseOutput } from '../core/table';
+import { parseOffThread } from '../ui/parse-off-thread';
 import type { ParseResult } from '../core/table';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
@@ -53,7 +53,7 @@ export interface ICommandContext {
 export function registerCommands(ctx: ICommandContext): {
   panels: AnalysisPanel[];
   followers: Map<AnalysisPanel, SourceFollower>;
-  restore: (panel: NotebookPanel, limit?: number) => number;
+  restore: (panel: NotebookPanel, limit?: number) => Promise<number>;
   explorers: LandauExplorer[];
 } {
   const { app, tracker, translator } = ctx;
@@ -181,15 +181,23 @@ export function registerCommands(ctx: ICommandContext): {
    * few at once (their fits run when their tab is first shown), the rest on
    * request, so a notebook with hundreds of analyses opens at once.
    */
-  const restore = (panel: NotebookPanel, limit = RESTORE_AT_ONCE): number => {
+  const restore = async (panel: NotebookPanel, limit = RESTORE_AT_ONCE): Promise<number> => {
     const { analyses, problems } = savedAnalysesOf(panel);
     notify(panel.context.path, problems);
     const closed = analyses.filter(a => !openIds.has(a.id) && isKnownKind(a.settings?.kind ?? DEFAULT_KIND));
     const now = closed.slice(0, limit);
+    // Claimed before the first await, so a second restore of the same notebook does not open them twice.
+    now.forEach(saved => openIds.add(saved.id));
     for (const saved of now) {
       const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
       const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
-      open(panel, located, located ? parseOutput(located.bundle) : { ok: false, message: msg('source.output-gone', 'The source output is not in the notebook.') }, saved);
+      const parse: ParseResult = located
+        ? await parseOffThread({ bundle: located.bundle })
+        : { ok: false, message: msg('source.output-gone', 'The source output is not in the notebook.') };
+      if (panel.isDisposed) {
+        break;
+      }
+      open(panel, located, parse, saved);
     }
     if (closed.length > now.length) {
       Notification.info(
@@ -205,7 +213,7 @@ export function registerCommands(ctx: ICommandContext): {
     caption: trans.__('Open the table shown in this output in a psiscape analysis panel'),
     describedBy: { args: { type: 'object', properties: {} } },
     isEnabled: () => tracker.currentWidget !== null,
-    execute: () => {
+    execute: async () => {
       const node = app.contextMenuHitTest(n => n.classList.contains('jp-OutputArea-child'));
       const located = node ? locateOutputNode(tracker, node) : null;
       if (!located) {
@@ -215,7 +223,7 @@ export function registerCommands(ctx: ICommandContext): {
         }
         return;
       }
-      open(located.panel, located, parseOutput(located.bundle));
+      open(located.panel, located, await parseOffThread({ bundle: located.bundle }));
     }
   });
 
@@ -224,7 +232,7 @@ export function registerCommands(ctx: ICommandContext): {
     caption: trans.__('Open the first table output of the selected cell in a psiscape analysis panel'),
     describedBy: { args: { type: 'object', properties: {} } },
     isEnabled: () => tracker.currentWidget !== null && tracker.activeCell !== null,
-    execute: () => {
+    execute: async () => {
       const panel = tracker.currentWidget;
       if (!panel) {
         return;
@@ -238,7 +246,7 @@ export function registerCommands(ctx: ICommandContext): {
         if (!located) {
           continue;
         }
-        const parse = parseOutput(located.bundle);
+        const parse = await parseOffThread({ bundle: located.bundle });
         if (parse.ok) {
           open(panel, located, parse);
           return;
@@ -269,7 +277,7 @@ export function registerCommands(ctx: ICommandContext): {
       let parse: ParseResult;
       try {
         const model = await app.serviceManager.contents.get(path, { content: true, format: 'text' });
-        parse = typeof model.content === 'string' ? parseMime(mime, model.content) : { ok: false, message: msg('command.not-text', '%1 is not a text file.', path) };
+        parse = typeof model.content === 'string' ? await parseOffThread({ mime, text: model.content }) : { ok: false, message: msg('command.not-text', '%1 is not a text file.', path) };
       } catch (reason) {
         parse = { ok: false, message: msg('command.file-unreadable', '%1 could not be read (%2).', path, reason instanceof Error ? reason.message.slice(0, 120) : String(reason).slice(0, 120)) };
       }

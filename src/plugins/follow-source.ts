@@ -11,7 +11,7 @@ import type { AnalysisSession } from '../core/analysis/session';
 import { msg } from '../core/messages';
 import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
-import { parseOutput } from '../core/table';
+import { parseOffThread } from '../ui/parse-off-thread';
 
 /** CSS class on a cell whose output an open analysis uses. */
 export const SOURCE_CELL_CLASS = 'jp-psiscape-mod-source';
@@ -103,15 +103,17 @@ export class SourceFollower implements IDisposable {
     clearTimeout(this._timer);
     this._idle = new Promise(resolve => {
       this._timer = setTimeout(() => {
-        if (!this._isDisposed) {
-          this._check();
+        if (this._isDisposed) {
+          resolve();
+          return;
         }
-        resolve();
+        void this._check().then(resolve, resolve);
       }, SETTLE_MS);
     });
   }
 
-  private _check(): void {
+  private async _check(): Promise<void> {
+    const check = ++this._checks;
     const session = this._session;
     const cell = this._cell;
     if (!cell) {
@@ -135,7 +137,12 @@ export class SourceFollower implements IDisposable {
       return;
     }
     const hadOutcome = session.outcome !== null;
-    const problem = session.refresh(parseOutput(bundle));
+    // Large outputs are parsed in the analysis worker; a newer check (another re-run) wins.
+    const parsed = await parseOffThread({ bundle });
+    if (check !== this._checks || this._isDisposed) {
+      return;
+    }
+    const problem = session.refresh(parsed);
     if (problem) {
       session.setSourceState('stale', msg('source.not-updated', 'Not updated from the re-run cell; showing the last data.'), problem);
       return;
@@ -156,4 +163,5 @@ export class SourceFollower implements IDisposable {
   private _timer: ReturnType<typeof setTimeout> | undefined = undefined;
   private _idle: Promise<void> = Promise.resolve();
   private _isDisposed = false;
+  private _checks = 0;
 }

@@ -23,8 +23,9 @@
  * thread after a yield, through the same handler and queue.
  */
 import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis/types';
-import { bestOfFit, handleAnalysisMessage } from '../core/analysis/protocol';
-import type { AnalysisResponse, IBestSoFar, IRunRequest } from '../core/analysis/protocol';
+import { bestOfFit, handleAnalysisMessage, parseSource } from '../core/analysis/protocol';
+import type { AnalysisResponse, IBestSoFar, IParseRequest, IRunRequest, ParseSource } from '../core/analysis/protocol';
+import type { ParseResult } from '../core/table';
 import { CoreMessageError, messageOf, msg } from '../core/messages';
 import type { ICoreMessage } from '../core/messages';
 
@@ -91,7 +92,9 @@ function cancelledResult(best: IBestSoFar | null): IRunCancelled {
 /** A submitted job. */
 interface ITask {
   readonly id: number;
-  readonly request: IRunRequest;
+  readonly request: IRunRequest | IParseRequest;
+  /** Parse tasks: receives the parsed table. */
+  readonly onParsed?: (result: ParseResult) => void;
   readonly transfer: Transferable[];
   readonly onProgress: ((p: IRunProgress) => void) | undefined;
   readonly resolve: (result: AnalysisRunResult) => void;
@@ -175,6 +178,35 @@ export class AnalysisWorkerHost {
   }
 
   /**
+   * Parse a table in the worker (large outputs would hold the page's thread
+   * for hundreds of milliseconds); queued like the fits. Never rejects: a
+   * failure is a parse result with its message.
+   */
+  parse(source: ParseSource): Promise<ParseResult> {
+    const id = ++this._lastId;
+    return new Promise<ParseResult>(done => {
+      if (this._disposed) {
+        done(parseSource(source));
+        return;
+      }
+      const task: ITask = {
+        id,
+        request: { id, kind: 'parse', source },
+        transfer: [],
+        onProgress: undefined,
+        onParsed: done,
+        resolve: () => undefined,
+        reject: reason => done({ ok: false, message: messageOf(reason) }),
+        best: null,
+        cancelRequested: false,
+        graceTimer: null
+      };
+      this._queue.push(task);
+      this._pump();
+    });
+  }
+
+  /**
    * Stop job `id`: a waiting job leaves the queue; a running one stops at
    * its best point so far. Its promise resolves with a cancelled result.
    */
@@ -193,7 +225,7 @@ export class AnalysisWorkerHost {
     if (!this._worker) {
       // Main thread: the job has not started (it runs in one piece after a yield).
       this._settle(task, cancelledResult(task.best));
-    } else if (task.request.cancelFlag) {
+    } else if (task.request.kind === 'run' && task.request.cancelFlag) {
       Atomics.store(task.request.cancelFlag, 0, 1);
       task.graceTimer = setTimeout(() => this._abandon(task), this._graceMs);
     } else {
@@ -213,7 +245,11 @@ export class AnalysisWorkerHost {
     this._endWorker();
     for (const task of tasks) {
       this._clearTimer(task);
-      task.resolve(cancelledResult(task.best));
+      if (task.onParsed) {
+        task.onParsed(parseSource(task.request.kind === 'parse' ? task.request.source : { mime: 'text/csv', text: '' }));
+      } else {
+        task.resolve(cancelledResult(task.best));
+      }
     }
     if (sharedHost === this) {
       sharedHost = null;
@@ -279,6 +315,11 @@ export class AnalysisWorkerHost {
       return;
     }
     switch (message.kind) {
+      case 'parsed':
+        this._finish(task);
+        task.onParsed?.(message.result);
+        this._pump();
+        return;
       case 'progress':
         task.best = message.best ?? task.best;
         if (!task.cancelRequested && task.onProgress) {

@@ -3,7 +3,11 @@
  * the worker entry (src/worker/analysis.worker.ts) wires it to `postMessage`,
  * tests call it directly or from a Node worker thread.
  *
- * Request:  { id, kind: 'run', job, cancelFlag? }
+ * Request:  { id, kind: 'parse', source }  → { id, kind: 'parsed', result }
+ *           Parses a cell output's MIME bundle, or a file's text, off the
+ *           page's thread; the parsed table's number columns come back as
+ *           Float64Arrays (the worker transfers their buffers).
+ *           { id, kind: 'run', job, cancelFlag? }
  *           The job's x, y and σ may be Float64Arrays (the UI transfers
  *           their buffers). `cancelFlag` is an Int32Array over a
  *           SharedArrayBuffer: the client stores a non-zero value in element
@@ -23,6 +27,8 @@ import type { ICoreMessage } from '../messages';
 import type { IFitProgress, IFitResult } from '../fit/types';
 import type { IAnalysisJob, IAnalysisOutcome } from './types';
 import { runAnalysisJob } from './run';
+import { parseMime, parseOutput } from '../table';
+import type { ParseResult } from '../table';
 
 /** A request to run one job. */
 export interface IRunRequest {
@@ -32,7 +38,33 @@ export interface IRunRequest {
   /** Cooperative cancel: element 0 ≠ 0 stops the job (Int32Array over a SharedArrayBuffer). */
   cancelFlag?: Int32Array;
 }
-export type AnalysisRequest = IRunRequest;
+/** What a parse request reads: a cell output's MIME bundle, or a file's text with its MIME type. */
+export type ParseSource = { bundle: Readonly<Record<string, unknown>> } | { mime: string; text: string };
+
+/** A request to parse a table. */
+export interface IParseRequest {
+  id: number;
+  kind: 'parse';
+  source: ParseSource;
+}
+
+export type AnalysisRequest = IRunRequest | IParseRequest;
+
+/** Parse a table source (the worker's job for a parse request; also the main-thread fallback). */
+export function parseSource(source: ParseSource): ParseResult {
+  return 'bundle' in source ? parseOutput(source.bundle) : parseMime(source.mime, source.text);
+}
+
+/** The buffers of a parsed table's number columns, to transfer. */
+export function parseTransfer(result: ParseResult): ArrayBuffer[] {
+  const buffers = new Set<ArrayBuffer>();
+  for (const c of result.ok ? result.table.columns : []) {
+    if (c.values instanceof Float64Array) {
+      buffers.add(c.values.buffer as ArrayBuffer);
+    }
+  }
+  return [...buffers];
+}
 
 /**
  * The best point a fit has reached so far: values and χ² without
@@ -78,7 +110,14 @@ export interface IFailedReply {
   message: ICoreMessage;
 }
 
-export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply;
+/** A parsed table (or why there is none). */
+export interface IParsedReply {
+  id: number;
+  kind: 'parsed';
+  result: ParseResult;
+}
+
+export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply | IParsedReply;
 
 /** Least time between two progress replies, in ms. */
 export const PROGRESS_INTERVAL_MS = 100;
@@ -124,6 +163,17 @@ function isRunRequest(v: unknown): v is IRunRequest {
  * @param now - clock for the progress throttle, in ms (tests pass their own)
  */
 export function handleAnalysisMessage(request: unknown, post: (response: AnalysisResponse) => void, now: () => number = Date.now): void {
+  const r = request as Partial<IParseRequest> | null;
+  if (r && typeof r === 'object' && r.kind === 'parse' && typeof r.id === 'number' && r.source && typeof r.source === 'object') {
+    let result: ParseResult;
+    try {
+      result = parseSource(r.source);
+    } catch (e) {
+      result = { ok: false, message: messageOf(e) };
+    }
+    post({ id: r.id, kind: 'parsed', result });
+    return;
+  }
   if (!isRunRequest(request)) {
     const id = typeof (request as { id?: unknown } | null)?.id === 'number' ? (request as { id: number }).id : -1;
     post({ id, kind: 'failed', message: msg('analysis.malformed-request', 'The analysis worker received a request it cannot read.') });
