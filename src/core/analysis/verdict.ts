@@ -10,7 +10,8 @@
  * - Without σ: how much of the variance of y the model accounts for.
  * - Always: parameters at a bound, parameters not determined (relative
  *   standard error above 100 %), pairs the data cannot separate
- *   (|correlation| near 1), and non-finite values or standard errors.
+ *   (|correlation| near 1), and non-finite values, standard errors or χ².
+ * - When the drawn curve is given: that it is finite at every point drawn.
  *
  * Every threshold is in {@link VERDICT_THRESHOLDS}. References: [N14] in REFERENCES.md.
  */
@@ -54,6 +55,12 @@ export interface IVerdictInput {
   /** Parameter bounds used, if any (one per parameter, ±∞ for none). */
   lower?: ArrayLike<number>;
   upper?: ArrayLike<number>;
+  /**
+   * y of the model curve as drawn over the window, when there is one: a
+   * curve that is not finite everywhere it is drawn fails the
+   * 'curve-not-finite' check (the model does not describe the window).
+   */
+  curve?: ArrayLike<number>;
 }
 
 /**
@@ -343,6 +350,18 @@ function finiteCheck(fit: IFitResult, free: number[], chi2: number): IVerdictChe
     };
   }
   const bad = nonFiniteResiduals(fit);
+  if (bad === 0 && !Number.isFinite(chi2)) {
+    return {
+      code: 'finite',
+      passed: false,
+      message: msg(
+        'verdict.finite.chi2',
+        'χ² is %1 although every residual is finite: the squares of the residuals overflow, so the quality of the fit cannot be judged. Rescale the y column (and σ) before fitting.',
+        chi2
+      ),
+      value: 0
+    };
+  }
   if (bad > 0 || !Number.isFinite(chi2)) {
     return {
       code: 'finite',
@@ -361,6 +380,38 @@ function finiteCheck(fit: IFitResult, free: number[], chi2: number): IVerdictChe
     message: msg('verdict.finite.passed', 'All values, standard errors and residuals are finite.'),
     value: 0
   };
+}
+
+/**
+ * The drawn curve: a model that gives no finite value somewhere on the grid
+ * it is drawn on (NaN, ±∞, overflow) does not describe the data over the
+ * window, whatever its residuals at the fitted points say.
+ */
+function curveCheck(curve: ArrayLike<number>): IVerdictCheck {
+  let bad = 0;
+  for (let i = 0; i < curve.length; i++) {
+    if (!Number.isFinite(curve[i])) {
+      bad++;
+    }
+  }
+  return bad === 0
+    ? {
+        code: 'curve-not-finite',
+        passed: true,
+        message: msg('verdict.curve.passed', 'The fitted curve is finite at all %1 points where it is drawn.', count(curve.length)),
+        value: 0
+      }
+    : {
+        code: 'curve-not-finite',
+        passed: false,
+        message: msg(
+          'verdict.curve.failed',
+          'The fitted model gives no finite value at %1 of the %2 points where its curve is drawn across the window, so it does not describe the data there. Narrow the window, check the model, or rescale the columns.',
+          count(bad),
+          count(curve.length)
+        ),
+        value: bad
+      };
 }
 
 /** χ² = Σ(r/σ)², from the engine when it weighted by σ, else from the residuals. */
@@ -731,6 +782,9 @@ export function judgeFit(fit: IFitResult, input: IVerdictInput): IVerdict {
   }
 
   const checks: IVerdictCheck[] = [converged, dofCheck(fit, n, free.length), finiteCheck(fit, free, chi2)];
+  if (input.curve !== undefined) {
+    checks.push(curveCheck(input.curve));
+  }
   let runs: IRunsTestResult | null = null;
   let reduced = Number.NaN;
   if (testable) {

@@ -10,6 +10,15 @@ import { FIT_DEFAULTS } from './defaults';
 import { FitInputError } from './types';
 import type { IFitData, IFitModel, IFitOptions } from './types';
 
+/**
+ * Largest |y|/σ (|y| without σ) the engine accepts. χ² sums the squares of
+ * the weighted residuals in binary64 (range ≈ 1e±308): beyond 1e150 a single
+ * square overflows to ∞ (and a sum over many points soon after), so the
+ * optimiser would steer by infinities. No measured quantity in a sensible
+ * unit comes near it.
+ */
+export const LARGEST_WEIGHTED_Y = 1e150;
+
 /** Validated, normalised fit problem. */
 export interface IFitProblem {
   model: IFitModel;
@@ -223,6 +232,16 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
         );
       }
       weights[i] = 1 / sigma[i];
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    const scaled = weights ? Math.abs(y[i]) * weights[i] : Math.abs(y[i]);
+    if (!(scaled <= LARGEST_WEIGHTED_Y)) {
+      throw new FitInputError(
+        weights
+          ? msg('fit.y-too-large-for-sigma', 'Point %1 has y = %2 with σ = %3: beyond |y|/σ = %4 the squares χ² sums overflow. Rescale y and σ (e.g. change their unit) or check σ.', wholeNumber(i + 1), y[i], 1 / weights[i], LARGEST_WEIGHTED_Y)
+          : msg('fit.y-too-large', 'Point %1 has y = %2: beyond ±%3 the squares χ² sums overflow. Rescale y (e.g. change its unit) before fitting.', wholeNumber(i + 1), y[i], LARGEST_WEIGHTED_Y)
+      );
     }
   }
   if (!options) {

@@ -4,7 +4,7 @@
  */
 import { curieWeissModel, fitCurieWeiss } from '../../physics/curie-weiss';
 import { msg } from '../../messages';
-import { conventionOf, curveOf, requirePoints, valueOf } from './common';
+import { conventionOf, curveOf, requireChangingY, requirePoints, valueOf } from './common';
 import type { IAnalysisKind, IChoiceOption } from './types';
 
 export const unitsOption: IChoiceOption<string> = {
@@ -25,18 +25,21 @@ export const curieWeissKind = {
   minPoints: () => 5,
   run: (job, pts, hooks) => {
     const units = job.options.units === 'SI' ? 'SI' : 'cgs-emu';
-    requirePoints(pts, 5);
+    // C, θ and χ0: 3 free parameters.
+    requirePoints(pts, 5, 3);
+    requireChangingY(pts, 'curie-weiss');
     const fit = fitCurieWeiss({ T: pts.x, chi: pts.y, sigma: pts.sigma }, { units, engine: { ...hooks } });
     const C = valueOf(fit, 'C');
     const theta = valueOf(fit, 'theta');
     const chi0 = valueOf(fit, 'chi0');
+    const curve = curveOf(curieWeissModel, fit.values, pts.x);
     return {
       outcome: {
         equation: 'χ = χ0 + C/(T − θ)',
         convention: conventionOf(fit.convention),
         fit,
         used: pts.x.length,
-        curve: curveOf(curieWeissModel, fit.values, pts.x),
+        curve,
         derived: [
           { name: 'C', value: C.value, sigma: C.sigma, note: units === 'SI' ? msg('derived.curie-si', 'Curie constant, m³ K mol⁻¹') : msg('derived.curie-cgs', 'Curie constant, emu K mol⁻¹ Oe⁻¹') },
           { name: 'θ', value: theta.value, sigma: theta.sigma, note: msg('derived.theta', 'Weiss temperature, K (> 0: net ferromagnetic)') },
@@ -54,7 +57,7 @@ export const curieWeissKind = {
           msg('caution.remanent-field', 'A nominal zero field in a superconducting magnet can be 0.1–3 mT of remanent field.')
         ]
       },
-      fitted: pts
+      fitted: { ...pts, curve: curve.y }
     };
   },
   views: ['data-and-curve']

@@ -47,7 +47,7 @@ export const expressionKind = {
     const aliases = (job.xNames ?? []).flatMap(name => variableNamesFromHeader(name)).filter(name => name !== 'x');
     // The parser's errors are already in our words, with the position.
     const model = parseExpressionModel(text, { variables: ['x'], aliases });
-    requirePoints(pts, model.parameters.length + 1);
+    requirePoints(pts, model.parameters.length + 1, model.parameters.length);
     const unknown = Object.keys(starts).filter(k => !model.parameters.includes(k));
     if (unknown.length) {
       throw new AnalysisInputError(msg('expression.unknown-start', 'The start values name %1, which the expression does not use (its parameters: %2).', unknown.join(', '), model.parameters.join(', ')));
@@ -58,13 +58,14 @@ export const expressionKind = {
     }
     const start = guess.start;
     const fit = fitCurve(model, { x: pts.x, y: pts.y, sigma: pts.sigma }, { start, ...hooks });
+    const curve = curveOf(model, fit.values, pts.x);
     return {
       outcome: {
         equation: `y = ${model.expression}`,
         convention: msg('convention.expression', 'Your expression; parameters without a start value start from automatic guesses.'),
         fit,
         used: pts.x.length,
-        curve: curveOf(model, fit.values, pts.x),
+        curve,
         derived: [],
         cautions: [
           ...model.flags,
@@ -76,7 +77,7 @@ export const expressionKind = {
           msg('caution.local-minimum', 'A fit from poor start values can stop in a local minimum: check the curve against the data.')
         ]
       },
-      fitted: pts
+      fitted: { ...pts, curve: curve.y }
     };
   },
   views: ['data-and-curve']

@@ -18,7 +18,7 @@ import { messageOf, msg } from '../../messages';
 import type { IDerivedValue } from '../types';
 import { AnalysisInputError } from '../errors';
 import { grid } from '../window';
-import { extent, windowCaution } from './common';
+import { distinctCount, extent, requireChangingY, requireDistinctX, requirePoints, windowCaution } from './common';
 import type { IAnalysisKind } from './types';
 
 /** Points with ψ below this fraction of the largest |ψ| count as disordered and are not fitted. */
@@ -50,6 +50,9 @@ export const landauKind = {
   options: {},
   minPoints: () => 4,
   run: (_job, pts) => {
+    // T0, b/a and c/a: 3 free parameters.
+    requirePoints(pts, 4, 3);
+    requireChangingY(pts, 'transition');
     let ymax = 0;
     for (let i = 0; i < pts.y.length; i++) {
       ymax = Math.max(ymax, Math.abs(pts.y[i]));
@@ -69,6 +72,14 @@ export const landauKind = {
         msg('landau.too-few-ordered', 'The Landau fit needs at least 4 ordered points (ψ above %1 % of its largest value) in the fit window, but there are %2. Widen the window.', 100 * ORDERED_FRACTION, psi.length)
       );
     }
+    // T is fitted against ψ on the ordered points: both need 4 different values there.
+    requireDistinctX(T, 3);
+    const distinctPsi = distinctCount(psi);
+    if (distinctPsi < 4) {
+      throw new AnalysisInputError(
+        msg('landau.too-few-distinct-psi', 'The %1 ordered points in the fit window have only %2 different values of ψ, but the Landau fit of T against ψ needs at least 4. Widen the window or choose another y column.', psi.length, distinctPsi)
+      );
+    }
     const fit = fitCurve(inverseLandau, { x: psi, y: T }, { start: [Tmax, 0, 0] });
     const [T0, B, C] = fit.values;
     const k = { a: 1, T0, b: B, c: C, d: 0 };
@@ -86,13 +97,14 @@ export const landauKind = {
     }
     const { min, max } = extent(pts.x);
     const x = grid(min, max, 300);
+    const curve = { x, y: x.map(t => landauEquilibriumPsi(k, t)) };
     return {
       outcome: {
         equation: 'T = T0 − (b/a)ψ² − (c/a)ψ⁴ on the ordered branch (F′ = 0 for F = (a/2)(T − T0)ψ² + (b/4)ψ⁴ + (c/6)ψ⁶)',
         convention: msg('convention.landau-inverse', 'Landau convention L (a/2, b/4, c/6), a = 1; fitted as T against ψ on the ordered points, so scatter in ψ is treated as scatter in T'),
         fit,
         used: psi.length,
-        curve: { x, y: x.map(t => landauEquilibriumPsi(k, t)) },
+        curve,
         derived,
         cautions: [
           windowCaution(),
@@ -102,7 +114,7 @@ export const landauKind = {
         ],
         landau: k
       },
-      fitted: { x: psi, y: T }
+      fitted: { x: psi, y: T, curve: curve.y }
     };
   },
   views: ['data-and-curve', 'landau-explorer']

@@ -10,7 +10,7 @@ import type { ICoreMessage } from '../../messages';
 import type { IAnalysisJob, IDerivedValue } from '../types';
 import type { IWindowedPoints } from '../window';
 import type { IAnalysisHooks } from '../hooks';
-import { conventionOf, correlation, curveOf, requirePoints, valueOf, windowCaution } from './common';
+import { conventionOf, correlation, curveOf, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
 import type { IAnalysisKind, IChoiceOption, IKindResult, IBooleanOption } from './types';
 
 /** Tc estimate for data that run through the transition: where |y| last exceeds 10 % of its largest value. */
@@ -61,6 +61,7 @@ export const deltaOption: IChoiceOption<number> = {
 function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHooks, wegnerDelta: number | undefined): IKindResult {
   const proxyPower = Number(job.options.proxyPower ?? 1);
   const background = job.options.background === true;
+  requireChangingY(pts, 'transition');
   const { Tc, spansTc } = crossingEstimate(pts);
   const options: IPowerLawOptions = { proxyPower, background, allowTcInsideData: spansTc, aboveTc: 'zero', wegnerDelta };
   const fit = fitPowerLaw(
@@ -92,17 +93,18 @@ function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHo
   ];
   const p = proxyPower === 1 ? '' : `${proxyPower}·`;
   const correction = wegnerDelta === undefined ? '' : `·[1 + aW·(1 − T/Tc)^${wegnerDelta}]`;
+  const curve = curveOf(powerLawModel(options), fit.values, pts.x);
   return {
     outcome: {
       equation: `y = A·(1 − T/Tc)^(${p}β)${correction}${background ? ' + y0' : ''} below Tc, ${background ? 'y0' : '0'} above`,
       convention: conventionOf(fit.convention),
       fit,
       used: pts.x.length,
-      curve: curveOf(powerLawModel(options), fit.values, pts.x),
+      curve,
       derived,
       cautions
     },
-    fitted: pts
+    fitted: { ...pts, curve: curve.y }
   };
 }
 
@@ -114,7 +116,8 @@ export const powerLawKind = {
   options: { proxyPower: proxyOption, background: backgroundOption },
   minPoints: o => (o.background === true ? 6 : 5),
   run: (job, pts, hooks) => {
-    requirePoints(pts, job.options.background === true ? 6 : 5);
+    // A, Tc, β [, y0].
+    requirePoints(pts, job.options.background === true ? 6 : 5, job.options.background === true ? 4 : 3);
     return runPowerLaw(job, pts, hooks, undefined);
   },
   views: ['data-and-curve']
@@ -128,7 +131,8 @@ export const powerLawCorrectedKind = {
   options: { proxyPower: proxyOption, background: backgroundOption, wegnerDelta: deltaOption },
   minPoints: o => (o.background === true ? 7 : 6),
   run: (job, pts, hooks) => {
-    requirePoints(pts, job.options.background === true ? 7 : 6);
+    // A, Tc, β, aW [, y0].
+    requirePoints(pts, job.options.background === true ? 7 : 6, job.options.background === true ? 5 : 4);
     return runPowerLaw(job, pts, hooks, Number(job.options.wegnerDelta ?? deltaOption.default));
   },
   views: ['data-and-curve']

@@ -55,6 +55,11 @@ export interface IFittedPoints {
   x: ArrayLike<number>;
   y: ArrayLike<number>;
   sigma?: ArrayLike<number>;
+  /**
+   * y of the model curve drawn over the window (the outcome's `curve.y`): the
+   * verdict refuses 'fits' when it is not finite everywhere it is drawn.
+   */
+  curve?: ArrayLike<number>;
 }
 
 /** What a kind's job returns: the outcome, and the points the engine fitted. */

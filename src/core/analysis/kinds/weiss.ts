@@ -5,7 +5,7 @@
 import { fitWeissMT, weissMTModel } from '../../physics/weiss-fit';
 import { msg } from '../../messages';
 import { AnalysisInputError } from '../errors';
-import { conventionOf, curveOf, requirePoints, valueOf, windowCaution } from './common';
+import { conventionOf, curveOf, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
 import type { IAnalysisKind, IChoiceOption, IOptionChoice } from './types';
 
 /** Half-integer spins ½ … 8, then the classical (Langevin) limit. */
@@ -32,22 +32,25 @@ export const weissKind = {
   minPoints: () => 4,
   run: (job, pts, hooks) => {
     const J = Number(job.options.J ?? spinOption.default);
-    requirePoints(pts, 4);
+    // Ms and Tc: 2 free parameters.
+    requirePoints(pts, 4, 2);
     for (let i = 0; i < pts.x.length; i++) {
       if (!(pts.x[i] > 0)) {
         throw new AnalysisInputError(msg('weiss.absolute-temperature', 'The Weiss fit needs absolute temperatures (K > 0) in the x column, but it holds %1; convert °C to K first.', pts.x[i]));
       }
     }
+    requireChangingY(pts, 'transition');
     const fit = fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, engine: { ...hooks } });
     const Tc = valueOf(fit, 'Tc');
     const Ms = valueOf(fit, 'Ms');
+    const curve = curveOf(weissMTModel(J, false), fit.values, pts.x);
     return {
       outcome: {
         equation: `M = Ms·m(T/Tc), m = B_J(3J m/((J+1) τ)), J = ${J === Infinity ? '∞ (Langevin)' : J}`,
         convention: conventionOf(fit.convention),
         fit,
         used: pts.x.length,
-        curve: curveOf(weissMTModel(J, false), fit.values, pts.x),
+        curve,
         derived: [
           { name: 'Tc', value: Tc.value, sigma: Tc.sigma, note: msg('derived.weiss-tc', 'mean-field Curie temperature, in K') },
           { name: 'Ms', value: Ms.value, sigma: Ms.sigma, note: msg('derived.ms', 'saturation value, in the units of the y column') }
@@ -58,7 +61,7 @@ export const weissKind = {
           msg('caution.field-rounding', 'A magnetisation measured in a field is not spontaneous: the field-induced tail rounds the curve at Tc.')
         ]
       },
-      fitted: pts
+      fitted: { ...pts, curve: curve.y }
     };
   },
   views: ['data-and-curve']
