@@ -1,9 +1,12 @@
 /**
  * Vega-Lite scatter of two columns of a table: the first chart a user sees
- * after picking x and y.
+ * after picking x and y. More than `maxPoints` finite pairs (default
+ * {@link DISPLAY_MAX_POINTS}) are drawn reduced (`./reduce.ts`).
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { singleViewChart } from './frame';
+import type { IDisplayReduction } from './reduce';
+import { DISPLAY_MAX_POINTS, finiteRows, reduceForDisplay } from './reduce';
 import type { IChartTheme } from './theme';
 
 /** Input of {@link buildScatterSpec}. */
@@ -20,6 +23,8 @@ export interface IScatterOptions {
   theme: IChartTheme;
   /** Accessible description of the chart. */
   description?: string;
+  /** Most points drawn (default {@link DISPLAY_MAX_POINTS}); larger series are reduced for display. */
+  maxPoints?: number;
 }
 
 /** A scatter spec and how many points it plots. */
@@ -29,6 +34,8 @@ export interface IScatterSpec {
   plotted: number;
   /** Pairs left out because a value was NaN or infinite. */
   skipped: number;
+  /** Set when the series was reduced for display: `shown` of `total` (= plotted) points drawn. Null when every point is drawn. */
+  reduced: IDisplayReduction | null;
 }
 
 /**
@@ -41,13 +48,13 @@ export function buildScatterSpec(options: IScatterOptions): IScatterSpec {
   if (x.length !== y.length) {
     throw new RangeError(`x has ${x.length} values but y has ${y.length}`);
   }
-  const values: { x: number; y: number; row: number }[] = [];
-  for (let i = 0; i < x.length; i++) {
-    const xi = x[i];
-    const yi = y[i];
-    if (Number.isFinite(xi) && Number.isFinite(yi)) {
-      values.push({ x: xi, y: yi, row: i });
-    }
+  const rows = finiteRows(x, y);
+  const maxPoints = options.maxPoints ?? DISPLAY_MAX_POINTS;
+  const drawn = rows.length > maxPoints ? reduceForDisplay(x, y, rows, maxPoints) : rows;
+  const values: { x: number; y: number; row: number }[] = new Array(drawn.length);
+  for (let k = 0; k < drawn.length; k++) {
+    const i = drawn[k];
+    values[k] = { x: x[i], y: y[i], row: i };
   }
   const spec = singleViewChart(
     {
@@ -65,5 +72,6 @@ export function buildScatterSpec(options: IScatterOptions): IScatterSpec {
     },
     { description: options.description ?? `${options.yTitle} against ${options.xTitle}`, theme: options.theme, height: 280 }
   );
-  return { spec, plotted: values.length, skipped: x.length - values.length };
+  const reduced = drawn.length < rows.length ? { shown: drawn.length, total: rows.length } : null;
+  return { spec, plotted: rows.length, skipped: x.length - rows.length, reduced };
 }

@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
+import { DISPLAY_MAX_POINTS } from '../../src/charts/reduce';
 import { buildScatterSpec } from '../../src/charts/scatter';
 import type { IChartTheme } from '../../src/charts/theme';
 
@@ -36,8 +37,8 @@ describe('buildScatterSpec', () => {
   });
 
   it('should accept empty columns and plot nothing', () => {
-    const { plotted, skipped, spec } = buildScatterSpec({ x: [], y: [], xTitle: 'x', yTitle: 'y', pointSize: 10, theme });
-    expect([plotted, skipped]).toEqual([0, 0]);
+    const { plotted, skipped, spec, reduced } = buildScatterSpec({ x: [], y: [], xTitle: 'x', yTitle: 'y', pointSize: 10, theme });
+    expect([plotted, skipped, reduced]).toEqual([0, 0, null]);
     expect(() => compile(spec)).not.toThrow();
   });
 
@@ -45,6 +46,23 @@ describe('buildScatterSpec', () => {
     expect(() => buildScatterSpec({ x: [1, 2], y: [1], xTitle: 'x', yTitle: 'y', pointSize: 10, theme })).toThrow(
       'x has 2 values but y has 1'
     );
+  });
+
+  it('should draw a 200 000-point scatter reduced, with its extremes, and say so', () => {
+    const n = 200_000;
+    const x = Float64Array.from({ length: n }, (_, i) => -5000 + (10_000 * i) / n);
+    const y = x.map(h => 60 * Math.tanh(h / 800) + 0.5 * Math.sin(h * 13));
+    y[4321] = Number.NaN;
+    const { spec, plotted, skipped, reduced } = buildScatterSpec({ x, y, xTitle: 'H (Oe)', yTitle: 'M', pointSize: 10, theme });
+    const values = (spec as { data: { values: { x: number; y: number; row: number }[] } }).data.values;
+    expect([plotted, skipped]).toEqual([n - 1, 1]);
+    expect(reduced).toEqual({ shown: values.length, total: n - 1 });
+    expect(values.length).toBeLessThanOrEqual(DISPLAY_MAX_POINTS);
+    const ys = values.map(v => v.y);
+    const finite = y.filter(Number.isFinite);
+    expect([Math.min(...ys), Math.max(...ys)]).toEqual([finite.reduce((a, b) => Math.min(a, b)), finite.reduce((a, b) => Math.max(a, b))]);
+    expect([values[0].row, values.at(-1)!.row]).toEqual([0, n - 1]);
+    expect(values.some(v => v.row === 4321)).toBe(false);
   });
 
   it('should not mutate its inputs', () => {
