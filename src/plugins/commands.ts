@@ -26,6 +26,11 @@ import type { ICoreMessage } from '../core/messages';
 import { AnalysisRunner } from '../ui/analysis-runner';
 import type { IPsiscapeSettings } from './settings';
 
+/** Resolves at the next animation frame (or soon, where there are no frames). */
+function nextFrame(): Promise<void> {
+  return new Promise(resolve => (typeof requestAnimationFrame === 'function' ? requestAnimationFrame(() => setTimeout(resolve, 0)) : setTimeout(resolve, 0)));
+}
+
 /** Saved analyses opened at once when a notebook opens; the rest wait for the reopen command. */
 export const RESTORE_AT_ONCE = 4;
 
@@ -147,7 +152,10 @@ export function registerCommands(ctx: ICommandContext): {
         : undefined
     });
     place(widget, panel.id);
-    app.shell.activateById(widget.id);
+    // A restored analysis joins the dock without taking the focus from the notebook being opened.
+    if (!saved) {
+      app.shell.activateById(widget.id);
+    }
     opened.push(widget);
     openIds.add(id);
     widget.disposed.connect(() => {
@@ -198,6 +206,8 @@ export function registerCommands(ctx: ICommandContext): {
         break;
       }
       open(panel, located, parse, saved);
+      // One panel per frame: the page stays responsive while they come.
+      await nextFrame();
     }
     if (closed.length > now.length) {
       Notification.info(
