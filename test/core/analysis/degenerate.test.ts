@@ -91,7 +91,7 @@ describe('flat y: no transition to fit', () => {
     const rnd = normal(4);
     const T = temperatures(120);
     const m = weissMagnetisation(0.5, T.map(t => t / 250));
-    const weak = runAnalysisJob(job('weiss', T, m.map(v => 0.1 * v + 0.01 * rnd()), { J: 0.5 }));
+    const weak = runAnalysisJob(job('weiss', T, Array.from(m, v => 0.1 * v + 0.01 * rnd()), { J: 0.5 }));
     expect(weak.fit.converged).toBe(true);
     expect(Math.abs(weak.derived.find(d => d.name === 'Tc')!.value - 250)).toBeLessThan(25);
     const clean = runAnalysisJob(job('weiss', T, Array.from(m, v => 3 * v), { J: 0.5 }));
