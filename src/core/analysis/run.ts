@@ -33,6 +33,7 @@ export function runAnalysisJob(job: IAnalysisJob, hooks: IAnalysisHooks = {}): I
       msg('caution.warm-start', 'Large table: the iteration started from a fit to one point in %1 (%2 points); the values are those of the fit to all %3 points.', warm.stride, warm.points, outcome.used)
     );
   }
-  const verdict = judgeFit(outcome.fit, { ...fitted, lower: bounds?.lower, upper: bounds?.upper });
+  // Every kind's drawn curve is checked, whether or not the kind passed it along with its points.
+  const verdict = judgeFit(outcome.fit, { ...fitted, curve: fitted.curve ?? outcome.curve.y, lower: bounds?.lower, upper: bounds?.upper });
   return { ...outcome, cautions, kind: kind.id, window: { ...job.window }, skipped: pts.skipped, verdict };
 }

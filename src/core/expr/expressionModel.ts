@@ -197,9 +197,18 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     }
     return null;
   };
+  checkSize(node);
   const valueTerms = new SharedTerms();
-  // Checks the whitelist (throws ExpressionError) whichever evaluation is used.
-  const valueJs = toJavaScript(node, resolve, valueTerms);
+  let valueJs: string;
+  try {
+    // Checks the whitelist (throws ExpressionError) whichever evaluation is used.
+    valueJs = toJavaScript(node, resolve, valueTerms);
+  } catch (err) {
+    if (err instanceof RangeError) {
+      throw new ExpressionError(msg('expression.depth', 'The expression is too deeply nested or too long to read; split it into simpler terms.'), null);
+    }
+    throw err;
+  }
   const notes: ICoreMessage[] = [];
   let derivativeNodes: MathNode[] | null = null;
   if (options.symbolicJacobian !== false) {
@@ -267,6 +276,24 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
     model.evaluatePrecise = precise;
   }
   return model;
+}
+
+/** Largest expression tree compiled (nodes), and its deepest nesting: beyond them the recursive compiler could run out of stack. */
+export const MAX_EXPRESSION_NODES = 20_000;
+export const MAX_EXPRESSION_DEPTH = 200;
+
+/** Refuse trees too large or too deep to compile, walking them without recursion (so the check itself cannot overflow). */
+function checkSize(root: MathNode): void {
+  const stack: [MathNode, number][] = [[root, 1]];
+  let nodes = 0;
+  while (stack.length) {
+    const [node, depth] = stack.pop()!;
+    nodes++;
+    if (nodes > MAX_EXPRESSION_NODES || depth > MAX_EXPRESSION_DEPTH) {
+      throw new ExpressionError(msg('expression.depth', 'The expression is too deeply nested or too long to read; split it into simpler terms.'), null);
+    }
+    node.forEach(child => stack.push([child, depth + 1]));
+  }
 }
 
 /** ∂f/∂p for every parameter, or null (with a note saying why) when finite differences must do. */

@@ -222,3 +222,17 @@ describe('symbolic derivatives within a budget', () => {
     }
   });
 });
+
+describe('very long expressions', () => {
+  it('should refuse a 20 000-character sum with a typed message, never a stack overflow (found by fuzzing)', () => {
+    const text = 'exp(-x/a)+'.repeat(2000) + 'x';
+    let caught: unknown = null;
+    try {
+      parseExpressionModel(text, { variables: ['x'] });
+    } catch (e) {
+      caught = e;
+    }
+    expect(caught).toBeInstanceOf(ExpressionError);
+    expect((caught as ExpressionError).detail.code).toBe('expression.depth');
+  });
+});
