@@ -34,6 +34,6 @@ export function runAnalysisJob(job: IAnalysisJob, hooks: IAnalysisHooks = {}): I
     );
   }
   // Every kind's drawn curve is checked, whether or not the kind passed it along with its points.
-  const verdict = judgeFit(outcome.fit, { ...fitted, curve: fitted.curve ?? outcome.curve.y, lower: bounds?.lower, upper: bounds?.upper });
+  const verdict = judgeFit(outcome.fit, { ...fitted, curve: fitted.curve ?? outcome.curve.y, lower: (bounds ?? outcome.fit.bounds)?.lower, upper: (bounds ?? outcome.fit.bounds)?.upper });
   return { ...outcome, cautions, kind: kind.id, window: { ...job.window }, skipped: pts.skipped, verdict };
 }

@@ -264,6 +264,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
     reason,
     warnings,
     notes,
-    fixed: problem.fixed.slice()
+    fixed: problem.fixed.slice(),
+    bounds: { lower: Array.from(problem.lower), upper: Array.from(problem.upper) }
   };
 }

@@ -168,6 +168,8 @@ export interface IFitResult {
   notes: ICoreMessage[];
   /** Whether each parameter was fixed (fixed ones have zero standard error and covariance). */
   fixed: boolean[];
+  /** The range each parameter was allowed (±∞ where unbounded), in the order of `parameters`. */
+  bounds?: { lower: number[]; upper: number[] };
   /**
    * Large problems with a pointwise model: the subsample stage that gave the
    * starting point of the full-data iteration (absent otherwise). Its model

@@ -267,3 +267,16 @@ describe('expressions as people type them', () => {
     expect(out.verdict.state).not.toBe('fits');
   });
 });
+
+describe('verdicts on the panel’s path', () => {
+  it('should flag a Tc pinned at the edge of its allowed range (the last data point), not call it a fit', () => {
+    // ψ ∝ (1 − T/Tc)^β with Tc = 279.5 K, but the window ends at 280 K and holds no disordered points, so the
+    // engine may not put Tc below 280 K (REFERENCE.md B4; a Tc inside the data needs points above it).
+    const T = Array.from({ length: 81 }, (_, i) => 200 + i);
+    const y = T.map(t => 1.5 * Math.pow(Math.max(1 - t / 279.5, 1e-9), 0.35));
+    const out = runAnalysisJob({ kind: 'power-law', x: T, y, window: { min: 200, max: 280 }, options: {} });
+    expect(out.fit.bounds).toBeDefined();
+    expect(out.verdict.state).not.toBe('fits');
+    expect(out.verdict.checks.some(c => !c.passed && /bound/.test(c.code))).toBe(true);
+  });
+});
