@@ -4,7 +4,7 @@
 // edit: it is saved once, after a short debounce.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, useDemoLab } from './lab.mjs';
+import { contextMenu, saveAndReload, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
 
@@ -42,11 +42,7 @@ test('a fit is saved once; a reload with the saved analysis leaves the notebook 
   assert.equal(saved.analyses[0].settings.kind, 'weiss');
   assert.deepEqual(saved.analyses[0].columns.x, { index: 1, header: 'T (K)' });
 
-  await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
-  await page.evaluate(() => window.jupyterapp.commands.execute('docmanager:save'));
-  await page.waitForFunction(() => !document.querySelector('.jp-NotebookPanel .jp-mod-dirty, .lm-TabBar-tab.jp-mod-dirty'));
-  await page.reload();
-  await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
+  await saveAndReload(page);
   const restored = page.locator('.jp-psiscape-AnalysisPanel').last();
   await restored.locator('.jp-psiscape-FitSection .jp-psiscape-verdict').waitFor({ timeout: 60000 });
   await settle(page);

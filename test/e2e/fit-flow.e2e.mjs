@@ -3,7 +3,7 @@
 // points, and a refusal shown as a message.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab(async ({ page }) => {
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
@@ -37,10 +37,7 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   const section = panel.locator('.jp-psiscape-FitSection');
   await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
-  await section.locator('input.jp-psiscape-fit-min').fill('250');
-  await section.locator('input.jp-psiscape-fit-min').press('Tab');
-  await section.locator('input.jp-psiscape-fit-max').fill('286');
-  await section.locator('input.jp-psiscape-fit-max').press('Tab');
+  await setWindow(section, '250', '286');
   await section.locator('button.jp-psiscape-fit-run').click();
   // the result table of this fit has a beta row (the Weiss fit's has none)
   await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 60000 });
@@ -78,10 +75,7 @@ test('the power law over the whole demo range is shown as not describing the dat
   const section = page.locator('.jp-psiscape-AnalysisPanel').last().locator('.jp-psiscape-FitSection');
   await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
   // Empty window fields: the whole range of the data (20–340 K in the demo).
-  await section.locator('input.jp-psiscape-fit-min').fill('');
-  await section.locator('input.jp-psiscape-fit-min').press('Tab');
-  await section.locator('input.jp-psiscape-fit-max').fill('');
-  await section.locator('input.jp-psiscape-fit-max').press('Tab');
+  await setWindow(section, '', '');
   await section.locator('button.jp-psiscape-fit-run').click();
   await page.waitForFunction(() => document.querySelector('.jp-psiscape-FitSection')?.getAttribute('data-run-phase') === 'done');
   const verdict = section.locator('.jp-psiscape-verdict');
@@ -98,15 +92,11 @@ test('a failed fit never shows another kind’s table', async () => {
   const { page } = suite.lab;
   const section = page.locator('.jp-psiscape-AnalysisPanel').last().locator('.jp-psiscape-FitSection');
   await section.locator('select.jp-psiscape-fit-kind').selectOption('weiss');
-  await section.locator('input.jp-psiscape-fit-min').fill('');
-  await section.locator('input.jp-psiscape-fit-min').press('Tab');
+  await setWindow(section, '');
   await section.locator('button.jp-psiscape-fit-run').click();
   await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Ms/ }).waitFor({ timeout: 60000 });
   await section.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
-  await section.locator('input.jp-psiscape-fit-min').fill('100');
-  await section.locator('input.jp-psiscape-fit-min').press('Tab');
-  await section.locator('input.jp-psiscape-fit-max').fill('105');
-  await section.locator('input.jp-psiscape-fit-max').press('Tab');
+  await setWindow(section, '100', '105');
   await section.locator('button.jp-psiscape-fit-run').click();
   await section.locator('.jp-psiscape-fit-error').waitFor({ state: 'visible', timeout: 30000 });
   assert.equal(await section.locator('.jp-psiscape-fit-table').count(), 0, 'the Weiss table is gone under the power-law error');
@@ -118,10 +108,7 @@ test('a window too narrow gives a message and keeps the controls usable', async 
   const { page } = suite.lab;
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('power-law');
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('100');
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').press('Tab');
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').fill('105');
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').press('Tab');
+  await setWindow(panel.locator('.jp-psiscape-FitSection'), '100', '105');
   await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
   const error = panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-error');
   await error.waitFor({ state: 'visible', timeout: 30000 });

@@ -38,6 +38,26 @@ export async function screenshot(page, name) {
   return file;
 }
 
+/** Save the demo notebook (to the browser's storage), reload the page and wait for the lab. */
+export async function saveAndReload(page) {
+  await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
+  await page.evaluate(() => window.jupyterapp.commands.execute('docmanager:save'));
+  await page.waitForFunction(() => !document.querySelector('.jp-NotebookPanel .jp-mod-dirty, .lm-TabBar-tab.jp-mod-dirty'));
+  await page.reload();
+  await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
+}
+
+/** Set a fit section's window fields as a user does: type, then leave the field. Empty means the data's end. */
+export async function setWindow(section, min, max) {
+  for (const [cls, value] of [['jp-psiscape-fit-min', min], ['jp-psiscape-fit-max', max]]) {
+    if (value === undefined) {
+      continue;
+    }
+    await section.locator(`input.${cls}`).fill(value);
+    await section.locator(`input.${cls}`).press('Tab');
+  }
+}
+
 /** Right-click an element and choose a context-menu entry by its label. */
 export async function contextMenu(page, locator, label) {
   await locator.scrollIntoViewIfNeeded();

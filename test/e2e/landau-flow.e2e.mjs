@@ -4,7 +4,7 @@
 // redrawn as T moves by keyboard, in light and dark themes.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { screenshot, useDemoLab } from './lab.mjs';
+import { screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
 
@@ -61,8 +61,7 @@ test('Landau coefficients fitted to the demo M(T) open in the explorer', async (
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('landau');
   // Landau expansions hold near the transition: fit the window 240–300 K.
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-min').fill('240');
-  await panel.locator('.jp-psiscape-FitSection input.jp-psiscape-fit-max').fill('300');
+  await setWindow(panel.locator('.jp-psiscape-FitSection'), '240', '300');
   await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
   await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
   const t0 = await panel.locator('.jp-psiscape-FitSection tbody tr', { hasText: /^T0/ }).locator('td').nth(1).textContent();

@@ -4,7 +4,7 @@
 // 200 000-row CSV is analysed and fitted with no long main-thread task.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
 
@@ -153,8 +153,7 @@ test('a 200 000-row CSV is analysed and fitted without a main-thread task over 2
     const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
     await panel.locator('.jp-psiscape-ChartView canvas, .jp-psiscape-ChartView svg').first().waitFor({ timeout: 60000 });
     await panel.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
-    await panel.locator('input.jp-psiscape-fit-min').fill('200');
-    await panel.locator('input.jp-psiscape-fit-min').press('Tab');
+    await setWindow(panel, '200');
     await panel.locator('button.jp-psiscape-fit-run').click();
     await panel.locator('.jp-psiscape-verdict').waitFor({ timeout: 120000 });
     fitted = await panel.locator('.jp-psiscape-verdict-detail').textContent();

@@ -3,7 +3,7 @@
 // a reload the analysis reopens by itself with its fit.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, saveAndReload, screenshot, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
 
@@ -18,11 +18,7 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   const before = await panel.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
 
   // Save the notebook (to the browser's storage) and reload the page.
-  await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
-  await page.evaluate(() => window.jupyterapp.commands.execute('docmanager:save'));
-  await page.waitForFunction(() => !document.querySelector('.jp-NotebookPanel .jp-mod-dirty, .lm-TabBar-tab.jp-mod-dirty'));
-  await page.reload();
-  await page.waitForSelector('body[data-demo-ready="true"]', { state: 'attached', timeout: 120000 });
+  await saveAndReload(page);
   const restored = page.locator('.jp-psiscape-AnalysisPanel').last();
   await restored.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
   const after = await restored.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).locator('td').nth(1).textContent();
