@@ -3,6 +3,7 @@
  * index columns, MultiIndex headers and rows, elided rows/columns, rounding.
  */
 import { columnFromText } from './columns';
+import { MAX_HTML_TABLES } from './htmldepth';
 import { htmlGrid } from './htmlgrid';
 import type { IGridCell } from './htmlgrid';
 import { msg } from '../messages';
@@ -128,7 +129,12 @@ export function parsePandasHtml(html: string): ITable {
       message: msg('table.html.short-rows', 'Rows of the HTML table with fewer cells than the header: %1; their missing cells are read as missing values.', wholeNumber(short))
     });
   }
-  if (grid.tableCount > 1) {
+  if (grid.tablesCapped) {
+    notes.push({
+      kind: 'info',
+      message: msg('table.html.too-many-tables', 'The HTML holds more than %1 tables; only the first %1 were examined, and the first pandas table among them was read.', wholeNumber(MAX_HTML_TABLES))
+    });
+  } else if (grid.tableCount > 1) {
     notes.push({ kind: 'info', message: msg('table.html.several-tables', 'The HTML holds %1 tables; the first pandas table was read.', grid.tableCount) });
   }
   const table: ITable = { columns, rowCount: rows.length, format: 'pandas-html', notes };

@@ -25,6 +25,23 @@ const RAW_TEXT = new Set(['script', 'style', 'textarea', 'title', 'xmp', 'iframe
 /** Most attributes one tag may carry. */
 export const MAX_ATTRIBUTES = 256;
 
+/**
+ * Most tables (not nested in another table) of one output that are examined.
+ * Parsing costs tens of microseconds per table, so 100 000 small tables took
+ * seconds; a table output rarely holds more than a few.
+ */
+export const MAX_HTML_TABLES = 1000;
+
+/** What the scan found besides refusals. */
+export interface IHtmlScan {
+  /**
+   * Where the first table past {@link MAX_HTML_TABLES} starts (the `<` of its
+   * tag); null when there are no more tables than that. The text before it
+   * holds the tables that are examined.
+   */
+  tablesEndAt: number | null;
+}
+
 const rawEnd = new Map<string, RegExp>();
 
 /** Position of the end tag closing a raw-text element, or the end of the text. */
@@ -114,11 +131,17 @@ function readTag(html: string, i: number): ITag {
   return { name, closing, selfClosing, attributes, end: -1 };
 }
 
-/** Refuse HTML nested deeper than `limit` or with an over-long attribute list, naming the table row and cell. */
-export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDepth): void {
+/**
+ * Refuse HTML nested deeper than `limit` or with an over-long attribute list,
+ * naming the table row and cell; find where the first table past `maxTables`
+ * starts. The scan stops there: only the text before it is parsed.
+ */
+export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDepth, maxTables: number = MAX_HTML_TABLES): IHtmlScan {
   const open: string[] = [];
   let rows = 0;
   let cells = 0;
+  let tables = 0;
+  let tableDepth = 0;
   const tooManyAttributes = (name: string, attributes: number): ICoreMessage =>
     rows === 0
       ? msg('table.html.attributes-before-rows', 'A <%1> tag before the first table row has %2 attributes; at most %3 can be read.', name, wholeNumber(attributes), MAX_ATTRIBUTES)
@@ -156,8 +179,15 @@ export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDep
       if (tag.attributes > MAX_ATTRIBUTES) {
         throw new TableParseError(tooManyAttributes(tag.name.slice(0, 20), tag.attributes));
       }
+      if (tag.name === 'table') {
+        if (tag.closing) {
+          tableDepth = Math.max(0, tableDepth - 1);
+        } else if (tableDepth++ === 0 && ++tables > maxTables) {
+          return { tablesEndAt: i };
+        }
+      }
       if (tag.end < 0) {
-        return;
+        return { tablesEndAt: null };
       }
       resume = tag.end;
       if (!tag.closing && tag.name === 'tr') {
@@ -186,4 +216,5 @@ export function checkHtmlDepth(html: string, limit: number = TABLE_LIMITS.maxDep
     }
     i = html.indexOf('<', resume);
   }
+  return { tablesEndAt: null };
 }

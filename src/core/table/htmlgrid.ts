@@ -3,8 +3,15 @@
  * Nothing is executed or rendered: only text nodes are read; script, style and
  * template contents are skipped. Rowspan/colspan are expanded as the HTML table
  * model does (spans do not cross thead/tbody/tfoot sections).
+ *
+ * The text is parsed as a document, not as a fragment: parse5 finishes a
+ * fragment by moving every top-level node out of its root one at a time, each
+ * move removing the root's first child from an array, which takes time
+ * quadratic in the number of top-level nodes (100 000 small tables: seconds).
+ * Tables are found the same way in both trees. Only the first
+ * `MAX_HTML_TABLES` (`./htmldepth.ts`) tables are parsed at all.
  */
-import { parseFragment } from 'parse5';
+import { parse } from 'parse5';
 import type { DefaultTreeAdapterTypes } from 'parse5';
 import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
@@ -29,8 +36,10 @@ export interface IHtmlGrid {
   body: IGridCell[][];
   /** All text outside the chosen table (e.g. pandas' "N rows × M columns" line). */
   outsideText: string;
-  /** How many tables the markup held. */
+  /** How many tables the markup held (of those examined). */
   tableCount: number;
+  /** True when the markup held more than `MAX_HTML_TABLES` tables and only that many were examined. */
+  tablesCapped: boolean;
 }
 
 const SKIPPED = new Set(['script', 'style', 'template', 'noscript', 'iframe', 'object', 'svg', 'math']);
@@ -227,9 +236,9 @@ export function htmlGrid(html: string): IHtmlGrid | null {
   if (!/<table/i.test(html)) {
     return null;
   }
-  checkHtmlDepth(html);
-  const fragment = parseFragment(html);
-  const { tables, outside } = findTables(fragment);
+  const { tablesEndAt } = checkHtmlDepth(html);
+  const tree = parse(tablesEndAt === null ? html : html.slice(0, tablesEndAt));
+  const { tables, outside } = findTables(tree);
   if (tables.length === 0) {
     return null;
   }
@@ -250,5 +259,5 @@ export function htmlGrid(html: string): IHtmlGrid | null {
       bodyGrid.push(row);
     }
   }
-  return { head: headGrid, body: bodyGrid, outsideText: outside, tableCount: tables.length };
+  return { head: headGrid, body: bodyGrid, outsideText: outside, tableCount: tables.length, tablesCapped: tablesEndAt !== null };
 }

@@ -1,6 +1,9 @@
 /** CSV / TSV parsing through parseMime. */
+import fc from 'fast-check';
+import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { messageText } from '../../../src/core/messages';
+import { refuseUnclosedQuote } from '../../../src/core/table/csv';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
 import { plain, table, values } from './helpers';
 
@@ -107,5 +110,59 @@ describe('CSV', () => {
   it('accepts nbformat multi-line strings', () => {
     const t = table(parseMime('text/csv', ['a,b\n', '1,2\n']));
     expect(values(t.columns[1])).toEqual([2]);
+  });
+});
+
+describe('CSV with an unclosed quote', () => {
+  const refusal = (text: string, mime = 'text/csv') => {
+    const r = parseMime(mime, text);
+    return r.ok ? null : { code: r.message.code, text: messageText(r.message) };
+  };
+
+  it('refuses 5 MB whose quote opens in row 40 001 and never closes, naming that row', () => {
+    const rows = ['T (K),M (emu/g),note'];
+    for (let i = 0; i < 40_000; i++) {
+      rows.push(`${(2 + i * 0.007).toFixed(3)},${(50 * Math.cos(i)).toFixed(9)},"ok, ""fine"""`);
+    }
+    rows.push('282.000,0.5,"this note never ends');
+    const tail = '300.125,0.0625,plain\n'.repeat(Math.ceil((5_000_000 - rows.join('\n').length) / 21));
+    const text = `${rows.join('\n')}\n${tail}`;
+    expect(text.length).toBeGreaterThan(5_000_000);
+    expect(refusal(text)).toEqual({ code: 'table.csv.unclosed-quote', text: 'The CSV text has an unclosed quote in row 40001.' });
+  });
+
+  it('names the header row when the quote opens there', () => {
+    expect(refusal('"T (K),M\n1,2\n3,4\n')).toEqual({ code: 'table.csv.unclosed-quote-header', text: 'The CSV text has an unclosed quote in its header row.' });
+  });
+
+  it('numbers rows as the table does: quoted line breaks inside a row, blank lines skipped unless there is one column', () => {
+    expect(refusal('a,b\n1,"two\nlines"\n\n\n3,4\n5,"6\n7,8\n')?.text).toBe('The CSV text has an unclosed quote in row 3.');
+    expect(refusal('T\n1\n\n2\n"3\n4\n')?.text).toBe('The CSV text has an unclosed quote in row 4.');
+    expect(refusal('T\tM\r\n1\t2\r\n3\t"4\r\n5\t6\r\n', 'text/tab-separated-values')?.text).toBe('The TSV text has an unclosed quote in row 2.');
+  });
+
+  it('reads quotes that do not open a field, escaped quotes and white space after a closing quote', () => {
+    const t = table(parseMime('text/csv', 'a,b\n5"6,"say ""hi"""  \n7,"x"\n'));
+    expect(values(t.columns[0])).toEqual(['5"6', '7']);
+    expect(values(t.columns[1])).toEqual(['say "hi"', 'x']);
+  });
+
+  it('agrees with papaparse on which texts hold a quoted field that never closes', () => {
+    const piece = fc.constantFrom('a', '1', ',', '\t', '"', '""', '\n', '\r\n', '\r', ' ', '\n\n');
+    fc.assert(
+      fc.property(fc.array(piece, { maxLength: 18 }), fc.constantFrom(',' as const, '\t' as const), (parts, delimiter) => {
+        const text = parts.join('');
+        const papa = Papa.parse<string[]>(text, { delimiter, header: false, skipEmptyLines: false });
+        const missing = papa.errors.some(e => e.code === 'MissingQuotes');
+        let refused = false;
+        try {
+          refuseUnclosedQuote(text, delimiter, 'CSV');
+        } catch {
+          refused = true;
+        }
+        expect(refused).toBe(missing);
+      }),
+      { numRuns: 20_000, seed: 20240611 }
+    );
   });
 });

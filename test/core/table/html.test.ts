@@ -1,6 +1,7 @@
 /** Hand-written HTML tables: pandas shapes, Styler-like markup, spans, hostile markup, limits. */
 import { describe, expect, it } from 'vitest';
 import { messageText } from '../../../src/core/messages';
+import { checkHtmlDepth, MAX_HTML_TABLES } from '../../../src/core/table/htmldepth';
 import { parseMime, TABLE_LIMITS } from '../../../src/core/table/index';
 import { plain, table, values } from './helpers';
 
@@ -121,5 +122,40 @@ describe('hostile HTML is read as inert text', () => {
     const t = table(parseMime('text/html', `<table><thead><tr><th></th><th>x</th></tr></thead><tbody>${rows}</tbody></table>`));
     expect(t.rowCount).toBe(200_000);
     expect((t.columns[1].values as Float64Array)[199_999]).toBe(199_999 / 4);
+  });
+});
+
+describe('HTML with many tables or many top-level nodes', () => {
+  const frame = (i: number) =>
+    `<table border="1" class="dataframe"><thead><tr style="text-align: right;"><th></th><th>T (K)</th><th>M</th></tr></thead>` +
+    `<tbody><tr><th>0</th><td>${i}.5</td><td>2.5</td></tr></tbody></table>\n`;
+
+  it('reads the first of 100 000 small tables and says that only the first MAX_HTML_TABLES were examined', () => {
+    const html = Array.from({ length: 100_000 }, (_, i) => frame(i)).join('');
+    const t = table(parseMime('text/html', html));
+    expect(values(t.columns[1])).toEqual([0.5]);
+    expect(t.notes.map(n => messageText(n.message))).toEqual([
+      `The HTML holds more than ${MAX_HTML_TABLES} tables; only the first ${MAX_HTML_TABLES} were examined, and the first pandas table among them was read.`
+    ]);
+    expect(t.notes[0].message.code).toBe('table.html.too-many-tables');
+  });
+
+  it('counts tables up to the limit exactly, and tables nested in a cell not at all', () => {
+    const nested = '<table><tr><td><table><tr><td>in</td></tr></table></td></tr></table>';
+    const atLimit = nested + Array.from({ length: MAX_HTML_TABLES - 1 }, (_, i) => frame(i)).join('');
+    expect(checkHtmlDepth(atLimit).tablesEndAt).toBeNull();
+    expect(table(parseMime('text/html', atLimit)).notes.map(n => messageText(n.message))).toEqual([`The HTML holds ${MAX_HTML_TABLES} tables; the first pandas table was read.`]);
+    const over = atLimit + '<div><table class="dataframe"><tr><th>late</th></tr></table></div>';
+    expect(checkHtmlDepth(over).tablesEndAt).toBe(atLimit.length + '<div>'.length);
+    // The pandas table past the limit is not examined: the first pandas table before it is read.
+    expect(values(table(parseMime('text/html', over)).columns[1])).toEqual([0.5]);
+  });
+
+  it('reads a table after 100 000 top-level paragraphs and line breaks', () => {
+    const html = `${'<p>note</p>'.repeat(50_000)}${'line<br>\n'.repeat(50_000)}${frame(7)}<p>1 rows × 2 columns</p>`;
+    const t = table(parseMime('text/html', html));
+    expect(t.columns.map(c => c.header)).toEqual(['index', 'T (K)', 'M']);
+    expect(values(t.columns[1])).toEqual([7.5]);
+    expect(t.notes).toEqual([]);
   });
 });

@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { messageText } from '../../../src/core/messages';
 import type { ICoreMessage } from '../../../src/core/messages';
+import { MAX_HTML_TABLES } from '../../../src/core/table/htmldepth';
 import { parseMime, parseOutput, TABLE_LIMITS } from '../../../src/core/table/index';
 import type { ParseResult } from '../../../src/core/table/index';
 import { expectGoodMessages } from '../numeric/messageRules';
@@ -19,6 +20,7 @@ const htmlRows = (cells: string): string => `<table class="dataframe"><thead><tr
 const refusals: [string, ParseResult][] = [
   ['csv wide row', parseMime('text/csv', 'a,b\n1,2\n3,4,5\n')],
   ['csv quote', parseMime('text/csv', 'a,b\n1,2\n3,"4\n')],
+  ['csv quote in header', parseMime('text/csv', 'a,"b\n1,2\n')],
   ['csv empty', parseMime('text/csv', '')],
   ['csv long cell', parseMime('text/csv', `a,b\n1,${'x'.repeat(TABLE_LIMITS.maxCellChars + 1)}\n`)],
   ['csv columns', parseMime('text/csv', `${Array.from({ length: TABLE_LIMITS.maxColumns + 1 }, (_, i) => `c${i}`).join(',')}\n`)],
@@ -81,6 +83,7 @@ describe('table messages', () => {
       parseMime('text/html', html),
       parseMime('text/html', htmlRows(rows + gap + rows)),
       parseMime('text/html', `${htmlRows(rows)}<table><tr><td>1</td></tr></table>`),
+      parseMime('text/html', htmlRows(rows).repeat(MAX_HTML_TABLES + 1)),
       parseMime('text/html', htmlRows('<tr><th>0</th><td>1</td></tr>')),
       parseMime('text/csv', 'a,b\n1,2\n3\n'),
       parseMime('text/plain', '     a    b\n0  1.0  2.0\n1  3.0  4.0\n..  ...  ...\n9  5.0  6.0\n\n[10 rows x 2 columns]'),
@@ -95,7 +98,7 @@ describe('table messages', () => {
     const notes = results.flatMap(messages);
     expectGoodMessages(notes);
     const codes = new Set(notes.map(n => n.code));
-    for (const c of ['table.truncated.html', 'table.truncated.rows-gap', 'table.rounded.display', 'table.csv.short-rows', 'table.read-from-poorer', 'table.html.several-tables']) {
+    for (const c of ['table.truncated.html', 'table.truncated.rows-gap', 'table.rounded.display', 'table.csv.short-rows', 'table.read-from-poorer', 'table.html.several-tables', 'table.html.too-many-tables']) {
       expect(codes, c).toContain(c);
     }
     const truncated = results[0].ok ? results[0].table.notes.filter(n => n.kind === 'truncated').map(n => messageText(n.message)) : [];
