@@ -13,7 +13,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import type { ChartLayer, Field, PositionFieldDef } from './frame';
 import { layeredChart } from './frame';
 import type { IDisplayReduction } from './reduce';
-import { DISPLAY_MAX_POINTS, pointBounds, reduceForDisplay, splitBudget } from './reduce';
+import { DISPLAY_MAX_POINTS, pointBounds, reduceForDisplay, shareBudget } from './reduce';
 import type { IChartTheme } from './theme';
 
 /** Input of {@link buildFitOverlaySpec}. */
@@ -99,7 +99,7 @@ export function buildFitOverlayChart(options: IFitOverlayOptions): IFitOverlayCh
             yMax: Math.max(inBounds.yMax, outBounds.yMax)
           }
         : (inBounds ?? outBounds);
-    const [budgetIn, budgetOut] = splitBudget(nIn, nOut, maxPoints);
+    const [budgetIn, budgetOut] = shareBudget([nIn, nOut], maxPoints);
     drawnIn = reduceForDisplay(x, y, drawnIn, budgetIn, bounds);
     drawnOut = reduceForDisplay(x, y, drawnOut, budgetOut, bounds);
     reduced = { shown: drawnIn.length + drawnOut.length, total: plotted };

@@ -217,21 +217,27 @@ function markKept(
 }
 
 /**
- * Split a display budget between two groups drawn on the same axes (e.g.
- * points inside and outside a fit window): a group that fits in half the
- * budget is drawn whole and the other gets the rest; otherwise half each.
- * No share is below the smallest budget {@link reduceForDisplay} accepts.
+ * Share a display budget between groups drawn on the same axes (e.g. points
+ * inside and outside a fit window, or one isotherm each): groups smaller than
+ * an equal share are drawn whole and the rest is shared equally by the others
+ * ("water filling"). No share is below the smallest budget
+ * {@link reduceForDisplay} accepts, so with more than budget / 8 groups the
+ * shares add up to more than the budget.
  */
-export function splitBudget(sizeA: number, sizeB: number, budget: number = DISPLAY_MAX_POINTS): [number, number] {
-  if (sizeA + sizeB <= budget) {
-    return [Math.max(sizeA, MIN_BUDGET), Math.max(sizeB, MIN_BUDGET)];
+export function shareBudget(sizes: readonly number[], budget: number = DISPLAY_MAX_POINTS): number[] {
+  const shares = sizes.map(n => Math.max(n, MIN_BUDGET));
+  const order = sizes.map((_, g) => g).sort((a, b) => sizes[a] - sizes[b]);
+  let left = budget;
+  for (let k = 0; k < order.length; k++) {
+    const g = order[k];
+    const equal = Math.floor(left / (order.length - k));
+    if (sizes[g] > equal) {
+      for (let j = k; j < order.length; j++) {
+        shares[order[j]] = Math.max(Math.floor(left / (order.length - k)), MIN_BUDGET);
+      }
+      break;
+    }
+    left -= sizes[g];
   }
-  const half = Math.floor(budget / 2);
-  if (sizeA <= half) {
-    return [Math.max(sizeA, MIN_BUDGET), Math.max(budget - sizeA, MIN_BUDGET)];
-  }
-  if (sizeB <= half) {
-    return [Math.max(budget - sizeB, MIN_BUDGET), Math.max(sizeB, MIN_BUDGET)];
-  }
-  return [Math.max(half, MIN_BUDGET), Math.max(budget - half, MIN_BUDGET)];
+  return shares;
 }

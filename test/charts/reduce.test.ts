@@ -4,7 +4,7 @@
  * rows it was given, and the same answer every time.
  */
 import { describe, expect, it } from 'vitest';
-import { DISPLAY_MAX_POINTS, finiteRows, pointBounds, reduceForDisplay, splitBudget } from '../../src/charts/reduce';
+import { DISPLAY_MAX_POINTS, finiteRows, pointBounds, reduceForDisplay, shareBudget } from '../../src/charts/reduce';
 import { mulberry32 } from '../../src/core/numeric/random';
 
 function argExtremes(v: ArrayLike<number>, rows: ArrayLike<number>): { min: number; max: number } {
@@ -134,11 +134,17 @@ describe('reduceForDisplay', () => {
   });
 });
 
-describe('splitBudget', () => {
-  it('should draw a small group whole and give the rest to the other', () => {
-    expect(splitBudget(300, 100_000, 4000)).toEqual([300, 3700]);
-    expect(splitBudget(100_000, 10, 4000)).toEqual([3990, 10]);
-    expect(splitBudget(50_000, 60_000, 4000)).toEqual([2000, 2000]);
-    expect(splitBudget(1000, 2000, 4000)).toEqual([1000, 2000]);
+describe('shareBudget', () => {
+  it('should draw small groups whole and share the rest equally', () => {
+    expect(shareBudget([300, 100_000], 4000)).toEqual([300, 3700]);
+    expect(shareBudget([100_000, 10], 4000)).toEqual([3990, 10]);
+    expect(shareBudget([50_000, 60_000], 4000)).toEqual([2000, 2000]);
+    expect(shareBudget([1000, 2000], 4000)).toEqual([1000, 2000]);
+    expect(shareBudget([5000, 100, 5000, 900], 4000)).toEqual([1500, 100, 1500, 900]);
+  });
+
+  it('should give every group at least the smallest budget reduceForDisplay accepts', () => {
+    expect(shareBudget([0, 3, 1000], 4000)).toEqual([8, 8, 1000]);
+    expect(shareBudget(Array.from({ length: 1000 }, () => 500), 4000).every(b => b === 8)).toBe(true);
   });
 });

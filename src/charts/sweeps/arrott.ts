@@ -2,10 +2,16 @@
  * Arrott plot (M² against H/M) and modified Arrott plot (M^(1/β) against
  * (H/M)^(1/γ)): the isotherm points coloured by temperature and each
  * isotherm's high-field straight line drawn from x = 0 to its last point.
+ *
+ * More than `maxPoints` points (default {@link DISPLAY_MAX_POINTS}) are drawn
+ * reduced (`../reduce.ts`), each isotherm on its own over one shared grid, in
+ * the plot's coordinates; the lines still end at each isotherm's last point.
  */
 import type { IIsotherm, IIsothermLine } from '../../core/sweeps/index';
 import type { ChartLayer, ColorDef, Field } from '../frame';
 import { layeredChart } from '../frame';
+import type { IDisplayReduction } from '../reduce';
+import { DISPLAY_MAX_POINTS, pointBounds, reduceForDisplay, shareBudget } from '../reduce';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from './common';
 import { finite } from './common';
@@ -21,10 +27,23 @@ export interface IArrottChartOptions {
   magnetisationUnit?: string;
   /** 'internal' or 'applied', written into the axis title. */
   fieldKind?: 'internal' | 'applied';
+  /** Most points drawn (default {@link DISPLAY_MAX_POINTS}, at least 8 per isotherm); more are reduced for display. */
+  maxPoints?: number;
 }
 
-function build(o: IArrottChartOptions, beta: number, gamma: number, modified: boolean): ISweepChart {
-  const points: { T: number; x: number; y: number }[] = [];
+/** An Arrott chart with how many of its points are drawn. */
+export interface IArrottChart extends ISweepChart {
+  /** Set when the points were reduced for display: `shown` of `total` drawn. Null when every point is drawn. */
+  reduced: IDisplayReduction | null;
+}
+
+function build(o: IArrottChartOptions, beta: number, gamma: number, modified: boolean): IArrottChart {
+  const capacity = o.isotherms.reduce((n, iso) => n + iso.H.length, 0);
+  const xs = new Float64Array(capacity);
+  const ys = new Float64Array(capacity);
+  // Points of isotherm g are xs/ys[starts[g] .. starts[g + 1]).
+  const starts: number[] = [0];
+  let total = 0;
   const xMaxByT = new Map<number, number>();
   for (const iso of o.isotherms) {
     for (let i = 0; i < iso.H.length; i++) {
@@ -36,11 +55,41 @@ function build(o: IArrottChartOptions, beta: number, gamma: number, modified: bo
       const x = Math.pow(H / M, 1 / gamma);
       const y = Math.pow(M, 1 / beta);
       if (finite(x) && finite(y)) {
-        points.push({ T: iso.T, x, y });
+        xs[total] = x;
+        ys[total] = y;
+        total++;
         xMaxByT.set(iso.T, Math.max(xMaxByT.get(iso.T) ?? 0, x));
       }
     }
+    starts.push(total);
   }
+  const groups = o.isotherms.map((_, g) => {
+    const rows = new Int32Array(starts[g + 1] - starts[g]);
+    for (let k = 0; k < rows.length; k++) {
+      rows[k] = starts[g] + k;
+    }
+    return rows;
+  });
+  const maxPoints = o.maxPoints ?? DISPLAY_MAX_POINTS;
+  let drawn: Int32Array[] = groups;
+  let reduced: IDisplayReduction | null = null;
+  if (total > maxPoints) {
+    const all = new Int32Array(total);
+    for (let k = 0; k < total; k++) {
+      all[k] = k;
+    }
+    const bounds = pointBounds(xs, ys, all);
+    const budgets = shareBudget(groups.map(g => g.length), maxPoints);
+    drawn = groups.map((rows, g) => reduceForDisplay(xs, ys, rows, budgets[g], bounds));
+    reduced = { shown: drawn.reduce((n, rows) => n + rows.length, 0), total };
+  }
+  const points: { T: number; x: number; y: number }[] = [];
+  drawn.forEach((rows, g) => {
+    const T = o.isotherms[g].T;
+    for (const k of rows) {
+      points.push({ T, x: xs[k], y: ys[k] });
+    }
+  });
   const fits: { T: number; x: number; y: number }[] = [];
   for (const l of o.lines ?? []) {
     const xm = xMaxByT.get(l.T);
@@ -78,16 +127,20 @@ function build(o: IArrottChartOptions, beta: number, gamma: number, modified: bo
     });
   }
   const what = modified ? 'Modified Arrott plot' : 'Arrott plot';
-  return { spec: layeredChart(layer, { description: `${what}: ${yTitle} against ${xTitle}, one colour per isotherm`, theme: o.theme }), rows: points.length + fits.length };
+  return {
+    spec: layeredChart(layer, { description: `${what}: ${yTitle} against ${xTitle}, one colour per isotherm`, theme: o.theme }),
+    rows: points.length + fits.length,
+    reduced
+  };
 }
 
 /** Arrott plot M² against H/M. */
-export function buildArrottSpec(o: IArrottChartOptions): ISweepChart {
+export function buildArrottSpec(o: IArrottChartOptions): IArrottChart {
   return build(o, 0.5, 1, false);
 }
 
 /** Modified Arrott plot M^(1/β) against (H/M)^(1/γ). */
-export function buildModifiedArrottSpec(o: IArrottChartOptions & { beta: number; gamma: number }): ISweepChart {
+export function buildModifiedArrottSpec(o: IArrottChartOptions & { beta: number; gamma: number }): IArrottChart {
   if (!(o.beta > 0) || !(o.gamma > 0)) {
     throw new RangeError(`beta and gamma must be > 0, got ${o.beta}, ${o.gamma}`);
   }

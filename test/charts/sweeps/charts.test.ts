@@ -147,6 +147,45 @@ describe('sweep chart builders', () => {
     expect(() => buildCollapseSpec(set.isotherms, { Tc: 10, beta: 0, gamma: 1 }, theme)).toThrow(RangeError);
   });
 
+  it('Arrott plot of 200 000 points: reduced per isotherm, each keeping its ends, its lines to its last point', () => {
+    // 40 isotherms × 5000 points of the same mean-field family, finely sampled.
+    const list = [];
+    for (let k = 0; k < 40; k++) {
+      const T = 8 + 0.1 * k;
+      const H: number[] = [];
+      const M: number[] = [];
+      for (let i = 1; i <= 5000; i++) {
+        const m = 0.5 * i * 5e-4 * 5;
+        H.push(m * (T - 10 + m * m) + 20);
+        M.push(m);
+      }
+      list.push({ T, H, M });
+    }
+    const set = isothermSetFromArrays(list);
+    const a = arrottAnalysis(set, { region: { topFraction: 0.5 } });
+    const chart = buildArrottSpec({ isotherms: set.isotherms, lines: a.lines, theme });
+    const [pts, fit] = layers(chart.spec);
+    expect(pts.data.values.length).toBeLessThanOrEqual(4000);
+    expect(chart.reduced).toEqual({ shown: pts.data.values.length, total: 200_000 });
+    expect(chart.rows).toBe(pts.data.values.length + fit.data.values.length);
+    for (const iso of set.isotherms) {
+      const own = pts.data.values.filter(v => v.T === iso.T) as { x: number; y: number }[];
+      expect(own.length).toBeGreaterThan(10);
+      const last = iso.H.length - 1;
+      // The first and last point of every isotherm are drawn (its smallest and largest M²).
+      expect(own.some(p => p.y === iso.M[0] ** 2)).toBe(true);
+      expect(own.some(p => p.y === iso.M[last] ** 2 && p.x === iso.H[last] / iso.M[last])).toBe(true);
+    }
+    // Lines still end at each isotherm's last point, drawn or not.
+    const ends = fit.data.values.filter(v => v.x !== 0) as { T: number; x: number }[];
+    expect(ends.length).toBe(40);
+    for (const end of ends) {
+      const iso = set.isotherms.find(i => i.T === end.T)!;
+      expect(end.x).toBe(Math.max(...Array.from(iso.H, (h, i) => h / iso.M[i])));
+    }
+    compiles(chart.spec);
+  });
+
   it('empty inputs still give valid specs', () => {
     const empty = isothermSetFromArrays([]);
     compiles(buildArrottSpec({ isotherms: empty.isotherms, theme }).spec);
