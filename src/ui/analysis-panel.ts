@@ -9,7 +9,7 @@
 import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
 import type { Message } from '@lumino/messaging';
 import { Panel, Widget } from '@lumino/widgets';
-import { buildFitOverlaySpec } from '../charts/fit-overlay';
+import { buildFitOverlayChart } from '../charts/fit-overlay';
 import type { AnalysisSession, SessionChange } from '../core/analysis/session';
 import type { ITable } from '../core/table';
 import type { IPlottableColumn } from '../core/table/roles';
@@ -234,14 +234,7 @@ export class AnalysisPanel extends Panel {
     const xs = p.x.column.values as Float64Array;
     const ys = p.y.column.values as Float64Array;
     const outcome = s.outcomeIsCurrent ? s.outcome : null;
-    let plotted = 0;
-    for (let i = 0; i < xs.length; i++) {
-      if (Number.isFinite(xs[i]) && Number.isFinite(ys[i])) {
-        plotted++;
-      }
-    }
-    const skipped = xs.length - plotted;
-    const spec = buildFitOverlaySpec({
+    const chart = buildFitOverlayChart({
       x: xs,
       y: ys,
       xTitle: p.x.label,
@@ -252,10 +245,14 @@ export class AnalysisPanel extends Panel {
       pointSize: this._pointSize,
       theme: readChartTheme(this.node)
     });
-    this._status.node.textContent =
+    const { spec, plotted, skipped, reduced } = chart;
+    const counts =
       skipped > 0
         ? this._trans.__('%1 points plotted; %2 rows left out (missing or infinite values).', plotted, skipped)
         : this._trans._n('%1 point plotted.', '%1 points plotted.', plotted);
+    this._status.node.textContent = reduced
+      ? `${counts} ${this._trans.__('%1 of %2 points drawn, keeping the shape; every point is fitted.', reduced.shown, reduced.total)}`
+      : counts;
     this._drawCount++;
     this._drawnWithCurve = outcome !== null;
     this._chartDone = this._chart.render(spec, this._trans.__('Scatter of %1 against %2', p.y.label, p.x.label)).catch(reason => {
