@@ -94,7 +94,8 @@ function saveCopy(page, name, n) {
 /** Open a notebook; ms until its table is shown, and until the command palette answers after that. */
 async function openAndUse(page, name) {
   const start = Date.now();
-  await page.evaluate(path => window.jupyterapp.commands.execute('docmanager:open', { path }), name);
+  // Return nothing: Playwright would serialise the opened widget on the page's thread.
+  await page.evaluate(path => window.jupyterapp.commands.execute('docmanager:open', { path }).then(() => null), name);
   await page.waitForFunction(
     path => Array.from(window.jupyterapp.shell.widgets('main')).some(w => w.context?.path === path && w.node.querySelector('table.dataframe')),
     name,
@@ -108,7 +109,7 @@ async function openAndUse(page, name) {
   return { shown, usable };
 }
 
-test('a notebook with 300 saved analyses opens with the lab usable within 2 s of the notebook', async () => {
+test('a notebook with 300 saved analyses opens with the lab usable within 2 s', async () => {
   const { page } = suite.lab;
   await saveCopy(page, 'no-analyses.ipynb', 0);
   await saveCopy(page, 'many-analyses.ipynb', 300);
@@ -126,7 +127,7 @@ test('a notebook with 300 saved analyses opens with the lab usable within 2 s of
     `# 300 saved analyses: notebook shown after ${many.shown} ms, palette answering ${many.usable} ms after the open (${many.usable - many.shown} ms after the notebook); ` +
       `the same notebook without analyses: ${plain.shown} / ${plain.usable} ms; longest main-thread task ${Math.round(longest)} ms; ${opened} panels opened at once`
   );
-  assert.ok(many.usable - many.shown <= 2000, `the lab answered ${many.usable - many.shown} ms after the notebook was shown`);
+  assert.ok(many.usable <= 2000, `the lab answered ${many.usable} ms after the open`);
   assert.ok(many.usable - plain.usable <= 2000, `psiscape added ${many.usable - plain.usable} ms to opening the notebook`);
   assert.ok(opened > 0 && opened <= 4, `${opened} panels opened at once, not 300`);
   await page.locator('.Toastify__toast', { hasText: /296 more saved analyses/ }).first().waitFor({ timeout: 10000 });
