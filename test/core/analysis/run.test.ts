@@ -280,3 +280,15 @@ describe('verdicts on the panel’s path', () => {
     expect(out.verdict.checks.some(c => !c.passed && /bound/.test(c.code))).toBe(true);
   });
 });
+
+describe('large tables through the panel’s path', () => {
+  it('should fit Landau coefficients to 200 000 points (the kind spread the data into Math.max and overflowed the stack)', () => {
+    // Convention L, a = 1, T0 = 100, b = 2, c = 0.5 (continuous; REFERENCE.md B3), sampled 200 000 times below T0.
+    const k = { a: 1, T0: 100, b: 2, c: 0.5, d: 0 };
+    const T = Array.from({ length: 200_000 }, (_, i) => 60 + (39.9 * i) / 199_999);
+    const y = T.map(t => landauEquilibriumPsi(k, t));
+    const out = runAnalysisJob({ kind: 'landau', x: T, y, window: { min: -Infinity, max: Infinity }, options: {} });
+    expect(out.landau!.T0).toBeCloseTo(100, 6);
+    expect(out.used).toBe(200_000);
+  });
+});

@@ -119,6 +119,13 @@ describe('CSV with an unclosed quote', () => {
     return r.ok ? null : { code: r.message.code, text: messageText(r.message) };
   };
 
+  it('refuses 34 MB with a quote that never closes (the earlier parser ran out of memory above 32 MB)', () => {
+    const head = 'T (K),M (emu/g)\n1,"never closed\n';
+    const text = head + '300.125,0.0625\n'.repeat(Math.ceil((34_000_000 - head.length) / 15));
+    expect(text.length).toBeGreaterThan(34_000_000);
+    expect(refusal(text)).toEqual({ code: 'table.csv.unclosed-quote', text: 'The CSV text has an unclosed quote in row 1.' });
+  });
+
   it('refuses 5 MB whose quote opens in row 40 001 and never closes, naming that row', () => {
     const rows = ['T (K),M (emu/g),note'];
     for (let i = 0; i < 40_000; i++) {
