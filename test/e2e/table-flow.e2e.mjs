@@ -14,8 +14,8 @@ test('context menu on a pandas table opens a panel with a drawn chart', async ()
   await contextMenu(page, output, MENU_LABEL);
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
   await panel.waitFor({ state: 'visible', timeout: 20000 });
-  await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').first().waitFor({ timeout: 30000 });
-  const marks = await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').count();
+  await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 });
+  const marks = await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').count();
   assert.equal(marks, 81, 'one mark per row of the 81-row M(T) table');
   const source = await panel.locator('.jp-psiscape-AnalysisPanel-source').textContent();
   assert.match(source, /am17-demo\.ipynb · cell 3 · output 1/);
@@ -75,8 +75,8 @@ test('palette command analyses the selected cell (dataresource output)', async (
   await input.fill('Analyse Table in Selected Cell');
   await page.keyboard.press('Enter');
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').first().waitFor({ timeout: 30000 });
-  assert.equal(await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').count(), 41);
+  await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 });
+  assert.equal(await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').count(), 41);
   assert.match(await panel.locator('.jp-psiscape-AnalysisPanel-source').textContent(), /cell 5/);
 });
 
@@ -109,8 +109,8 @@ test('a CSV file in the file browser opens at full precision', async () => {
   await item.click();
   await contextMenu(page, item, 'Analyse with psiscape');
   const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').first().waitFor({ timeout: 30000 });
-  assert.equal(await panel.locator('.jp-psiscape-ChartView svg .mark-symbol path').count(), 81);
+  await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 });
+  assert.equal(await panel.locator('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').count(), 81);
   assert.equal(await panel.locator('.jp-psiscape-AnalysisPanel-source').textContent(), 'file am17_MT.csv');
   assert.equal(await panel.locator('button.jp-psiscape-reveal').count(), 0, 'a file has no source cell to show');
   assert.equal(await panel.locator('.jp-psiscape-note-rounded').count(), 0, 'the CSV holds full precision');
