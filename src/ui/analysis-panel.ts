@@ -23,6 +23,9 @@ import { translateMessage } from './translate';
 
 let panelCount = 0;
 
+/** Longest wait of a restored analysis's chart for its refit, in ms (it is then drawn without the curve). */
+const RESTORE_HOLD_MS = 1500;
+
 /** A fit still running after this long takes the previous curve off the chart, in ms. */
 const RUNNING_REDRAW_MS = 200;
 
@@ -108,6 +111,10 @@ export class AnalysisPanel extends Panel {
    * notebook with many saved analyses does not start them all at once).
    */
   runFitWhenShown(): void {
+    // The chart waits for the fit, so a restored analysis is drawn once, with its curve.
+    this._holdForFit = true;
+    clearTimeout(this._holdTimer);
+    this._holdTimer = setTimeout(() => this._releaseHold(), RESTORE_HOLD_MS);
     if (this.isVisible) {
       void this._fit.runFit();
     } else {
@@ -128,6 +135,7 @@ export class AnalysisPanel extends Panel {
     }
     this._session.changed.disconnect(this._onChanged);
     clearTimeout(this._runningDraw);
+    clearTimeout(this._holdTimer);
     super.dispose();
   }
 
@@ -206,6 +214,12 @@ export class AnalysisPanel extends Panel {
     }
     this._fit.render();
     const run = s.run;
+    if (this._holdForFit) {
+      if (run.phase === 'done' || run.phase === 'failed' || run.phase === 'cancelled') {
+        this._releaseHold();
+      }
+      return;
+    }
     if (changes.has('table') || changes.has('roles') || changes.has('controls')) {
       this._draw();
     } else if (changes.has('run')) {
@@ -222,6 +236,16 @@ export class AnalysisPanel extends Panel {
         this._draw();
       }
     }
+  }
+
+  /** Stop waiting for a restored analysis's fit and draw what there is. */
+  private _releaseHold(): void {
+    clearTimeout(this._holdTimer);
+    if (!this._holdForFit || this.isDisposed) {
+      return;
+    }
+    this._holdForFit = false;
+    this._draw();
   }
 
   private _draw(): void {
@@ -383,6 +407,8 @@ export class AnalysisPanel extends Panel {
   private _drawnWithCurve = false;
   private _runningDraw: ReturnType<typeof setTimeout> | undefined = undefined;
   private _fitOnShow = false;
+  private _holdForFit = false;
+  private _holdTimer: ReturnType<typeof setTimeout> | undefined = undefined;
 }
 
 /** Options of {@link AnalysisPanel}. */

@@ -86,3 +86,35 @@ describe('AnalysisPanel', () => {
     expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-banner')!.textContent).toMatch(/deleted/);
   });
 });
+
+describe('a restored analysis', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+  });
+
+  it('should be drawn once, with the curve of its refit', async () => {
+    // Spin-½ Weiss-like M(T) (REFERENCE.md B1 shape), saved with a Weiss fit, then restored into a new panel.
+    const rows = ['T (K),M (emu/g)'];
+    for (let i = 0; i < 40; i++) {
+      const T = 20 + 6 * i;
+      rows.push(`${T},${(80 * Math.sqrt(Math.max(0, 1 - (T / 250) ** 2)) + 0.2 * Math.sin(5 * i)).toFixed(4)}`);
+    }
+    const parse = parseMime('text/csv', rows.join('\n'));
+    const first = panelFor(parse);
+    first.session.setKind('weiss');
+    first.session.beginRun();
+    const saved = first.session.toSaved()!;
+    first.panel.dispose();
+
+    const { panel, session } = panelFor({ ok: false, message: { code: 'test.wait', text: 'restoring', args: [] } });
+    session.restore(saved, parse, { code: 'test.note', text: 'saved copy', args: [] });
+    panel.runFitWhenShown();
+    await panel.fitSection.settled;
+    await panel.rendered;
+    await new Promise(resolve => setTimeout(resolve, 50));
+    await panel.rendered;
+    expect(session.run.phase).toBe('done');
+    expect(panel.drawCount).toBe(1);
+    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-line path').length).toBe(1);
+  });
+});
