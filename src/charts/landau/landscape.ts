@@ -57,8 +57,12 @@ export function landscapeFocus(points: readonly ILandscapePoint[]): [number, num
   if (F.length < 2) {
     return null;
   }
-  const lo = Math.min(...F);
-  const hi = Math.max(...F);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const f of F) {
+    lo = f < lo ? f : lo;
+    hi = f > hi ? f : hi;
+  }
   const span = hi - lo;
   if (!(span > 1e-12 * Math.max(1, Math.abs(lo), Math.abs(hi)))) {
     return null;

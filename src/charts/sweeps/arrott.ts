@@ -103,7 +103,8 @@ function build(o: IArrottChartOptions, beta: number, gamma: number, modified: bo
   const kind = o.fieldKind === 'applied' ? 'applied H' : 'H = H_int';
   const xTitle = modified ? `(H/M)^(1/γ), γ = ${gamma.toPrecision(4)} (${kind}; ${hU}, ${mU})` : `H/M (${kind}; ${hU} per ${mU})`;
   const yTitle = modified ? `M^(1/β), β = ${beta.toPrecision(4)} (${mU})` : `M² ((${mU})²)`;
-  const color: ColorDef<Field> = { field: 'T', type: 'quantitative', title: 'T (K)', scale: { scheme: 'viridis' } };
+  // Isotherms run from our accent colour (cold) to our second accent (warm), never a chart library's default ramp.
+  const color: ColorDef<Field> = { field: 'T', type: 'quantitative', title: 'T (K)', scale: { range: [o.theme.accent, o.theme.accent2] } };
   const layer: ChartLayer[] = [
     {
       data: { values: points },

@@ -24,8 +24,13 @@ export function buildKouvelFisherSpec(kf: IKouvelFisherResult, theme: IChartThem
       }
     }
     if (s.points.length > 0 && finite(s.exponent.value) && finite(s.Tc.value)) {
-      const Ts = s.points.map(p => p.T);
-      for (const T of [Math.min(...Ts, s.Tc.value), Math.max(...Ts, s.Tc.value)]) {
+      let lo = s.Tc.value;
+      let hi = s.Tc.value;
+      for (const p of s.points) {
+        lo = p.T < lo ? p.T : lo;
+        hi = p.T > hi ? p.T : hi;
+      }
+      for (const T of [lo, hi]) {
         lines.push({ T, value: (T - s.Tc.value) / s.exponent.value, quantity: name });
       }
     }

@@ -10,9 +10,10 @@
  *
  * Accuracy: Nelder–Mead has no general convergence guarantee (it can stall
  * away from a minimum in higher dimensions); "converged" means only that the
- * simplex values agree to ftol relative and its size is below xtol times the
+ * function values at the simplex's vertices agree to the requested relative
+ * tolerance and the simplex has shrunk below the requested fraction of the
  * initial steps, so a minimum is located to about that size, and its value
- * to ftol. The Hessian has truncation error O(h²) and rounding error
+ * to that tolerance. The Hessian has truncation error O(h²) and rounding error
  * O(ε|f|/h²) (ε = 2⁻⁵²): choose h near ε^(1/4) times the parameter scale.
  */
 import { msg } from '../messages';
