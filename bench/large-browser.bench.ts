@@ -9,28 +9,7 @@
  *   npm run bench -- --only large-browser
  */
 import { writeFileSync } from 'node:fs';
-
-interface ILocator {
-  first(): ILocator;
-  last(): ILocator;
-  locator(selector: string, options?: Record<string, unknown>): ILocator;
-  selectOption(value: string): Promise<unknown>;
-  click(): Promise<void>;
-  fill(text: string): Promise<void>;
-  press(key: string): Promise<void>;
-  count(): Promise<number>;
-  textContent(): Promise<string | null>;
-  waitFor(options?: Record<string, unknown>): Promise<void>;
-}
-interface IPage {
-  locator(selector: string, options?: Record<string, unknown>): ILocator;
-  evaluate<T>(source: string): Promise<T>;
-  waitForFunction(source: string, arg?: unknown, options?: Record<string, unknown>): Promise<unknown>;
-}
-interface ILabHelpers {
-  startServer(): Promise<{ server: { close(cb: () => void): void }; url: string }>;
-  openLab(url: string): Promise<{ browser: { close(): Promise<void> }; page: IPage }>;
-}
+import { jsonPartArg, openBenchLab } from './browserLab';
 
 /** Page source: start collecting long tasks. */
 const OBSERVE = `(() => {
@@ -59,16 +38,9 @@ async function timed<T>(run: () => Promise<T>): Promise<{ ms: number; value: T }
 }
 
 async function main(): Promise<void> {
-  const jsonPart = process.argv.includes('--json-part') ? process.argv[process.argv.indexOf('--json-part') + 1] : null;
-  const { ensureExtensionBuilt } = (await import('../scripts/ensure-built.mjs')) as { ensureExtensionBuilt(): void };
-  const { requireChromium } = (await import('../test/e2e/browser.mjs')) as { requireChromium(): void };
-  requireChromium();
-  ensureExtensionBuilt();
-  const { buildDemo } = (await import('../demo/build.mjs')) as { buildDemo(): void };
-  buildDemo();
-  const lab = (await import('../test/e2e/lab.mjs')) as ILabHelpers;
-  const { server, url } = await lab.startServer();
-  const { browser, page } = await lab.openLab(url);
+  const jsonPart = jsonPartArg();
+  const lab = await openBenchLab();
+  const { page } = lab;
   const figures: Record<string, { ms: number; longestTaskMs: number }> = {};
   const chartDrawn = (panels: number) =>
     page.waitForFunction(
@@ -151,8 +123,7 @@ async function main(): Promise<void> {
       writeFileSync(jsonPart, JSON.stringify({ figures, savedMetadataBytes: savedSize }, null, 2));
     }
   } finally {
-    await browser.close();
-    await new Promise<void>(resolve => server.close(resolve));
+    await lab.close();
   }
 }
 

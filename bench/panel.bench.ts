@@ -10,26 +10,7 @@
  * writes them as JSON.
  */
 import { writeFileSync } from 'node:fs';
-
-interface ILabHelpers {
-  startServer(): Promise<{ server: { close(cb: () => void): void }; url: string }>;
-  openLab(url: string): Promise<{ browser: { close(): Promise<void> }; page: IPage }>;
-  contextMenu(page: IPage, locator: unknown, label: string): Promise<void>;
-}
-interface ILocator {
-  first(): ILocator;
-  last(): ILocator;
-  locator(selector: string, options?: Record<string, unknown>): ILocator;
-  selectOption(value: string): Promise<unknown>;
-  fill(text: string): Promise<void>;
-  press(key: string): Promise<void>;
-  waitFor(options?: Record<string, unknown>): Promise<void>;
-}
-interface IPage {
-  locator(selector: string, options?: Record<string, unknown>): ILocator;
-  evaluate<T, A>(fn: (arg: A) => T | Promise<T>, arg?: A): Promise<T>;
-  on(event: 'worker', listener: () => void): void;
-}
+import { jsonPartArg, openBenchLab } from './browserLab';
 
 const RUNS = 20;
 
@@ -40,23 +21,15 @@ function stats(samples: number[]): { median: number; p90: number; min: number; m
 }
 
 async function main(): Promise<void> {
-  const jsonPart = process.argv.includes('--json-part') ? process.argv[process.argv.indexOf('--json-part') + 1] : null;
-  const { ensureExtensionBuilt } = (await import('../scripts/ensure-built.mjs')) as { ensureExtensionBuilt(): void };
-  const { requireChromium } = (await import('../test/e2e/browser.mjs')) as { requireChromium(): void };
-  requireChromium();
-  ensureExtensionBuilt();
-  const { buildDemo } = (await import('../demo/build.mjs')) as { buildDemo(): void };
-  buildDemo();
-  const lab = (await import('../test/e2e/lab.mjs')) as ILabHelpers;
-  const { server, url } = await lab.startServer();
-  const t0 = globalThis.performance.now();
-  const { browser, page } = await lab.openLab(url);
-  const startup = globalThis.performance.now() - t0;
+  const jsonPart = jsonPartArg();
+  const lab = await openBenchLab();
+  const { page } = lab;
+  const startup = lab.startupMs;
   let workers = 0;
   page.on('worker', () => workers++);
   try {
     const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
-    await lab.contextMenu(page, output, 'Analyse This Table with psiscape');
+    await lab.contextMenu(output, 'Analyse This Table with psiscape');
     const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
     await panel.locator('.jp-psiscape-ChartView svg').first().waitFor({ timeout: 60000 });
     await panel.locator('input.jp-psiscape-fit-min').fill('250');
@@ -89,7 +62,7 @@ async function main(): Promise<void> {
       setTimeout(() => { observer.disconnect(); reject(new Error('no result within 30 s')); }, 30000);
       button.click();
     })`;
-    const clickToResult = (): Promise<number> => page.evaluate(inPage as unknown as () => number);
+    const clickToResult = (): Promise<number> => page.evaluate<number>(inPage);
     const first = await clickToResult();
     const samples: number[] = [];
     for (let i = 0; i < RUNS; i++) {
@@ -105,8 +78,7 @@ async function main(): Promise<void> {
       writeFileSync(jsonPart, JSON.stringify({ startupMs: startup, firstFitMs: first, clickToResult: { runs: RUNS, ...s }, workerScripts: workers }, null, 2));
     }
   } finally {
-    await browser.close();
-    await new Promise<void>(resolve => server.close(resolve));
+    await lab.close();
   }
 }
 
