@@ -190,7 +190,11 @@ export class AnalysisPanel extends Panel {
     this._banner.setHidden(s.sourceState === 'live' || sourceMessages.length === 0);
     if (changes.has('table')) {
       const table = s.table;
-      this._isotherms.setTable(table);
+      // A redraw (theme change) keeps the isotherm analysis; only a new table resets it.
+      if (table !== this._isothermTable) {
+        this._isothermTable = table;
+        this._isotherms.setTable(table);
+      }
       this._renderNotes(table);
     }
     const problem = s.problem;
@@ -408,6 +412,7 @@ export class AnalysisPanel extends Panel {
   private _runningDraw: ReturnType<typeof setTimeout> | undefined = undefined;
   private _fitOnShow = false;
   private _holdForFit = false;
+  private _isothermTable: ITable | null | undefined = undefined;
   private _holdTimer: ReturnType<typeof setTimeout> | undefined = undefined;
 }
 

@@ -5,6 +5,20 @@ import assert from 'node:assert/strict';
 import { test } from 'node:test';
 import { contextMenu, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
+/** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
+async function darkScreenshot(page, name, ready) {
+  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
+  await theme('JupyterLab Dark');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
+  // the theme switch shows a splash screen for a moment
+  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
+  await ready();
+  await screenshot(page, name);
+  await theme('JupyterLab Light');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
+  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
+}
+
 const suite = useDemoLab(async ({ page }) => {
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
@@ -62,16 +76,10 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   assert.ok(beta > 0.4 && beta < 0.5 + 3 * sBeta, `beta ${beta} ± ${sBeta} is a mean-field effective exponent`);
   await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
   await screenshot(page, 'fit-power-law-light');
-  const theme = name => page.evaluate(t => window.jupyterapp.commands.execute('apputils:change-theme', { theme: t }), name);
-  await theme('JupyterLab Dark');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
-  // the theme switch shows a splash screen for a moment
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-  await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 30000 });
-  await page.waitForFunction(() => !document.querySelector('.jp-psiscape-fit-status')?.textContent);
-  await screenshot(page, 'fit-power-law-dark');
-  await theme('JupyterLab Light');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
+  await darkScreenshot(page, 'fit-power-law-dark', async () => {
+    await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 30000 });
+    await page.waitForFunction(() => !document.querySelector('.jp-psiscape-fit-status')?.textContent);
+  });
 });
 
 test('the power law over the whole demo range is shown as not describing the data, with χ²_red', async () => {
@@ -90,6 +98,7 @@ test('the power law over the whole demo range is shown as not describing the dat
   assert.equal(await section.locator('.jp-psiscape-verdict.jp-psiscape-verdict-fits').count(), 0, 'never the success style');
   await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
   await screenshot(page, 'fit-power-law-whole-range-light');
+  await darkScreenshot(page, 'fit-power-law-whole-range-dark', () => section.locator('.jp-psiscape-verdict-does-not-describe').waitFor({ timeout: 30000 }));
 });
 
 test('a failed fit never shows another kind’s table', async () => {
@@ -151,4 +160,5 @@ test('isotherms M(H) at several temperatures give an Arrott plot and Tc', async 
   assert.match(await section.textContent(), /demagnetising factor N_d is not set/);
   await section.scrollIntoViewIfNeeded();
   await screenshot(page, 'isotherms-light');
+  await darkScreenshot(page, 'isotherms-dark', () => section.locator('svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 }));
 });

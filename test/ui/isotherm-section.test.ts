@@ -84,3 +84,19 @@ describe('IsothermSection', () => {
     expect(panel.isothermSection.isHidden).toBe(true);
   });
 });
+
+describe('IsothermSection in a redrawn panel', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+  });
+
+  it('should keep its analysis when the panel is redrawn (a theme change redraws every panel)', async () => {
+    const panel = await open(isothermCsv());
+    panel.isothermSection.run();
+    const analysis = panel.isothermSection.analysis;
+    expect(analysis).not.toBeNull();
+    panel.redraw();
+    await panel.rendered;
+    expect(panel.isothermSection.analysis).toBe(analysis);
+  });
+});
