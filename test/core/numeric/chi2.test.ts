@@ -39,7 +39,7 @@ describe('chiSquareUpperTail', () => {
     expect(rel(chiSquareLowerTail(chi2, dof), 1 - p)).toBeLessThan(2e-4);
   });
 
-  it('matches the brief values χ² = 3.841, ν = 1 and χ² = 18.307, ν = 10 → p ≈ 0.05 (A&S Table 26.8)', () => {
+  it('matches the tabulated values χ² = 3.841, ν = 1 and χ² = 18.307, ν = 10 → p ≈ 0.05 (A&S Table 26.8)', () => {
     expect(chiSquareUpperTail(3.841, 1)).toBeCloseTo(0.05, 4);
     expect(chiSquareUpperTail(18.307, 10)).toBeCloseTo(0.05, 5);
   });

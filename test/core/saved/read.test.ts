@@ -116,7 +116,7 @@ describe('readSaved: entries', () => {
     expect(texts({ version: 2, analyses: [stored('a').analyses[0], 'junk'] })).toEqual(['saved analysis 2 is not a record of named fields']);
   });
 
-  // Case: unknown kind — kept, not opened, with the lead's wording.
+  // Case: unknown kind — kept, not opened, with a message naming the kind.
   it('should keep an entry of an unknown kind unopened and say so', () => {
     const block = stored('a', 'b');
     (block.analyses[1].settings as Record<string, unknown>).kind = 'foo';
