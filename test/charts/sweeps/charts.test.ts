@@ -53,7 +53,7 @@ describe('sweep chart builders', () => {
     expect(pts.encoding.y.field).toBe('y');
     expect(pts.encoding.color.field).toBe('T');
     // Our own ramp, between the theme's two accents (no chart-library scheme).
-    expect(pts.encoding.color.scale).toEqual({ range: [theme.accent, theme.accent2] });
+    expect((pts.encoding.color as { scale?: unknown }).scale).toEqual({ range: [theme.accent, theme.accent2] });
     const iso = set.isotherms[0];
     const first = pts.data.values.find(v => v.T === iso.T) as { x: number; y: number };
     expect(first.x).toBeCloseTo(iso.H[0] / iso.M[0], 12);
