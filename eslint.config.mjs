@@ -62,7 +62,6 @@ export default tseslint.config(
       'jupyterlab_psiscape/**',
       'demo/build/**',
       'demo/dist/**',
-      'demo/server/build/**',
       'dist/**',
       'test-results/**',
       '.bench/**',

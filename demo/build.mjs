@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 // Builds the kernel-free demo lab into demo/dist:
-//   static/      the host application (webpack, built once, reused while its inputs are unchanged)
+//   static/      the lab frontend (webpack into demo/build, reused while its inputs are unchanged;
+//                the server flavour, demo/server/serve.py, serves the same build)
 //   extensions/  the prebuilt psiscape labextension, loaded by the host as a federated extension
 //   schemas/     every plugin's settings schema (all.json core, all_federated.json extensions)
 //   themes/      light and dark themes
@@ -10,6 +11,7 @@ import path from 'node:path';
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
 import { execFileSync } from 'node:child_process';
+import { runStep } from '../scripts/steps.mjs';
 
 const demoDir = path.dirname(fileURLToPath(import.meta.url));
 const root = path.resolve(demoDir, '..');
@@ -20,26 +22,60 @@ const notebooksDir = path.join(demoDir, 'notebooks');
 
 const log = msg => console.log(`[demo] ${msg}`);
 
+/** The host's own sources: any change rebuilds it. */
+const HOST_INPUTS = ['bootstrap.js', 'main.js', 'start-lab.js', 'shared-modules.js', 'extensions.js', 'webpack.config.js'];
+
 /** Newest modification time of the host's inputs. */
 function hostInputsMtime() {
-  const files = ['host/bootstrap.js', 'host/main.js', 'host/start-lab.js', 'host/shared-modules.js', 'host/extensions.js', 'host/webpack.config.js'].map(f => path.join(demoDir, f));
+  const files = HOST_INPUTS.map(f => path.join(demoDir, 'host', f));
   files.push(path.join(root, 'package-lock.json'));
   return Math.max(...files.map(f => fs.statSync(f).mtimeMs));
 }
 
-function buildHost(force) {
+/** True when the host build (both flavours) is present and newer than its inputs. */
+export function hostUpToDate() {
   const stamp = path.join(buildDir, 'entry.json');
-  if (!force && fs.existsSync(stamp) && fs.statSync(stamp).mtimeMs > hostInputsMtime()) {
+  const needed = [stamp, path.join(buildDir, 'templates', 'index.html'), path.join(buildDir, 'schemas'), path.join(buildDir, 'themes')];
+  return needed.every(f => fs.existsSync(f)) && fs.statSync(stamp).mtimeMs > hostInputsMtime();
+}
+
+function webpackArgs() {
+  return [require.resolve('webpack-cli/bin/cli.js'), '--config', path.join(demoDir, 'host/webpack.config.js'), '--stats', 'errors-warnings'];
+}
+
+/**
+ * Build the one lab frontend both flavours run on (blocking; output shown),
+ * unless it is up to date. Set PSISCAPE_MINIFY=1 for a minified build.
+ */
+export function buildHost({ force = false } = {}) {
+  if (!force && hostUpToDate()) {
     log('host application is up to date');
     return;
   }
-  log('building the host application (webpack; about two minutes on two cores)');
+  log('building the host application (webpack, no minification; about 20 s on two cores, less with a warm cache)');
   const t0 = Date.now();
-  execFileSync(process.execPath, [require.resolve('webpack-cli/bin/cli.js'), '--config', path.join(demoDir, 'host/webpack.config.js')], {
-    stdio: 'inherit',
-    cwd: root
-  });
+  fs.rmSync(path.join(buildDir, 'entry.json'), { force: true });
+  execFileSync(process.execPath, webpackArgs(), { stdio: 'inherit', cwd: root });
+  if (!fs.existsSync(path.join(buildDir, 'entry.json'))) {
+    throw new Error('the host build did not complete (no demo/build/entry.json)');
+  }
   log(`host built in ${((Date.now() - t0) / 1000).toFixed(0)} s`);
+}
+
+/**
+ * The same as one progress step (for `npm start`): resolves when the host is built.
+ * @param {string} tag prefix of the progress lines
+ */
+export async function buildHostStep(tag, { force = false } = {}) {
+  if (!force && hostUpToDate()) {
+    return false;
+  }
+  fs.rmSync(path.join(buildDir, 'entry.json'), { force: true });
+  await runStep(tag, 'building the lab frontend (webpack)', process.execPath, webpackArgs(), { cwd: root });
+  if (!fs.existsSync(path.join(buildDir, 'entry.json'))) {
+    throw new Error('the host build did not complete (no demo/build/entry.json)');
+  }
+  return true;
 }
 
 function writeJson(file, data) {
@@ -153,6 +189,8 @@ function assemble() {
   const ext = built.jupyterlab;
   const config = {
     appName: 'psiscape demo lab',
+    // The flavour demo/host/main.js starts: contents and settings in the browser.
+    labFlavour: 'in-browser',
     appVersion: require('@jupyterlab/application/package.json').version,
     baseUrl: '/',
     appUrl: '/lab',
@@ -194,9 +232,11 @@ function assemble() {
 }
 
 export function buildDemo({ forceHost = false } = {}) {
-  buildHost(forceHost);
+  buildHost({ force: forceHost });
   assemble();
 }
+
+export { assemble as assembleDemo };
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
   buildDemo({ forceHost: process.argv.includes('--force') });

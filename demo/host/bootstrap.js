@@ -1,4 +1,4 @@
-// Entry of the demo lab. Loads every prebuilt (federated) extension named in
+// Entry of psiscape's lab frontend (both flavours). Loads every prebuilt (federated) extension named in
 // the page configuration *before* the application chunk, so that webpack's
 // shared-module negotiation sees all containers, then starts the app.
 
@@ -37,7 +37,6 @@ void (async function bootstrap() {
       console.error(result.reason);
     }
   });
-  // Each flavour's webpack configuration points this alias at its own main.js.
-  const { main } = await import('psiscape-lab-main');
+  const { main } = await import('./main.js');
   await main();
 })();

@@ -1,5 +1,6 @@
-// The packages the demo lab is assembled from. One list, read by the webpack
-// configuration (schemas, themes, styles) and mirrored by the imports in main.js.
+// The packages psiscape's lab frontend is assembled from. One list, read by the
+// webpack configuration (schemas, themes, styles, host-packages.js); main.js
+// picks the plugins of the flavour the page configuration asks for.
 
 /** JupyterLab extension packages (plugins). */
 const labExtensions = [
@@ -38,25 +39,33 @@ const liteExtensions = [
   '@jupyterlite/services-extension'
 ];
 
+/** Plugins left out in every flavour: the language-server client needs an LSP extension (not included). */
+const alwaysDisabled = ['@jupyterlab/notebook-extension:language-server', '@jupyterlab/apputils-extension:announcements'];
+
 /**
- * Plugins left out: they need a server, clash with the in-browser services,
- * or offer downloads and links that have no meaning here.
+ * Plugins left out per flavour.
+ * - inBrowser (the kernel-free demo): plugins that need a server, clash with the
+ *   in-browser services, or offer downloads and links that have no meaning here.
+ * - server (a real Jupyter server): announcements poll a news API that
+ *   jupyterlab_server does not offer.
  */
-const disabledPlugins = [
-  '@jupyterlite/application-extension:service-worker-manager',
-  '@jupyterlite/application-extension:opener',
-  '@jupyterlite/application-extension:lsp-connection-manager',
-  '@jupyterlite/application-extension:share-file',
-  '@jupyterlite/application-extension:download',
-  '@jupyterlab/notebook-extension:language-server',
-  '@jupyterlab/apputils-extension:announcements',
-  '@jupyterlab/services-extension:connection-status',
-  '@jupyterlab/services-extension:terminal-manager',
-  '@jupyterlab/services-extension:default-content-provider',
-  '@jupyterlab/services-extension:content-provider-warning',
-  '@jupyterlab/docmanager-extension:download',
-  '@jupyterlab/filebrowser-extension:download',
-  '@jupyterlab/filebrowser-extension:share-file'
-];
+const disabledPlugins = {
+  inBrowser: [
+    ...alwaysDisabled,
+    '@jupyterlite/application-extension:service-worker-manager',
+    '@jupyterlite/application-extension:opener',
+    '@jupyterlite/application-extension:lsp-connection-manager',
+    '@jupyterlite/application-extension:share-file',
+    '@jupyterlite/application-extension:download',
+    '@jupyterlab/services-extension:connection-status',
+    '@jupyterlab/services-extension:terminal-manager',
+    '@jupyterlab/services-extension:default-content-provider',
+    '@jupyterlab/services-extension:content-provider-warning',
+    '@jupyterlab/docmanager-extension:download',
+    '@jupyterlab/filebrowser-extension:download',
+    '@jupyterlab/filebrowser-extension:share-file'
+  ],
+  server: [...alwaysDisabled]
+};
 
 module.exports = { labExtensions, mimeExtensions, liteExtensions, disabledPlugins };

@@ -1,6 +1,13 @@
-// The kernel-free demo lab: JupyterLab from npm packages with contents and
-// settings served from the browser (no Python, no kernel), plus every prebuilt
-// extension listed in the page configuration.
+// psiscape's lab frontend, one bundle for two flavours chosen from the page
+// configuration's `labFlavour`:
+// - "in-browser" (written by demo/build.mjs): the kernel-free demo lab, with
+//   contents and settings served from the browser (no Python, no kernel); it
+//   opens the notebooks named by ?path=… or the demo notebook;
+// - anything else (a Jupyter server's page, demo/server/serve.py): JupyterLab's
+//   own service plugins talk to the server for contents, kernels, sessions,
+//   settings and workspaces; JupyterLab's router opens /lab/tree/<path>.
+// Either way every prebuilt extension listed in the page configuration loads
+// as a federated extension.
 import { PageConfig } from '@jupyterlab/coreutils';
 import { startLab } from './start-lab.js';
 
@@ -8,14 +15,20 @@ import { startLab } from './start-lab.js';
 import packages from '../build/host-packages.js';
 import '../build/style.js';
 
+export const IN_BROWSER = 'in-browser';
+
 export async function main() {
-  const app = await startLab(packages, 'psiscape demo lab');
-  // Open the notebooks named by ?path=... or, by default, the demo notebook.
-  const search = new URLSearchParams(window.location.search);
-  const paths = search.getAll('path');
-  const open = paths.length ? paths : [PageConfig.getOption('openPath')].filter(Boolean);
-  for (const path of open) {
-    await app.commands.execute('docmanager:open', { path });
+  if (PageConfig.getOption('labFlavour') === IN_BROWSER) {
+    const app = await startLab({ ...packages, disabledPlugins: packages.disabledPlugins.inBrowser }, 'psiscape demo lab');
+    const search = new URLSearchParams(window.location.search);
+    const paths = search.getAll('path');
+    const open = paths.length ? paths : [PageConfig.getOption('openPath')].filter(Boolean);
+    for (const path of open) {
+      await app.commands.execute('docmanager:open', { path });
+    }
+    document.body.dataset.demoReady = 'true';
+  } else {
+    await startLab({ ...packages, lite: [], disabledPlugins: packages.disabledPlugins.server }, 'psiscape lab (Jupyter server)');
+    document.body.dataset.labReady = 'true';
   }
-  document.body.dataset.demoReady = 'true';
 }

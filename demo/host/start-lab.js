@@ -1,7 +1,6 @@
-// Starts a JupyterLab application from the packages a flavour bundles plus
-// every prebuilt (federated) extension the page configuration lists. Shared by
-// the kernel-free demo (demo/host/main.js) and the server flavour
-// (demo/server/main.js).
+// Starts a JupyterLab application from the packages bundled in the lab
+// frontend plus every prebuilt (federated) extension the page configuration
+// lists. demo/host/main.js calls it with the plugins of one flavour.
 import { PageConfig } from '@jupyterlab/coreutils';
 import { JupyterLab } from '@jupyterlab/application';
 import { IServiceManager } from '@jupyterlab/services';

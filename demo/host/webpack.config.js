@@ -1,6 +1,15 @@
-// Webpack configuration of the kernel-free demo lab. The host shares every
-// JupyterLab core package through module federation (singletons as listed in
-// @jupyterlab/core-meta), so prebuilt extensions load exactly as in a user's lab.
+// Webpack configuration of the one JupyterLab frontend psiscape's labs run on.
+// The same bundle serves two flavours, chosen at start-up from the page
+// configuration (see main.js): the kernel-free demo (contents and settings in
+// the browser) and the server flavour (a real Jupyter server, demo/server/serve.py).
+// The host shares every JupyterLab core package through module federation
+// (singletons as listed in @jupyterlab/core-meta), so prebuilt extensions load
+// exactly as in a user's lab.
+//
+// Speed: no minification and no source maps unless PSISCAPE_MINIFY=1 (then
+// esbuild minifies, a few seconds rather than terser's two minutes), and a
+// persistent cache under node_modules/.cache keyed on this file, the lock file
+// and the other host sources, so a second build reuses the first.
 const fs = require('fs');
 const path = require('path');
 const webpack = require('webpack');
@@ -10,8 +19,11 @@ const { Build } = require('@jupyterlab/builder');
 const { sharedModules } = require('./shared-modules');
 const { labExtensions, mimeExtensions, liteExtensions, disabledPlugins } = require('./extensions');
 
+const root = path.resolve(__dirname, '..', '..');
 const buildDir = path.resolve(__dirname, '..', 'build');
 const staticDir = path.join(buildDir, 'static');
+const templatesDir = path.join(buildDir, 'templates');
+const minify = process.env.PSISCAPE_MINIFY === '1';
 
 fs.mkdirSync(buildDir, { recursive: true });
 
@@ -29,34 +41,70 @@ fs.writeFileSync(
     `module.exports = { lab: ${entries(labExtensions)}, mime: ${entries(mimeExtensions)}, lite: ${entries(liteExtensions)}, disabledPlugins: ${JSON.stringify(disabledPlugins)} };\n`
 );
 
-const shared = sharedModules();
+/** The page a Jupyter server renders (Jinja2): its page configuration + the entry scripts. */
+function writeServerTemplate(files) {
+  const scripts = files
+    .filter(f => f.endsWith('.js'))
+    .map(f => `<script defer src="{{ page_config.fullStaticUrl }}/${f}"></script>`)
+    .join('\n    ');
+  const html = `<!doctype html>
+<html lang="en">
+  <head>
+    <meta charset="utf-8" />
+    <title>psiscape lab</title>
+    <script id="jupyter-config-data" type="application/json">{{ page_config | tojson }}</script>
+    ${scripts}
+  </head>
+  <body></body>
+</html>
+`;
+  fs.mkdirSync(templatesDir, { recursive: true });
+  fs.writeFileSync(path.join(templatesDir, 'index.html'), html);
+}
+
+function minimizer() {
+  const TerserPlugin = require('terser-webpack-plugin');
+  return [new TerserPlugin({ minify: TerserPlugin.esbuildMinify, terserOptions: {}, extractComments: false })];
+}
 
 const appConfig = merge(baseConfig, {
-  mode: process.env.NODE_ENV === 'development' ? 'development' : 'production',
+  mode: 'production',
   entry: { main: path.join(__dirname, 'bootstrap.js') },
-  resolve: { alias: { 'psiscape-lab-main': path.join(__dirname, 'main.js') } },
   output: {
     path: staticDir,
     filename: '[name].[contenthash].js',
     chunkFilename: '[name].[contenthash].js',
+    // bootstrap.js sets the public path from the page's fullStaticUrl, so the
+    // same files serve /static (demo) and /static/lab (Jupyter server).
     publicPath: 'auto',
     clean: true
   },
   devtool: false,
   performance: { hints: false },
-  optimization: { moduleIds: 'deterministic' },
+  cache: {
+    type: 'filesystem',
+    cacheDirectory: path.join(root, 'node_modules', '.cache', 'psiscape-host'),
+    buildDependencies: {
+      config: [__filename, path.join(__dirname, 'extensions.js'), path.join(__dirname, 'shared-modules.js'), path.join(root, 'package-lock.json')]
+    }
+  },
+  optimization: minify ? { moduleIds: 'deterministic', minimize: true, minimizer: minimizer() } : { moduleIds: 'deterministic', minimize: false },
   plugins: [
     new webpack.container.ModuleFederationPlugin({
       name: 'CORE_FEDERATION',
       library: { type: 'var', name: ['_JUPYTERLAB', 'CORE_LIBRARY_FEDERATION'] },
-      shared
+      shared: sharedModules()
     }),
-    // Record the entry file name for demo/build.mjs.
+    // The server page template, then the stamp demo/build.mjs checks.
     {
       apply(compiler) {
         compiler.hooks.done.tap('record-entry', stats => {
+          if (stats.hasErrors()) {
+            return;
+          }
           const files = stats.toJson({ all: false, entrypoints: true }).entrypoints.main.assets.map(a => a.name);
-          fs.writeFileSync(path.join(buildDir, 'entry.json'), JSON.stringify({ files }, null, 2));
+          writeServerTemplate(files);
+          fs.writeFileSync(path.join(buildDir, 'entry.json'), JSON.stringify({ files, minified: minify }, null, 2));
         });
       }
     }

@@ -1,8 +1,10 @@
 #!/usr/bin/python3
 """Serve the server-flavoured psiscape lab with a real Jupyter server.
 
-A small ``jupyterlab_server.LabServerApp`` serving the frontend built by
-``demo/server/build.mjs`` (``demo/server/build``), with the prebuilt psiscape
+A small ``jupyterlab_server.LabServerApp`` serving psiscape's one lab frontend
+(``demo/build``, built by ``demo/build.mjs``; the same bundle as the kernel-free
+demo, which starts its server flavour here because this page configuration
+has no ``labFlavour``), with the prebuilt psiscape
 labextension as a federated extension, real contents, kernels (ipykernel),
 sessions, settings and workspaces. Everything the server writes goes to a
 temporary folder that is removed on exit; the notebooks are copies.
@@ -10,7 +12,7 @@ temporary folder that is removed on exit; the notebooks are copies.
 Run with Debian's Python, which sees the Debian packages
 (python3-jupyter-server, python3-jupyterlab-server, python3-ipykernel)::
 
-    node demo/server/build.mjs
+    node demo/build.mjs
     /usr/bin/python3 demo/server/serve.py --port 8901 [--notebook FILE ...]
 
 Then open http://127.0.0.1:8901/lab/tree/<notebook name>. Loopback only,
@@ -42,7 +44,7 @@ def parse_args(argv):
         default=[],
         help="file copied into the server's root folder (repeatable; default: every file of demo/notebooks)",
     )
-    parser.add_argument("--build-dir", default=os.path.join(HERE, "build"), help="the built frontend (demo/server/build)")
+    parser.add_argument("--build-dir", default=os.path.join(ROOT, "demo", "build"), help="the built frontend (demo/build)")
     parser.add_argument(
         "--labextension",
         default=os.path.join(ROOT, "jupyterlab_psiscape", "labextension"),
@@ -58,7 +60,7 @@ def check_inputs(args):
     problems = []
     template = os.path.join(args.build_dir, "templates", "index.html")
     if not os.path.isfile(template):
-        problems.append(f"the frontend is not built ({template} is missing): run `node demo/server/build.mjs`")
+        problems.append(f"the frontend is not built ({template} is missing): run `node demo/build.mjs`")
     built = os.path.join(args.labextension, "package.json")
     if not os.path.isfile(built):
         problems.append(f"the labextension is not built ({built} is missing): run `npm run build`")

@@ -7,7 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { after, before, test } from 'node:test';
 import { ensureExtensionBuilt } from '../../scripts/ensure-built.mjs';
-import { buildServerLab } from '../../demo/server/build.mjs';
+import { buildHost } from '../../demo/build.mjs';
 import { contextMenu, screenshot } from './lab.mjs';
 import { editCell, missingPython, openNotebook, runCell, startJupyter, waitKernelIdle, writeNotebook } from './kernel-lab.mjs';
 
@@ -42,7 +42,7 @@ function defineSuite() {
 
   before(async () => {
     ensureExtensionBuilt();
-    buildServerLab();
+    buildHost();
     const file = writeNotebook(NOTEBOOK, [frameSource({ rows: 10, tMin: 250, tMax: 320, amplitude: 40 })]);
     notebookDir = path.dirname(file);
     const t0 = Date.now();
