@@ -14,14 +14,18 @@
  * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
  * | `largeRows` | 20000 | large-problem threshold n. Up to this many points the trust-region step may use an SVD of the scaled Jacobian (accuracy on small ill-conditioned problems such as NIST StRD). Above it: the eigen-decomposition of the k×k JᵀJ only (formed in one tight pass; for n ≫ k the statistical error dwarfs its rounding), and stopping rule 1b |
  * | `normalEquationsMinRatio` | 1e-11 | the trust-region model uses the eigen-decomposition of the scaled JᵀJ when λmin/λmax ≥ this (condition of the scaled Jacobian ≤ 3e5), otherwise the SVD of the scaled Jacobian (up to `largeRows` points) |
+ * | `stationaryRows` | 1000 | rule 1b applies from this many points on (statistical errors then dwarf the last digits that a second confirming step would settle) |
  * | `stationaryNoiseFraction` | 1e-4 | rule 1b: the full Gauss–Newton step predicts a χ² reduction below this fraction of the rounding noise of χ² |
+ * | `stationaryErrorFraction` | 1e-6 | rule 1b also: the full Gauss–Newton step moves the parameters by less than this fraction of their standard errors (χ² reduction ≤ fraction²·χ²/dof; ≤ fraction² when σ were given and χ²/dof > 1) |
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
  * | `restartReductionThreshold` | 1e-10 | a stop on a small step while the Gauss–Newton model still predicts a relative χ² reduction above this restarts from the best point (a reduction of 1e-10·χ² moves parameters by ≈ 1e-5·√dof standard errors) |
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
- * | `warmStartRows` | 50000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`) |
- * | `warmStartSample` | 16384 | target size of that subsample (stride ⌊n / 16384⌋) |
+ * | `warmStartRows` | 1000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`); the subsample stage applies the same rule to itself |
+ * | `warmStartSample` | 16384 | largest size of that subsample |
+ * | `warmStartMinSample` | 250 | smallest size of that subsample |
+ * | `warmStartSampleFactor` | 10 | subsample size ≈ factor·√n between those two (stride ⌊n / size⌋) |
  * | `refineNoiseFraction` | 1e-9 | a converged fit whose χ² rounding noise exceeds this fraction of χ² is polished with double-double residuals when the model has `evaluatePrecise` (`refine.ts`) |
  * | `refineMaxSteps` | 8 | Gauss–Newton steps of that refinement at most |
  * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
@@ -32,12 +36,14 @@
  * 1. two consecutive Gauss–Newton steps (μ = 0) whose predicted and actual
  *    χ² changes are within the rounding noise of χ² (2‖r‖‖e‖ + ‖e‖²,
  *    eᵢ = 4ε·wᵢ(|fᵢ| + |yᵢ|)), with the accurate Jacobian;
- * 1b. only above `largeRows` points: after an accepted undamped, unclipped
+ * 1b. only from `stationaryRows` points on: after an accepted undamped, unclipped
  *    step whose actual χ² change matched the prediction (|ρ − 1| ≤ 0.1, or
  *    at noise level), the Jacobian at the new point (accurate scheme) gives
  *    a full Gauss–Newton step predicting a χ² reduction ≤
  *    `stationaryNoiseFraction` × noise (the point is stationary far inside
- *    the rounding noise; this saves the two confirming steps of rule 1);
+ *    the rounding noise; this saves the two confirming steps of rule 1), or
+ *    one that moves the parameters by less than `stationaryErrorFraction`
+ *    of their standard errors;
  * 2. `ftol` test (MINPACK form), 3. `xtol` test on the trust radius — a stop
  *    on 3 while the Gauss–Newton model still predicts a relative reduction
  *    above `restartReductionThreshold` restarts from the best point instead;
@@ -61,14 +67,18 @@ export const FIT_DEFAULTS = Object.freeze({
   extrapolatedStep: Math.pow(Number.EPSILON, 0.2),
   largeRows: 20000,
   normalEquationsMinRatio: 1e-11,
+  stationaryRows: 1000,
   stationaryNoiseFraction: 1e-4,
+  stationaryErrorFraction: 3e-5,
   singularTolerance: 1e-13,
   correlationWarning: 0.99,
   conditionWarning: 1e12,
   restartReductionThreshold: 1e-10,
   maxRestarts: 3,
-  warmStartRows: 50000,
+  warmStartRows: 1000,
   warmStartSample: 16384,
+  warmStartMinSample: 250,
+  warmStartSampleFactor: 10,
   refineNoiseFraction: 1e-9,
   refineMaxSteps: 8,
   geodesicAcceleration: true,

@@ -111,7 +111,8 @@ function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknow
     converged: false,
     reason: callbackFailed(error),
     gradientCosine: Number.NaN,
-    restarts: 0
+    restarts: 0,
+    jacobianAccurate: false
   };
 }
 
@@ -134,7 +135,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
 
   // Jacobian at the solution: analytic (reused from the iteration when it
   // holds it there), or central differences.
-  const reuse = ev.analytic && o.jacobian !== null;
+  const reuse = o.jacobian !== null && o.jacobianAccurate;
   const jac = reuse ? o.jacobian! : new Float64Array(n * k);
   const finite = Number.isFinite(chi2) && (reuse || ev.jacobian(o.p, o.f, jac, 'central'));
   const factor = finite

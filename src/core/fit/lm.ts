@@ -42,7 +42,7 @@ import {
   quadraticForm,
   scaledNorm
 } from './kernels';
-import { dampingForRadius, spectralModel, stepForMu } from './subproblem';
+import { dampingForRadius, SpectralWork, spectralModel, stepForMu } from './subproblem';
 import type { ISpectralModel } from './subproblem';
 import type { IFitProgress } from './types';
 
@@ -67,12 +67,19 @@ export interface ILmOutcome {
   /** Largest cosine between r and a Jacobian column at the last Jacobian (NaN if none). */
   gradientCosine: number;
   restarts: number;
+  /** `jacobian` came from the analytic Jacobian or an accurate difference scheme (fit for the covariance). */
+  jacobianAccurate: boolean;
 }
 
 /** Callbacks steering the iteration. */
 export interface ILmHooks {
   onProgress?: (p: IFitProgress) => void;
   shouldStop?: () => boolean;
+  /**
+   * The start is already close to the minimum (the solution of a subsample):
+   * finite differences start with the accurate scheme instead of forward ones.
+   */
+  nearSolution?: boolean;
 }
 
 /** Runs the iteration from `problem.start` to the end. Never throws for model failures. */
@@ -110,6 +117,8 @@ export function* levenbergMarquardtSteps(
   const combined = ev.combined;
   let jacT = combined ? new Float64Array(n * k) : null;
   const large = n > FIT_DEFAULTS.largeRows;
+  // Rule 1b (one confirming Jacobian instead of two noise-level steps).
+  const stationaryRule = n >= FIT_DEFAULTS.stationaryRows;
   // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
   const normal = large ? new Float64Array(k * k) : null;
   const jd = large ? null : new Float64Array(n);
@@ -121,7 +130,13 @@ export function* levenbergMarquardtSteps(
   const useSvd = !large;
   const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
   const work = geodesicWork(n, k);
-  let scheme: DifferenceScheme = ev.analytic ? 'extrapolated' : 'forward';
+  const spectral = new SpectralWork(n, k);
+  const cols: number[] = [];
+  // The accurate difference scheme: Richardson-extrapolated central
+  // differences, or plain central ones from `stationaryRows` points on
+  // (relative error ≈ ε^(2/3), far below the statistical errors there).
+  const accurate: DifferenceScheme = n >= FIT_DEFAULTS.stationaryRows ? 'central' : 'extrapolated';
+  let scheme: DifferenceScheme = ev.analytic || hooks.nearSolution ? accurate : 'forward';
 
   const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => ({
     p,
@@ -134,7 +149,8 @@ export function* levenbergMarquardtSteps(
     converged,
     reason,
     gradientCosine: gcos,
-    restarts
+    restarts,
+    jacobianAccurate: jacAtP && (ev.analytic || scheme !== 'forward')
   });
 
   let cost = combined ? ev.residualsWithJacobian(p, r, f, jac, !large) : ev.residuals(p, r, f);
@@ -238,7 +254,7 @@ export function* levenbergMarquardtSteps(
       if (gcos <= problem.gtol && scheme !== 'forward') {
         return out(true, msg('fit.stop.gradient', 'The gradient vanished: a minimum was found.'));
       }
-      const cols: number[] = [];
+      cols.length = 0;
       for (let j = 0; j < k; j++) {
         const blockedLow = p[j] <= lower[j] && grad[j] > 0;
         const blockedHigh = p[j] >= upper[j] && grad[j] < 0;
@@ -249,18 +265,28 @@ export function* levenbergMarquardtSteps(
       if (cols.length === 0) {
         return out(true, msg('fit.stop.held-at-bounds', 'Every free parameter is held at the edge of its range: χ² would fall only outside the ranges.'));
       }
-      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal);
+      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal, spectral);
       needJacobian = false;
-      // Large problems: after an accepted Gauss–Newton step that the linear
+      // Many points: after an accepted Gauss–Newton step that the linear
       // model predicted well, the full Gauss–Newton step from here (accurate
       // Jacobian) promises a χ² reduction below 1e-4 of its rounding noise.
-      if (
-        large &&
-        lastGaussNewton &&
-        scheme !== 'forward' &&
-        gaussNewtonReduction(model) <= FIT_DEFAULTS.stationaryNoiseFraction * noise
-      ) {
-        return out(true, msg('fit.stop.stationary', 'No step can lower χ² by more than its rounding noise: a minimum was found.'));
+      // Or it moves the parameters by less than `stationaryErrorFraction` of
+      // their standard errors (a χ² change of fraction² in units of χ²/dof,
+      // or of 1 when σ were given and χ²/dof exceeds 1).
+      if (stationaryRule && lastGaussNewton && scheme !== 'forward') {
+        const gn = gaussNewtonReduction(model);
+        if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise) {
+          return out(true, msg('fit.stop.stationary', 'No step can lower χ² by more than its rounding noise: a minimum was found.'));
+        }
+        const dof = n - k;
+        const unit = dof > 0 ? (problem.weights ? Math.min(1, cost / dof) : cost / dof) : 0;
+        const fraction = FIT_DEFAULTS.stationaryErrorFraction;
+        if (gn <= fraction * fraction * unit) {
+          return out(
+            true,
+            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', fraction)
+          );
+        }
       }
     }
     const m = model!;
@@ -359,7 +385,7 @@ export function* levenbergMarquardtSteps(
     // noise-level step; then two consecutive noise-level steps end the fit.
     if (noiseSteps >= (scheme === 'forward' ? 1 : 2)) {
       if (scheme === 'forward') {
-        scheme = 'extrapolated';
+        scheme = accurate;
         jacAtP = false;
         noiseSteps = 0;
         needJacobian = true;
@@ -375,7 +401,7 @@ export function* levenbergMarquardtSteps(
     const machineHit = actRel <= Number.EPSILON && predRel <= Number.EPSILON && rho <= 2;
     if (ftolHit || xtolHit || machineHit) {
       if (scheme === 'forward') {
-        scheme = 'extrapolated';
+        scheme = accurate;
         jacAtP = false;
         needJacobian = true;
         const pn = scaledNorm(diag, p);

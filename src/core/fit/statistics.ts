@@ -12,8 +12,8 @@
  * ε·cond(Js)² for the normal equations; the NIST StRD standard errors come
  * out to at least 6 digits (see `lm.ts`).
  */
-import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { FIT_DEFAULTS } from './defaults';
+import { symmetricEigen, tallSvd } from './dense';
 import { normalMatrix, scaledNormal } from './subproblem';
 
 /** Covariance of the free parameters, unscaled: (JᵀJ)⁻¹. */
@@ -24,17 +24,6 @@ export interface ICovarianceFactor {
   rank: number;
   /** Condition number of the column-scaled Jacobian. */
   condition: number;
-}
-
-/** Smallest and largest value by a loop (spreading a long array into Math.min/max overflows the call stack); NaN propagates. */
-function extremes(values: ArrayLike<number>): { min: number; max: number } {
-  let min = Infinity;
-  let max = -Infinity;
-  for (let i = 0; i < values.length; i++) {
-    min = Math.min(min, values[i]);
-    max = Math.max(max, values[i]);
-  }
-  return { min, max };
 }
 
 /**
@@ -61,44 +50,68 @@ export function inverseNormal(
       }
     }
   }
+  let positive = 0;
+  let bad = false;
   for (let j = 0; j < k; j++) {
     norms[j] = Math.sqrt(norms[j]);
+    if (norms[j] > 0) {
+      positive++;
+    }
+    if (!(norms[j] > 0) || !Number.isFinite(norms[j])) {
+      bad = true;
+    }
   }
-  if (norms.some((v) => !(v > 0) || !Number.isFinite(v))) {
-    return { inverse: null, rank: norms.filter((v) => v > 0).length, condition: Infinity };
+  if (bad) {
+    return { inverse: null, rank: positive, condition: Infinity };
   }
   // Eigen-decomposition of the equilibrated normal matrix when it is well
   // conditioned; otherwise the SVD of the equilibrated Jacobian (accurate).
   const cols = Array.from({ length: k }, (_, j) => j);
-  const scaled = formed ? scaledNormal(formed, k, cols, norms) : normalMatrix(jac, n, k, cols, norms);
-  const evd = new EigenvalueDecomposition(scaled, {
-    assumeSymmetric: true
-  });
-  let s2 = evd.realEigenvalues.map((e) => Math.max(e, 0));
-  let v: Matrix = evd.eigenvectorMatrix;
-  const eig = extremes(evd.realEigenvalues);
-  const ratio = eig.min / eig.max;
-  const useSvd = n <= FIT_DEFAULTS.largeRows && !(ratio >= FIT_DEFAULTS.normalEquationsMinRatio);
+  const scaled = new Float64Array(k * k);
+  if (formed) {
+    scaledNormal(formed, k, cols, norms, scaled);
+  } else {
+    normalMatrix(jac, n, k, cols, norms, scaled);
+  }
+  const s2 = new Float64Array(k);
+  const v = new Float64Array(k * k);
+  symmetricEigen(scaled, k, s2, v);
+  let emin = Infinity;
+  let emax = -Infinity;
+  for (let j = 0; j < k; j++) {
+    emin = Math.min(emin, s2[j]);
+    emax = Math.max(emax, s2[j]);
+    s2[j] = Math.max(s2[j], 0);
+  }
+  const useSvd = n <= FIT_DEFAULTS.largeRows && !(emin / emax >= FIT_DEFAULTS.normalEquationsMinRatio);
   if (useSvd) {
-    const js = new Matrix(n, k);
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < k; j++) {
-        js.set(i, j, jac[i * k + j] / norms[j]);
+    const js = new Float64Array(n * k);
+    for (let j = 0; j < k; j++) {
+      for (let i = 0; i < n; i++) {
+        js[j * n + i] = jac[i * k + j] / norms[j];
       }
     }
-    const svd = new SingularValueDecomposition(js, {
-      computeLeftSingularVectors: false,
-      computeRightSingularVectors: true,
-      autoTranspose: false
-    });
-    s2 = svd.diagonal.map((s) => s * s);
-    v = svd.rightSingularVectors;
+    const s = new Float64Array(k);
+    tallSvd(js, n, k, null, s, v, new Float64Array(k), new Float64Array(k * k));
+    for (let j = 0; j < k; j++) {
+      s2[j] = s[j] * s[j];
+    }
   }
-  const { min: smin, max: smax } = extremes(s2);
+  let smin = Infinity;
+  let smax = -Infinity;
+  for (let j = 0; j < k; j++) {
+    smin = Math.min(smin, s2[j]);
+    smax = Math.max(smax, s2[j]);
+  }
   const tol = useSvd
     ? FIT_DEFAULTS.singularTolerance * FIT_DEFAULTS.singularTolerance
-      : Math.max(FIT_DEFAULTS.singularTolerance ** 2, Number.EPSILON * k);
-  const rank = s2.filter((s) => s > tol * smax).length;
+    : Math.max(FIT_DEFAULTS.singularTolerance ** 2, Number.EPSILON * k);
+  let rank = 0;
+  for (let j = 0; j < k; j++) {
+    if (s2[j] > tol * smax) {
+      rank++;
+    }
+  }
   const condition = smin > 0 ? Math.sqrt(smax / smin) : Infinity;
   if (rank < k) {
     return { inverse: null, rank, condition };
@@ -109,7 +122,7 @@ export function inverseNormal(
     for (let b = 0; b < k; b++) {
       let sum = 0;
       for (let c = 0; c < k; c++) {
-        sum += (v.get(a, c) * v.get(b, c)) / s2[c];
+        sum += (v[a * k + c] * v[b * k + c]) / s2[c];
       }
       row.push(sum / (norms[a] * norms[b]));
     }

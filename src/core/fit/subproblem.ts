@@ -10,7 +10,7 @@
  * monotonically).
  *
  * References (keys of REFERENCES.md): [N2] for the scaling and the
- * iteration for μ, [N5] for the decompositions (ml-matrix).
+ * iteration for μ, [N5] for the decompositions (`dense.ts`).
  *
  * Accuracy: the SVD gives singular values with absolute error ≈ ε·s_max
  * (ε = 2⁻⁵²), so directions with sᵢ below `singularTolerance`·s_max are
@@ -20,8 +20,8 @@
  * dwarfs it). μ is found to the accuracy the trust region needs
  * (‖z(μ)‖ within 10 % of Δ), not to full precision.
  */
-import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { FIT_DEFAULTS } from './defaults';
+import { symmetricEigen, tallSvd } from './dense';
 import { normalKernel } from './unrolled';
 
 /** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
@@ -37,13 +37,72 @@ export interface ISpectralModel {
 }
 
 /**
+ * Work arrays of the spectral model for one fit (n points, k free
+ * parameters), allocated once: the model for each column count m ≤ k is a
+ * reused object, so an iteration allocates nothing. The model returned by
+ * `spectralModel` stays valid until the next call with the same m.
+ */
+export class SpectralWork {
+  readonly n: number;
+  readonly k: number;
+  private readonly _models: (ISpectralModel | undefined)[] = [];
+  readonly normal: Float64Array;
+  readonly values: Float64Array;
+  readonly vectors: Float64Array;
+  readonly g: Float64Array;
+  readonly order: number[] = [];
+  readonly triangle: Float64Array;
+  readonly s: Float64Array;
+  readonly ub: Float64Array;
+  private _js: Float64Array | null = null;
+  private _rhs: Float64Array | null = null;
+
+  constructor(n: number, k: number) {
+    this.n = n;
+    this.k = k;
+    this.normal = new Float64Array(k * k);
+    this.values = new Float64Array(k);
+    this.vectors = new Float64Array(k * k);
+    this.g = new Float64Array(k);
+    this.triangle = new Float64Array(k * k);
+    this.s = new Float64Array(k);
+    this.ub = new Float64Array(k);
+  }
+
+  /** The reused model object for m columns (its `cols` filled from `cols`). */
+  model(cols: readonly number[]): ISpectralModel {
+    const m = cols.length;
+    let model = this._models[m];
+    if (!model) {
+      model = { cols: new Array<number>(m).fill(0), v: new Float64Array(m * m), s2: new Float64Array(m), c: new Float64Array(m) };
+      this._models[m] = model;
+    }
+    for (let a = 0; a < m; a++) {
+      model.cols[a] = cols[a];
+    }
+    return model;
+  }
+
+  /** Column-major n×k scratch for the scaled Jacobian. */
+  get js(): Float64Array {
+    return (this._js ??= new Float64Array(this.n * this.k));
+  }
+
+  /** Length-n scratch for the residuals. */
+  get rhs(): Float64Array {
+    return (this._rhs ??= new Float64Array(this.n));
+  }
+}
+
+/**
  * Builds the spectral model from the weighted Jacobian `jac` (row-major n×k)
  * restricted to `cols`, scaled by `diag`, for residuals `r` whose unscaled
  * gradient Jᵀr is `grad` (length k).
  * The m×m normal matrix is formed in a tight loop and eigen-decomposed; when
  * `useSvd` and its eigenvalue ratio is below `normalEquationsMinRatio`
- * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead.
- * `normal`, when given, is the unscaled k×k JᵀJ (symmetric, row-major)
+ * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead
+ * (Householder QR, then Jacobi on the triangle).
+ * `normalFull`, when given, is the unscaled k×k JᵀJ (symmetric, row-major)
  * already formed, and saves the pass over `jac`.
  */
 export function spectralModel(
@@ -56,28 +115,39 @@ export function spectralModel(
   grad: Float64Array,
   useSvd: boolean,
   singularTolerance: number,
-  normalFull: Float64Array | null = null
+  normalFull: Float64Array | null = null,
+  work: SpectralWork = new SpectralWork(n, k)
 ): ISpectralModel {
   const m = cols.length;
-  const v = new Float64Array(m * m);
-  const s2 = new Float64Array(m);
-  const c = new Float64Array(m);
+  const model = work.model(cols);
+  const { v, s2, c } = model;
   if (m === 0) {
-    return { cols, v, s2, c };
+    return model;
   }
-  const normal = normalFull ? scaledNormal(normalFull, k, cols, diag) : normalMatrix(jac, n, k, cols, diag);
-  const g = new Float64Array(m);
+  const normal = work.normal;
+  if (normalFull) {
+    scaledNormal(normalFull, k, cols, diag, normal);
+  } else {
+    normalMatrix(jac, n, k, cols, diag, normal);
+  }
+  const g = work.g;
   for (let a = 0; a < m; a++) {
     g[a] = grad[cols[a]] / diag[cols[a]];
   }
-  const evd = new EigenvalueDecomposition(normal, { assumeSymmetric: true });
-  const ev = evd.realEigenvalues;
-  const vec = evd.eigenvectorMatrix;
-  const order = ev.map((_, i) => i).sort((p, q) => ev[q] - ev[p]);
+  const ev = work.values;
+  const vec = work.vectors;
+  symmetricEigen(normal, m, ev, vec);
+  const order = work.order;
+  order.length = m;
+  for (let a = 0; a < m; a++) {
+    order[a] = a;
+  }
+  order.sort((p, q) => ev[q] - ev[p]);
   const lmax = Math.max(ev[order[0]], 0);
   const lmin = ev[order[m - 1]];
   if (useSvd && !(lmin >= FIT_DEFAULTS.normalEquationsMinRatio * lmax)) {
-    return svdModel(jac, n, k, cols, diag, r, singularTolerance);
+    svdModel(jac, n, k, cols, diag, r, singularTolerance, work, model);
+    return model;
   }
   const cut = Math.max(singularTolerance * singularTolerance, Number.EPSILON * m) * lmax;
   for (let a = 0; a < m; a++) {
@@ -86,13 +156,13 @@ export function spectralModel(
     s2[a] = la;
     let ca = 0;
     for (let b = 0; b < m; b++) {
-      const vb = vec.get(b, col);
+      const vb = vec[b * m + col];
       v[b * m + a] = vb;
       ca += vb * g[b];
     }
     c[a] = la > 0 ? ca : 0;
   }
-  return { cols, v, s2, c };
+  return model;
 }
 
 /** Spectral model from the SVD of the n×m scaled Jacobian (accurate when ill-conditioned). */
@@ -103,56 +173,47 @@ function svdModel(
   cols: number[],
   diag: Float64Array,
   r: Float64Array,
-  singularTolerance: number
-): ISpectralModel {
+  singularTolerance: number,
+  work: SpectralWork,
+  model: ISpectralModel
+): void {
   const m = cols.length;
-  const v = new Float64Array(m * m);
-  const s2 = new Float64Array(m);
-  const c = new Float64Array(m);
-  const js = new Matrix(n, m);
-  for (let i = 0; i < n; i++) {
-    const row = i * k;
-    for (let a = 0; a < m; a++) {
-      js.set(i, a, jac[row + cols[a]] / diag[cols[a]]);
+  const { v, s2, c } = model;
+  const js = work.js;
+  for (let a = 0; a < m; a++) {
+    const col = cols[a];
+    const inv = 1 / diag[col];
+    const o = a * n;
+    for (let i = 0; i < n; i++) {
+      js[o + i] = jac[i * k + col] * inv;
     }
   }
-  const svd = new SingularValueDecomposition(js, {
-    computeLeftSingularVectors: true,
-    computeRightSingularVectors: true,
-    autoTranspose: false
-  });
-  const s = svd.diagonal;
-  const u = svd.leftSingularVectors;
-  const vv = svd.rightSingularVectors;
+  const rhs = work.rhs;
+  rhs.set(r.subarray(0, n));
+  const s = work.s;
+  const ub = work.ub;
+  tallSvd(js, n, m, rhs, s, v, ub, work.triangle);
   const smax = s[0];
   for (let a = 0; a < m; a++) {
-    let ur = 0;
-    for (let i = 0; i < n; i++) {
-      ur += u.get(i, a) * r[i];
-    }
     const sa = s[a] > singularTolerance * smax ? s[a] : 0;
     s2[a] = sa * sa;
-    c[a] = sa * ur;
-    for (let b = 0; b < m; b++) {
-      v[b * m + a] = vv.get(b, a);
-    }
+    c[a] = sa * ub[a];
   }
-  return { cols, v, s2, c };
 }
 
-/** The m×m scaled normal matrix JsᵀJs over `cols`, formed row by row. */
+/** The m×m scaled normal matrix JsᵀJs over `cols` (row-major, into `out`), formed row by row. */
 export function normalMatrix(
   jac: Float64Array,
   n: number,
   k: number,
-  cols: number[],
-  diag: Float64Array
-): Matrix {
+  cols: readonly number[],
+  diag: Float64Array,
+  out: Float64Array
+): void {
   const m = cols.length;
-  const acc = new Float64Array(m * m);
   const fast = m === k ? normalKernel(k) : null;
   if (fast) {
-    fast(jac, n, acc);
+    fast(jac, n, out);
   } else {
     // one pass per column pair with a scalar accumulator
     for (let a = 0; a < m; a++) {
@@ -164,33 +225,29 @@ export function normalMatrix(
           const row = i * k;
           sum += jac[row + ca] * jac[row + cb];
         }
-        acc[a * m + b] = sum;
+        out[a * m + b] = sum;
       }
     }
   }
-  const out = new Matrix(m, m);
   for (let a = 0; a < m; a++) {
     for (let b = a; b < m; b++) {
-      const val = acc[a * m + b] / (diag[cols[a]] * diag[cols[b]]);
-      out.set(a, b, val);
-      out.set(b, a, val);
+      const val = out[a * m + b] / (diag[cols[a]] * diag[cols[b]]);
+      out[a * m + b] = val;
+      out[b * m + a] = val;
     }
   }
-  return out;
 }
 
-/** The m×m scaled normal matrix over `cols` from the unscaled k×k JᵀJ `normal`. */
-export function scaledNormal(normal: Float64Array, k: number, cols: number[], diag: Float64Array): Matrix {
+/** The m×m scaled normal matrix over `cols` (row-major, into `out`) from the unscaled k×k JᵀJ `normal`. */
+export function scaledNormal(normal: Float64Array, k: number, cols: readonly number[], diag: Float64Array, out: Float64Array): void {
   const m = cols.length;
-  const out = new Matrix(m, m);
   for (let a = 0; a < m; a++) {
     for (let b = a; b < m; b++) {
       const val = normal[cols[a] * k + cols[b]] / (diag[cols[a]] * diag[cols[b]]);
-      out.set(a, b, val);
-      out.set(b, a, val);
+      out[a * m + b] = val;
+      out[b * m + a] = val;
     }
   }
-  return out;
 }
 
 /** ‖z(μ)‖ for the spectral model. */

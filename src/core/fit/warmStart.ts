@@ -1,8 +1,9 @@
 /**
  * Coarse-to-fine start for large problems: with many more points than
  * needed to locate the minimum roughly, the iteration first runs on an
- * evenly strided subsample (every s-th point, about `warmStartSample`
- * points), then continues on all points from that solution. The final
+ * evenly strided subsample (every s-th point, about
+ * `warmStartSampleSize(n)` points, itself started from a coarser subsample
+ * when it is large enough), then continues on all points from that solution. The final
  * answer and every stopping rule are those of the full data; only the path
  * to the full-data minimum is cheaper (the subsample's minimum lies within
  * about √s standard errors of it, one or two Gauss–Newton steps away).
@@ -34,12 +35,28 @@ export interface IWarmStartInfo {
   used: boolean;
 }
 
-/** Stride for n points, or 0 when no warm start applies. */
-export function warmStartStride(problem: IFitProblem): number {
-  if (problem.model.pointwise !== true || problem.n < FIT_DEFAULTS.warmStartRows) {
+/**
+ * Points of the subsample for a problem of n points: about
+ * `warmStartSampleFactor`·√n, at least `warmStartMinSample` and at most
+ * `warmStartSample` (the subsample's own minimum then lies a fraction
+ * (n/m)^½ of a standard error away at most, and its cost stays a small part
+ * of one full-data evaluation's worth per iteration).
+ */
+export function warmStartSampleSize(n: number): number {
+  return Math.min(FIT_DEFAULTS.warmStartSample, Math.max(FIT_DEFAULTS.warmStartMinSample, Math.ceil(FIT_DEFAULTS.warmStartSampleFactor * Math.sqrt(n))));
+}
+
+/** Stride for n points of a pointwise model, or 0 when no warm start applies. */
+export function warmStartStrideFor(n: number, pointwise: boolean): number {
+  if (!pointwise || n < FIT_DEFAULTS.warmStartRows) {
     return 0;
   }
-  return Math.max(2, Math.floor(problem.n / FIT_DEFAULTS.warmStartSample));
+  return Math.max(2, Math.floor(n / warmStartSampleSize(n)));
+}
+
+/** Stride for the problem, or 0 when no warm start applies. */
+export function warmStartStride(problem: IFitProblem): number {
+  return warmStartStrideFor(problem.n, problem.model.pointwise === true);
 }
 
 function subsample(problem: IFitProblem, stride: number): IFitProblem {
@@ -81,7 +98,8 @@ export function* warmStartedSteps(
   const subEv = new ResidualEvaluator(sub);
   // Progress of the subsample stage in full-data units (χ² scaled by n/m).
   const scale = problem.n / sub.n;
-  const coarse = yield* levenbergMarquardtSteps(sub, subEv, {
+  // The subsample stage may itself start from a coarser subsample.
+  const { outcome: coarse, warmStart: inner } = yield* warmStartedSteps(sub, subEv, {
     shouldStop: hooks.shouldStop,
     onProgress: hooks.onProgress
       ? (p) => hooks.onProgress!({ ...p, evaluations: 0, cost: p.cost * scale })
@@ -90,7 +108,7 @@ export function* warmStartedSteps(
   const info: IWarmStartInfo = {
     stride,
     points: sub.n,
-    evaluations: subEv.evaluations,
+    evaluations: subEv.evaluations + (inner ? inner.evaluations : 0),
     converged: coarse.converged,
     used: false
   };
@@ -103,7 +121,7 @@ export function* warmStartedSteps(
     return { outcome: yield* levenbergMarquardtSteps(problem, ev, hooks), warmStart: info };
   }
   const start = ev.fullParameters(coarse.p);
-  const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, hooks);
+  const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, { ...hooks, nearSolution: true });
   if (fine.converged || fine.reason.code === 'fit.stop.cancelled') {
     info.used = true;
     return { outcome: fine, warmStart: info };

@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { FIT_DEFAULTS, fitCurve } from '../../../src/core/fit/index';
 import type { IFitModel } from '../../../src/core/fit/index';
 import { powerLawModel } from '../../../src/core/physics/critical/index';
+import { warmStartSampleSize, warmStartStrideFor } from '../../../src/core/fit/warmStart';
 import { mulberry32, normalGenerator } from './prng';
 
 const N = 120000;
@@ -28,7 +29,8 @@ describe('warm start from a strided subsample', () => {
     expect(warm.converged).toBe(true);
     expect(plain.converged).toBe(true);
     expect(plain.warmStart).toBeUndefined();
-    expect(warm.warmStart).toMatchObject({ stride: Math.floor(N / FIT_DEFAULTS.warmStartSample), converged: true, used: true });
+    expect(warm.warmStart).toMatchObject({ stride: warmStartStrideFor(N, true), converged: true, used: true });
+    expect(warm.warmStart!.stride).toBe(Math.floor(N / warmStartSampleSize(N)));
     expect(warm.warmStart!.points).toBe(Math.ceil(N / warm.warmStart!.stride));
     // same minimum: values within 1e-4 standard errors, χ² equal to 1e-12
     warm.values.forEach((v, j) => {
@@ -84,5 +86,17 @@ describe('warm start from a strided subsample', () => {
     expect(Math.abs(last - r.chi2) / r.chi2).toBeLessThan(0.05);
     const firstFull = costs.findIndex((c, i) => i > 0 && Math.abs(c - r.chi2) / r.chi2 < 0.05);
     expect(firstFull).toBeGreaterThan(0);
+  });
+});
+
+describe('subsample size', () => {
+  it('grows like 10·√n between its smallest and largest size, and applies from warmStartRows points on', () => {
+    expect(warmStartStrideFor(FIT_DEFAULTS.warmStartRows - 1, true)).toBe(0);
+    expect(warmStartStrideFor(1e6, false)).toBe(0);
+    expect(warmStartSampleSize(400)).toBe(FIT_DEFAULTS.warmStartMinSample);
+    expect(warmStartSampleSize(1000)).toBe(317);
+    expect(warmStartSampleSize(1e4)).toBe(1000);
+    expect(warmStartSampleSize(1e9)).toBe(FIT_DEFAULTS.warmStartSample);
+    expect(warmStartStrideFor(1e4, true)).toBe(10);
   });
 });
