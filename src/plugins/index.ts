@@ -1,6 +1,7 @@
 /**
  * psiscape's JupyterLab plugin: wiring only. Commands live in commands.ts,
- * widgets in src/ui, numerics in src/core.
+ * widgets in src/ui, numerics in src/core. At start-up only this wiring
+ * loads; the rest comes with the first analysis (see commands.ts).
  *
  * @packageDocumentation
  */
@@ -13,6 +14,7 @@ import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { ITranslator, nullTranslator } from '@jupyterlab/translation';
 import { CommandIDs, registerCommands } from './commands';
 import { readSettings } from './settings';
+import { SAVED_KEY } from '../core/saved/types';
 
 /** Plugin id; also the settings schema id (schema/settings/plugin.json). */
 export const PLUGIN_ID = 'jupyterlab-psiscape:plugin';
@@ -38,7 +40,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
     settings.changed.connect(() => {
       current = readSettings(settings.composite);
     });
-    const { panels, restore, explorers } = registerCommands({
+    const loader = registerCommands({
       app,
       tracker,
       translator: translator ?? nullTranslator,
@@ -53,11 +55,12 @@ const plugin: JupyterFrontEndPlugin<void> = {
         palette.addItem({ command, category: trans.__('psiscape') });
       }
     }
-    // Analyses saved in a notebook reopen with it.
+    // Analyses saved in a notebook reopen with it (the only time psiscape's
+    // analysis code loads without a command: when a notebook holds analyses).
     const restoreWhenReady = (notebook: NotebookPanel): void => {
-      void Promise.all([notebook.context.ready, app.restored]).then(() => {
-        if (!notebook.isDisposed) {
-          restore(notebook);
+      void Promise.all([notebook.context.ready, app.restored]).then(async () => {
+        if (!notebook.isDisposed && notebook.model?.getMetadata(SAVED_KEY) !== undefined) {
+          await (await loader.workbench()).restore(notebook);
         }
       });
     };
@@ -67,8 +70,9 @@ const plugin: JupyterFrontEndPlugin<void> = {
       themeManager.themeChanged.connect(() => {
         // Let the new theme's CSS variables apply before reading them.
         requestAnimationFrame(() => {
-          panels.filter(p => !p.isDisposed).forEach(p => p.redraw());
-          explorers.filter(e => !e.isDisposed).forEach(e => e.redraw());
+          const bench = loader.loaded();
+          bench?.panels.filter(p => !p.isDisposed).forEach(p => p.redraw());
+          bench?.explorers.filter(e => !e.isDisposed).forEach(e => e.redraw());
         });
       });
     }
