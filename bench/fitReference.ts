@@ -10,10 +10,16 @@ export interface IBenchArgs {
   skipReference: boolean;
   maxN: number;
   jsonPart: string | null;
+  /** Keep the reference JSON and data dump in this folder (for --reuse-reference). */
+  keepReference: string | null;
+  /** Read a kept reference instead of running SciPy (ratios then come from two runs: for development only). */
+  reuseReference: string | null;
+  /** Only workloads whose name contains this text (and no NIST unless it matches 'nist'). */
+  only: string | null;
 }
 
 export function parseArgs(argv: string[]): IBenchArgs {
-  const out: IBenchArgs = { repeats: 5, skipReference: false, maxN: 0, jsonPart: null };
+  const out: IBenchArgs = { repeats: 5, skipReference: false, maxN: 0, jsonPart: null, keepReference: null, reuseReference: null, only: null };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--repeats') {
@@ -24,15 +30,23 @@ export function parseArgs(argv: string[]): IBenchArgs {
       out.maxN = Number(argv[++i]);
     } else if (a === '--json-part') {
       out.jsonPart = argv[++i];
+    } else if (a === '--keep-reference') {
+      out.keepReference = argv[++i];
+    } else if (a === '--reuse-reference') {
+      out.reuseReference = argv[++i];
+    } else if (a === '--workload') {
+      out.only = argv[++i];
     }
   }
   return out;
 }
 
-interface IRefFit {
+export interface IRefFit {
   method: string;
   start?: number;
   time_best_s: number | null;
+  nfev?: number | null;
+  converged?: boolean;
 }
 
 export interface IReferenceDoc {
@@ -50,6 +64,21 @@ export interface IReferenceDoc {
 }
 
 const PYTHON = '/usr/bin/python3';
+
+/**
+ * Untimed runs of `fn` so that V8 has compiled its hot code before it is
+ * timed (SciPy's compiled code needs no such start): at least 3 runs and
+ * until 0.3 s or 200 runs have passed.
+ */
+export function warmUp(fn: () => void): void {
+  const t0 = process.hrtime.bigint();
+  for (let r = 0; r < 200; r++) {
+    fn();
+    if (r >= 2 && Number(process.hrtime.bigint() - t0) > 3e8) {
+      return;
+    }
+  }
+}
 
 /** Best wall time in seconds of `repeats` runs of `fn`. */
 export function bestOf(repeats: number, fn: () => void): number {

@@ -75,11 +75,18 @@ export interface ILmOutcome {
 export interface ILmHooks {
   onProgress?: (p: IFitProgress) => void;
   shouldStop?: () => boolean;
-  /**
-   * The start is already close to the minimum (the solution of a subsample):
-   * finite differences start with the accurate scheme instead of forward ones.
-   */
-  nearSolution?: boolean;
+}
+
+/**
+ * χ² reduction of a step that moves the parameters by
+ * `stationaryErrorFraction` of their standard errors: fraction²·χ²/dof
+ * (errors scaled by √χ²_red), at most fraction² when σ were given.
+ */
+function stationaryThreshold(problem: IFitProblem, n: number, k: number, cost: number): number {
+  const dof = n - k;
+  const unit = dof > 0 ? (problem.weights ? Math.min(1, cost / dof) : cost / dof) : 0;
+  const fraction = FIT_DEFAULTS.stationaryErrorFraction;
+  return fraction * fraction * unit;
 }
 
 /** Runs the iteration from `problem.start` to the end. Never throws for model failures. */
@@ -136,7 +143,7 @@ export function* levenbergMarquardtSteps(
   // differences, or plain central ones from `stationaryRows` points on
   // (relative error ≈ ε^(2/3), far below the statistical errors there).
   const accurate: DifferenceScheme = n >= FIT_DEFAULTS.stationaryRows ? 'central' : 'extrapolated';
-  let scheme: DifferenceScheme = ev.analytic || hooks.nearSolution ? accurate : 'forward';
+  let scheme: DifferenceScheme = ev.analytic ? accurate : 'forward';
 
   const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => ({
     p,
@@ -273,18 +280,24 @@ export function* levenbergMarquardtSteps(
       // Or it moves the parameters by less than `stationaryErrorFraction` of
       // their standard errors (a χ² change of fraction² in units of χ²/dof,
       // or of 1 when σ were given and χ²/dof exceeds 1).
-      if (stationaryRule && lastGaussNewton && scheme !== 'forward') {
+      if (stationaryRule && lastGaussNewton) {
         const gn = gaussNewtonReduction(model);
-        if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise) {
+        if (scheme === 'forward') {
+          // The forward-difference model (relative error ≈ 1e-8) already
+          // predicts a negligible step: take the accurate Jacobian here and
+          // apply the test below to it.
+          if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise || gn <= stationaryThreshold(problem, n, k, cost) * 100) {
+            scheme = accurate;
+            jacAtP = false;
+            needJacobian = true;
+            continue;
+          }
+        } else if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise) {
           return out(true, msg('fit.stop.stationary', 'No step can lower χ² by more than its rounding noise: a minimum was found.'));
-        }
-        const dof = n - k;
-        const unit = dof > 0 ? (problem.weights ? Math.min(1, cost / dof) : cost / dof) : 0;
-        const fraction = FIT_DEFAULTS.stationaryErrorFraction;
-        if (gn <= fraction * fraction * unit) {
+        } else if (gn <= stationaryThreshold(problem, n, k, cost)) {
           return out(
             true,
-            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', fraction)
+            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', FIT_DEFAULTS.stationaryErrorFraction)
           );
         }
       }

@@ -121,7 +121,7 @@ export function* warmStartedSteps(
     return { outcome: yield* levenbergMarquardtSteps(problem, ev, hooks), warmStart: info };
   }
   const start = ev.fullParameters(coarse.p);
-  const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, { ...hooks, nearSolution: true });
+  const fine = yield* levenbergMarquardtSteps({ ...problem, start }, ev, hooks);
   if (fine.converged || fine.reason.code === 'fit.stop.cancelled') {
     info.used = true;
     return { outcome: fine, warmStart: info };
