@@ -23,9 +23,10 @@
  * | `restartReductionThreshold` | 1e-10 | a stop on a small step while the Gauss–Newton model still predicts a relative χ² reduction above this restarts from the best point (a reduction of 1e-10·χ² moves parameters by ≈ 1e-5·√dof standard errors) |
  * | `maxRestarts` | 3 | restarts allowed by the rule above before the fit is declared not converged |
  * | `warmStartRows` | 1000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`); the subsample stage applies the same rule to itself |
- * | `warmStartSample` | 16384 | largest size of that subsample |
+ * | `warmStartSample` | 16384 | largest size of that subsample, and its size from `warmStartFullSampleRows` points on |
+ * | `warmStartFullSampleRows` | 50000 | from this many points on the subsample has `warmStartSample` points (stride ⌊n / 16384⌋) |
  * | `warmStartMinSample` | 250 | smallest size of that subsample |
- * | `warmStartSampleFactor` | 10 | subsample size ≈ factor·√n between those two (stride ⌊n / size⌋) |
+ * | `warmStartSampleFactor` | 10 | below `warmStartFullSampleRows` points: subsample size ≈ factor·√n, at least `warmStartMinSample` (stride ⌊n / size⌋) |
  * | `refineNoiseFraction` | 1e-9 | a converged fit whose χ² rounding noise exceeds this fraction of χ² is polished with double-double residuals when the model has `evaluatePrecise` (`refine.ts`) |
  * | `refineMaxSteps` | 8 | Gauss–Newton steps of that refinement at most |
  * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
@@ -77,6 +78,7 @@ export const FIT_DEFAULTS = Object.freeze({
   maxRestarts: 3,
   warmStartRows: 1000,
   warmStartSample: 16384,
+  warmStartFullSampleRows: 50000,
   warmStartMinSample: 250,
   warmStartSampleFactor: 10,
   refineNoiseFraction: 1e-9,

@@ -36,13 +36,17 @@ export interface IWarmStartInfo {
 }
 
 /**
- * Points of the subsample for a problem of n points: about
- * `warmStartSampleFactor`·√n, at least `warmStartMinSample` and at most
- * `warmStartSample` (the subsample's own minimum then lies a fraction
- * (n/m)^½ of a standard error away at most, and its cost stays a small part
- * of one full-data evaluation's worth per iteration).
+ * Points of the subsample for a problem of n points: `warmStartSample`
+ * from `warmStartFullSampleRows` points on (the continuation then starts
+ * within a few standard errors of the full-data minimum), otherwise about
+ * `warmStartSampleFactor`·√n, at least `warmStartMinSample` (the
+ * subsample's own minimum then lies about (n/m)^½ standard errors away, and
+ * its iterations cost a small part of one full-data pass each).
  */
 export function warmStartSampleSize(n: number): number {
+  if (n >= FIT_DEFAULTS.warmStartFullSampleRows) {
+    return FIT_DEFAULTS.warmStartSample;
+  }
   return Math.min(FIT_DEFAULTS.warmStartSample, Math.max(FIT_DEFAULTS.warmStartMinSample, Math.ceil(FIT_DEFAULTS.warmStartSampleFactor * Math.sqrt(n))));
 }
 

@@ -173,29 +173,42 @@ export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBoh
       }
     },
     jacobian(p, x, out) {
-      const Ms = p[0];
-      const Tc = p[1];
-      const k = params.length;
+      jacobianInto(p, x, out);
+    },
+    evaluateWithJacobian(p, x, out, jac) {
       const s = reduced(p, x);
-      const h = hNumerator / Tc;
       for (let i = 0; i < x.length; i++) {
-        const tau = x[i] / Tc;
-        out[i * k] = s.m[i];
-        out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
+        out[i] = p[0] * s.m[i];
       }
-      if (fitJ) {
-        const dJ = 1e-6 * Math.max(1, p[2]);
-        const pp = Float64Array.from(p);
-        pp[2] = p[2] + dJ;
-        const up = reduced(pp, x).m.slice();
-        pp[2] = p[2] - dJ;
-        const dn = reduced(pp, x).m;
-        for (let i = 0; i < x.length; i++) {
-          out[i * k + 2] = (Ms * (up[i] - dn[i])) / (2 * dJ);
-        }
-      }
+      jacobianInto(p, x, jac);
     }
   };
+  /** ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂J (when fitted) by central differences of the solution. */
+  function jacobianInto(p: Float64Array, x: Float64Array, out: Float64Array): void {
+    const Ms = p[0];
+    const Tc = p[1];
+    const k = params.length;
+    const s = reduced(p, x);
+    const h = hNumerator / Tc;
+    for (let i = 0; i < x.length; i++) {
+      const tau = x[i] / Tc;
+      out[i * k] = s.m[i];
+      out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
+    }
+    if (fitJ) {
+      const dJ = 1e-6 * Math.max(1, p[2]);
+      const pp = Float64Array.from(p);
+      pp[2] = p[2] + dJ;
+      const up = reduced(pp, x).m.slice();
+      pp[2] = p[2] - dJ;
+      const dn = reduced(pp, x).m;
+      for (let i = 0; i < x.length; i++) {
+        out[i * k + 2] = (Ms * (up[i] - dn[i])) / (2 * dJ);
+      }
+      // leave the cache at p
+      reduced(p, x);
+    }
+  }
 }
 
 /**
@@ -279,23 +292,7 @@ export function fitWeissIsotherms(
   const T = Float64Array.from(data.T);
   const B = Float64Array.from(data.B);
   const J = options.J;
-  const model: IFitModel = {
-    parameters: ['Ms', 'Tc', 'moment'],
-    evaluate(p, x, out) {
-      const n = x.length;
-      const tau = new Float64Array(n);
-      const h = new Float64Array(n);
-      for (let i = 0; i < n; i++) {
-        const j = x[i];
-        tau[i] = T[j] / p[1];
-        h[i] = (p[2] * PHYS.muB * B[j]) / (PHYS.kB * p[1]);
-      }
-      const s = solveWeiss(J, tau, h);
-      for (let i = 0; i < n; i++) {
-        out[i] = p[0] * s.m[i];
-      }
-    }
-  };
+  const model = weissIsothermModel(J, T, B);
   const res = fitCurve(
     model,
     { x: Float64Array.from(T, (_, i) => i), y: data.M, sigma: data.sigma },
@@ -308,6 +305,55 @@ export function fitWeissIsotherms(
     }
   );
   return { ...res, convention: WEISS_CONVENTION, J, jFitted: false };
+}
+
+/**
+ * The M(B, T) isotherm model (parameters Ms, Tc, moment μ in μB; x = point
+ * index into `T` and `B`), with the analytic Jacobian from the implicit
+ * derivatives of m(τ, h), τ = T/Tc, h = μ·μB·B/(kB·Tc):
+ *   ∂M/∂Ms = m,  ∂M/∂Tc = −Ms(τ ∂m/∂τ + h ∂m/∂h)/Tc,  ∂M/∂μ = Ms (h/μ) ∂m/∂h.
+ */
+export function weissIsothermModel(J: number, T: Float64Array, B: Float64Array): IFitModel {
+  const solve = (p: Float64Array, x: Float64Array): { s: ReturnType<typeof solveWeiss>; tau: Float64Array; h: Float64Array } => {
+    const n = x.length;
+    const tau = new Float64Array(n);
+    const h = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const j = x[i];
+      tau[i] = T[j] / p[1];
+      h[i] = (p[2] * PHYS.muB * B[j]) / (PHYS.kB * p[1]);
+    }
+    return { s: solveWeiss(J, tau, h), tau, h };
+  };
+  const jacobianInto = (p: Float64Array, sol: ReturnType<typeof solve>, out: Float64Array): void => {
+    const { s, tau, h } = sol;
+    const [Ms, Tc, mu] = p;
+    for (let i = 0; i < tau.length; i++) {
+      out[i * 3] = s.m[i];
+      out[i * 3 + 1] = (-Ms * (tau[i] * s.dmdtau[i] + h[i] * s.dmdh[i])) / Tc;
+      // h/μ·∂m/∂h (h = 0 where B = 0: ∂m/∂h may be infinite there at Tc, but the product is 0)
+      out[i * 3 + 2] = h[i] === 0 ? 0 : Ms * (h[i] / mu) * s.dmdh[i];
+    }
+  };
+  return {
+    parameters: ['Ms', 'Tc', 'moment'],
+    evaluate(p, x, out) {
+      const { s } = solve(p, x);
+      for (let i = 0; i < x.length; i++) {
+        out[i] = p[0] * s.m[i];
+      }
+    },
+    jacobian(p, x, out) {
+      jacobianInto(p, solve(p, x), out);
+    },
+    evaluateWithJacobian(p, x, out, jac) {
+      const sol = solve(p, x);
+      for (let i = 0; i < x.length; i++) {
+        out[i] = p[0] * sol.s.m[i];
+      }
+      jacobianInto(p, sol, jac);
+    }
+  };
 }
 
 /**

@@ -90,7 +90,7 @@ describe('warm start from a strided subsample', () => {
 });
 
 describe('subsample size', () => {
-  it('grows like 10·√n between its smallest and largest size, and applies from warmStartRows points on', () => {
+  it('grows like 10·√n from its smallest size, is warmStartSample from warmStartFullSampleRows points on, and applies from warmStartRows points on', () => {
     expect(warmStartStrideFor(FIT_DEFAULTS.warmStartRows - 1, true)).toBe(0);
     expect(warmStartStrideFor(1e6, false)).toBe(0);
     expect(warmStartSampleSize(400)).toBe(FIT_DEFAULTS.warmStartMinSample);
@@ -98,5 +98,7 @@ describe('subsample size', () => {
     expect(warmStartSampleSize(1e4)).toBe(1000);
     expect(warmStartSampleSize(1e9)).toBe(FIT_DEFAULTS.warmStartSample);
     expect(warmStartStrideFor(1e4, true)).toBe(10);
+    expect(warmStartSampleSize(FIT_DEFAULTS.warmStartFullSampleRows - 1)).toBe(2237);
+    expect(warmStartSampleSize(FIT_DEFAULTS.warmStartFullSampleRows)).toBe(FIT_DEFAULTS.warmStartSample);
   });
 });

@@ -14,29 +14,9 @@ import { wholeNumber } from '../../numeric/messageArgs';
 import { lengthsDiffer, PhysicsInputError, tooFewPoints } from '../errors';
 import type { AnyLandauCoefficients, ILandauCoefficients, LandauConvention } from './conventions';
 import { fromConventionL } from './conventions';
+import { landauFitModel } from './fit-model';
 
-/** ψ_eq(T) ≥ 0 at h = 0 in closed form (d = 0); NaN for an unbounded F. */
-export function landauEquilibriumPsi(k: ILandauCoefficients, T: number): number {
-  const { a, b, c, T0 } = k;
-  if (!(a > 0) || c < 0 || (c === 0 && !(b > 0))) {
-    return NaN;
-  }
-  const x = a * (T0 - T);
-  if (b >= 0) {
-    if (x <= 0) {
-      return 0;
-    }
-    const disc = b * b + 4 * c * x;
-    return Math.sqrt((2 * x) / (b + Math.sqrt(disc)));
-  }
-  const B = -b;
-  const T1 = T0 + (3 * B * B) / (16 * a * c);
-  if (T >= T1) {
-    return 0;
-  }
-  const disc = B * B + 4 * c * x;
-  return Math.sqrt((B + Math.sqrt(Math.max(0, disc))) / (2 * c));
-}
+export { landauEquilibriumPsi } from './fit-model';
 
 /** The data sets of a Landau fit, by kind, as named in messages. */
 const DATA_SETS = [
@@ -114,25 +94,7 @@ export function fitLandau(
     throw new PhysicsInputError(tooFewPoints(4, Ts.length));
   }
   const sextic = options.sextic !== false;
-  const model: IFitModel = {
-    parameters: ['a', 'T0', 'b', 'c'],
-    evaluate(p, x, out) {
-      const k: ILandauCoefficients = { a: p[0], T0: p[1], b: p[2], c: p[3] };
-      for (let i = 0; i < x.length; i++) {
-        const j = x[i];
-        const T = Ts[j];
-        if (kinds[j] === 0) {
-          out[i] = landauEquilibriumPsi(k, T);
-        } else if (kinds[j] === 1) {
-          const psi = landauEquilibriumPsi(k, T);
-          const p2 = psi * psi;
-          out[i] = k.a * (T - k.T0) + 3 * k.b * p2 + 5 * k.c * p2 * p2;
-        } else {
-          out[i] = k.b > 0 ? (k.T0 * k.a * k.a) / (2 * k.b) : NaN;
-        }
-      }
-    }
-  };
+  const model: IFitModel = landauFitModel(kinds, Ts);
   const s = options.start;
   const res = fitCurve(
     model,

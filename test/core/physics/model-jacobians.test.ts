@@ -1,0 +1,122 @@
+/**
+ * Every physics model the analysis panel fits offers an analytic Jacobian,
+ * and a combined value-and-Jacobian pass with the same numbers: checked
+ * against central differences of its own `evaluate` (step 1e-6 relative;
+ * agreement to 1e-6 of each column's size, well above the difference
+ * error ≈ h² and the rounding ≈ ε/h). Parameter values and grids are chosen
+ * here, away from the kinks (Tc, T1) where a derivative jumps (common
+ * practice, no source).
+ */
+import { describe, expect, it } from 'vitest';
+import type { IFitModel } from '../../../src/core/fit/index';
+import { powerLawModel } from '../../../src/core/physics/critical/index';
+import { curieWeissModel } from '../../../src/core/physics/curie-weiss';
+import { landauFitModel } from '../../../src/core/physics/landau/fit-model';
+import { weissIsothermModel, weissMTModel } from '../../../src/core/physics/weiss-fit';
+
+function checkJacobian(model: IFitModel, p: number[], x: Float64Array, tol = 1e-6): void {
+  const n = x.length;
+  const k = p.length;
+  const pp = Float64Array.from(p);
+  const jac = new Float64Array(n * k);
+  model.jacobian!(pp, x, jac);
+  const up = new Float64Array(n);
+  const dn = new Float64Array(n);
+  for (let j = 0; j < k; j++) {
+    const h = 1e-6 * Math.max(Math.abs(p[j]), 1e-3);
+    const q = Float64Array.from(p);
+    q[j] = p[j] + h;
+    model.evaluate(q, x, up);
+    q[j] = p[j] - h;
+    model.evaluate(q, x, dn);
+    let scale = 0;
+    for (let i = 0; i < n; i++) {
+      scale = Math.max(scale, Math.abs(jac[i * k + j]));
+    }
+    expect(scale).toBeGreaterThan(0);
+    for (let i = 0; i < n; i++) {
+      const fd = (up[i] - dn[i]) / (2 * h);
+      expect(Math.abs(jac[i * k + j] - fd)).toBeLessThanOrEqual(tol * scale);
+    }
+  }
+  // the combined pass gives exactly the separate results
+  if (model.evaluateWithJacobian) {
+    const out = new Float64Array(n);
+    const out2 = new Float64Array(n);
+    const jac2 = new Float64Array(n * k);
+    model.evaluate(pp, x, out);
+    model.evaluateWithJacobian(pp, x, out2, jac2);
+    expect(Array.from(out2)).toEqual(Array.from(out));
+    expect(Array.from(jac2)).toEqual(Array.from(jac));
+  }
+}
+
+const grid = (a: number, b: number, n: number): Float64Array => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
+
+describe('analytic Jacobians of the fitted physics models', () => {
+  it.each([
+    ['plain', {}, [1.1, 300, 0.34]],
+    ['with background', { background: true }, [1.1, 300, 0.34, 0.02]],
+    ['with the Wegner term and background, ψ²', { background: true, wegnerDelta: 0.52, proxyPower: 2 }, [1.1, 300, 0.34, 0.02, -0.4]]
+  ] as const)('critical power law, %s', (_name, options, p) => {
+    checkJacobian(powerLawModel(options), [...p], grid(150, 297, 300));
+  });
+
+  it('Curie–Weiss χ0 + C/(T − θ)', () => {
+    checkJacobian(curieWeissModel, [1.2, 15, 0.002], grid(30, 350, 200));
+  });
+
+  it.each([
+    [0.5, 0, 0],
+    [1, 0, 0],
+    [3.5, 2, 7]
+  ])('Weiss M(T), J = %f, field %f T, moment %f μB', (J, field, moment) => {
+    // points below Tc = 630 and above it, not within 2 K of it
+    const T = Float64Array.from([...grid(30, 620, 150), ...grid(640, 700, 30)]);
+    checkJacobian(weissMTModel(J, false, field, moment), [1.5, 630], T, 1e-5);
+  });
+
+  it('Weiss M(B, T) isotherms (Ms, Tc, moment)', () => {
+    const T: number[] = [];
+    const B: number[] = [];
+    for (const t of [200, 400, 600, 700, 800]) {
+      for (const b of [0.1, 0.5, 1, 2, 5, 9]) {
+        T.push(t);
+        B.push(b);
+      }
+    }
+    const model = weissIsothermModel(1, Float64Array.from(T), Float64Array.from(B));
+    checkJacobian(model, [2, 650, 4], Float64Array.from(T, (_, i) => i), 1e-5);
+  });
+
+  it.each([
+    ['continuous (b > 0)', [2, 400, 0.5, 0.2]],
+    ['first order (b < 0)', [2, 400, -0.5, 0.2]]
+  ] as const)('Landau ψ(T), 1/χ(T) and ΔC, %s', (_name, p) => {
+    // ψ points below the transition and above it, 1/χ points on both sides, one ΔC
+    const Ts: number[] = [];
+    const kinds: number[] = [];
+    for (const t of grid(300, 395, 40)) {
+      Ts.push(t);
+      kinds.push(0);
+    }
+    for (const t of [410, 430, 450]) {
+      Ts.push(t);
+      kinds.push(0);
+    }
+    for (const t of [...grid(300, 395, 20), 410, 450]) {
+      Ts.push(t);
+      kinds.push(1);
+    }
+    Ts.push(0);
+    kinds.push(2);
+    const model = landauFitModel(kinds, Ts);
+    const x = Float64Array.from(Ts, (_, i) => i);
+    if (p[2] > 0) {
+      checkJacobian(model, [...p], x);
+    } else {
+      // ΔC is defined for b > 0 only: the first-order case without that point
+      checkJacobian(landauFitModel(kinds.slice(0, -1), Ts.slice(0, -1)), [...p], x.subarray(0, x.length - 1));
+    }
+  });
+});
