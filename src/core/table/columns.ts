@@ -154,6 +154,17 @@ export class NumberReader {
     this.push(v);
   }
 
+  /** Read the next cell, a plain decimal already read as `v` (see `readPlainNumber`); `point`: its text had a decimal point. */
+  plain(v: number, point: boolean): void {
+    if (v === v) {
+      this.readable++;
+      if (point) {
+        this.pointSeen = true;
+      }
+    }
+    this.push(v);
+  }
+
   /** Read the next cell as a JSON value: numbers as they are, strings as text, null as missing, anything else unreadable. */
   value(v: unknown): void {
     if (typeof v === 'number') {

@@ -14,6 +14,7 @@ import { msg } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { cellTooLong, columnFromText, NumberReader, numberColumnRead } from './columns';
 import type { INumbersRead } from './columns';
+import { isPlainText, scanPlain } from './csvplain';
 import { checkRowAndColumnCounts, checkTextSize } from './limits';
 import type { IColumn, ITable, ITableNote } from './types';
 import { TABLE_LIMITS, TableParseError } from './types';
@@ -316,7 +317,11 @@ export function parseDelimited(text: string, delimiter: ',' | '\t'): ITable {
   }
   const capacity = rowCapacity(text);
   let readers: (NumberReader | null)[] = [];
-  const first = scan(text, delimiter, what, (row, r, header) => {
+  const plain = isPlainText(text) ? scanPlain(text, delimiter, what, capacity) : null;
+  if (plain !== null) {
+    readers = plain.readers;
+  }
+  const first = plain ?? scan(text, delimiter, what, (row, r, header) => {
     if (r === 0) {
       readers = header.map(() => new NumberReader(capacity));
     }
