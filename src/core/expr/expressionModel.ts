@@ -23,8 +23,8 @@ import type { IAnalysedExpression } from './analyse';
 import { SharedTerms, collectSymbols, numberLiteral, toJavaScript } from './compile';
 import { DerivativeLimitError, Differentiator } from './derivative';
 import { nameFlags } from './flags';
-import { generate, interpret, interpretMany } from './kernelFactory';
-import type { Kernel } from './kernelFactory';
+import { generate, generateCombined, interpret, interpretMany } from './kernelFactory';
+import type { CombinedKernel, Kernel } from './kernelFactory';
 import { ExpressionError, nameList, quote } from './normalize';
 import { buildPreciseKernel, preciseResolver } from './precise';
 
@@ -217,6 +217,7 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
   const colArrays = variables.map((v) => (columns ? columns[v] : null));
   let evaluate: Kernel;
   let jacobian: Kernel | undefined;
+  let combined: CombinedKernel | undefined;
   let evaluation: IExpressionModel['evaluation'];
   if (options.evaluation !== 'mathjs' && canGenerate()) {
     // Each kernel names every sub-term once per point (common subexpressions
@@ -228,6 +229,12 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
       const jacTerms = new SharedTerms();
       const dJs = derivativeNodes.map((d) => toJavaScript(d, resolve, jacTerms));
       jacobian = generate(k, nv, Boolean(columns), dJs, colArrays, jacTerms.lines);
+      // Values and derivatives in one pass, sharing their common sub-terms
+      // (the value is the same source as `evaluate`'s, so the same number).
+      const bothTerms = new SharedTerms();
+      const valueAgain = toJavaScript(node, resolve, bothTerms);
+      const dBoth = derivativeNodes.map((d) => toJavaScript(d, resolve, bothTerms));
+      combined = generateCombined(k, nv, Boolean(columns), valueAgain, dBoth, colArrays, bothTerms.lines);
     }
     evaluation = 'generated-function';
   } else {
@@ -270,6 +277,9 @@ export function parseExpressionModel(text: string, options: IExpressionModelOpti
   }
   if (jacobian) {
     model.jacobian = jacobian;
+    if (combined) {
+      model.evaluateWithJacobian = combined;
+    }
   }
   const precise = buildPreciseKernel(node, preciseResolver(variables, constants, parameters), colArrays);
   if (precise) {

@@ -28,6 +28,27 @@ export function generate(
   return build(k, nv, indexed, cols, prelude, 'p, x, out', body) as Kernel;
 }
 
+/** Writes model values into `out` and the Jacobian (row-major n×k) into `jac` in one pass. */
+export type CombinedKernel = (p: Float64Array, x: Float64Array, out: Float64Array, jac: Float64Array) => void;
+
+/**
+ * Builds a kernel writing the value `valueExpr` into out[i] and the k
+ * derivatives `derivExprs` into jac[i·k + j], per point, after the shared
+ * declarations `prelude` (value and derivatives name common sub-terms once).
+ */
+export function generateCombined(
+  k: number,
+  nv: number,
+  indexed: boolean,
+  valueExpr: string,
+  derivExprs: string[],
+  cols: (ArrayLike<number> | null)[],
+  prelude: readonly string[]
+): CombinedKernel {
+  const body = [`    out[i] = ${valueExpr};`, `    const o = i * ${derivExprs.length};`, ...derivExprs.map((e, j) => `    jac[o + ${j}] = ${e};`)];
+  return build(k, nv, indexed, cols, prelude, 'p, x, out, jac', body) as CombinedKernel;
+}
+
 function build(
   k: number,
   nv: number,
