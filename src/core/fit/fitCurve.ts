@@ -116,6 +116,23 @@ function abortedOutcome(problem: IFitProblem, ev: ResidualEvaluator, err: unknow
   };
 }
 
+/** Quantiles already computed, by confidence level and degrees of freedom (∞: normal); a few dozen at most. */
+const quantiles = new Map<string, number>();
+
+/** The two-sided normal (dof = ∞) or Student-t quantile, remembered: fits of one size repeat it. */
+function intervalQuantile(level: number, dof: number): number {
+  const key = `${level} ${dof}`;
+  let q = quantiles.get(key);
+  if (q === undefined) {
+    q = dof === Infinity ? normalQuantileTwoSided(level) : studentTQuantileTwoSided(level, dof);
+    if (quantiles.size >= 64) {
+      quantiles.clear();
+    }
+    quantiles.set(key, q);
+  }
+  return q;
+}
+
 function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefinement): IFitResult {
   const o = refinement.outcome;
   const { n, kAll, free, names } = problem;
@@ -225,9 +242,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
       );
     }
   }
-  const q = knownSigma
-    ? normalQuantileTwoSided(problem.confidenceLevel)
-    : studentTQuantileTwoSided(problem.confidenceLevel, dof);
+  const q = intervalQuantile(problem.confidenceLevel, knownSigma ? Infinity : dof);
   const confidenceIntervals = values.map(
     (v, j) => [v - q * standardErrors[j], v + q * standardErrors[j]] as [number, number]
   );
