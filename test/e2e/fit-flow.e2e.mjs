@@ -6,14 +6,14 @@ import { test } from 'node:test';
 import { contextMenu, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 /** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
-async function darkScreenshot(page, name, ready) {
+async function darkScreenshot(page, name, ready, options = {}) {
   const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
   await theme('JupyterLab Dark');
   await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
   // the theme switch shows a splash screen for a moment
   await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
   await ready();
-  await screenshot(page, name);
+  await screenshot(page, name, options);
   await theme('JupyterLab Light');
   await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
   await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
@@ -75,11 +75,11 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   assert.ok(Math.abs(tc - 287.4) < 5 * sTc + 0.5, `Tc ${tc} ± ${sTc} is near 287.4`);
   assert.ok(beta > 0.4 && beta < 0.5 + 3 * sBeta, `beta ${beta} ± ${sBeta} is a mean-field effective exponent`);
   await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
-  await screenshot(page, 'fit-power-law-light');
+  await screenshot(page, 'fit-power-law-light', { guide: 'fit-describes-the-data' });
   await darkScreenshot(page, 'fit-power-law-dark', async () => {
     await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 30000 });
     await page.waitForFunction(() => !document.querySelector('.jp-psiscape-fit-status')?.textContent);
-  });
+  }, { guide: 'dark-theme' });
 });
 
 test('the power law over the whole demo range is shown as not describing the data, with χ²_red', async () => {
@@ -97,7 +97,7 @@ test('the power law over the whole demo range is shown as not describing the dat
   assert.match(text, /χ²_red = \d/);
   assert.equal(await section.locator('.jp-psiscape-verdict.jp-psiscape-verdict-fits').count(), 0, 'never the success style');
   await section.locator('.jp-psiscape-fit-result').scrollIntoViewIfNeeded();
-  await screenshot(page, 'fit-power-law-whole-range-light');
+  await screenshot(page, 'fit-power-law-whole-range-light', { guide: 'fit-does-not-describe' });
   await darkScreenshot(page, 'fit-power-law-whole-range-dark', () => section.locator('.jp-psiscape-verdict-does-not-describe').waitFor({ timeout: 30000 }));
 });
 
@@ -159,6 +159,6 @@ test('isotherms M(H) at several temperatures give an Arrott plot and Tc', async 
   assert.match(await section.textContent(), /16 isotherms/);
   assert.match(await section.textContent(), /demagnetising factor N_d is not set/);
   await section.scrollIntoViewIfNeeded();
-  await screenshot(page, 'isotherms-light');
+  await screenshot(page, 'isotherms-light', { guide: 'isotherms' });
   await darkScreenshot(page, 'isotherms-dark', () => section.locator('svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 }));
 });

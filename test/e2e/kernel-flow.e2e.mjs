@@ -128,7 +128,7 @@ function defineSuite() {
     const banner = panel.locator('.jp-psiscape-AnalysisPanel-banner');
     await banner.waitFor({ state: 'visible', timeout: 5000 });
     assert.match(await banner.textContent(), /M \(emu\/g\)/, 'the banner names the missing column');
-    await screenshot(page, 'kernel-flow');
+    await screenshot(page, 'kernel-flow', { guide: 'with-a-jupyter-server' });
   });
 
   test('restoring the column makes the analysis live again', async () => {

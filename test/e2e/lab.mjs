@@ -10,6 +10,8 @@ import { launch } from './browser.mjs';
 const here = path.dirname(fileURLToPath(import.meta.url));
 export const root = path.resolve(here, '..', '..');
 export const shotsDir = path.join(root, 'test-results', 'screenshots');
+/** The README's user guide pictures: rewritten by the tests that take them, so they stay current. */
+export const guideDir = path.join(root, 'docs', 'guide');
 
 /** Serve demo/dist on a free loopback port. */
 export async function startServer() {
@@ -30,11 +32,20 @@ export async function openLab(baseUrl, { colorScheme = 'light' } = {}) {
   return { browser, page, errors };
 }
 
-/** Write a screenshot to the git-ignored results folder and return its path. */
-export async function screenshot(page, name) {
+/**
+ * Write a screenshot to the git-ignored results folder and return its path.
+ * With `guide`, the same view also becomes docs/guide/<guide>.png (without
+ * notification toasts), one of the README's user-guide pictures.
+ */
+export async function screenshot(page, name, { guide } = {}) {
   fs.mkdirSync(shotsDir, { recursive: true });
   const file = path.join(shotsDir, `${name}.png`);
   await page.screenshot({ path: file });
+  if (guide) {
+    // The guide's picture without the notification toasts a test may have left.
+    fs.mkdirSync(guideDir, { recursive: true });
+    await page.screenshot({ path: path.join(guideDir, `${guide}.png`), style: '.Toastify { display: none !important; }' });
+  }
   return file;
 }
 

@@ -18,7 +18,7 @@ test('the explorer opens from the View menu with the first-order example', async
   const text = await explorer.textContent();
   assert.match(text, /100\.375/, 'T1 of the C5 example');
   assert.match(text, /100\.5/, 'T** of the C5 example');
-  await screenshot(page, 'landau-light');
+  await screenshot(page, 'landau-light', { guide: 'landau-explorer' });
 });
 
 test('moving T with the keyboard redraws the landscape', async () => {

@@ -160,7 +160,7 @@ test('a 200 000-row CSV is analysed and fitted without a main-thread task over 2
     fitted = await panel.locator('.jp-psiscape-verdict-detail').textContent();
   });
   console.log(`# 200 000-row CSV: longest main-thread task ${Math.round(longest)} ms; ${fitted}`);
+  await screenshot(page, 'large-csv-light', { guide: 'file-analysis' });
   assert.match(fitted, /^\d+ points fitted/);
   assert.ok(longest <= 200, `longest main-thread task ${Math.round(longest)} ms`);
-  await screenshot(page, 'large-csv-light');
 });

@@ -25,5 +25,5 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   assert.equal(after, before, 'the reopened analysis reruns the same fit');
   assert.equal(await restored.getAttribute('data-source-state'), 'live');
   assert.equal(await restored.locator('select.jp-psiscape-fit-kind').inputValue(), 'weiss');
-  await screenshot(page, 'saved-after-reload');
+  await screenshot(page, 'saved-after-reload', { guide: 'saved-analysis-reopened' });
 });

@@ -24,7 +24,7 @@ test('context menu on a pandas table opens a panel with a drawn chart', async ()
   const box = await panel.boundingBox();
   const nb = await page.locator('.jp-NotebookPanel').first().boundingBox();
   assert.ok(box.x > nb.x, 'the panel is docked to the right of the notebook');
-  await screenshot(page, 'table-flow-light');
+  await screenshot(page, 'table-flow-light', { guide: 'analyse-a-table' });
 });
 
 test('changing the y column redraws the chart', async () => {

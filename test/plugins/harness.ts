@@ -46,7 +46,7 @@ export function settingRegistryWith(pluginId: string): SettingRegistry {
   const connector: IDataConnector<SettingRegistryTypes.IPlugin, string> = {
     async fetch(id: string) {
       const raw = ((await db.fetch(id)) as string | undefined) ?? '{}';
-      return { id, schema, raw, data: { composite: {}, user: {} }, version: '0.1.0' } as SettingRegistryTypes.IPlugin;
+      return { id, schema, raw, data: { composite: {}, user: {} }, version: 'test' } as SettingRegistryTypes.IPlugin;
     },
     async list() {
       return { ids: [pluginId], values: [await connector.fetch(pluginId)] as SettingRegistryTypes.IPlugin[] };
