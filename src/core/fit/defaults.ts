@@ -25,6 +25,7 @@
  * | `warmStartRows` | 1000 | from this many points on, a pointwise model is first fitted to an evenly strided subsample and the full-data iteration starts from that solution (`warmStart.ts`); the subsample stage applies the same rule to itself |
  * | `warmStartSample` | 16384 | largest size of that subsample, and its size from `warmStartFullSampleRows` points on |
  * | `warmStartFullSampleRows` | 50000 | from this many points on the subsample has `warmStartSample` points (stride ⌊n / 16384⌋) |
+ * | `warmStartErrorFraction` | 0.05 | a subsample stage stops (rule 1b at any size, forward differences allowed) once its next step would move the parameters by less than this fraction of the subsample's standard errors: its answer is only a start, about √stride full-data standard errors from the full-data minimum |
  * | `warmStartMinSample` | 250 | smallest size of that subsample |
  * | `warmStartSampleFactor` | 10 | below `warmStartFullSampleRows` points: subsample size ≈ factor·√n, at least `warmStartMinSample` (stride ⌊n / size⌋) |
  * | `refineNoiseFraction` | 1e-9 | a converged fit whose χ² rounding noise exceeds this fraction of χ² is polished with double-double residuals when the model has `evaluatePrecise` (`refine.ts`) |
@@ -80,6 +81,7 @@ export const FIT_DEFAULTS = Object.freeze({
   warmStartSample: 16384,
   warmStartFullSampleRows: 50000,
   warmStartMinSample: 250,
+  warmStartErrorFraction: 0.05,
   warmStartSampleFactor: 10,
   refineNoiseFraction: 1e-9,
   refineMaxSteps: 8,

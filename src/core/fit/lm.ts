@@ -75,6 +75,12 @@ export interface ILmOutcome {
 export interface ILmHooks {
   onProgress?: (p: IFitProgress) => void;
   shouldStop?: () => boolean;
+  /**
+   * The iteration only provides a start for another one (a subsample stage
+   * of the warm start): rule 1b applies at any size, with
+   * `warmStartErrorFraction`, and forward differences are accurate enough.
+   */
+  coarse?: boolean;
 }
 
 /**
@@ -82,10 +88,9 @@ export interface ILmHooks {
  * `stationaryErrorFraction` of their standard errors: fraction²·χ²/dof
  * (errors scaled by √χ²_red), at most fraction² when σ were given.
  */
-function stationaryThreshold(problem: IFitProblem, n: number, k: number, cost: number): number {
+function stationaryThreshold(problem: IFitProblem, n: number, k: number, cost: number, fraction: number): number {
   const dof = n - k;
   const unit = dof > 0 ? (problem.weights ? Math.min(1, cost / dof) : cost / dof) : 0;
-  const fraction = FIT_DEFAULTS.stationaryErrorFraction;
   return fraction * fraction * unit;
 }
 
@@ -125,7 +130,9 @@ export function* levenbergMarquardtSteps(
   let jacT = combined ? new Float64Array(n * k) : null;
   const large = n > FIT_DEFAULTS.largeRows;
   // Rule 1b (one confirming Jacobian instead of two noise-level steps).
-  const stationaryRule = n >= FIT_DEFAULTS.stationaryRows;
+  const coarse = hooks.coarse === true;
+  const stationaryRule = coarse || n >= FIT_DEFAULTS.stationaryRows;
+  const errorFraction = coarse ? FIT_DEFAULTS.warmStartErrorFraction : FIT_DEFAULTS.stationaryErrorFraction;
   // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
   const normal = large ? new Float64Array(k * k) : null;
   const jd = large ? null : new Float64Array(n);
@@ -286,7 +293,13 @@ export function* levenbergMarquardtSteps(
           // The forward-difference model (relative error ≈ 1e-8) already
           // predicts a negligible step: take the accurate Jacobian here and
           // apply the test below to it.
-          if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise || gn <= stationaryThreshold(problem, n, k, cost) * 100) {
+          if (coarse && gn <= stationaryThreshold(problem, n, k, cost, errorFraction)) {
+            return out(
+              true,
+              msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', errorFraction)
+            );
+          }
+          if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise || gn <= stationaryThreshold(problem, n, k, cost, errorFraction) * 100) {
             scheme = accurate;
             jacAtP = false;
             needJacobian = true;
@@ -294,10 +307,10 @@ export function* levenbergMarquardtSteps(
           }
         } else if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise) {
           return out(true, msg('fit.stop.stationary', 'No step can lower χ² by more than its rounding noise: a minimum was found.'));
-        } else if (gn <= stationaryThreshold(problem, n, k, cost)) {
+        } else if (gn <= stationaryThreshold(problem, n, k, cost, errorFraction)) {
           return out(
             true,
-            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', FIT_DEFAULTS.stationaryErrorFraction)
+            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', errorFraction)
           );
         }
       }

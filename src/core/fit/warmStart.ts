@@ -104,6 +104,7 @@ export function* warmStartedSteps(
   const scale = problem.n / sub.n;
   // The subsample stage may itself start from a coarser subsample.
   const { outcome: coarse, warmStart: inner } = yield* warmStartedSteps(sub, subEv, {
+    coarse: true,
     shouldStop: hooks.shouldStop,
     onProgress: hooks.onProgress
       ? (p) => hooks.onProgress!({ ...p, evaluations: 0, cost: p.cost * scale })
