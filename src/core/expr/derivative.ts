@@ -18,11 +18,6 @@
  * `DerivativeLimitError` is thrown and the caller uses finite differences.
  */
 import {
-  ConditionalNode,
-  ConstantNode,
-  FunctionNode,
-  OperatorNode,
-  SymbolNode,
   isConditionalNode,
   isConstantNode,
   isFunctionNode,
@@ -31,6 +26,7 @@ import {
   isRelationalNode,
   isSymbolNode
 } from 'mathjs';
+import { ConditionalNode, ConstantNode, FunctionNode, OperatorNode, SymbolNode } from '../numeric/mathjs';
 import type { MathNode } from 'mathjs';
 import { COMPARISONS, LOGICAL, valueChildren } from './compile';
 

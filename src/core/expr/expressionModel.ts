@@ -13,7 +13,8 @@
  * Several independent variables: pass `columns` (one array per variable);
  * the fit's x is then the point index into those columns.
  */
-import { SymbolNode, isSymbolNode } from 'mathjs';
+import { isSymbolNode } from 'mathjs';
+import { SymbolNode } from '../numeric/mathjs';
 import type { MathNode } from 'mathjs';
 import type { IFitModel } from '../fit/types';
 import { msg } from '../messages';

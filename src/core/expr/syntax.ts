@@ -8,7 +8,7 @@
  * of `normalizeWithMap`); messages number characters from 1. No message
  * quotes more than `QUOTE_LIMIT` characters of what the user typed.
  */
-import { parse } from 'mathjs';
+import { parse } from '../numeric/mathjs';
 import type { MathNode } from 'mathjs';
 import { msg } from '../messages';
 import { ExpressionError, NAME_START, quote } from './normalize';

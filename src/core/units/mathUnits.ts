@@ -4,9 +4,10 @@
  * (muB, CODATA 2018) and formula unit (fu = 1/N_A mol, so muB/fu is a molar
  * moment). The global mathjs instance is never modified.
  */
-import { all, create } from 'mathjs';
+import { create } from 'mathjs';
 import type { MathJsInstance, Unit } from 'mathjs';
 import { PHYS } from './constants';
+import { unitMathFactories } from '../numeric/mathjs';
 
 let instance: MathJsInstance | null = null;
 
@@ -15,7 +16,7 @@ export function unitMath(): MathJsInstance {
   if (instance !== null) {
     return instance;
   }
-  const m = create(all, {});
+  const m = create(unitMathFactories, {});
   // 1 Oe = 1000/(4π) A/m (NBS SP 696, [C7 in REFERENCES.md])
   m.createUnit('Oe', { definition: m.unit(1000 / (4 * Math.PI), 'A/m'), prefixes: 'short' });
   // 1 emu = 1 erg/G = 1e-3 A m² [C7 in REFERENCES.md]
