@@ -71,7 +71,6 @@ export class AnalysisPanel extends Panel {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
-    options.runner.warm();
     this._pending.add('table');
     this._schedule();
   }

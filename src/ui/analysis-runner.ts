@@ -131,10 +131,10 @@ export class AnalysisWorkerHost {
     return this._sharedMemory;
   }
 
-  /** Jobs waiting or running. */
   /**
    * Start the worker now if it is not running, so that the first fit does not
-   * wait for its scripts (called when an analysis panel opens).
+   * wait for its scripts (called when the pointer or focus first reaches a
+   * panel's fit controls).
    */
   warm(): void {
     if (!this._worker && this._mode !== 'main-thread' && !this._disposed) {
@@ -142,6 +142,7 @@ export class AnalysisWorkerHost {
     }
   }
 
+  /** Jobs waiting or running. */
   get pending(): number {
     return this._queue.length + (this._running ? 1 : 0);
   }

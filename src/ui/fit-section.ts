@@ -33,6 +33,15 @@ export class FitSection extends Widget {
     this.node.setAttribute('role', 'group');
     this.node.setAttribute('aria-label', this._trans.__('Fit'));
     this._build();
+    // The analysis worker starts on the way to the first fit: when the pointer
+    // or the keyboard focus first reaches the fit controls (or with the fit).
+    const warm = (): void => {
+      this.node.removeEventListener('pointerenter', warm);
+      this.node.removeEventListener('focusin', warm);
+      this._runner.warm();
+    };
+    this.node.addEventListener('pointerenter', warm);
+    this.node.addEventListener('focusin', warm);
   }
 
   /** The session shown. */

@@ -4,7 +4,7 @@
  * the results table, the overlay curve, σ column, refusals as messages that
  * grey the previous result, cancel, and window fields that refuse bad text.
  */
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { MessageLoop } from '@lumino/messaging';
 import { parseMime } from '../../src/core/table';
 import { weissMagnetisation } from '../../src/core/physics/weiss';
@@ -28,6 +28,17 @@ const q = <T extends Element>(root: Element, selector: string) => root.querySele
 describe('FitSection in the analysis panel', () => {
   afterEach(() => {
     document.body.innerHTML = '';
+  });
+
+  it('should start the analysis worker only on the way to a fit, not when the panel opens', async () => {
+    const workerFactory = vi.fn(() => null);
+    const { panel } = panelFor(parseMime('text/csv', weissCsv()), { workerFactory });
+    await panel.rendered;
+    expect(workerFactory).not.toHaveBeenCalled();
+    panel.fitSection.node.dispatchEvent(new Event('pointerenter'));
+    expect(workerFactory).toHaveBeenCalledTimes(1);
+    panel.fitSection.node.dispatchEvent(new Event('focusin'));
+    expect(workerFactory).toHaveBeenCalledTimes(1);
   });
 
   it('should offer every catalogued kind and build the chosen kind’s options', async () => {

@@ -12,7 +12,7 @@ import { AnalysisPanel } from '../../src/ui/analysis-panel';
 import { AnalysisRunner } from '../../src/ui/analysis-runner';
 
 /** An attached panel showing `parse`, with a spy for "Show source cell". */
-export function panelFor(parse: ParseResult, options: { onRevealSource?: () => void } = {}) {
+export function panelFor(parse: ParseResult, options: { onRevealSource?: () => void; workerFactory?: () => null } = {}) {
   const session = new AnalysisSession({ id: 't1', source: { notebookPath: 'sample.ipynb', cellId: 'c', outputIndex: 0, contentHash: 'h' } });
   session.setParse(parse);
   const onRevealSource = options.onRevealSource ?? vi.fn();
@@ -23,7 +23,7 @@ export function panelFor(parse: ParseResult, options: { onRevealSource?: () => v
     pointSize: 30,
     translator: nullTranslator,
     onRevealSource,
-    runner: new AnalysisRunner({ workerFactory: () => null })
+    runner: new AnalysisRunner({ workerFactory: options.workerFactory ?? (() => null) })
   });
   Widget.attach(panel, document.body);
   return { panel, session, onRevealSource };
