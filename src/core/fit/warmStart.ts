@@ -136,10 +136,11 @@ export function* warmStartedSteps(
   return { outcome: info.used ? fine : again, warmStart: info };
 }
 
-/** The result with what the warm start did (unchanged without one). */
+/** The result with what the warm start did (unchanged without one); sets `warmStart` on `result` itself. */
 export function withWarmStart(result: IFitResult, info: IWarmStartInfo | null): IFitResult {
   if (info === null) {
     return result;
   }
-  return { ...result, warmStart: { ...info } };
+  result.warmStart = { ...info };
+  return result;
 }
