@@ -20,7 +20,7 @@
  * rank-deficient, or when the precise model throws, returns NaN/∞ or gives
  * a χ² inconsistent with the binary64 one at the same parameters.
  */
-import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { tallSvd } from './dense';
 import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../numeric/dd/core';
@@ -101,7 +101,7 @@ function preciseResiduals(
   return { r, chi2 };
 }
 
-/** Least-squares δ of J·δ = rhs (J weighted, row-major n×k) by a column-scaled SVD; null when rank-deficient. */
+/** Least-squares δ of J·δ = rhs (J weighted, row-major n×k) by a column-scaled SVD (`tallSvd`); null when rank-deficient. */
 function solveStep(jac: Float64Array, rhs: Float64Array, n: number, k: number): Float64Array | null {
   const norms = new Float64Array(k);
   for (let i = 0; i < n; i++) {
@@ -109,36 +109,31 @@ function solveStep(jac: Float64Array, rhs: Float64Array, n: number, k: number): 
       norms[j] += jac[i * k + j] ** 2;
     }
   }
-  const a = new Matrix(n, k);
+  const a = new Float64Array(n * k);
   for (let j = 0; j < k; j++) {
     norms[j] = Math.sqrt(norms[j]);
     if (!(norms[j] > 0) || !Number.isFinite(norms[j])) {
       return null;
     }
     for (let i = 0; i < n; i++) {
-      a.set(i, j, jac[i * k + j] / norms[j]);
+      a[j * n + i] = jac[i * k + j] / norms[j];
     }
   }
-  const svd = new SingularValueDecomposition(a, { autoTranspose: true });
-  const s = svd.diagonal;
-  let smax = 0;
-  for (const v of s) {
-    smax = Math.max(smax, v);
+  const s = new Float64Array(k);
+  const v = new Float64Array(k * k);
+  const ub = new Float64Array(k);
+  tallSvd(a, n, k, rhs.slice(0, n), s, v, ub, new Float64Array(k * k));
+  const smax = s[0];
+  for (let c = 0; c < k; c++) {
+    if (!(s[c] > FIT_DEFAULTS.singularTolerance * smax)) {
+      return null;
+    }
   }
-  if (!s.every((v) => v > FIT_DEFAULTS.singularTolerance * smax)) {
-    return null;
-  }
-  const u = svd.leftSingularVectors;
-  const v = svd.rightSingularVectors;
   const delta = new Float64Array(k);
   for (let c = 0; c < k; c++) {
-    let dot = 0;
-    for (let i = 0; i < n; i++) {
-      dot += u.get(i, c) * rhs[i];
-    }
-    const coef = dot / s[c];
+    const coef = ub[c] / s[c];
     for (let j = 0; j < k; j++) {
-      delta[j] += v.get(j, c) * coef;
+      delta[j] += v[j * k + c] * coef;
     }
   }
   for (let j = 0; j < k; j++) {
