@@ -34,7 +34,6 @@ import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
 import { accelerate, geodesicWork } from './geodesic';
 import {
-  columnNormsAndGradient,
   costNoise,
   gaussNewtonReduction,
   jacobianTimes,
@@ -58,7 +57,7 @@ export interface ILmOutcome {
   cost: number;
   /** Weighted Jacobian (row-major n×k) at `p` when the iteration holds it, else null. */
   jacobian: Float64Array | null;
-  /** Unscaled JᵀJ (k×k, symmetric) at `p` when formed there (large problems), else null. */
+  /** Unscaled JᵀJ (k×k, symmetric) at `p` when formed there, else null. */
   normal: Float64Array | null;
   iterations: number;
   converged: boolean;
@@ -134,7 +133,8 @@ export function* levenbergMarquardtSteps(
   const stationaryRule = coarse || n >= FIT_DEFAULTS.stationaryRows;
   const errorFraction = coarse ? FIT_DEFAULTS.warmStartErrorFraction : FIT_DEFAULTS.stationaryErrorFraction;
   // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
-  const normal = large ? new Float64Array(k * k) : null;
+  // JᵀJ and Jᵀr in one pass (also the finiteness check of the Jacobian); ‖J·s‖² from JᵀJ for large problems.
+  const normal = new Float64Array(k * k);
   const jd = large ? null : new Float64Array(n);
   const diag = new Float64Array(k);
   const colNorm = new Float64Array(k);
@@ -242,12 +242,8 @@ export function* levenbergMarquardtSteps(
         continue;
       }
       havePrevious = false;
-      if (normal) {
-        for (let j = 0; j < k; j++) {
-          colNorm[j] = Math.sqrt(normal[j * k + j]);
-        }
-      } else {
-        columnNormsAndGradient(jac, r, n, k, colNorm, grad);
+      for (let j = 0; j < k; j++) {
+        colNorm[j] = Math.sqrt(normal[j * k + j]);
       }
       const rnorm = Math.sqrt(cost);
       gcos = 0;
@@ -354,7 +350,7 @@ export function* levenbergMarquardtSteps(
       first = false;
     }
     // Predicted reduction of Σr² from the linear model.
-    const jdNorm2 = normal ? quadraticForm(normal, k, step) : jacobianTimes(jac, step, n, k, jd!);
+    const jdNorm2 = large ? quadraticForm(normal, k, step) : jacobianTimes(jac, step, n, k, jd!);
     let gStep = 0;
     for (let j = 0; j < k; j++) {
       gStep += grad[j] * step[j];

@@ -29,7 +29,8 @@ export interface ICovarianceFactor {
 /**
  * (JᵀJ)⁻¹ for the weighted row-major n×k Jacobian `jac`, via column
  * equilibration. `normal`, when given, is JᵀJ (k×k, symmetric) already
- * formed from `jac`; it is used above `largeRows` points.
+ * formed from `jac` (the SVD of the scaled `jac` is still used when the
+ * normal matrix is ill-conditioned, up to `largeRows` points).
  */
 export function inverseNormal(
   jac: Float64Array,
@@ -37,7 +38,7 @@ export function inverseNormal(
   k: number,
   normal: Float64Array | null = null
 ): ICovarianceFactor {
-  const formed = normal !== null && n > FIT_DEFAULTS.largeRows ? normal : null;
+  const formed = normal;
   const norms = new Float64Array(k);
   if (formed) {
     for (let j = 0; j < k; j++) {
