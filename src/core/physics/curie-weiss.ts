@@ -65,31 +65,47 @@ export interface ICurieWeissFitResult extends IFitResult {
   Tmin: number;
 }
 
-/** The model χ = χ0 + C/(T − θ), parameters C, theta, chi0, analytic Jacobian. */
+/**
+ * The model χ = χ0 + C/(T − θ), parameters C, theta, chi0, analytic Jacobian.
+ * Parameters are read into locals once per call (the output arrays could
+ * alias `p` as far as the compiler knows, so it would reload them per point).
+ */
 export const curieWeissModel: IFitModel = {
   parameters: ['C', 'theta', 'chi0'],
   pointwise: true,
   evaluate(p, x, out) {
-    for (let i = 0; i < x.length; i++) {
-      out[i] = p[2] + p[0] / (x[i] - p[1]);
+    const C = p[0];
+    const theta = p[1];
+    const chi0 = p[2];
+    const n = x.length;
+    for (let i = 0; i < n; i++) {
+      out[i] = chi0 + C / (x[i] - theta);
     }
   },
   jacobian(p, x, out) {
-    for (let i = 0; i < x.length; i++) {
-      const d = 1 / (x[i] - p[1]);
+    const C = p[0];
+    const theta = p[1];
+    const n = x.length;
+    for (let i = 0; i < n; i++) {
+      const d = 1 / (x[i] - theta);
       out[i * 3] = d;
-      out[i * 3 + 1] = p[0] * d * d;
+      out[i * 3 + 1] = C * d * d;
       out[i * 3 + 2] = 1;
     }
   },
   evaluateWithJacobian(p, x, out, jac) {
-    for (let i = 0; i < x.length; i++) {
-      const dx = x[i] - p[1];
+    const C = p[0];
+    const theta = p[1];
+    const chi0 = p[2];
+    const n = x.length;
+    for (let i = 0; i < n; i++) {
+      const dx = x[i] - theta;
       const d = 1 / dx;
-      out[i] = p[2] + p[0] / dx; // exactly as evaluate()
-      jac[i * 3] = d;
-      jac[i * 3 + 1] = p[0] * d * d;
-      jac[i * 3 + 2] = 1;
+      out[i] = chi0 + C / dx; // exactly as evaluate()
+      const o = i * 3;
+      jac[o] = d;
+      jac[o + 1] = C * d * d;
+      jac[o + 2] = 1;
     }
   }
 };

@@ -15,6 +15,36 @@
  * ulp (≈ 30 ulp at |u| = 1e−6), far below any measurement's.
  */
 import { expArray, logArray } from '../../numeric/arraymath/index';
+import { LN2_HI, LN2_LO, POW2, POW2_OFFSET, ROUND_SHIFT } from '../../numeric/arraymath/tables';
+
+/**
+ * |u|^e = exp(e·log|u|) with the exponential inlined in the final loops (no
+ * array of exponents written and read back): the method of `expArray`
+ * (table of 2^(j/64), degree-5 polynomial, ≤ 2 ulp) with the same
+ * constants, so the values are those `expArray` gives.
+ */
+const EXP_STEPS = 64;
+const EXP_INV_STEP = EXP_STEPS / Math.LN2;
+const EXP_STEP_HI = LN2_HI / EXP_STEPS;
+const EXP_STEP_LO = LN2_LO / EXP_STEPS;
+const EXP_LIMIT = 708;
+// Module-local copies: imported bindings are property reads through getters in bundled code.
+const SHIFT = ROUND_SHIFT;
+const OFFSET = POW2_OFFSET;
+const TWO_J = Float64Array.from({ length: EXP_STEPS }, (_, j) => Math.pow(2, j / EXP_STEPS));
+
+/** exp(y) by the method of `expArray` (inlined by the compiler into the loops below). */
+function expInline(y: number, pow2: Float64Array, twoJ: Float64Array): number {
+  if (y > -EXP_LIMIT && y < EXP_LIMIT) {
+    const kf = y * EXP_INV_STEP + SHIFT - SHIFT;
+    const r = y - kf * EXP_STEP_HI - kf * EXP_STEP_LO;
+    const k = kf | 0;
+    const q = r + r * r * (0.5 + r * (0.16666666666666666 + r * (0.041666666666666664 + r * (0.008333333333333333 + r * 0.001388888888888889))));
+    const t = pow2[(k >> 6) + OFFSET] * twoJ[k & 63];
+    return t + t * q;
+  }
+  return Math.exp(y);
+}
 
 /** Layout of the parameter vector: indices of y0 and aW (−1 when absent). */
 export interface IPowerLawLayout {
@@ -36,7 +66,6 @@ const BLOCK = 2048;
 /** Scratch arrays of one block, one set per model. */
 export class PowerLawScratch {
   readonly logU = new Float64Array(BLOCK);
-  readonly powE = new Float64Array(BLOCK);
   readonly powD = new Float64Array(BLOCK);
 }
 
@@ -72,7 +101,7 @@ function block(
   const m = end - b;
   const wd = L.wegnerDelta;
   const wegner = wd !== undefined;
-  const { logU, powE, powD } = scratch;
+  const { logU, powD } = scratch;
   const A = p[0];
   const Tc = p[1];
   const invTc = 1 / Tc;
@@ -84,10 +113,8 @@ function block(
     logU[i] = u > 0 || (signed && u < 0) ? Math.abs(u) : 1;
   }
   logArray(logU, logU, m);
-  for (let i = 0; i < m; i++) {
-    powE[i] = e * logU[i];
-  }
-  expArray(powE, powE, m);
+  const pow2 = POW2;
+  const twoJ = TWO_J;
   if (wegner) {
     for (let i = 0; i < m; i++) {
       powD[i] = wd * logU[i];
@@ -100,7 +127,7 @@ function block(
     for (let i = 0; i < m; i++) {
       const u = (Tc - x[b + i]) * invTc;
       const active = u > 0 || (signed && u < 0);
-      const pe = powE[i];
+      const pe = expInline(e * logU[i], pow2, twoJ);
       // the same operations, in the same order, as the Jacobian branch
       const base = (u > 0 ? pe : -pe) * (1 + aW * (wegner ? powD[i] : 0));
       out[b + i] = active ? A * base + y0 : y0;
@@ -125,7 +152,7 @@ function block(
       continue;
     }
     const au = u > 0 ? u : -u;
-    const pe = powE[i];
+    const pe = expInline(e * logU[i], pow2, twoJ);
     const sp = u > 0 ? pe : -pe; // s·|u|^e
     const pd = wegner ? powD[i] : 0;
     const corr = 1 + aW * pd;
