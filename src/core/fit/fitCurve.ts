@@ -250,8 +250,16 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
   // Sized once (growing by push costs several times more for large n).
   const residuals = new Array<number>(n);
   const precise = refinement.residuals;
-  for (let i = 0; i < n; i++) {
-    residuals[i] = precise ? precise[i] : problem.y[i] - o.f[i];
+  if (precise) {
+    for (let i = 0; i < n; i++) {
+      residuals[i] = precise[i];
+    }
+  } else {
+    const y = problem.y;
+    const f = o.f;
+    for (let i = 0; i < n; i++) {
+      residuals[i] = y[i] - f[i];
+    }
   }
   if (o.restarts > 0) {
     notes.push(msg('fit.note.restarted', 'Restarts from the best point after the steps collapsed: %1.', o.restarts));
