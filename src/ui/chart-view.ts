@@ -44,6 +44,11 @@ export function inlineValueCount(spec: Spec): number {
   return count;
 }
 
+/** Resolves in a later task (after the browser has had a chance to paint and handle input). */
+function nextTask(): Promise<void> {
+  return new Promise(resolve => setTimeout(resolve, 0));
+}
+
 /** The renderer for a compiled spec: canvas above {@link CANVAS_ABOVE_VALUES} inline values, else SVG. */
 export function rendererFor(spec: Spec): ChartRenderer {
   return inlineValueCount(spec) > CANVAS_ABOVE_VALUES ? 'canvas' : 'svg';
@@ -79,10 +84,22 @@ export class ChartView extends Widget {
     if (this.isDisposed || token !== this._renderToken) {
       return;
     }
-    this._finalize();
+    // Compiling, parsing and drawing each run in their own task, so that a
+    // large chart never holds the page for one long task; the previous chart
+    // stays until the new one is ready to draw.
     const compiled = vegaLite.compile(spec).spec;
+    await nextTask();
+    if (this.isDisposed || token !== this._renderToken) {
+      return;
+    }
+    const runtime = vega.parse(compiled);
+    await nextTask();
+    if (this.isDisposed || token !== this._renderToken) {
+      return;
+    }
+    this._finalize();
     const renderer = rendererFor(compiled);
-    const view = new vega.View(vega.parse(compiled), {
+    const view = new vega.View(runtime, {
       renderer,
       container: this.node,
       hover: true
