@@ -22,7 +22,25 @@ export namespace CommandIDs {
   export const analyseFile = 'psiscape:analyse-file';
   export const reopenSaved = 'psiscape:reopen-saved-analyses';
   export const openLandauExplorer = 'psiscape:open-landau-explorer';
+  export const copyMarkdown = 'psiscape:copy-result-markdown';
+  export const copyLatex = 'psiscape:copy-result-latex';
+  export const copyCsv = 'psiscape:copy-result-csv';
+  export const saveJson = 'psiscape:save-result-json';
+  export const saveSvg = 'psiscape:save-chart-svg';
+  export const savePng = 'psiscape:save-chart-png';
+  export const copyVegaLite = 'psiscape:copy-chart-vega-lite';
 }
+
+/** The export commands and the toolbar action each runs (src/ui/export-bar.ts). */
+export const EXPORT_COMMANDS: readonly [string, 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite'][] = [
+  [CommandIDs.copyMarkdown, 'markdown'],
+  [CommandIDs.copyLatex, 'latex'],
+  [CommandIDs.copyCsv, 'csv'],
+  [CommandIDs.saveJson, 'json'],
+  [CommandIDs.saveSvg, 'svg'],
+  [CommandIDs.savePng, 'png'],
+  [CommandIDs.copyVegaLite, 'vega-lite']
+];
 
 /** What the commands need from the application. */
 export interface ICommandContext {
@@ -33,6 +51,8 @@ export interface ICommandContext {
   selectedFile: () => string | null;
   /** Current settings (read on every use so changes apply at once). */
   settings: () => IPsiscapeSettings;
+  /** psiscape's version (written into exports). */
+  psiscapeVersion: string;
 }
 
 /** Access to the workbench behind the commands, loaded on first use. */
@@ -123,6 +143,33 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     },
     execute: async args => (await workbench()).openExplorer(args)
   });
+
+  // Exports of the analysis panel in focus; they need its code, so they are
+  // enabled only once a panel is open (the workbench is then loaded).
+  const exportLabels: Record<string, string> = {
+    markdown: trans.__('Copy Fit Result as Markdown'),
+    latex: trans.__('Copy Fit Result as LaTeX'),
+    csv: trans.__('Copy Fit Parameters as CSV'),
+    json: trans.__('Save Fit Result as JSON'),
+    svg: trans.__('Save Analysis Chart as SVG'),
+    png: trans.__('Save Analysis Chart as PNG'),
+    'vega-lite': trans.__('Copy Analysis Chart as Vega-Lite')
+  };
+  const currentBar = () => {
+    const current = app.shell.currentWidget;
+    return instance?.panels.find(p => !p.isDisposed && p === current)?.exportBar ?? null;
+  };
+  for (const [id, action] of EXPORT_COMMANDS) {
+    app.commands.addCommand(id, {
+      label: exportLabels[action],
+      describedBy: { args: { type: 'object', properties: {} } },
+      isEnabled: () => currentBar()?.canRun(action) ?? false,
+      execute: async () => {
+        const bar = currentBar();
+        return bar ? bar.run(action) : '';
+      }
+    });
+  }
 
   return { workbench, loaded: () => instance };
 }

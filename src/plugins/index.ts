@@ -12,7 +12,7 @@ import { INotebookTracker } from '@jupyterlab/notebook';
 import type { NotebookPanel } from '@jupyterlab/notebook';
 import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { ITranslator, nullTranslator } from '@jupyterlab/translation';
-import { CommandIDs, registerCommands } from './commands';
+import { CommandIDs, EXPORT_COMMANDS, registerCommands } from './commands';
 import { readSettings } from './settings';
 import { SAVED_KEY } from '../core/saved/types';
 
@@ -45,13 +45,14 @@ const plugin: JupyterFrontEndPlugin<void> = {
       tracker,
       translator: translator ?? nullTranslator,
       settings: () => current,
+      psiscapeVersion: settings.version,
       selectedFile: () => {
         const item = fileBrowser ? fileBrowser.selectedItems().next() : null;
         return item && !item.done && item.value.type !== 'directory' ? item.value.path : null;
       }
     });
     if (palette) {
-      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer]) {
+      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer, ...EXPORT_COMMANDS.map(([id]) => id)]) {
         palette.addItem({ command, category: trans.__('psiscape') });
       }
     }

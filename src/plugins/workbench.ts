@@ -18,7 +18,8 @@ import { revealCell } from './reveal';
 import { SourceFollower } from './follow-source';
 import { notifyProblems, removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
 import type { ISavedAnalysis } from '../core/saved';
-import { Notification } from '@jupyterlab/apputils';
+import { Clipboard, Notification } from '@jupyterlab/apputils';
+import type { IExportHost } from '../ui/export-bar';
 import { UUID } from '@lumino/coreutils';
 import { DEFAULT_KIND, isKnownKind } from '../core/analysis';
 import { AnalysisSession } from '../core/analysis/session';
@@ -82,6 +83,18 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     }
   };
 
+  /** Where a panel's exports go: the clipboard, and files beside `basePath` (a notebook or a data file). */
+  const exportHost = (basePath: string): IExportHost => ({
+    psiscapeVersion: ctx.psiscapeVersion,
+    copy: text => Clipboard.copyToSystem(text),
+    save: async (name, content, format) => {
+      const slash = basePath.lastIndexOf('/');
+      const path = slash >= 0 ? `${basePath.slice(0, slash)}/${name}` : name;
+      await app.serviceManager.contents.save(path, { type: 'file', format, content });
+      return path;
+    }
+  });
+
   /** Tell the user about problems with saved analyses, through JupyterLab's notifications. */
   const notify = (path: string, problems: readonly ICoreMessage[]): void => notifyProblems(trans, problems, path);
 
@@ -131,6 +144,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       pointSize: ctx.settings().pointSize,
       translator,
       runner: new AnalysisRunner(),
+      exports: exportHost(panel.context.path),
       onRevealSource: async () => {
         await revealCell(app, tracker, panel.context.path, cellId);
       },
@@ -273,7 +287,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       sourceLabel: trans.__('file %1', path),
       pointSize: ctx.settings().pointSize,
       translator,
-      runner: new AnalysisRunner()
+      runner: new AnalysisRunner(),
+      exports: exportHost(path)
     });
     widget.disposed.connect(() => session.dispose());
     place(widget, app.shell.currentWidget?.id ?? null);

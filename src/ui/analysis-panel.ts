@@ -16,6 +16,10 @@ import type { IPlottableColumn } from '../core/table/roles';
 import type { AnalysisRunner } from './analysis-runner';
 import { readChartTheme } from './chart-theme';
 import { ChartView } from './chart-view';
+import { ExportBar } from './export-bar';
+import type { IExportHost } from './export-bar';
+import { buildReport } from '../core/analysis/report';
+import type { IAnalysisReport } from '../core/analysis/report';
 import { FitSection } from './fit-section';
 import type { ILandauOutcome } from './fit-section';
 import { IsothermSection } from './isotherm-section';
@@ -67,7 +71,19 @@ export class AnalysisPanel extends Panel {
     this._status.node.setAttribute('aria-live', 'polite');
     this._fit = new FitSection({ trans: this._trans, session: this._session, runner: options.runner, onExploreLandau: options.onExploreLandau });
     this._isotherms = new IsothermSection({ trans: this._trans });
-    for (const w of [this._header, this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
+    this._exports = options.exports
+      ? new ExportBar({
+          trans: this._trans,
+          host: options.exports,
+          source: {
+            report: () => this.report(options.exports!.psiscapeVersion),
+            view: () => this._chart.view,
+            spec: () => this._chart.spec,
+            baseName: () => this._notebookName.replace(/\.[^.]*$/, '') || 'analysis'
+          }
+        })
+      : null;
+    for (const w of [this._header, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
@@ -78,6 +94,31 @@ export class AnalysisPanel extends Panel {
   /** The session shown. */
   get session(): AnalysisSession {
     return this._session;
+  }
+
+  /** The export toolbar, when the lab gave the panel somewhere to export to. */
+  get exportBar(): ExportBar | null {
+    return this._exports;
+  }
+
+  /**
+   * The record of the fit shown, for exports: null unless a fit of the data
+   * and settings now chosen is shown.
+   */
+  report(psiscapeVersion: string): IAnalysisReport | null {
+    const s = this._session;
+    const p = s.plotted();
+    const outcome = s.outcome;
+    if (!outcome || !s.outcomeIsCurrent || !p) {
+      return null;
+    }
+    const col = (c: typeof p.x) => ({ header: c.column.header, unit: c.column.unit });
+    return buildReport(outcome, {
+      psiscapeVersion,
+      source: s.source ? { ...s.source } : null,
+      file: s.source ? undefined : this._notebookName,
+      columns: { x: col(p.x), y: col(p.y), sigma: p.sigma ? col(p.sigma) : null }
+    });
   }
 
   /** The chart widget (for tests and overlays). */
@@ -206,6 +247,7 @@ export class AnalysisPanel extends Panel {
     if (!usable) {
       this._chart.clear();
       this._status.node.textContent = '';
+      this._exports?.update();
       return;
     }
     if (changes.has('table') || changes.has('roles')) {
@@ -216,6 +258,7 @@ export class AnalysisPanel extends Panel {
       }
     }
     this._fit.render();
+    this._exports?.update();
     const run = s.run;
     if (this._holdForFit) {
       if (run.phase === 'done' || run.phase === 'failed' || run.phase === 'cancelled') {
@@ -282,9 +325,12 @@ export class AnalysisPanel extends Panel {
       : counts;
     this._drawCount++;
     this._drawnWithCurve = outcome !== null;
-    this._chartDone = this._chart.render(spec, this._trans.__('Scatter of %1 against %2', p.y.label, p.x.label)).catch(reason => {
-      this._status.node.textContent = this._trans.__('The chart could not be drawn: %1', reason instanceof Error ? reason.message : String(reason));
-    });
+    this._chartDone = this._chart
+      .render(spec, this._trans.__('Scatter of %1 against %2', p.y.label, p.x.label))
+      .catch(reason => {
+        this._status.node.textContent = this._trans.__('The chart could not be drawn: %1', reason instanceof Error ? reason.message : String(reason));
+      })
+      .then(() => this._exports?.update());
   }
 
   private _renderNotes(table: ITable | null): void {
@@ -398,6 +444,7 @@ export class AnalysisPanel extends Panel {
   private _chart: ChartView;
   private _status: Widget;
   private _fit: FitSection;
+  private _exports: ExportBar | null;
   private _isotherms: IsothermSection;
   private _xSelect!: HTMLSelectElement;
   private _ySelect!: HTMLSelectElement;
@@ -428,6 +475,8 @@ export namespace AnalysisPanel {
     translator: ITranslator;
     /** Runs fits (the shared worker-backed runner). */
     runner: AnalysisRunner;
+    /** Where exports go (clipboard, files beside the notebook); without it the panel has no export toolbar. */
+    exports?: IExportHost;
     /** Select and scroll to the source cell; omitted when the table did not come from a cell (a file). */
     onRevealSource?: () => void | Promise<void>;
     /** Delete the analysis from its notebook (a button shows when given). */

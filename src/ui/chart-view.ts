@@ -67,6 +67,11 @@ export class ChartView extends Widget {
     return this._view;
   }
 
+  /** The Vega-Lite spec of the chart drawn (or being drawn), or null. */
+  get spec(): TopLevelSpec | null {
+    return this._spec;
+  }
+
   /** The renderer of the current view ({@link rendererFor}); null when nothing is drawn. */
   get renderer(): ChartRenderer | null {
     return this._view ? this._renderer : null;
@@ -80,6 +85,7 @@ export class ChartView extends Widget {
    */
   async render(spec: TopLevelSpec, label: string): Promise<void> {
     const token = ++this._renderToken;
+    this._spec = spec;
     const [vega, vegaLite] = await Promise.all([import('vega'), import('vega-lite')]);
     if (this.isDisposed || token !== this._renderToken) {
       return;
@@ -113,6 +119,7 @@ export class ChartView extends Widget {
   /** Remove the chart. */
   clear(): void {
     this._renderToken++;
+    this._spec = null;
     this._finalize();
     this.node.textContent = '';
   }
@@ -139,6 +146,7 @@ export class ChartView extends Widget {
   }
 
   private _view: View | null = null;
+  private _spec: TopLevelSpec | null = null;
   private _renderer: ChartRenderer = 'svg';
   private _renderToken = 0;
 }

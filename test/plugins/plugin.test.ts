@@ -30,6 +30,15 @@ describe('jupyterlab-psiscape:plugin', () => {
     expect(lab.app.commands.isEnabled(ANALYSE_SELECTED)).toBe(false);
   });
 
+  it('should register the export commands, disabled until an analysis panel with a result is current', async () => {
+    const lab = await labWith(plugins, PLUGIN_ID);
+    for (const id of ['psiscape:copy-result-markdown', 'psiscape:copy-result-latex', 'psiscape:copy-result-csv', 'psiscape:save-result-json', 'psiscape:save-chart-svg', 'psiscape:save-chart-png', 'psiscape:copy-chart-vega-lite']) {
+      expect(lab.app.commands.hasCommand(id)).toBe(true);
+      expect(lab.app.commands.label(id)).not.toBe('');
+      expect(lab.app.commands.isEnabled(id)).toBe(false);
+    }
+  });
+
   it('should open a panel with the first table of the selected cell', async () => {
     const lab = await labWith(plugins, PLUGIN_ID);
     const panel = await openInLab(lab, 'fixtures/outputs.ipynb', readNotebook('test/fixtures/outputs.ipynb'));

@@ -10,9 +10,10 @@ import { AnalysisSession } from '../../src/core/analysis/session';
 import type { ParseResult } from '../../src/core/table';
 import { AnalysisPanel } from '../../src/ui/analysis-panel';
 import { AnalysisRunner } from '../../src/ui/analysis-runner';
+import type { IExportHost } from '../../src/ui/export-bar';
 
 /** An attached panel showing `parse`, with a spy for "Show source cell". */
-export function panelFor(parse: ParseResult, options: { onRevealSource?: () => void; workerFactory?: () => null } = {}) {
+export function panelFor(parse: ParseResult, options: { onRevealSource?: () => void; workerFactory?: () => null; exports?: IExportHost } = {}) {
   const session = new AnalysisSession({ id: 't1', source: { notebookPath: 'sample.ipynb', cellId: 'c', outputIndex: 0, contentHash: 'h' } });
   session.setParse(parse);
   const onRevealSource = options.onRevealSource ?? vi.fn();
@@ -23,7 +24,8 @@ export function panelFor(parse: ParseResult, options: { onRevealSource?: () => v
     pointSize: 30,
     translator: nullTranslator,
     onRevealSource,
-    runner: new AnalysisRunner({ workerFactory: options.workerFactory ?? (() => null) })
+    runner: new AnalysisRunner({ workerFactory: options.workerFactory ?? (() => null) }),
+    exports: options.exports
   });
   Widget.attach(panel, document.body);
   return { panel, session, onRevealSource };

@@ -1,0 +1,172 @@
+/**
+ * The analysis panel's export toolbar: the current fit's result copied as
+ * Markdown, LaTeX or CSV, or saved as JSON (schema/analysis-result.v1.json);
+ * the chart saved as SVG or PNG; the chart's Vega-Lite spec copied. Files are
+ * written beside the notebook through JupyterLab's contents service (the
+ * host's `save`), so they appear in the file browser like any other file.
+ */
+import type { TranslationBundle } from '@jupyterlab/translation';
+import { Widget } from '@lumino/widgets';
+import type { View } from 'vega';
+import type { IAnalysisReport } from '../core/analysis/report';
+import { reportCsv, reportLatex, reportMarkdown } from '../core/analysis/report';
+
+/** What the export toolbar needs from the lab. */
+export interface IExportHost {
+  /** psiscape's version, written into every export. */
+  psiscapeVersion: string;
+  /** Put text on the system clipboard. */
+  copy(text: string): void;
+  /** Save a file beside the analysed notebook or file; resolves with the path written. */
+  save(name: string, content: string, format: 'text' | 'base64'): Promise<string>;
+}
+
+/** What the toolbar exports, read from the panel at the moment of the click. */
+export interface IExportSource {
+  /** The current fit's record, or null when no fit of the data and settings now chosen is shown. */
+  report(): IAnalysisReport | null;
+  /** The chart's Vega view, or null before it is drawn. */
+  view(): View | null;
+  /** The Vega-Lite spec of the chart drawn, or null. */
+  spec(): unknown;
+  /** Short name for files: the notebook or file name without its extension. */
+  baseName(): string;
+}
+
+/** The export actions, by id (also the commands' argument). */
+export type ExportAction = 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite';
+
+/** PNG pixels per chart pixel (sharp on high-density screens and in print). */
+export const PNG_SCALE = 2;
+
+/** Toolbar of export actions. */
+export class ExportBar extends Widget {
+  constructor(options: { trans: TranslationBundle; host: IExportHost; source: IExportSource }) {
+    super();
+    this._trans = options.trans;
+    this._host = options.host;
+    this._source = options.source;
+    this.addClass('jp-psiscape-ExportBar');
+    this.node.setAttribute('role', 'toolbar');
+    this.node.setAttribute('aria-label', this._trans.__('Export'));
+    const trans = this._trans;
+    const labels: [ExportAction, string, string][] = [
+      ['markdown', trans.__('Copy as Markdown'), trans.__('Copy the fit result as a Markdown table (numbers as in the panel)')],
+      ['latex', trans.__('Copy as LaTeX'), trans.__('Copy the fit result as a LaTeX tabular in value(uncertainty) notation')],
+      ['csv', trans.__('Copy as CSV'), trans.__('Copy the fitted parameters as CSV, at full precision')],
+      ['json', trans.__('Save result (JSON)'), trans.__('Save the whole result — values, errors, covariance, verdict, window, source — as JSON beside the notebook')],
+      ['svg', trans.__('Save chart (SVG)'), trans.__('Save the chart as an SVG file beside the notebook')],
+      ['png', trans.__('Save chart (PNG)'), trans.__('Save the chart as a PNG file (twice the screen resolution) beside the notebook')],
+      ['vega-lite', trans.__('Copy Vega-Lite'), trans.__('Copy the chart’s Vega-Lite specification')]
+    ];
+    const row = document.createElement('div');
+    row.className = 'jp-psiscape-ExportBar-buttons';
+    for (const [action, label, caption] of labels) {
+      const b = document.createElement('button');
+      b.type = 'button';
+      b.className = `jp-Button jp-mod-styled jp-mod-reject jp-psiscape-export-${action}`;
+      b.textContent = label;
+      b.title = caption;
+      b.addEventListener('click', () => void this.run(action));
+      this._buttons.set(action, b);
+      row.appendChild(b);
+    }
+    this._status = document.createElement('span');
+    this._status.className = 'jp-psiscape-ExportBar-status';
+    this._status.setAttribute('aria-live', 'polite');
+    this.node.append(row, this._status);
+    this.update();
+  }
+
+  /** Whether an action has something to export now. */
+  canRun(action: ExportAction): boolean {
+    switch (action) {
+      case 'markdown':
+      case 'latex':
+      case 'csv':
+      case 'json':
+        return this._source.report() !== null;
+      case 'svg':
+      case 'png':
+        return this._source.view() !== null;
+      case 'vega-lite':
+        return this._source.spec() !== null;
+    }
+  }
+
+  /** Enable the buttons that have something to export. */
+  update(): void {
+    for (const [action, b] of this._buttons) {
+      b.disabled = !this.canRun(action);
+    }
+  }
+
+  /** Run one action; resolves with the status text shown. */
+  async run(action: ExportAction): Promise<string> {
+    const trans = this._trans;
+    let text: string;
+    try {
+      text = await this._run(action);
+    } catch (reason) {
+      text = trans.__('Could not export: %1', reason instanceof Error ? reason.message : String(reason));
+    }
+    this._status.textContent = text;
+    return text;
+  }
+
+  private async _run(action: ExportAction): Promise<string> {
+    const trans = this._trans;
+    const report = this._source.report();
+    const base = this._source.baseName();
+    switch (action) {
+      case 'markdown':
+      case 'latex':
+      case 'csv': {
+        if (!report) {
+          return trans.__('Run a fit first: there is no result of the data and settings now chosen.');
+        }
+        const write = action === 'markdown' ? reportMarkdown : action === 'latex' ? reportLatex : reportCsv;
+        this._host.copy(write(report));
+        return action === 'markdown' ? trans.__('Copied the result as Markdown.') : action === 'latex' ? trans.__('Copied the result as LaTeX.') : trans.__('Copied the parameters as CSV.');
+      }
+      case 'json': {
+        if (!report) {
+          return trans.__('Run a fit first: there is no result of the data and settings now chosen.');
+        }
+        const path = await this._host.save(`${base} ${report.kind} result.json`, JSON.stringify(report, null, 1) + '\n', 'text');
+        return trans.__('Saved %1.', path);
+      }
+      case 'svg': {
+        const view = this._source.view();
+        if (!view) {
+          return trans.__('There is no chart to save yet.');
+        }
+        const path = await this._host.save(`${base} chart.svg`, await view.toSVG(), 'text');
+        return trans.__('Saved %1.', path);
+      }
+      case 'png': {
+        const view = this._source.view();
+        if (!view) {
+          return trans.__('There is no chart to save yet.');
+        }
+        const url = await view.toImageURL('png', PNG_SCALE);
+        const path = await this._host.save(`${base} chart.png`, url.slice(url.indexOf(',') + 1), 'base64');
+        return trans.__('Saved %1.', path);
+      }
+      case 'vega-lite': {
+        const spec = this._source.spec();
+        if (spec === null) {
+          return trans.__('There is no chart to copy yet.');
+        }
+        this._host.copy(JSON.stringify(spec, null, 1));
+        return trans.__('Copied the chart’s Vega-Lite specification.');
+      }
+    }
+  }
+
+  private _trans: TranslationBundle;
+  private _host: IExportHost;
+  private _source: IExportSource;
+  private _buttons = new Map<ExportAction, HTMLButtonElement>();
+  private _status: HTMLSpanElement;
+}
