@@ -33,6 +33,7 @@ import { FIT_DEFAULTS } from './defaults';
 import type { DifferenceScheme, ResidualEvaluator } from './evaluator';
 import type { IFitProblem } from './problem';
 import { accelerate, geodesicWork } from './geodesic';
+import { allFinite } from './residualSums';
 import {
   costNoise,
   gaussNewtonReduction,
@@ -152,22 +153,26 @@ export function* levenbergMarquardtSteps(
   const accurate: DifferenceScheme = n >= FIT_DEFAULTS.stationaryRows ? 'central' : 'extrapolated';
   let scheme: DifferenceScheme = ev.analytic ? accurate : 'forward';
 
-  const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => ({
-    p,
-    r,
-    f,
-    cost,
-    jacobian: jacAtP ? jac : null,
-    normal: normalAtP ? normal : null,
-    iterations,
-    converged,
-    reason,
-    gradientCosine: gcos,
-    restarts,
-    jacobianAccurate: jacAtP && (ev.analytic || scheme !== 'forward')
-  });
+  const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => {
+    // A Jacobian from a combined pass is checked here unless JᵀJ was formed from it.
+    const jacobianOk = jacAtP && (normalAtP || allFinite(jac, n * k));
+    return {
+      p,
+      r,
+      f,
+      cost,
+      jacobian: jacobianOk ? jac : null,
+      normal: normalAtP ? normal : null,
+      iterations,
+      converged,
+      reason,
+      gradientCosine: gcos,
+      restarts,
+      jacobianAccurate: jacobianOk && (ev.analytic || scheme !== 'forward')
+    };
+  };
 
-  let cost = combined ? ev.residualsWithJacobian(p, r, f, jac, !large) : ev.residuals(p, r, f);
+  let cost = combined ? ev.residualsWithJacobian(p, r, f, jac, false) : ev.residuals(p, r, f);
   // jac holds the Jacobian at p; normal holds JᵀJ at p.
   let jacAtP = combined && ev.lastJacobianFinite;
   let normalAtP = false;
@@ -357,7 +362,7 @@ export function* levenbergMarquardtSteps(
     }
     const dnorm2 = pnorm * pnorm;
     const pred = clipped || accelerated ? -2 * gStep - jdNorm2 : jdNorm2 + 2 * mu * dnorm2;
-    const costT = jacT ? ev.residualsWithJacobian(pT, rT, fT, jacT, !large) : ev.residuals(pT, rT, fT);
+    const costT = jacT ? ev.residualsWithJacobian(pT, rT, fT, jacT, false) : ev.residuals(pT, rT, fT);
     const jacTFinite = jacT !== null && ev.lastJacobianFinite;
     const roundingT = ev.lastRoundingNorm2;
     const actual = Number.isFinite(costT) ? cost - costT : -Infinity;
