@@ -71,6 +71,11 @@ function dataList(symbol: string): IFiniteListMessages {
   };
 }
 
+/** The messages about x, y and σ, made once (a fit builds none on its way). */
+const DATA_X = dataList('x');
+const DATA_Y = dataList('y');
+const DATA_SIGMA = dataList('σ');
+
 /** Messages about the low-order parts of the data of `symbol` ('x', 'y'). */
 function lowList(symbol: string): IFiniteListMessages {
   return {
@@ -211,19 +216,19 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
   if (!data) {
     throw new FitInputError(msg('fit.no-data', 'There are no data to fit.'));
   }
-  const x = toFloat64(data.x, dataList('x'));
+  const x = toFloat64(data.x, DATA_X);
   const n = x.length;
-  const y = toFloat64(data.y, dataList('y'), n);
+  const y = toFloat64(data.y, DATA_Y, n);
   if (n === 0) {
     throw new FitInputError(msg('fit.empty-data', 'There are no data points to fit.'));
   }
-  requireFinite(x, dataList('x'));
-  requireFinite(y, dataList('y'));
+  requireFinite(x, DATA_X);
+  requireFinite(y, DATA_Y);
   const xLow = lowParts('x', data.xLow, x);
   const yLow = lowParts('y', data.yLow, y);
   let weights: Float64Array | null = null;
   if (data.sigma !== undefined && data.sigma !== null) {
-    const sigma = toFloat64(data.sigma, dataList('σ'), n);
+    const sigma = toFloat64(data.sigma, DATA_SIGMA, n);
     weights = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       if (!(sigma[i] > 0) || !Number.isFinite(sigma[i])) {
@@ -247,8 +252,9 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
   if (!options) {
     throw new FitInputError(msg('fit.no-start-values', 'Start values are needed, one per parameter (%1).', names.join(', ')));
   }
-  const start = toFloat64(options.start, startList(names), kAll);
-  requireFinite(start, startList(names));
+  const startMessages = startList(names);
+  const start = toFloat64(options.start, startMessages, kAll);
+  requireFinite(start, startMessages);
   const lower = options.lower
     ? toFloat64(options.lower, boundList('lower', names), kAll)
     : new Float64Array(kAll).fill(-Infinity);
