@@ -292,17 +292,21 @@ export class ResidualEvaluator {
         const inv2 = 1 / (a2 - b2);
         let diff2 = 0;
         let ref2 = 0;
+        let check = 0;
+        const { fplus, fminus, fplus2, fminus2 } = this;
         for (let i = 0; i < n; i++) {
           const wi = w ? w[i] : 1;
-          const d1 = (this.fplus[i] - this.fminus[i]) * inv1 * wi;
-          const d2 = (this.fplus2[i] - this.fminus2[i]) * inv2 * wi;
-          jac[i * k + j] = (4 * d2 - d1) / 3;
+          const d1 = (fplus[i] - fminus[i]) * inv1 * wi;
+          const d2 = (fplus2[i] - fminus2[i]) * inv2 * wi;
+          const v = (4 * d2 - d1) / 3;
+          jac[i * k + j] = v;
+          check += v * 0;
           diff2 += (d1 - d2) * (d1 - d2);
           ref2 += d2 * d2;
         }
         // D(h) and D(h/2) must agree to O(h²); if not, h is too large for this
         // model here (e.g. a nearby singularity): use a small central step.
-        if (columnFinite(jac, n, k, j) && diff2 <= RICHARDSON_AGREEMENT * RICHARDSON_AGREEMENT * ref2) {
+        if (check === 0 && diff2 <= RICHARDSON_AGREEMENT * RICHARDSON_AGREEMENT * ref2) {
           return true;
         }
       }
@@ -317,11 +321,7 @@ export class ResidualEvaluator {
       const okMinus = this.callModel(this.fminus);
       this.full[idx] = pj;
       if (okPlus && okMinus) {
-        const inv = 1 / (plus - minus);
-        for (let i = 0; i < n; i++) {
-          jac[i * k + j] = (this.fplus[i] - this.fminus[i]) * inv * (w ? w[i] : 1);
-        }
-        if (columnFinite(jac, n, k, j)) {
+        if (quotientColumn(this.fplus, this.fminus, 1 / (plus - minus), w, jac, n, k, j)) {
           return true;
         }
       }
@@ -344,32 +344,38 @@ export class ResidualEvaluator {
       }
       // f'(p) ≈ (−3f(p) + 4f(p+s) − f(p+2s)) / (2s)
       const inv2 = 1 / (2 * step);
+      let check = 0;
       for (let i = 0; i < n; i++) {
-        jac[i * k + j] = (-3 * f0[i] + 4 * this.fplus[i] - this.fminus[i]) * inv2 * (w ? w[i] : 1);
+        const v = (-3 * f0[i] + 4 * this.fplus[i] - this.fminus[i]) * inv2 * (w ? w[i] : 1);
+        jac[i * k + j] = v;
+        check += v * 0;
       }
-    } else {
-      this.full[idx] = pj;
-      const inv = 1 / step;
-      if (w) {
-        for (let i = 0; i < n; i++) {
-          jac[i * k + j] = (this.fplus[i] - f0[i]) * inv * w[i];
-        }
-      } else {
-        for (let i = 0; i < n; i++) {
-          jac[i * k + j] = (this.fplus[i] - f0[i]) * inv;
-        }
-      }
+      return check === 0;
     }
-    return columnFinite(jac, n, k, j);
+    this.full[idx] = pj;
+    return quotientColumn(this.fplus, f0, 1 / step, w, jac, n, k, j);
   }
 }
 
-function columnFinite(jac: Float64Array, n: number, k: number, j: number): boolean {
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(jac[i * k + j])) {
-      return false;
+/**
+ * Column j of `jac` = (a − b)·inv·w (w = 1 without weights), written with
+ * its finiteness check in the same pass (x·0 is 0 for finite x, NaN otherwise).
+ */
+function quotientColumn(a: Float64Array, b: Float64Array, inv: number, w: Float64Array | null, jac: Float64Array, n: number, k: number, j: number): boolean {
+  let check = 0;
+  if (w) {
+    for (let i = 0; i < n; i++) {
+      const v = (a[i] - b[i]) * inv * w[i];
+      jac[i * k + j] = v;
+      check += v * 0;
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const v = (a[i] - b[i]) * inv;
+      jac[i * k + j] = v;
+      check += v * 0;
     }
   }
-  return true;
+  return check === 0;
 }
 
