@@ -20,6 +20,8 @@ import { notifyProblems, removeAnalysis, savedAnalysesOf, upsertAnalysis } from 
 import type { ISavedAnalysis } from '../core/saved';
 import { Clipboard, Notification } from '@jupyterlab/apputils';
 import type { IExportHost } from '../ui/export-bar';
+import type { IDisplayOutput } from '../core/analysis/report';
+import type { ICodeCellModel } from '@jupyterlab/cells';
 import { UUID } from '@lumino/coreutils';
 import { DEFAULT_KIND, isKnownKind } from '../core/analysis';
 import { AnalysisSession } from '../core/analysis/session';
@@ -36,6 +38,9 @@ function nextFrame(): Promise<void> {
 
 /** Saved analyses opened at once when a notebook opens; the rest wait for the reopen command. */
 export const RESTORE_AT_ONCE = 4;
+
+/** Cell metadata key marking the cells that hold an analysis's inserted outputs. */
+export const CELL_KEY = 'psiscape';
 
 /** The panels, explorers and actions behind psiscape's commands. */
 export interface IWorkbench {
@@ -95,6 +100,41 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     }
   });
 
+  /**
+   * Saved outputs of an analysis in its notebook: a code cell below the
+   * source cell (or the one inserted before for the same analysis, updated in
+   * place), its input collapsed, holding the outputs.
+   */
+  const notebookInsert =
+    (panel: NotebookPanel, sourceCellId: () => string) =>
+    async (outputs: IDisplayOutput[], analysisId: string, caption: string): Promise<string> => {
+      const model = panel.content.model;
+      if (!model || panel.isDisposed) {
+        throw new Error(trans.__('the notebook is closed'));
+      }
+      const cells = panel.content.widgets;
+      const mine = (c: (typeof cells)[number]) => (c.model.getMetadata(CELL_KEY) as { analysis?: unknown } | undefined)?.analysis === analysisId;
+      const existing = cells.findIndex(mine);
+      if (existing >= 0) {
+        const cell = cells[existing].model as ICodeCellModel;
+        cell.sharedModel.transact(() => {
+          cell.outputs.clear();
+          outputs.forEach(o => cell.outputs.add(o as unknown as Parameters<typeof cell.outputs.add>[0]));
+        });
+        return trans.__('cell %1, updated', existing + 1);
+      }
+      const sourceIndex = cells.findIndex(c => c.model.id === sourceCellId());
+      const at = sourceIndex >= 0 ? sourceIndex + 1 : cells.length;
+      model.sharedModel.insertCell(at, {
+        cell_type: 'code',
+        source: `# psiscape: ${caption.replace(/\n/g, ' ')}.\n# The outputs below were written by psiscape and need no kernel. Running this cell clears them;\n# insert them again from the analysis panel.`,
+        metadata: { [CELL_KEY]: { analysis: analysisId }, jupyter: { source_hidden: true }, editable: false },
+        outputs: outputs as unknown as NonNullable<Parameters<typeof model.sharedModel.insertCell>[1]['outputs']>,
+        execution_count: null
+      });
+      return trans.__('cell %1', at + 1);
+    };
+
   /** Tell the user about problems with saved analyses, through JupyterLab's notifications. */
   const notify = (path: string, problems: readonly ICoreMessage[]): void => notifyProblems(trans, problems, path);
 
@@ -144,7 +184,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       pointSize: ctx.settings().pointSize,
       translator,
       runner: new AnalysisRunner(),
-      exports: exportHost(panel.context.path),
+      exports: { ...exportHost(panel.context.path), insert: notebookInsert(panel, () => session.source?.cellId ?? cellId) },
       onRevealSource: async () => {
         await revealCell(app, tracker, panel.context.path, cellId);
       },

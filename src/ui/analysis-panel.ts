@@ -79,7 +79,12 @@ export class AnalysisPanel extends Panel {
             report: () => this.report(options.exports!.psiscapeVersion),
             view: () => this._chart.view,
             spec: () => this._chart.spec,
-            baseName: () => this._notebookName.replace(/\.[^.]*$/, '') || 'analysis'
+            baseName: () => this._notebookName.replace(/\.[^.]*$/, '') || 'analysis',
+            analysis: () => ({ id: this._session.id, saved: this._session.toSaved() }),
+            chartSize: () => {
+              const box = (this._chart.node.querySelector('svg, canvas') ?? this._chart.node).getBoundingClientRect();
+              return { width: box.width, height: box.height };
+            }
           }
         })
       : null;

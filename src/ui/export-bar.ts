@@ -9,7 +9,8 @@ import type { TranslationBundle } from '@jupyterlab/translation';
 import { Widget } from '@lumino/widgets';
 import type { View } from 'vega';
 import type { IAnalysisReport } from '../core/analysis/report';
-import { reportCsv, reportLatex, reportMarkdown } from '../core/analysis/report';
+import { notebookOutputs, reportCsv, reportLatex, reportMarkdown } from '../core/analysis/report';
+import type { IDisplayOutput } from '../core/analysis/report';
 
 /** What the export toolbar needs from the lab. */
 export interface IExportHost {
@@ -19,6 +20,12 @@ export interface IExportHost {
   copy(text: string): void;
   /** Save a file beside the analysed notebook or file; resolves with the path written. */
   save(name: string, content: string, format: 'text' | 'base64'): Promise<string>;
+  /**
+   * Put the analysis into its notebook as saved cell outputs, below its source
+   * cell (or in place of the outputs inserted before for the same analysis);
+   * resolves with where ("cell 5"). Absent for analyses of files.
+   */
+  insert?(outputs: IDisplayOutput[], analysisId: string, caption: string): Promise<string>;
 }
 
 /** What the toolbar exports, read from the panel at the moment of the click. */
@@ -31,10 +38,14 @@ export interface IExportSource {
   spec(): unknown;
   /** Short name for files: the notebook or file name without its extension. */
   baseName(): string;
+  /** The analysis's id and its saved form (plotted data and settings), for the notebook output. */
+  analysis(): { id: string; saved: unknown };
+  /** The chart's size on screen, in CSS pixels. */
+  chartSize(): { width: number; height: number };
 }
 
 /** The export actions, by id (also the commands' argument). */
-export type ExportAction = 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite';
+export type ExportAction = 'insert' | 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite';
 
 /** PNG pixels per chart pixel (sharp on high-density screens and in print). */
 export const PNG_SCALE = 2;
@@ -51,6 +62,9 @@ export class ExportBar extends Widget {
     this.node.setAttribute('aria-label', this._trans.__('Export'));
     const trans = this._trans;
     const labels: [ExportAction, string, string][] = [
+      ...(this._host.insert
+        ? ([['insert', trans.__('Insert into notebook'), trans.__('Add the chart and the results below the source cell as saved outputs, readable without psiscape or a kernel (again: update them in place)')]] as [ExportAction, string, string][])
+        : []),
       ['markdown', trans.__('Copy as Markdown'), trans.__('Copy the fit result as a Markdown table (numbers as in the panel)')],
       ['latex', trans.__('Copy as LaTeX'), trans.__('Copy the fit result as a LaTeX tabular in value(uncertainty) notation')],
       ['csv', trans.__('Copy as CSV'), trans.__('Copy the fitted parameters as CSV, at full precision')],
@@ -81,6 +95,8 @@ export class ExportBar extends Widget {
   /** Whether an action has something to export now. */
   canRun(action: ExportAction): boolean {
     switch (action) {
+      case 'insert':
+        return this._host.insert !== undefined && this._source.report() !== null && this._source.view() !== null;
       case 'markdown':
       case 'latex':
       case 'csv':
@@ -119,6 +135,18 @@ export class ExportBar extends Widget {
     const report = this._source.report();
     const base = this._source.baseName();
     switch (action) {
+      case 'insert': {
+        const view = this._source.view();
+        if (!report || !view || !this._host.insert) {
+          return trans.__('Run a fit first: there is no result of the data and settings now chosen.');
+        }
+        const url = await view.toImageURL('png', PNG_SCALE);
+        const { width, height } = this._source.chartSize();
+        const { id, saved } = this._source.analysis();
+        const outputs = notebookOutputs({ report, png: url.slice(url.indexOf(',') + 1), pngScale: PNG_SCALE, width, height, svg: await view.toSVG(), spec: this._source.spec(), analysis: saved });
+        const where = await this._host.insert(outputs, id, `${report.kindLabel}: ${report.columns.y.header} against ${report.columns.x.header}`);
+        return trans.__('Inserted into the notebook (%1). Save the notebook to keep it.', where);
+      }
       case 'markdown':
       case 'latex':
       case 'csv': {

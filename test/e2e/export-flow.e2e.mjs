@@ -7,6 +7,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { test } from 'node:test';
 import { createRequire } from 'node:module';
+import { execFileSync } from 'node:child_process';
+import os from 'node:os';
 import { contextMenu, root, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const require = createRequire(import.meta.url);
@@ -67,4 +69,38 @@ test('the export toolbar saves the fit result as JSON and the chart as SVG and P
   assert.equal(copied, 'Copied the result as Markdown.');
   await panel.locator('.jp-psiscape-ExportBar').scrollIntoViewIfNeeded();
   await screenshot(page, 'export-light', { guide: 'export' });
+});
+
+test('Insert into notebook adds the chart and the results as saved outputs that nbconvert shows without psiscape', async () => {
+  const { page } = suite.lab;
+  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
+  const cellCount = () => page.evaluate(() => Array.from(window.jupyterapp.shell.widgets('main')).find(w => w.context?.path === 'am17-demo.ipynb').content.widgets.length);
+  const before = await cellCount();
+  const status = panel.locator('.jp-psiscape-ExportBar-status');
+  await panel.locator('button.jp-psiscape-export-insert').click();
+  await status.filter({ hasText: /Inserted into the notebook \(cell 4\)/ }).waitFor({ timeout: 15000 });
+  assert.equal(await cellCount(), before + 1, 'one cell added, below the source cell (cell 3)');
+  // Again: the same cell is updated in place.
+  await panel.locator('button.jp-psiscape-export-insert').click();
+  await status.filter({ hasText: /cell 4, updated/ }).waitFor({ timeout: 15000 });
+  assert.equal(await cellCount(), before + 1, 'no second cell');
+  const inserted = page.locator('.jp-Notebook .jp-Cell').nth(3);
+  await inserted.locator('.jp-OutputArea-output img').first().waitFor({ timeout: 10000 });
+  await inserted.scrollIntoViewIfNeeded();
+  await screenshot(page, 'inserted-into-notebook-light', { guide: 'insert-into-notebook' });
+
+  // Save, then convert the saved notebook with Debian's nbconvert: no kernel, no psiscape.
+  await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
+  await page.evaluate(() => window.jupyterapp.commands.execute('docmanager:save'));
+  const nb = await page.evaluate(() => window.jupyterapp.serviceManager.contents.get('am17-demo.ipynb', { content: true }).then(m => m.content));
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'psiscape-nbconvert-'));
+  const file = path.join(dir, 'am17-demo.ipynb');
+  fs.writeFileSync(file, JSON.stringify(nb));
+  const html = execFileSync('/usr/bin/python3', ['-m', 'nbconvert', '--to', 'html', '--stdout', file], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+  fs.rmSync(dir, { recursive: true, force: true });
+  const tcText = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).first().locator('td').nth(1).textContent();
+  assert.ok(/<svg[\s\S]*mark-symbol|data:image\/png;base64,/.test(html), 'the HTML holds the chart');
+  assert.ok(html.includes('value ± standard error'), 'the HTML holds the results table');
+  assert.ok(html.includes(tcText), `the HTML holds Tc as the panel shows it (${tcText})`);
+  assert.ok(html.includes('Describes the data'), 'and the verdict');
 });

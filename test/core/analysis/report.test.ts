@@ -8,7 +8,7 @@ import path from 'node:path';
 import Ajv from 'ajv';
 import { describe, expect, it } from 'vitest';
 import { formatWithError, runAnalysisJob } from '../../../src/core/analysis';
-import { buildReport, formatConcise, latexSymbol, reportCsv, reportLatex, reportMarkdown, roundWithError } from '../../../src/core/analysis/report';
+import { ANALYSIS_MIME, buildReport, escapeHtml, formatConcise, latexSymbol, notebookOutputs, reportCsv, reportHtml, reportLatex, reportMarkdown, roundWithError } from '../../../src/core/analysis/report';
 import type { IReportContext } from '../../../src/core/analysis/report';
 import { weissMagnetisation } from '../../../src/core/physics/weiss';
 import { normal } from '../physics/prng';
@@ -149,5 +149,39 @@ describe('Markdown, LaTeX and CSV', () => {
     expect(md).toContain('M \\| $x$ & 50% _');
     const tex = reportLatex(hostile);
     expect(tex.split('\n')[0]).toContain('M | $x$ & 50% _'); // a comment line: LaTeX ignores it
+  });
+});
+
+describe('notebook outputs', () => {
+  const outcome = weissOutcome(true);
+  const r = buildReport(outcome, context);
+  const outputs = notebookOutputs({ report: r, png: 'iVBORw0KGgo=', pngScale: 2, width: 480.4, height: 300, svg: '<svg xmlns="http://www.w3.org/2000/svg"></svg>', spec: { $schema: 'https://vega.github.io/schema/vega-lite/v5.json' }, analysis: { id: 'a1' } });
+
+  it('puts the chart and the results in two display outputs with several representations each', () => {
+    expect(outputs.map(o => o.output_type)).toEqual(['display_data', 'display_data']);
+    expect(Object.keys(outputs[0].data).sort()).toEqual(['application/vnd.vegalite.v5+json', 'image/png', 'image/svg+xml', 'text/plain']);
+    expect(outputs[0].metadata).toEqual({ 'image/png': { width: 480, height: 300 } });
+    expect(Object.keys(outputs[1].data).sort()).toEqual([ANALYSIS_MIME, 'text/html', 'text/markdown', 'text/plain']);
+    const own = outputs[1].data[ANALYSIS_MIME] as { format: string; version: number; result: unknown; analysis: unknown };
+    expect(own.format).toBe('psiscape-analysis');
+    expect(own.version).toBe(1);
+    expect(own.result).toEqual(r);
+    expect(own.analysis).toEqual({ id: 'a1' });
+  });
+
+  it('writes the panel’s numbers into the HTML table', () => {
+    const html = outputs[1].data['text/html'] as string;
+    outcome.fit.parameters.forEach((name, i) => {
+      expect(html).toContain(`<tr><td>${name}</td><td>${formatWithError(outcome.fit.values[i], outcome.fit.standardErrors[i])}</td>`);
+    });
+    expect(html).toContain('psiscape 9.9.9');
+  });
+
+  it('escapes every text that reaches the HTML', () => {
+    const hostile = buildReport(outcome, { ...context, columns: { ...context.columns, y: { header: '<img src=x onerror=alert(1)>', unit: null } } });
+    const html = reportHtml(hostile);
+    expect(html).not.toContain('<img');
+    expect(html).toContain('&lt;img src=x onerror=alert(1)&gt;');
+    expect(escapeHtml(`a&b<c>"d'`)).toBe('a&amp;b&lt;c&gt;&quot;d&#39;');
   });
 });
