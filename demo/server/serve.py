@@ -50,6 +50,11 @@ def parse_args(argv):
         default=os.path.join(ROOT, "jupyterlab_psiscape", "labextension"),
         help="the built psiscape labextension folder",
     )
+    parser.add_argument(
+        "--without-psiscape",
+        action="store_true",
+        help="serve the lab without the psiscape labextension (what a collaborator without psiscape sees)",
+    )
     parser.add_argument("--keep", action="store_true", help="keep the temporary folder on exit (for debugging)")
     parser.add_argument("--log-level", default="WARN", help="Jupyter server log level (default WARN)")
     return parser.parse_args(argv)
@@ -62,7 +67,9 @@ def check_inputs(args):
     if not os.path.isfile(template):
         problems.append(f"the frontend is not built ({template} is missing): run `node demo/build.mjs`")
     built = os.path.join(args.labextension, "package.json")
-    if not os.path.isfile(built):
+    if args.without_psiscape:
+        pass
+    elif not os.path.isfile(built):
         problems.append(f"the labextension is not built ({built} is missing): run `npm run build`")
     else:
         with open(built, encoding="utf-8") as fid:
@@ -93,7 +100,8 @@ def prepare_tree(args):
     for src in sources:
         if os.path.isfile(src):
             shutil.copy(src, dirs["root"])
-    shutil.copytree(args.labextension, os.path.join(dirs["labextensions"], EXTENSION_NAME))
+    if not args.without_psiscape:
+        shutil.copytree(args.labextension, os.path.join(dirs["labextensions"], EXTENSION_NAME))
     # Keep user-level Jupyter configuration, data and runtime files out of the way.
     for var, sub in (("JUPYTER_CONFIG_DIR", "config"), ("JUPYTER_DATA_DIR", "data"), ("JUPYTER_RUNTIME_DIR", "runtime"), ("IPYTHONDIR", "ipython")):
         path = os.path.join(dirs["jupyter"], sub)

@@ -10,10 +10,13 @@ import { createRequire } from 'node:module';
 import { execFileSync } from 'node:child_process';
 import os from 'node:os';
 import { contextMenu, root, screenshot, setWindow, useDemoLab } from './lab.mjs';
+import { openNotebook, startJupyter } from './kernel-lab.mjs';
 
 const require = createRequire(import.meta.url);
 const Ajv = require('ajv');
 const suite = useDemoLab();
+/** The demo notebook as saved after the insertion (for the lab without psiscape). */
+let savedNotebook = null;
 
 /** A file of the lab's contents, as text or base64. */
 const read = (page, file, format) => page.evaluate(([p, f]) => window.jupyterapp.serviceManager.contents.get(p, { content: true, format: f }).then(m => m.content), [file, format]);
@@ -85,9 +88,8 @@ test('Insert into notebook adds the chart and the results as saved outputs that 
   await status.filter({ hasText: /cell 4, updated/ }).waitFor({ timeout: 15000 });
   assert.equal(await cellCount(), before + 1, 'no second cell');
   const inserted = page.locator('.jp-Notebook .jp-Cell').nth(3);
-  await inserted.locator('.jp-OutputArea-output img').first().waitFor({ timeout: 10000 });
-  await inserted.scrollIntoViewIfNeeded();
-  await screenshot(page, 'inserted-into-notebook-light', { guide: 'insert-into-notebook' });
+  // With psiscape installed the outputs are drawn live (next test); the saved bundle is checked by nbconvert below.
+  await inserted.locator('.jp-psiscape-AnalysisOutput').first().waitFor({ timeout: 10000 });
 
   // Save, then convert the saved notebook with Debian's nbconvert: no kernel, no psiscape.
   await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });
@@ -96,6 +98,7 @@ test('Insert into notebook adds the chart and the results as saved outputs that 
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'psiscape-nbconvert-'));
   const file = path.join(dir, 'am17-demo.ipynb');
   fs.writeFileSync(file, JSON.stringify(nb));
+  savedNotebook = JSON.stringify(nb);
   const html = execFileSync('/usr/bin/python3', ['-m', 'nbconvert', '--to', 'html', '--stdout', file], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
   fs.rmSync(dir, { recursive: true, force: true });
   const tcText = await panel.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^Tc/ }).first().locator('td').nth(1).textContent();
@@ -103,4 +106,54 @@ test('Insert into notebook adds the chart and the results as saved outputs that 
   assert.ok(html.includes('value ± standard error'), 'the HTML holds the results table');
   assert.ok(html.includes(tcText), `the HTML holds Tc as the panel shows it (${tcText})`);
   assert.ok(html.includes('Describes the data'), 'and the verdict');
+});
+
+test('with psiscape, the inserted output is a live analysis: changing its window refits without a kernel', async () => {
+  const { page } = suite.lab;
+  const inserted = page.locator('.jp-Notebook .jp-Cell').nth(3);
+  const live = inserted.locator('.jp-psiscape-AnalysisOutput .jp-psiscape-AnalysisPanel');
+  await live.waitFor({ timeout: 30000 });
+  // The chart output only points to the live one; the static picture is for readers without psiscape.
+  assert.match(await inserted.locator('.jp-psiscape-inline-chart-note').textContent(), /live in the next output/);
+  const verdict = live.locator('.jp-psiscape-verdict');
+  await verdict.waitFor({ timeout: 60000 });
+  assert.equal(await verdict.getAttribute('data-verdict'), 'fits', 'the saved fit (250–286 K) is refitted from the data in the output');
+  assert.equal(await live.locator('input.jp-psiscape-fit-min').inputValue(), '250');
+  await live.locator('svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 });
+  assert.equal(await live.locator('svg g.mark-symbol.role-mark path').count(), 81);
+  // A wider window, refitted in the browser: the whole ordered range is not a pure power law.
+  await setWindow(live, '20', '');
+  await live.locator('button.jp-psiscape-fit-run').click();
+  await page.waitForFunction(() => document.querySelector('.jp-psiscape-AnalysisOutput .jp-psiscape-verdict')?.getAttribute('data-verdict') === 'does-not-describe', undefined, { timeout: 60000 });
+  assert.equal(await page.evaluate(() => window.jupyterapp.serviceManager.sessions.running().next().done ?? true), true, 'no kernel session was started');
+  await live.scrollIntoViewIfNeeded();
+  await screenshot(page, 'inline-analysis-light', { guide: 'live-output' });
+});
+
+test('a collaborator without psiscape (a Jupyter server lab, no psiscape) sees the chart image and the results table', async () => {
+  assert.ok(savedNotebook, 'the notebook was saved with the inserted outputs');
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'psiscape-shared-'));
+  const file = path.join(dir, 'shared-am17.ipynb');
+  fs.writeFileSync(file, savedNotebook);
+  const server = await startJupyter({ notebooks: [file], withPsiscape: false });
+  let lab = null;
+  try {
+    lab = await openNotebook(server.url, 'shared-am17.ipynb');
+    const { page } = lab;
+    assert.equal(await page.evaluate(() => window.jupyterapp.commands.hasCommand('psiscape:analyse-output')), false, 'psiscape is not installed in this lab');
+    const inserted = page.locator('.jp-Notebook .jp-Cell').nth(3);
+    // An untrusted notebook: the PNG (safe) is shown, not the SVG; the HTML table is sanitised and shown.
+    await inserted.locator('.jp-OutputArea-output img').first().waitFor({ timeout: 30000 });
+    const size = await inserted.locator('.jp-OutputArea-output img').first().evaluate(img => [img.naturalWidth, img.complete]);
+    assert.ok(size[1] && size[0] > 100, `the chart image loaded (${size[0]} px wide)`);
+    const text = await inserted.locator('.jp-OutputArea').textContent();
+    assert.ok(text.includes('value ± standard error'), 'the results table shows');
+    assert.ok(text.includes('Describes the data'), 'with the verdict');
+    await inserted.scrollIntoViewIfNeeded();
+    await screenshot(page, 'shared-without-psiscape', { guide: 'shared-without-psiscape' });
+  } finally {
+    await lab?.browser.close();
+    await server.stop();
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
 });

@@ -95,14 +95,15 @@ function killGroup(pid, signal) {
  * The server runs in its own process group; `stop()` asks it to shut down
  * (kernels included) and kills the group if it does not within 20 s.
  *
- * @param {{ notebooks: string[], timeoutMs?: number }} options
+ * @param {{ notebooks: string[], timeoutMs?: number, withPsiscape?: boolean }} options
+ *   withPsiscape false: the lab a collaborator without psiscape has
  * @returns {Promise<{ url: string, log: () => string, stop: () => Promise<void> }>}
  */
-export async function startJupyter({ notebooks, timeoutMs = 90000 }) {
+export async function startJupyter({ notebooks, timeoutMs = 90000, withPsiscape = true }) {
   let lastError = '';
   for (let attempt = 0; attempt < 3; attempt++) {
     const port = await freePort();
-    const args = [SERVE_PY, '--port', String(port), '--log-level', 'INFO', ...notebooks.flatMap(n => ['--notebook', n])];
+    const args = [SERVE_PY, '--port', String(port), '--log-level', 'INFO', ...notebooks.flatMap(n => ['--notebook', n]), ...(withPsiscape ? [] : ['--without-psiscape'])];
     const child = spawn(PYTHON, args, { cwd: root, detached: true, stdio: ['ignore', 'pipe', 'pipe'] });
     let output = '';
     const keep = chunk => {

@@ -107,7 +107,7 @@ describe('Markdown, LaTeX and CSV', () => {
     });
     expect(md).toContain('Describes the data');
     expect(md).toContain('χ²_red = ');
-    expect(md).toContain('runs/am17.ipynb, cell c-3, output 1');
+    expect(md).toContain('runs/am17.ipynb, cell id c-3, output 1');
     expect(md).toContain('psiscape 9.9.9');
   });
 
@@ -159,11 +159,13 @@ describe('notebook outputs', () => {
 
   it('puts the chart and the results in two display outputs with several representations each', () => {
     expect(outputs.map(o => o.output_type)).toEqual(['display_data', 'display_data']);
-    expect(Object.keys(outputs[0].data).sort()).toEqual(['application/vnd.vegalite.v5+json', 'image/png', 'image/svg+xml', 'text/plain']);
+    expect(Object.keys(outputs[0].data).sort()).toEqual(['application/vnd.psiscape.analysis.v1+json', 'application/vnd.vegalite.v5+json', 'image/png', 'image/svg+xml', 'text/plain']);
+    expect(outputs[0].data[ANALYSIS_MIME]).toEqual({ format: 'psiscape-analysis', version: 1, part: 'chart' });
     expect(outputs[0].metadata).toEqual({ 'image/png': { width: 480, height: 300 } });
     expect(Object.keys(outputs[1].data).sort()).toEqual([ANALYSIS_MIME, 'text/html', 'text/markdown', 'text/plain']);
-    const own = outputs[1].data[ANALYSIS_MIME] as { format: string; version: number; result: unknown; analysis: unknown };
+    const own = outputs[1].data[ANALYSIS_MIME] as { format: string; version: number; part: string; result: unknown; analysis: unknown };
     expect(own.format).toBe('psiscape-analysis');
+    expect(own.part).toBe('analysis');
     expect(own.version).toBe(1);
     expect(own.result).toEqual(r);
     expect(own.analysis).toEqual({ id: 'a1' });

@@ -18,6 +18,8 @@ import { reportMarkdown } from './writers';
 
 /** psiscape's own MIME type for a whole analysis (version 1). */
 export const ANALYSIS_MIME = 'application/vnd.psiscape.analysis.v1+json';
+/** The `format` field of psiscape's MIME payload. */
+export const ANALYSIS_FORMAT = 'psiscape-analysis';
 /** The MIME type JupyterLab's Vega renderer reads for Vega-Lite 5 specs. */
 export const VEGALITE_MIME = 'application/vnd.vegalite.v5+json';
 
@@ -67,7 +69,7 @@ export function reportHtml(r: IAnalysisReport): string {
     })
     .join('');
   const end = (v: number | null): string => (v === null ? '—' : formatPlain(v));
-  const source = r.file ? `file ${r.file}` : r.source ? `${r.source.notebookPath}, cell ${r.source.cellId}, output ${r.source.outputIndex + 1}` : 'unknown source';
+  const source = r.file ? `file ${r.file}` : r.source ? `${r.source.notebookPath}, cell id ${r.source.cellId}, output ${r.source.outputIndex + 1}` : 'unknown source';
   const cautions = r.cautions.length > 0 ? `<ul>${r.cautions.map(c => `<li>${e(c)}</li>`).join('')}</ul>` : '';
   return (
     `<div class="psiscape-result">` +
@@ -91,6 +93,8 @@ export function notebookOutputs(parts: INotebookOutputParts): IDisplayOutput[] {
       'image/png': parts.png,
       'image/svg+xml': parts.svg,
       [VEGALITE_MIME]: parts.spec,
+      // With psiscape installed, the next output draws the chart live; this one only says so.
+      [ANALYSIS_MIME]: { format: ANALYSIS_FORMAT, version: 1, part: 'chart' },
       'text/plain': `<psiscape chart: ${r.columns.y.header} against ${r.columns.x.header}>`
     },
     // Drawn at pngScale × for sharpness; shown at the chart's own size.
@@ -99,7 +103,7 @@ export function notebookOutputs(parts: INotebookOutputParts): IDisplayOutput[] {
   const results: IDisplayOutput = {
     output_type: 'display_data',
     data: {
-      [ANALYSIS_MIME]: { format: 'psiscape-analysis', version: 1, result: r, analysis: parts.analysis },
+      [ANALYSIS_MIME]: { format: ANALYSIS_FORMAT, version: 1, part: 'analysis', result: r, analysis: parts.analysis },
       'text/html': reportHtml(r),
       'text/markdown': reportMarkdown(r),
       'text/plain': reportMarkdown(r)

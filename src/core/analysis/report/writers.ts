@@ -27,7 +27,7 @@ function sourceText(r: IAnalysisReport): string {
     return `file ${r.file}`;
   }
   if (r.source) {
-    return `${r.source.notebookPath}, cell ${r.source.cellId}, output ${r.source.outputIndex + 1}`;
+    return `${r.source.notebookPath}, cell id ${r.source.cellId}, output ${r.source.outputIndex + 1}`;
   }
   return 'unknown source';
 }
