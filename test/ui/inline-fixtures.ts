@@ -19,5 +19,5 @@ export function runAnalysisJobForTest(yHeader: string): { outcome: IAnalysisOutc
   session.setKind('weiss');
   const outcome = runAnalysisJob({ kind: 'weiss', x: T, y: M, window: { min: 0, max: 1000 }, options: { J: 0.5 } });
   const saved = session.toSaved()!;
-  return { outcome, saved: { ...saved, settings: { kind: 'weiss', options: { J: 0.5 }, window: { min: null, max: null } } } };
+  return { outcome, saved: { ...saved, settings: { kind: 'weiss', options: { J: 0.5 }, window: { min: 0, max: 1000 } } } };
 }
