@@ -10,6 +10,7 @@ import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
 import type { Message } from '@lumino/messaging';
 import { Panel, Widget } from '@lumino/widgets';
 import { buildFitOverlayChart } from '../charts/fit-overlay';
+import { kindById } from '../core/analysis';
 import type { AnalysisSession, SessionChange } from '../core/analysis/session';
 import type { ITable } from '../core/table';
 import type { IPlottableColumn } from '../core/table/roles';
@@ -19,7 +20,8 @@ import { ChartView } from './chart-view';
 import { ExportBar } from './export-bar';
 import type { IExportHost } from './export-bar';
 import { buildReport } from '../core/analysis/report';
-import type { IAnalysisReport } from '../core/analysis/report';
+import type { IAnalysisReport, IFittedPoints } from '../core/analysis/report';
+import { windowedPoints } from '../core/analysis/window';
 import { FitSection } from './fit-section';
 import type { ILandauOutcome } from './fit-section';
 import { IsothermSection } from './isotherm-section';
@@ -48,7 +50,8 @@ export class AnalysisPanel extends Panel {
     this.node.dataset.sourceState = 'live';
     this.node.setAttribute('aria-label', this._trans.__('Table analysis'));
     this._notebookName = options.notebookName;
-    this.title.label = this._trans.__('Analysis · %1', options.notebookName);
+    this._place = options.place ?? options.notebookName;
+    this.title.label = this._trans.__('Analysis · %1', this._place);
     this.title.caption = options.sourceLabel;
     this.title.closable = true;
 
@@ -81,6 +84,7 @@ export class AnalysisPanel extends Panel {
             spec: () => this._chart.spec,
             baseName: () => this._notebookName.replace(/\.[^.]*$/, '') || 'analysis',
             analysis: () => ({ id: this._session.id, saved: this._session.toSaved() }),
+            fitted: () => this._fittedPoints(),
             chartSize: () => {
               const box = (this._chart.node.querySelector('svg, canvas') ?? this._chart.node).getBoundingClientRect();
               return { width: box.width, height: box.height };
@@ -124,6 +128,23 @@ export class AnalysisPanel extends Panel {
       file: s.source ? undefined : this._notebookName,
       columns: { x: col(p.x), y: col(p.y), sigma: p.sigma ? col(p.sigma) : null }
     });
+  }
+
+  /** The points of the fit shown with their residuals (in the order fitted), or null. */
+  private _fittedPoints(): IFittedPoints | null {
+    const s = this._session;
+    const outcome = s.outcome;
+    const job = s.job();
+    if (!outcome || !s.outcomeIsCurrent || !('kind' in job)) {
+      return null;
+    }
+    let points: ReturnType<typeof windowedPoints>;
+    try {
+      points = windowedPoints({ x: job.x, y: job.y, sigma: job.sigma, window: outcome.window });
+    } catch {
+      return null;
+    }
+    return points.x.length === outcome.fit.residuals.length ? { x: points.x, y: points.y, sigma: points.sigma, residuals: outcome.fit.residuals } : null;
   }
 
   /** The chart widget (for tests and overlays). */
@@ -257,10 +278,9 @@ export class AnalysisPanel extends Panel {
     }
     if (changes.has('table') || changes.has('roles')) {
       this._fillPickers();
-      const p = s.plotted();
-      if (p) {
-        this.title.label = this._trans.__('%1 vs %2 · %3', p.y.column.name, p.x.column.name, this._notebookName);
-      }
+    }
+    if (changes.has('table') || changes.has('roles') || changes.has('controls')) {
+      this._updateTitle();
     }
     this._fit.render();
     this._exports?.update();
@@ -348,6 +368,37 @@ export class AnalysisPanel extends Panel {
       list.appendChild(item);
     }
     this._notes.node.replaceChildren(...(notes.length ? [list] : []));
+  }
+
+  /** Tab title "M vs T · cell 3 · Weiss": the plotted columns, where the table is, and the analysis kind. */
+  private _updateTitle(): void {
+    const p = this._session.plotted();
+    if (p) {
+      this.title.label = this._trans.__('%1 vs %2 · %3 · %4', p.y.column.name, p.x.column.name, this._place, this._kindName(this._session.kind));
+    }
+  }
+
+  /** Short name of an analysis kind for the tab title. */
+  private _kindName(kind: string): string {
+    const trans = this._trans;
+    switch (kind) {
+      case 'weiss':
+        return trans.__('Weiss');
+      case 'power-law':
+        return trans.__('power law');
+      case 'power-law-corrected':
+        return trans.__('power law + correction');
+      case 'curie-weiss':
+        return trans.__('Curie–Weiss');
+      case 'landau':
+        return trans.__('Landau');
+      case 'expression':
+        return trans.__('expression');
+      default: {
+        const known = kindById(kind);
+        return known ? translateMessage(trans, known.label) : kind;
+      }
+    }
   }
 
   private _buildHeader(sourceLabel: string): HTMLElement {
@@ -439,6 +490,7 @@ export class AnalysisPanel extends Panel {
   private _session: AnalysisSession;
   private _pointSize: number;
   private _notebookName: string;
+  private _place: string;
   private _onRevealSource: (() => void | Promise<void>) | null;
   private _onForget: (() => void) | null;
   private _header: Widget;
@@ -473,7 +525,9 @@ export namespace AnalysisPanel {
     session: AnalysisSession;
     /** Short name of the notebook (or file), for the tab title "M vs T · name". */
     notebookName: string;
-    /** Human-readable origin, e.g. "am17-demo.ipynb · cell 3 · output 1". */
+    /** Where the table is, short, for the tab title: "cell 3", or a file's name; default `notebookName`. */
+    place?: string;
+    /** Human-readable origin, e.g. "am17-demo.ipynb · cell 3 · output 1" (the tab's caption). */
     sourceLabel: string;
     /** Point area in px² (from settings). */
     pointSize: number;

@@ -44,6 +44,23 @@ export function inlineValueCount(spec: Spec): number {
   return count;
 }
 
+/**
+ * Draw `spec` off screen at a chosen size (the chart's plotting area, in
+ * CSS pixels) and return it as SVG text or as a PNG data URL drawn at
+ * `scale` × that size.
+ */
+export async function exportChart(spec: TopLevelSpec, options: { width: number; height: number; format: 'svg' | 'png'; scale: number }): Promise<string> {
+  const [vega, vegaLite] = await Promise.all([import('vega'), import('vega-lite')]);
+  const sized = { ...spec, width: options.width, height: options.height } as TopLevelSpec;
+  const view = new vega.View(vega.parse(vegaLite.compile(sized).spec), { renderer: 'none' });
+  try {
+    await view.runAsync();
+    return options.format === 'svg' ? await view.toSVG() : await view.toImageURL('png', options.scale);
+  } finally {
+    view.finalize();
+  }
+}
+
 /** Resolves in a later task (after the browser has had a chance to paint and handle input). */
 function nextTask(): Promise<void> {
   return new Promise(resolve => setTimeout(resolve, 0));

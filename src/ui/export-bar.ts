@@ -9,8 +9,10 @@ import type { TranslationBundle } from '@jupyterlab/translation';
 import { Widget } from '@lumino/widgets';
 import type { View } from 'vega';
 import type { IAnalysisReport } from '../core/analysis/report';
-import { notebookOutputs, reportCsv, reportLatex, reportMarkdown } from '../core/analysis/report';
-import type { IDisplayOutput } from '../core/analysis/report';
+import { dataCsv, notebookOutputs, reportCsv, reportLatex, reportMarkdown } from '../core/analysis/report';
+import type { IDisplayOutput, IFittedPoints } from '../core/analysis/report';
+import type { TopLevelSpec } from 'vega-lite';
+import { exportChart } from './chart-view';
 
 /** What the export toolbar needs from the lab. */
 export interface IExportHost {
@@ -42,10 +44,12 @@ export interface IExportSource {
   analysis(): { id: string; saved: unknown };
   /** The chart's size on screen, in CSS pixels. */
   chartSize(): { width: number; height: number };
+  /** The points of the current fit with their residuals, or null. */
+  fitted(): IFittedPoints | null;
 }
 
 /** The export actions, by id (also the commands' argument). */
-export type ExportAction = 'insert' | 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite';
+export type ExportAction = 'insert' | 'markdown' | 'latex' | 'csv' | 'data' | 'json' | 'svg' | 'png' | 'vega-lite';
 
 /** PNG pixels per chart pixel (sharp on high-density screens and in print). */
 export const PNG_SCALE = 2;
@@ -68,9 +72,10 @@ export class ExportBar extends Widget {
       ['markdown', trans.__('Copy as Markdown'), trans.__('Copy the fit result as a Markdown table (numbers as in the panel)')],
       ['latex', trans.__('Copy as LaTeX'), trans.__('Copy the fit result as a LaTeX tabular in value(uncertainty) notation')],
       ['csv', trans.__('Copy as CSV'), trans.__('Copy the fitted parameters as CSV, at full precision')],
+      ['data', trans.__('Save data + model (CSV)'), trans.__('Save the fitted points with the model, the residuals and (with σ) the normalised residuals as CSV beside the notebook')],
       ['json', trans.__('Save result (JSON)'), trans.__('Save the whole result — values, errors, covariance, verdict, window, source — as JSON beside the notebook')],
-      ['svg', trans.__('Save chart (SVG)'), trans.__('Save the chart as an SVG file beside the notebook')],
-      ['png', trans.__('Save chart (PNG)'), trans.__('Save the chart as a PNG file (twice the screen resolution) beside the notebook')],
+      ['svg', trans.__('Save chart (SVG)'), trans.__('Save the chart as an SVG file beside the notebook, at the size chosen below (blank: as shown)')],
+      ['png', trans.__('Save chart (PNG)'), trans.__('Save the chart as a PNG file beside the notebook, at the size and scale chosen below')],
       ['vega-lite', trans.__('Copy Vega-Lite'), trans.__('Copy the chart’s Vega-Lite specification')]
     ];
     const row = document.createElement('div');
@@ -85,6 +90,41 @@ export class ExportBar extends Widget {
       this._buttons.set(action, b);
       row.appendChild(b);
     }
+    // Size and scale of saved charts: blank size means as shown.
+    const size = document.createElement('div');
+    size.className = 'jp-psiscape-ExportBar-size';
+    const field = (cls: string, label: string, placeholder: string): HTMLInputElement => {
+      const wrap = document.createElement('label');
+      const span = document.createElement('span');
+      span.textContent = label;
+      const input = document.createElement('input');
+      input.type = 'number';
+      input.min = '50';
+      input.max = '4000';
+      input.step = '10';
+      input.className = `jp-mod-styled ${cls}`;
+      input.placeholder = placeholder;
+      wrap.append(span, input);
+      size.appendChild(wrap);
+      return input;
+    };
+    this._width = field('jp-psiscape-export-width', trans.__('saved chart width (px)'), trans.__('as shown'));
+    this._height = field('jp-psiscape-export-height', trans.__('height (px)'), trans.__('as shown'));
+    const scaleLabel = document.createElement('label');
+    const scaleSpan = document.createElement('span');
+    scaleSpan.textContent = trans.__('PNG scale');
+    this._scale = document.createElement('select');
+    this._scale.className = 'jp-mod-styled jp-psiscape-export-scale';
+    for (const k of [1, 2, 3, 4]) {
+      const o = document.createElement('option');
+      o.value = String(k);
+      o.textContent = `${k}×`;
+      o.selected = k === PNG_SCALE;
+      this._scale.appendChild(o);
+    }
+    scaleLabel.append(scaleSpan, this._scale);
+    size.appendChild(scaleLabel);
+    this.node.appendChild(size);
     this._status = document.createElement('span');
     this._status.className = 'jp-psiscape-ExportBar-status';
     this._status.setAttribute('aria-live', 'polite');
@@ -105,6 +145,8 @@ export class ExportBar extends Widget {
       case 'svg':
       case 'png':
         return this._source.view() !== null;
+      case 'data':
+        return this._source.report() !== null && this._source.fitted() !== null;
       case 'vega-lite':
         return this._source.spec() !== null;
     }
@@ -164,21 +206,35 @@ export class ExportBar extends Widget {
         const path = await this._host.save(`${base} ${report.kind} result.json`, JSON.stringify(report, null, 1) + '\n', 'text');
         return trans.__('Saved %1.', path);
       }
-      case 'svg': {
-        const view = this._source.view();
-        if (!view) {
-          return trans.__('There is no chart to save yet.');
+      case 'data': {
+        const points = this._source.fitted();
+        if (!report || !points) {
+          return trans.__('Run a fit first: there is no result of the data and settings now chosen.');
         }
-        const path = await this._host.save(`${base} chart.svg`, await view.toSVG(), 'text');
+        const path = await this._host.save(`${base} ${report.kind} data.csv`, dataCsv(report, points), 'text');
         return trans.__('Saved %1.', path);
       }
+      case 'svg':
       case 'png': {
         const view = this._source.view();
-        if (!view) {
+        const spec = this._source.spec() as TopLevelSpec | null;
+        if (!view || !spec) {
           return trans.__('There is no chart to save yet.');
         }
-        const url = await view.toImageURL('png', PNG_SCALE);
-        const path = await this._host.save(`${base} chart.png`, url.slice(url.indexOf(',') + 1), 'base64');
+        const scale = Number(this._scale.value) || PNG_SCALE;
+        const width = Number(this._width.value);
+        const height = Number(this._height.value);
+        const chosen = width >= 50 && height >= 50;
+        if ((this._width.value || this._height.value) && !chosen) {
+          return trans.__('Give both a width and a height of at least 50 px, or leave both blank for the chart as shown.');
+        }
+        const content = chosen
+          ? await exportChart(spec, { width, height, format: action, scale })
+          : action === 'svg'
+            ? await view.toSVG()
+            : await view.toImageURL('png', scale);
+        const text = action === 'svg' ? content : content.slice(content.indexOf(',') + 1);
+        const path = await this._host.save(`${base} chart.${action}`, text, action === 'svg' ? 'text' : 'base64');
         return trans.__('Saved %1.', path);
       }
       case 'vega-lite': {
@@ -197,4 +253,7 @@ export class ExportBar extends Widget {
   private _source: IExportSource;
   private _buttons = new Map<ExportAction, HTMLButtonElement>();
   private _status: HTMLSpanElement;
+  private _width: HTMLInputElement;
+  private _height: HTMLInputElement;
+  private _scale: HTMLSelectElement;
 }

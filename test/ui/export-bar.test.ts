@@ -108,6 +108,39 @@ describe('ExportBar in the analysis panel', () => {
     expect(spec.$schema).toMatch(/vega-lite/);
   });
 
+  it('should save the fitted points with the model and residuals as CSV', async () => {
+    const { h, saved } = host();
+    const { bar, session } = await fitted(h);
+    expect(await bar.run('data')).toBe('Saved runs/sample weiss data.csv.');
+    const lines = saved[0].content.trim().split('\n');
+    expect(lines[0]).toBe('T (K),M (emu/g),sigma_M (emu/g),model,residual,normalised_residual');
+    const outcome = session.outcome!;
+    expect(lines.length - 1).toBe(outcome.used);
+    lines.slice(1).forEach((line, i) => {
+      const [, y, sigma, model, residual, normalised] = line.split(',').map(Number);
+      expect(residual).toBe(outcome.fit.residuals[i]);
+      expect(model).toBeCloseTo(y - residual, 12);
+      expect(normalised).toBeCloseTo(residual / sigma, 12);
+    });
+  });
+
+  it('should save the chart at a chosen size, and refuse half a size', async () => {
+    const { h, saved } = host();
+    const { bar, panel } = await fitted(h);
+    const width = panel.node.querySelector<HTMLInputElement>('input.jp-psiscape-export-width')!;
+    const height = panel.node.querySelector<HTMLInputElement>('input.jp-psiscape-export-height')!;
+    width.value = '640';
+    expect(await bar.run('svg')).toMatch(/both a width and a height/);
+    height.value = '400';
+    expect(await bar.run('svg')).toBe('Saved runs/sample chart.svg.');
+    const svg = new DOMParser().parseFromString(saved[0].content, 'image/svg+xml').documentElement;
+    // The plotting area is 640 × 400; axes, titles and legend add a margin.
+    expect(Number(svg.getAttribute('width'))).toBeGreaterThanOrEqual(640);
+    expect(Number(svg.getAttribute('width'))).toBeLessThan(640 + 250);
+    expect(Number(svg.getAttribute('height'))).toBeGreaterThanOrEqual(400);
+    expect(svg.querySelectorAll('g.mark-symbol.role-mark path').length).toBe(60);
+  });
+
   it('should say what went wrong when saving fails, and lose nothing', async () => {
     const { h } = host();
     h.save = async () => {

@@ -161,3 +161,33 @@ export function reportCsv(r: IAnalysisReport): string {
   rows.push(['reduced_chi2', fullPrecision(r.fit.reducedChi2), '', '', '', 'statistic']);
   return rows.map(row => row.map(csvField).join(',')).join('\n') + '\n';
 }
+
+/** The fitted points with the model and residuals, for {@link dataCsv}. */
+export interface IFittedPoints {
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  sigma?: ArrayLike<number>;
+  /** yᵢ − f(xᵢ), one per point. */
+  residuals: ArrayLike<number>;
+}
+
+/**
+ * The fitted points as CSV at full precision: x, y, σ (when given), the
+ * model f(x) = y − residual, the residual y − f(x) and, with σ, the
+ * normalised residual (y − f(x))/σ. Headers are the columns' own.
+ */
+export function dataCsv(r: IAnalysisReport, points: IFittedPoints): string {
+  const n = points.x.length;
+  if (points.y.length !== n || points.residuals.length !== n || (points.sigma && points.sigma.length !== n)) {
+    throw new RangeError(`the fitted points and their residuals differ in length (${n}, ${points.y.length}, ${points.residuals.length})`);
+  }
+  const sigmaHeader = r.columns.sigma ? r.columns.sigma.header : 'sigma';
+  const header = [r.columns.x.header, r.columns.y.header, ...(points.sigma ? [sigmaHeader] : []), 'model', 'residual', ...(points.sigma ? ['normalised_residual'] : [])];
+  const rows = [header.map(csvField).join(',')];
+  for (let i = 0; i < n; i++) {
+    const res = points.residuals[i];
+    const cells = [points.x[i], points.y[i], ...(points.sigma ? [points.sigma[i]] : []), points.y[i] - res, res, ...(points.sigma ? [res / points.sigma[i]] : [])];
+    rows.push(cells.map(v => fullPrecision(v)).join(','));
+  }
+  return rows.join('\n') + '\n';
+}
