@@ -14,6 +14,7 @@ import type { ITranslator } from '@jupyterlab/translation';
 import { locateOutputNode } from './locate';
 import type { IPsiscapeSettings } from './settings';
 import type { IWorkbench } from './workbench';
+import type { IRestoreHooks } from './restore';
 
 /** Command ids. */
 export namespace CommandIDs {
@@ -21,6 +22,7 @@ export namespace CommandIDs {
   export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
   export const analyseFile = 'psiscape:analyse-file';
   export const reopenSaved = 'psiscape:reopen-saved-analyses';
+  export const reopenSavedAnalysis = 'psiscape:reopen-saved-analysis';
   export const openLandauExplorer = 'psiscape:open-landau-explorer';
   export const copyMarkdown = 'psiscape:copy-result-markdown';
   export const copyLatex = 'psiscape:copy-result-latex';
@@ -53,6 +55,8 @@ export interface ICommandContext {
   settings: () => IPsiscapeSettings;
   /** psiscape's version (written into exports). */
   psiscapeVersion: string;
+  /** Tracking of the widgets opened, for the layout restorer (absent: nothing is restored after a reload). */
+  restore?: IRestoreHooks;
 }
 
 /** Access to the workbench behind the commands, loaded on first use. */
@@ -105,13 +109,44 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
   app.commands.addCommand(CommandIDs.analyseFile, {
     label: trans.__('Analyse with psiscape'),
     caption: trans.__('Open this CSV or TSV file in a psiscape analysis panel, at full precision'),
-    describedBy: { args: { type: 'object', properties: { path: { type: 'string', description: trans.__('File path; default: the selected file') } } } },
+    describedBy: {
+      args: {
+        type: 'object',
+        properties: {
+          path: { type: 'string', description: trans.__('File path; default: the selected file') },
+          id: { type: 'string', description: trans.__('Identifier of the analysis (kept when it is restored)') },
+          state: { type: 'object', description: trans.__('Columns, analysis kind, options and fit window to start with') }
+        }
+      }
+    },
     isVisible: () => ctx.selectedFile() !== null,
     execute: async args => {
       const path = typeof args.path === 'string' ? args.path : ctx.selectedFile();
       if (path) {
-        await (await workbench()).analyseFile(path);
+        const state = args.state && typeof args.state === 'object' && !Array.isArray(args.state) ? (args.state as Record<string, unknown>) : undefined;
+        await (await workbench()).analyseFile(path, { id: typeof args.id === 'string' ? args.id : undefined, state });
       }
+    }
+  });
+
+  app.commands.addCommand(CommandIDs.reopenSavedAnalysis, {
+    label: trans.__('Reopen Saved Analysis'),
+    caption: trans.__('Open one psiscape analysis saved in a notebook, opening the notebook if needed'),
+    describedBy: {
+      args: {
+        type: 'object',
+        properties: {
+          path: { type: 'string', description: trans.__('Notebook path') },
+          id: { type: 'string', description: trans.__('Identifier of the saved analysis') }
+        },
+        required: ['path', 'id']
+      }
+    },
+    execute: async args => {
+      if (typeof args.path !== 'string' || typeof args.id !== 'string') {
+        throw new Error('psiscape:reopen-saved-analysis needs a notebook path and an analysis id');
+      }
+      return (await workbench()).reopenSaved(args.path, args.id);
     }
   });
 
@@ -137,7 +172,11 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
           T0: { type: 'number', description: trans.__('Temperature T0') },
           b: { type: 'number', description: trans.__('Coefficient b (convention L)') },
           c: { type: 'number', description: trans.__('Coefficient c (convention L)') },
-          d: { type: 'number', description: trans.__('Cubic coefficient d (convention L)') }
+          d: { type: 'number', description: trans.__('Cubic coefficient d (convention L)') },
+          convention: { type: 'string', description: trans.__('Convention the coefficients are shown in') },
+          T: { type: 'number', description: trans.__('Temperature of the landscape') },
+          h: { type: 'number', description: trans.__('Conjugate field h') },
+          id: { type: 'string', description: trans.__('Identifier of the explorer (kept when it is restored)') }
         }
       }
     },

@@ -5,6 +5,7 @@
  *
  * @packageDocumentation
  */
+import { ILayoutRestorer } from '@jupyterlab/application';
 import type { JupyterFrontEnd, JupyterFrontEndPlugin } from '@jupyterlab/application';
 import { ICommandPalette, IThemeManager } from '@jupyterlab/apputils';
 import { IDefaultFileBrowser } from '@jupyterlab/filebrowser';
@@ -14,6 +15,7 @@ import { ISettingRegistry } from '@jupyterlab/settingregistry';
 import { ITranslator, nullTranslator } from '@jupyterlab/translation';
 import { CommandIDs, EXPORT_COMMANDS, registerCommands } from './commands';
 import { readSettings } from './settings';
+import { createRestoreHooks } from './restore';
 import { SAVED_KEY } from '../core/saved/types';
 
 /** Plugin id; also the settings schema id (schema/settings/plugin.json). */
@@ -24,7 +26,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
   description: 'Analyse tables from notebook outputs: order-parameter charts and phase-transition fits.',
   autoStart: true,
   requires: [INotebookTracker, ISettingRegistry],
-  optional: [ITranslator, ICommandPalette, IThemeManager, IDefaultFileBrowser],
+  optional: [ITranslator, ICommandPalette, IThemeManager, IDefaultFileBrowser, ILayoutRestorer],
   activate: async (
     app: JupyterFrontEnd,
     tracker: INotebookTracker,
@@ -32,9 +34,18 @@ const plugin: JupyterFrontEndPlugin<void> = {
     translator: ITranslator | null,
     palette: ICommandPalette | null,
     themeManager: IThemeManager | null,
-    fileBrowser: IDefaultFileBrowser | null
+    fileBrowser: IDefaultFileBrowser | null,
+    restorer: ILayoutRestorer | null
   ): Promise<void> => {
     const trans = (translator ?? nullTranslator).load('jupyterlab_psiscape');
+    // Registered with the layout restorer before anything is awaited (it must know its trackers
+    // before the application has started); the commands they run load the workbench only when
+    // something is actually restored.
+    const restore = createRestoreHooks(restorer, {
+      analysis: CommandIDs.reopenSavedAnalysis,
+      file: CommandIDs.analyseFile,
+      explorer: CommandIDs.openLandauExplorer
+    });
     const settings = await settingRegistry.load(PLUGIN_ID);
     let current = readSettings(settings.composite);
     settings.changed.connect(() => {
@@ -46,6 +57,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
       translator: translator ?? nullTranslator,
       settings: () => current,
       psiscapeVersion: settings.version,
+      restore,
       selectedFile: () => {
         const item = fileBrowser ? fileBrowser.selectedItems().next() : null;
         return item && !item.done && item.value.type !== 'directory' ? item.value.path : null;

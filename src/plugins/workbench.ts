@@ -23,7 +23,10 @@ import type { IExportHost } from '../ui/export-bar';
 import type { IDisplayOutput } from '../core/analysis/report';
 import type { ICodeCellModel } from '@jupyterlab/cells';
 import { UUID } from '@lumino/coreutils';
-import { DEFAULT_KIND, isKnownKind } from '../core/analysis';
+import { DEFAULT_KIND, isKnownKind, kindById, optionsFromJson } from '../core/analysis';
+import type { OptionValue } from '../core/analysis';
+import type { ReadonlyPartialJSONObject } from '@lumino/coreutils';
+import type { LandauConvention } from '../core/physics/landau/index';
 import { AnalysisSession } from '../core/analysis/session';
 import { msg } from '../core/messages';
 import type { ICoreMessage } from '../core/messages';
@@ -38,6 +41,9 @@ function nextFrame(): Promise<void> {
 
 /** Saved analyses opened at once when a notebook opens; the rest wait for the reopen command. */
 export const RESTORE_AT_ONCE = 4;
+
+/** How long reopening a saved analysis waits for its notebook to come back with the layout before opening it. */
+export const NOTEBOOK_WAIT_MS = 5000;
 
 /** Cell metadata key marking the cells that hold an analysis's inserted outputs. */
 export const CELL_KEY = 'psiscape';
@@ -56,10 +62,110 @@ export interface IWorkbench {
   analyseOutput(located: ILocatedOutput | null): Promise<void>;
   /** Analyse the first table output of the selected cell. */
   analyseSelectedCell(): Promise<void>;
-  /** Analyse a CSV or TSV file. */
-  analyseFile(path: string): Promise<void>;
-  /** Open a Landau explorer, with coefficients when given; returns its widget id. */
-  openExplorer(args: Readonly<Record<string, unknown>>): string;
+  /**
+   * Analyse a CSV or TSV file; with `state` (as stored for the layout
+   * restorer), with those columns, kind, options and window. Resolves with the
+   * panel's widget id.
+   */
+  analyseFile(path: string, restore?: { id?: string; state?: Readonly<Record<string, unknown>> }): Promise<string>;
+  /**
+   * Open one analysis saved in a notebook (opening the notebook when it is not
+   * open), or show it when it is open already. Resolves with the panel's widget
+   * id; rejects when the notebook does not hold it.
+   */
+  reopenSaved(notebookPath: string, analysisId: string): Promise<string>;
+  /**
+   * Open a Landau explorer, with coefficients (and convention, T, h) when
+   * given; an `id` of an open explorer shows that one. Resolves with its widget id.
+   */
+  openExplorer(args: Readonly<Record<string, unknown>>): Promise<string>;
+}
+
+/** A file analysis's state as stored for the layout restorer. */
+export interface IFileAnalysisState {
+  x: { index: number; header: string };
+  y: { index: number; header: string };
+  sigma: { index: number; header: string } | null;
+  kind: string;
+  /** Options of the kind; ±∞ as the strings "inf" / "-inf". */
+  options: Record<string, string | number | boolean>;
+  /** Fit window as typed; null for the data's end. */
+  window: { min: number | null; max: number | null };
+  /** Whether a fit was shown (it runs again when the panel is first shown). */
+  fitted: boolean;
+}
+
+/** The state of a file analysis's session, as JSON; null before it has columns. */
+export function fileAnalysisState(session: AnalysisSession): IFileAnalysisState | null {
+  const p = session.plotted();
+  if (!p) {
+    return null;
+  }
+  const ref = (c: { index: number; column: { header: string } }) => ({ index: c.index, header: c.column.header });
+  const options: Record<string, string | number | boolean> = {};
+  for (const [key, v] of Object.entries(session.options)) {
+    options[key] = typeof v === 'number' && !Number.isFinite(v) ? (v > 0 ? 'inf' : '-inf') : v;
+  }
+  return {
+    x: ref(p.x),
+    y: ref(p.y),
+    sigma: p.sigma ? ref(p.sigma) : null,
+    kind: session.kind,
+    options,
+    window: { ...session.windowInput },
+    fitted: session.outcome !== null
+  };
+}
+
+/**
+ * Apply a stored file-analysis state to a session holding the file's table:
+ * columns found by position and header (or by a unique header), then kind,
+ * options and window. What no longer fits is left at its default.
+ *
+ * @returns whether a fit was shown when the state was stored.
+ */
+export function applyFileAnalysisState(session: AnalysisSession, raw: Readonly<Record<string, unknown>>): boolean {
+  const state = raw as Partial<IFileAnalysisState>;
+  const find = (r: unknown): number | null | undefined => {
+    if (!r || typeof r !== 'object') {
+      return r === null ? null : undefined;
+    }
+    const { index, header } = r as { index?: unknown; header?: unknown };
+    const columns = session.columns;
+    const exact = columns.find(c => c.index === index && c.column.header === header);
+    if (exact) {
+      return exact.index;
+    }
+    const named = columns.filter(c => c.column.header === header);
+    return named.length === 1 ? named[0].index : undefined;
+  };
+  const x = find(state.x);
+  const y = find(state.y);
+  const sigma = find(state.sigma);
+  try {
+    session.setRoles({ x: x ?? undefined, y: y ?? undefined, sigma: y !== undefined || sigma !== undefined ? (sigma === undefined ? null : sigma) : undefined });
+  } catch {
+    // columns that are no longer numeric: keep the guessed ones
+  }
+  if (typeof state.kind === 'string' && kindById(state.kind)) {
+    session.setKind(state.kind);
+    if (state.options && typeof state.options === 'object') {
+      const options: Record<string, OptionValue> = optionsFromJson(state.kind, state.options as Record<string, unknown>);
+      for (const [key, value] of Object.entries(options)) {
+        try {
+          session.setOption(key, value);
+        } catch {
+          // refused by the kind: its default stays
+        }
+      }
+    }
+  }
+  const w = state.window;
+  if (w && typeof w === 'object') {
+    const end = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+    session.setWindow(end(w.min), end(w.max));
+  }
+  return state.fitted === true;
 }
 
 /** Build the workbench behind the commands (once per application). */
@@ -177,9 +283,11 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     } else {
       session.setParse(parse);
     }
+    const cellNumber = panel.content.widgets.findIndex(c => c.model.id === cellId) + 1;
     const widget = new AnalysisPanel({
       session,
       notebookName: panel.title.label || panel.context.path,
+      place: cellNumber > 0 ? trans.__('cell %1', cellNumber) : trans.__('cell ?'),
       sourceLabel,
       pointSize: ctx.settings().pointSize,
       translator,
@@ -232,7 +340,57 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     if (restoreFit) {
       widget.runFitWhenShown();
     }
+    if (source && ctx.restore) {
+      // After a reload the layout restorer reopens it by notebook and id; its state stays in the notebook.
+      tracking.set(widget, ctx.restore.track('analysis', widget, `${source.notebookPath}:${id}`, () => ({ path: panel.context.path, id })));
+    }
     return widget;
+  };
+
+  /** Tracking of panels by the layout restorer, in flight or done. */
+  const tracking = new WeakMap<AnalysisPanel, Promise<void>>();
+
+  /** Open one saved analysis of a notebook: parse its source output (when still there) and show it. */
+  const openSaved = async (panel: NotebookPanel, saved: ISavedAnalysis): Promise<AnalysisPanel | null> => {
+    const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
+    const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
+    const parse: ParseResult = located
+      ? await parseOffThread({ bundle: located.bundle })
+      : { ok: false, message: msg('source.output-gone', 'The source output is not in the notebook.') };
+    if (panel.isDisposed) {
+      return null;
+    }
+    return open(panel, located, parse, saved);
+  };
+
+  /** The open notebook at `path`; after the notebooks of the last session are restored, or opened now. */
+  const notebookAt = async (path: string): Promise<NotebookPanel | null> => {
+    const find = (): NotebookPanel | null => tracker.find(p => !p.isDisposed && p.context.path === path) ?? null;
+    let found = find();
+    if (!found) {
+      // The notebook may be coming back with the same layout: wait until it is added, or the
+      // notebooks of the last session are restored (not forever).
+      let added: ((sender: unknown, panel: NotebookPanel) => void) | null = null;
+      let timer: ReturnType<typeof setTimeout> | undefined;
+      await Promise.race([
+        tracker.restored,
+        new Promise<void>(resolve => {
+          added = (_, panel) => panel.context.path === path && resolve();
+          tracker.widgetAdded.connect(added);
+        }),
+        new Promise<void>(resolve => (timer = setTimeout(resolve, NOTEBOOK_WAIT_MS)))
+      ]);
+      clearTimeout(timer);
+      if (added) {
+        tracker.widgetAdded.disconnect(added);
+      }
+      found = find();
+    }
+    if (!found && app.commands.hasCommand('docmanager:open')) {
+      await app.commands.execute('docmanager:open', { path, factory: 'Notebook', options: { mode: 'tab-before' } });
+      found = find();
+    }
+    return found;
   };
 
   /**
@@ -248,15 +406,9 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     // Claimed before the first await, so a second restore of the same notebook does not open them twice.
     now.forEach(saved => openIds.add(saved.id));
     for (const saved of now) {
-      const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
-      const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
-      const parse: ParseResult = located
-        ? await parseOffThread({ bundle: located.bundle })
-        : { ok: false, message: msg('source.output-gone', 'The source output is not in the notebook.') };
-      if (panel.isDisposed) {
+      if (!(await openSaved(panel, saved))) {
         break;
       }
-      open(panel, located, parse, saved);
       // One panel per frame: the page stays responsive while they come.
       await nextFrame();
     }
@@ -267,6 +419,31 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       );
     }
     return now.length;
+  };
+
+  const reopenSaved = async (notebookPath: string, analysisId: string): Promise<string> => {
+    const shown = (): AnalysisPanel | undefined => opened.find(p => !p.isDisposed && p.session.id === analysisId && p.session.source?.notebookPath === notebookPath);
+    const panel = await notebookAt(notebookPath);
+    if (!panel) {
+      throw new Error(`psiscape: ${notebookPath} could not be opened`);
+    }
+    await panel.context.ready;
+    let widget = shown();
+    if (!widget) {
+      const saved = savedAnalysesOf(panel).analyses.find(a => a.id === analysisId);
+      if (!saved || openIds.has(analysisId) || !isKnownKind(saved.settings?.kind ?? DEFAULT_KIND)) {
+        throw new Error(`psiscape: ${notebookPath} holds no analysis ${analysisId} to reopen`);
+      }
+      // Claimed before the first await, so the restore that runs when the notebook opens skips it.
+      openIds.add(analysisId);
+      widget = (await openSaved(panel, saved)) ?? undefined;
+      if (!widget) {
+        openIds.delete(analysisId);
+        throw new Error(`psiscape: ${notebookPath} was closed`);
+      }
+    }
+    await tracking.get(widget);
+    return widget.id;
   };
 
   const analyseOutput = async (located: ILocatedOutput | null): Promise<void> => {
@@ -310,7 +487,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     open(panel, null, { ok: false, message, details });
   };
 
-  const analyseFile = async (path: string): Promise<void> => {
+  const analyseFile = async (path: string, restoring: { id?: string; state?: Readonly<Record<string, unknown>> } = {}): Promise<string> => {
     const mime = /\.tsv$/i.test(path) ? 'text/tab-separated-values' : 'text/csv';
     let parse: ParseResult;
     try {
@@ -319,11 +496,14 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     } catch (reason) {
       parse = { ok: false, message: msg('command.file-unreadable', '%1 could not be read (%2).', path, reason instanceof Error ? reason.message.slice(0, 120) : String(reason).slice(0, 120)) };
     }
-    const session = new AnalysisSession({ id: UUID.uuid4(), source: null });
+    const session = new AnalysisSession({ id: restoring.id ?? UUID.uuid4(), source: null });
     session.setParse(parse);
+    const fitted = restoring.state ? applyFileAnalysisState(session, restoring.state) : false;
+    const fileName = path.split('/').pop() ?? path;
     const widget = new AnalysisPanel({
       session,
-      notebookName: path.split('/').pop() ?? path,
+      notebookName: fileName,
+      place: fileName,
       sourceLabel: trans.__('file %1', path),
       pointSize: ctx.settings().pointSize,
       translator,
@@ -332,27 +512,52 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     });
     widget.disposed.connect(() => session.dispose());
     place(widget, app.shell.currentWidget?.id ?? null);
-    app.shell.activateById(widget.id);
+    if (!restoring.state) {
+      app.shell.activateById(widget.id);
+    }
     opened.push(widget);
+    if (fitted) {
+      widget.runFitWhenShown();
+    }
+    const hooks = ctx.restore;
+    if (hooks) {
+      session.changed.connect(() => hooks.save(widget));
+      await hooks.track('file', widget, session.id, () => ({ path, id: session.id, state: (fileAnalysisState(session) ?? {}) as unknown as ReadonlyPartialJSONObject }));
+    }
+    return widget.id;
   };
 
-  let explorerCount = 0;
-  const openExplorer = (args: Readonly<Record<string, unknown>>): string => {
-    const given = ['a', 'T0', 'b', 'c'].every(key => typeof args[key] === 'number' && Number.isFinite(args[key]));
+  const openExplorer = async (args: Readonly<Record<string, unknown>>): Promise<string> => {
+    const requested = typeof args.id === 'string' && args.id !== '' ? args.id : null;
+    const shown = requested ? explorers.find(e => !e.isDisposed && e.id === requested) : undefined;
+    if (shown) {
+      app.shell.activateById(shown.id);
+      return shown.id;
+    }
+    const num = (key: string) => (typeof args[key] === 'number' && Number.isFinite(args[key]) ? (args[key] as number) : undefined);
+    const given = ['a', 'T0', 'b', 'c'].every(key => num(key) !== undefined);
     const explorer = new LandauExplorer({
       trans,
-      initial: given
-        ? { a: args.a as number, T0: args.T0 as number, b: args.b as number, c: args.c as number, d: typeof args.d === 'number' ? args.d : 0 }
-        : undefined
+      initial: given ? { a: num('a')!, T0: num('T0')!, b: num('b')!, c: num('c')!, d: num('d') ?? 0, T: num('T'), h: num('h') } : undefined
     });
-    explorer.id = `jp-psiscape-landau-${++explorerCount}`;
+    if (given && typeof args.convention === 'string' && args.convention !== 'L') {
+      void explorer.setScenario({ a: num('a')!, T0: num('T0')!, b: num('b')!, c: num('c')!, d: num('d') ?? 0, T: num('T'), h: num('h'), convention: args.convention as LandauConvention });
+    }
+    explorer.id = requested ?? `jp-psiscape-landau-${UUID.uuid4()}`;
     // Explorers share one dock area: the first splits the main area, later ones join it as tabs.
     const previous = explorers.filter(e => !e.isDisposed && e.isAttached).pop();
     app.shell.add(explorer, 'main', previous ? { mode: 'tab-after', ref: previous.id } : { mode: 'split-right' });
-    app.shell.activateById(explorer.id);
+    if (!requested) {
+      app.shell.activateById(explorer.id);
+    }
     explorers.push(explorer);
+    const hooks = ctx.restore;
+    if (hooks) {
+      explorer.scenarioChanged.connect(() => hooks.save(explorer));
+      await hooks.track('explorer', explorer, explorer.id, () => ({ ...explorer.scenario(), id: explorer.id }));
+    }
     return explorer.id;
   };
 
-  return { panels: opened, followers, explorers, restore, analyseOutput, analyseSelectedCell, analyseFile, openExplorer };
+  return { panels: opened, followers, explorers, restore, reopenSaved, analyseOutput, analyseSelectedCell, analyseFile, openExplorer };
 }

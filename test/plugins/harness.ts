@@ -6,7 +6,7 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { JupyterLab, LayoutRestorer } from '@jupyterlab/application';
+import { ILayoutRestorer, JupyterLab, LayoutRestorer } from '@jupyterlab/application';
 import type { LabShell } from '@jupyterlab/application';
 import type { JupyterFrontEndPlugin } from '@jupyterlab/application';
 import { CodeMirrorEditorFactory, EditorExtensionRegistry, EditorLanguageRegistry, ybinding } from '@jupyterlab/codemirror';
@@ -115,17 +115,30 @@ export async function disposeLabs(): Promise<void> {
   document.body.innerHTML = '';
 }
 
+/** Options of {@link labWith}. */
+export interface ILabOptions {
+  /**
+   * Provide a real LayoutRestorer over this state database (as a lab's
+   * workspace): trackers restore from it when the application starts. The
+   * layout is then restored in the background (`layoutRestored`), so the test
+   * can open notebooks the restored widgets wait for.
+   */
+  state?: StateDB;
+}
+
 /** A JupyterLab application with a tracker, a setting registry and a translator. */
-export async function labWith(plugins: JupyterFrontEndPlugin<unknown>[], pluginId: string) {
+export async function labWith(plugins: JupyterFrontEndPlugin<unknown>[], pluginId: string, options: ILabOptions = {}) {
   const serviceManager = offlineServiceManager();
   const app = new JupyterLab({ serviceManager });
   labs.push(app);
+  const restorer = options.state ? new LayoutRestorer({ connector: options.state, first: app.started, registry: app.commands }) : null;
   const tracker = new NotebookTracker({ namespace: 'psiscape-test' });
   const registry = settingRegistryWith(pluginId);
   const providers: JupyterFrontEndPlugin<unknown>[] = [
     { id: 'test:tracker', description: 'test notebook tracker', provides: INotebookTracker, activate: () => tracker },
     { id: 'test:settings', description: 'test setting registry', provides: ISettingRegistry, activate: () => registry },
-    { id: 'test:translator', description: 'test translator', provides: ITranslator, activate: () => nullTranslator }
+    { id: 'test:translator', description: 'test translator', provides: ITranslator, activate: () => nullTranslator },
+    ...(restorer ? [{ id: 'test:restorer', description: 'test layout restorer', provides: ILayoutRestorer, activate: () => restorer }] : [])
   ];
   for (const p of [...providers, ...plugins]) {
     app.registerPlugin(p);
@@ -137,18 +150,27 @@ export async function labWith(plugins: JupyterFrontEndPlugin<unknown>[], pluginI
     await app.activatePlugin(p.id);
   }
   // The shell holds added widgets back until a layout is restored, as at start-up.
-  const restorer = new LayoutRestorer({ connector: new StateDB(), first: Promise.resolve(), registry: app.commands });
-  await (app.shell as LabShell).restoreLayout('multiple-document', restorer);
-  return { app, tracker, registry, serviceManager };
+  const layoutRestorer = restorer ?? new LayoutRestorer({ connector: new StateDB(), first: Promise.resolve(), registry: app.commands });
+  const layoutRestored = (app.shell as LabShell).restoreLayout('multiple-document', layoutRestorer);
+  if (!restorer) {
+    await layoutRestored;
+  }
+  return { app, tracker, registry, serviceManager, restorer: layoutRestorer, layoutRestored };
 }
 
 /** Add a panel to the shell and to the tracker, and make it current. */
 export async function openInLab(
   lab: Awaited<ReturnType<typeof labWith>>,
   notebookPath: string,
-  content: INotebookContent
+  content: INotebookContent,
+  options: { ready?: boolean } = {}
 ): Promise<NotebookPanel> {
   const panel = await notebookPanel(lab.serviceManager, notebookPath, content);
+  if (options.ready) {
+    // As a notebook read from disk: its context is ready (nothing here talks to a server).
+    Object.defineProperty(panel.context, 'ready', { value: Promise.resolve() });
+    Object.defineProperty(panel.context, 'isReady', { value: true });
+  }
   panel.id = `nb-${notebookPath.replace(/\W/g, '-')}`;
   lab.app.shell.add(panel, 'main');
   await lab.tracker.add(panel);

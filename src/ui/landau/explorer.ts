@@ -9,6 +9,8 @@ import { messageOf } from '../../core/messages';
 import { translateMessage } from '../translate';
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
+import { Signal } from '@lumino/signaling';
+import type { ISignal } from '@lumino/signaling';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
 import { readChartTheme } from '../chart-theme';
 import type { IBranchesData, IExplorerDerived } from '../../core/physics/landau/index';
@@ -19,7 +21,7 @@ import { PatchableChartView } from './patchable-view';
 import { explorerProblem } from './problems';
 import { ExplorerControls } from './controls';
 import { FrameThrottle } from './frame';
-import { coefficientsFrom, valuesIn } from './fields';
+import { CONVENTIONS, coefficientsFrom, valuesIn } from './fields';
 import { defaultTemperature, stateRanges } from './ranges';
 import { branchesSpec, landscapeSpec } from './specs';
 
@@ -32,6 +34,21 @@ export interface ILandauExplorerInitial {
   d?: number;
   T?: number;
   h?: number;
+}
+
+/**
+ * What an explorer shows, as JSON: the coefficients (convention L), the
+ * convention they are displayed in, and the temperature and field.
+ */
+export interface ILandauExplorerState {
+  a: number;
+  T0: number;
+  b: number;
+  c: number;
+  d: number;
+  convention: LandauConvention;
+  T: number;
+  h: number;
 }
 
 /** First-order example of [C5 in REFERENCES.md]: a = 0.5, b = −2, c = 4, T0 = 100. */
@@ -96,6 +113,34 @@ export class LandauExplorer extends Panel {
     return { T: this._T, h: this._h };
   }
 
+  /**
+   * The scenario shown: coefficients (convention L), convention, T and h.
+   * While the entered coefficients cannot be converted, the last valid ones.
+   */
+  scenario(): ILandauExplorerState {
+    const k = this._k ?? this._lastGood;
+    return { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0, convention: this._controls.convention, T: this._T, h: this._h };
+  }
+
+  /** Show a scenario (as returned by {@link scenario}): its coefficients in its convention, at its T and h. */
+  setScenario(state: Partial<ILandauExplorerState> & { a: number; T0: number; b: number; c: number }): Promise<void> {
+    const known = CONVENTIONS as readonly string[];
+    if (typeof state.convention === 'string' && known.includes(state.convention) && this._k) {
+      try {
+        const values = valuesIn({ a: state.a, T0: state.T0, b: state.b, c: state.c, d: state.d ?? 0 }, state.convention);
+        this._controls.showCoefficients(state.convention, values);
+      } catch {
+        // the convention cannot hold them: setCoefficients shows them in L and says why
+      }
+    }
+    return this.setCoefficients({ a: state.a, T0: state.T0, b: state.b, c: state.c, d: state.d ?? 0 }, { T: state.T, h: state.h });
+  }
+
+  /** Emitted when the user changes the scenario (coefficients, convention, T or h) or it is set. */
+  get scenarioChanged(): ISignal<this, void> {
+    return this._scenarioChanged;
+  }
+
   /** Resolves when the scheduled redraw (if any) has finished. */
   get rendered(): Promise<void> {
     return this._throttle.settled;
@@ -132,6 +177,8 @@ export class LandauExplorer extends Panel {
     this._rangesKey = '';
     this._controls.setState('T', this._T);
     this._controls.setState('h', this._h);
+    this._lastGood = { ...this._k };
+    this._scenarioChanged.emit();
     return this._schedule();
   }
 
@@ -145,6 +192,7 @@ export class LandauExplorer extends Panel {
       return;
     }
     this._throttle.cancel();
+    Signal.clearData(this);
     super.dispose();
   }
 
@@ -165,6 +213,10 @@ export class LandauExplorer extends Panel {
       this._T += this._k.T0 - before.T0;
       this._controls.setState('T', this._T);
     }
+    if (this._k) {
+      this._lastGood = { ...this._k };
+      this._scenarioChanged.emit();
+    }
     this._schedule();
   }
 
@@ -176,6 +228,7 @@ export class LandauExplorer extends Panel {
     } else {
       this._h = value;
     }
+    this._scenarioChanged.emit();
     this._schedule();
   }
 
@@ -198,6 +251,7 @@ export class LandauExplorer extends Panel {
     this._notice = null;
     this._values = values;
     this._controls.showCoefficients(next, values);
+    this._scenarioChanged.emit();
     this._schedule();
   }
 
@@ -270,6 +324,8 @@ export class LandauExplorer extends Panel {
   private _branchesBusy = 0;
   private _derivedSection: DerivedSection;
   private _k: ILandauCoefficients | null = null;
+  private _lastGood: ILandauCoefficients = { ...DEFAULT_LANDAU_INITIAL, d: 0 };
+  private _scenarioChanged = new Signal<this, void>(this);
   private _values: Record<string, number> = {};
   private _T = Number.NaN;
   private _h = 0;
