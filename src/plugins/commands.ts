@@ -24,9 +24,11 @@ export namespace CommandIDs {
   export const reopenSaved = 'psiscape:reopen-saved-analyses';
   export const reopenSavedAnalysis = 'psiscape:reopen-saved-analysis';
   export const openLandauExplorer = 'psiscape:open-landau-explorer';
+  export const insertIntoNotebook = 'psiscape:insert-into-notebook';
   export const copyMarkdown = 'psiscape:copy-result-markdown';
   export const copyLatex = 'psiscape:copy-result-latex';
   export const copyCsv = 'psiscape:copy-result-csv';
+  export const saveData = 'psiscape:save-fitted-data-csv';
   export const saveJson = 'psiscape:save-result-json';
   export const saveSvg = 'psiscape:save-chart-svg';
   export const savePng = 'psiscape:save-chart-png';
@@ -34,10 +36,12 @@ export namespace CommandIDs {
 }
 
 /** The export commands and the toolbar action each runs (src/ui/export-bar.ts). */
-export const EXPORT_COMMANDS: readonly [string, 'markdown' | 'latex' | 'csv' | 'json' | 'svg' | 'png' | 'vega-lite'][] = [
+export const EXPORT_COMMANDS: readonly [string, 'insert' | 'markdown' | 'latex' | 'csv' | 'data' | 'json' | 'svg' | 'png' | 'vega-lite'][] = [
+  [CommandIDs.insertIntoNotebook, 'insert'],
   [CommandIDs.copyMarkdown, 'markdown'],
   [CommandIDs.copyLatex, 'latex'],
   [CommandIDs.copyCsv, 'csv'],
+  [CommandIDs.saveData, 'data'],
   [CommandIDs.saveJson, 'json'],
   [CommandIDs.saveSvg, 'svg'],
   [CommandIDs.savePng, 'png'],
@@ -186,6 +190,8 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
   // Exports of the analysis panel in focus; they need its code, so they are
   // enabled only once a panel is open (the workbench is then loaded).
   const exportLabels: Record<string, string> = {
+    insert: trans.__('Insert Analysis into Notebook'),
+    data: trans.__('Save Fitted Data with Model as CSV'),
     markdown: trans.__('Copy Fit Result as Markdown'),
     latex: trans.__('Copy Fit Result as LaTeX'),
     csv: trans.__('Copy Fit Parameters as CSV'),
@@ -194,9 +200,12 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     png: trans.__('Save Analysis Chart as PNG'),
     'vega-lite': trans.__('Copy Analysis Chart as Vega-Lite')
   };
+  // The panel under the context menu, else the one in focus.
   const currentBar = () => {
+    const hit = app.contextMenuHitTest(n => n.classList.contains('jp-psiscape-AnalysisPanel'));
     const current = app.shell.currentWidget;
-    return instance?.panels.find(p => !p.isDisposed && p === current)?.exportBar ?? null;
+    const open = instance?.panels.filter(p => !p.isDisposed) ?? [];
+    return (open.find(p => hit !== undefined && p.node === hit) ?? open.find(p => p === current))?.exportBar ?? null;
   };
   for (const [id, action] of EXPORT_COMMANDS) {
     app.commands.addCommand(id, {

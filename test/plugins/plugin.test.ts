@@ -32,7 +32,7 @@ describe('jupyterlab-psiscape:plugin', () => {
 
   it('should register the export commands, disabled until an analysis panel with a result is current', async () => {
     const lab = await labWith(plugins, PLUGIN_ID);
-    for (const id of ['psiscape:copy-result-markdown', 'psiscape:copy-result-latex', 'psiscape:copy-result-csv', 'psiscape:save-result-json', 'psiscape:save-chart-svg', 'psiscape:save-chart-png', 'psiscape:copy-chart-vega-lite']) {
+    for (const id of ['psiscape:insert-into-notebook', 'psiscape:save-fitted-data-csv', 'psiscape:copy-result-markdown', 'psiscape:copy-result-latex', 'psiscape:copy-result-csv', 'psiscape:save-result-json', 'psiscape:save-chart-svg', 'psiscape:save-chart-png', 'psiscape:copy-chart-vega-lite']) {
       expect(lab.app.commands.hasCommand(id)).toBe(true);
       expect(lab.app.commands.label(id)).not.toBe('');
       expect(lab.app.commands.isEnabled(id)).toBe(false);
