@@ -141,7 +141,9 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
         type: 'object',
         properties: {
           path: { type: 'string', description: trans.__('Notebook path') },
-          id: { type: 'string', description: trans.__('Identifier of the saved analysis') }
+          id: { type: 'string', description: trans.__('Identifier of the saved analysis') },
+          cellId: { type: 'string', description: trans.__('Cell of the output to analyse afresh when the notebook does not hold the analysis') },
+          outputIndex: { type: 'number', description: trans.__('Position of that output in the cell') }
         },
         required: ['path', 'id']
       }
@@ -150,7 +152,8 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
       if (typeof args.path !== 'string' || typeof args.id !== 'string') {
         throw new Error('psiscape:reopen-saved-analysis needs a notebook path and an analysis id');
       }
-      return (await workbench()).reopenSaved(args.path, args.id);
+      const output = typeof args.cellId === 'string' && typeof args.outputIndex === 'number' ? { cellId: args.cellId, outputIndex: args.outputIndex } : undefined;
+      return (await workbench()).reopenSaved(args.path, args.id, output);
     }
   });
 

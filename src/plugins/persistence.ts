@@ -12,8 +12,8 @@ import type { ReadonlyPartialJSONValue } from '@lumino/coreutils';
 import { Widget } from '@lumino/widgets';
 import type { ICoreMessage } from '../core/messages';
 import { messageText } from '../core/messages';
-import { readSaved, removeSaved, SAVED_KEY, upsertSaved } from '../core/saved';
-import type { ISavedAnalysis, ISavedRead, SavedWriteResult } from '../core/saved';
+import { readSaved, readSavedExplorers, removeExplorer, removeSaved, SAVED_KEY, upsertExplorer, upsertSaved } from '../core/saved';
+import type { ISavedAnalysis, ISavedExplorer, ISavedExplorersRead, ISavedRead, SavedWriteResult } from '../core/saved';
 import { translateMessage } from '../ui/translate';
 
 /** The analyses a notebook holds, what could not be read, and whether the block may be written. */
@@ -60,6 +60,28 @@ export function upsertAnalysis(notebook: NotebookPanel, entry: ISavedAnalysis): 
 export function removeAnalysis(notebook: NotebookPanel, id: string): ICoreMessage | null {
   const model = notebook.content.model;
   return model ? apply(notebook, removeSaved(model.getMetadata(SAVED_KEY), id)) : null;
+}
+
+/** The Landau explorers a notebook holds, and what could not be read. */
+export function savedExplorersOf(notebook: NotebookPanel): ISavedExplorersRead {
+  return readSavedExplorers(notebook.content.model?.getMetadata(SAVED_KEY));
+}
+
+/**
+ * Add or replace one Landau explorer's scenario in the notebook's metadata,
+ * keeping everything else.
+ *
+ * @returns null when saved (or nothing changed), else why nothing was written.
+ */
+export function upsertExplorerIn(notebook: NotebookPanel, entry: ISavedExplorer): ICoreMessage | null {
+  const model = notebook.content.model;
+  return model ? apply(notebook, upsertExplorer(model.getMetadata(SAVED_KEY), entry)) : null;
+}
+
+/** Remove one Landau explorer from the notebook's metadata, keeping everything else. */
+export function removeExplorerFrom(notebook: NotebookPanel, id: string): ICoreMessage | null {
+  const model = notebook.content.model;
+  return model ? apply(notebook, removeExplorer(model.getMetadata(SAVED_KEY), id)) : null;
 }
 
 /**

@@ -16,13 +16,14 @@ import type { ILocatedOutput } from './locate';
 import { outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
 import { SourceFollower } from './follow-source';
-import { notifyProblems, removeAnalysis, savedAnalysesOf, upsertAnalysis } from './persistence';
+import { notifyProblems, removeAnalysis, removeExplorerFrom, savedAnalysesOf, savedExplorersOf, upsertAnalysis, upsertExplorerIn } from './persistence';
 import type { ISavedAnalysis } from '../core/saved';
 import { Clipboard, Notification } from '@jupyterlab/apputils';
 import type { IExportHost } from '../ui/export-bar';
 import type { IDisplayOutput } from '../core/analysis/report';
 import type { ICodeCellModel } from '@jupyterlab/cells';
 import { UUID } from '@lumino/coreutils';
+import { Widget } from '@lumino/widgets';
 import { DEFAULT_KIND, isKnownKind, kindById, optionsFromJson } from '../core/analysis';
 import type { OptionValue } from '../core/analysis';
 import type { ReadonlyPartialJSONObject } from '@lumino/coreutils';
@@ -44,6 +45,9 @@ export const RESTORE_AT_ONCE = 4;
 
 /** How long reopening a saved analysis waits for its notebook to come back with the layout before opening it. */
 export const NOTEBOOK_WAIT_MS = 5000;
+
+/** How long explorer changes are gathered before the notebook's copy of the scenario is written. */
+export const EXPLORER_SAVE_MS = 250;
 
 /** Cell metadata key marking the cells that hold an analysis's inserted outputs. */
 export const CELL_KEY = 'psiscape';
@@ -73,7 +77,7 @@ export interface IWorkbench {
    * open), or show it when it is open already. Resolves with the panel's widget
    * id; rejects when the notebook does not hold it.
    */
-  reopenSaved(notebookPath: string, analysisId: string): Promise<string>;
+  reopenSaved(notebookPath: string, analysisId: string, output?: { cellId: string; outputIndex: number }): Promise<string>;
   /**
    * Open a Landau explorer, with coefficients (and convention, T, h) when
    * given; an `id` of an open explorer shows that one. Resolves with its widget id.
@@ -249,7 +253,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
    * the notebook holds: same id, columns and settings, and its snapshot stands
    * in for the output when that is gone.
    */
-  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis): AnalysisPanel => {
+  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis, at?: Widget, freshId?: string): AnalysisPanel => {
     const source: ITableSource | null = saved
       ? { ...saved.source }
       : located
@@ -267,7 +271,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
         ? trans.__('%1 · cell %2 · output %3', panel.context.path, located ? cellIndex + 1 : '?', outputNumber)
         : trans.__('%1 · cell %2', panel.context.path, cellIndex + 1);
     const cellId = source?.cellId ?? panel.content.widgets[cellIndex]?.model.id ?? '';
-    const id = saved?.id ?? UUID.uuid4();
+    const id = saved?.id ?? freshId ?? UUID.uuid4();
     const session = new AnalysisSession({ id, source });
     let restoreFit = false;
     if (saved) {
@@ -297,7 +301,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
         await revealCell(app, tracker, panel.context.path, cellId);
       },
       onExploreLandau: k => {
-        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k });
+        // The explorer keeps its scenario in this notebook and reopens with it.
+        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k, notebook: panel.context.path });
       },
       onForget: source
         ? () => {
@@ -310,7 +315,11 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
           }
         : undefined
     });
-    place(widget, panel.id);
+    if (at && !at.isDisposed && at.isAttached) {
+      app.shell.add(widget, 'main', { mode: 'tab-after', ref: at.id });
+    } else {
+      place(widget, panel.id);
+    }
     // A restored analysis joins the dock without taking the focus from the notebook being opened.
     if (!saved) {
       app.shell.activateById(widget.id);
@@ -342,7 +351,11 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     }
     if (source && ctx.restore) {
       // After a reload the layout restorer reopens it by notebook and id; its state stays in the notebook.
-      tracking.set(widget, ctx.restore.track('analysis', widget, `${source.notebookPath}:${id}`, () => ({ path: panel.context.path, id })));
+      // Until it is first saved there, the output it reads is reopened afresh.
+      tracking.set(
+        widget,
+        ctx.restore.track('analysis', widget, `${source.notebookPath}:${id}`, () => ({ path: panel.context.path, id, cellId: session.source?.cellId ?? source.cellId, outputIndex: session.source?.outputIndex ?? source.outputIndex }))
+      );
     }
     return widget;
   };
@@ -351,7 +364,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
   const tracking = new WeakMap<AnalysisPanel, Promise<void>>();
 
   /** Open one saved analysis of a notebook: parse its source output (when still there) and show it. */
-  const openSaved = async (panel: NotebookPanel, saved: ISavedAnalysis): Promise<AnalysisPanel | null> => {
+  const openSaved = async (panel: NotebookPanel, saved: ISavedAnalysis, at?: Widget): Promise<AnalysisPanel | null> => {
     const cellIndex = panel.content.widgets.findIndex(c => c.model.id === saved.source.cellId);
     const located = cellIndex >= 0 ? outputAt(panel, cellIndex, saved.source.outputIndex) : null;
     const parse: ParseResult = located
@@ -360,7 +373,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     if (panel.isDisposed) {
       return null;
     }
-    return open(panel, located, parse, saved);
+    return open(panel, located, parse, saved, at);
   };
 
   /** The open notebook at `path`; after the notebooks of the last session are restored, or opened now. */
@@ -400,7 +413,14 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
    */
   const restore = async (panel: NotebookPanel, limit = RESTORE_AT_ONCE): Promise<number> => {
     const { analyses, problems } = savedAnalysesOf(panel);
-    notify(panel.context.path, problems);
+    const saved = savedExplorersOf(panel);
+    notify(panel.context.path, [...problems, ...saved.problems]);
+    // Explorers opened from this notebook's fits, not open yet (e.g. restored with the layout).
+    for (const e of saved.explorers) {
+      if (!explorers.some(x => !x.isDisposed && x.id === e.id)) {
+        await openExplorer({ ...e.coefficients, convention: e.convention, T: e.T, h: e.h, id: e.id, notebook: panel.context.path });
+      }
+    }
     const closed = analyses.filter(a => !openIds.has(a.id) && isKnownKind(a.settings?.kind ?? DEFAULT_KIND));
     const now = closed.slice(0, limit);
     // Claimed before the first await, so a second restore of the same notebook does not open them twice.
@@ -421,22 +441,36 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     return now.length;
   };
 
-  const reopenSaved = async (notebookPath: string, analysisId: string): Promise<string> => {
+  /** An analysis not saved in the notebook (never changed): a fresh one of the output it read, under the same id. */
+  const openUnsaved = async (panel: NotebookPanel, analysisId: string, output: { cellId: string; outputIndex: number } | undefined, at?: Widget): Promise<AnalysisPanel | null> => {
+    const cellIndex = output ? panel.content.widgets.findIndex(c => c.model.id === output.cellId) : -1;
+    const located = output && cellIndex >= 0 ? outputAt(panel, cellIndex, output.outputIndex) : null;
+    if (!located) {
+      return null;
+    }
+    const parse = await parseOffThread({ bundle: located.bundle });
+    return panel.isDisposed || !parse.ok ? null : open(panel, located, parse, undefined, at, analysisId);
+  };
+
+  const reopenSaved = async (notebookPath: string, analysisId: string, output?: { cellId: string; outputIndex: number }): Promise<string> => {
     const shown = (): AnalysisPanel | undefined => opened.find(p => !p.isDisposed && p.session.id === analysisId && p.session.source?.notebookPath === notebookPath);
     const panel = await notebookAt(notebookPath);
     if (!panel) {
       throw new Error(`psiscape: ${notebookPath} could not be opened`);
     }
+    if (!panel.context.isReady && !shown()) {
+      return holdPlace(panel, notebookPath, analysisId, output);
+    }
     await panel.context.ready;
     let widget = shown();
     if (!widget) {
       const saved = savedAnalysesOf(panel).analyses.find(a => a.id === analysisId);
-      if (!saved || openIds.has(analysisId) || !isKnownKind(saved.settings?.kind ?? DEFAULT_KIND)) {
+      if ((saved && !isKnownKind(saved.settings?.kind ?? DEFAULT_KIND)) || openIds.has(analysisId) || (!saved && !output)) {
         throw new Error(`psiscape: ${notebookPath} holds no analysis ${analysisId} to reopen`);
       }
       // Claimed before the first await, so the restore that runs when the notebook opens skips it.
       openIds.add(analysisId);
-      widget = (await openSaved(panel, saved)) ?? undefined;
+      widget = (saved ? await openSaved(panel, saved) : await openUnsaved(panel, analysisId, output)) ?? undefined;
       if (!widget) {
         openIds.delete(analysisId);
         throw new Error(`psiscape: ${notebookPath} was closed`);
@@ -444,6 +478,57 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     }
     await tracking.get(widget);
     return widget.id;
+  };
+
+  /**
+   * While the layout is restored, a notebook's contents are not read yet (and
+   * are not read until the layout is restored): a placeholder takes the
+   * analysis's place in the dock at once, and the analysis replaces it when
+   * the notebook is ready.
+   */
+  const holdPlace = async (panel: NotebookPanel, notebookPath: string, analysisId: string, output?: { cellId: string; outputIndex: number }): Promise<string> => {
+    if (openIds.has(analysisId)) {
+      throw new Error(`psiscape: analysis ${analysisId} is being opened already`);
+    }
+    openIds.add(analysisId);
+    const holder = new Widget();
+    holder.id = `jp-psiscape-reopening-${analysisId.replace(/[^\w-]/g, '_')}`;
+    holder.addClass('jp-psiscape-AnalysisPlaceholder');
+    holder.title.label = trans.__('Analysis · %1', notebookPath.split('/').pop() ?? notebookPath);
+    holder.title.caption = notebookPath;
+    holder.title.closable = true;
+    holder.node.textContent = trans.__('Reopening the analysis saved in %1…', notebookPath);
+    holder.node.setAttribute('role', 'status');
+    app.shell.add(holder, 'main', { mode: 'split-right', ref: panel.id });
+    const name = `${notebookPath}:${analysisId}`;
+    const fill = async (): Promise<void> => {
+      const saved = panel.isDisposed || holder.isDisposed ? undefined : savedAnalysesOf(panel).analyses.find(a => a.id === analysisId);
+      if ((saved && !isKnownKind(saved.settings?.kind ?? DEFAULT_KIND)) || panel.isDisposed || holder.isDisposed) {
+        openIds.delete(analysisId);
+        holder.dispose();
+        return;
+      }
+      const wasCurrent = app.shell.currentWidget === holder;
+      const widget = saved ? await openSaved(panel, saved, holder) : await openUnsaved(panel, analysisId, output, holder);
+      // The placeholder's restore entry goes with it; the analysis writes its own again.
+      holder.dispose();
+      if (!widget) {
+        openIds.delete(analysisId);
+        return;
+      }
+      await tracking.get(widget);
+      ctx.restore?.save(widget);
+      if (wasCurrent) {
+        app.shell.activateById(widget.id);
+      }
+    };
+    // After the layout is restored, so that the placeholder is in its place to be replaced.
+    void Promise.all([panel.context.ready, app.restored]).then(fill, () => {
+      openIds.delete(analysisId);
+      holder.dispose();
+    });
+    await ctx.restore?.track('analysis', holder, name, () => ({ path: notebookPath, id: analysisId }));
+    return holder.id;
   };
 
   const analyseOutput = async (located: ILocatedOutput | null): Promise<void> => {
@@ -551,12 +636,55 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       app.shell.activateById(explorer.id);
     }
     explorers.push(explorer);
+    const notebookPath = typeof args.notebook === 'string' && args.notebook !== '' ? args.notebook : null;
+    if (notebookPath) {
+      keepInNotebook(explorer, notebookPath);
+    }
     const hooks = ctx.restore;
     if (hooks) {
       explorer.scenarioChanged.connect(() => hooks.save(explorer));
-      await hooks.track('explorer', explorer, explorer.id, () => ({ ...explorer.scenario(), id: explorer.id }));
+      await hooks.track('explorer', explorer, explorer.id, () => ({ ...explorer.scenario(), id: explorer.id, ...(notebookPath ? { notebook: notebookPath } : {}) }));
     }
     return explorer.id;
+  };
+
+  /**
+   * An explorer opened from a notebook's fit keeps its scenario in that
+   * notebook (written as it changes, like analyses; the user saves the
+   * notebook as usual) and reopens with it; closing the explorer removes it.
+   */
+  const keepInNotebook = (explorer: LandauExplorer, notebookPath: string): void => {
+    const notebook = (): NotebookPanel | null => tracker.find(p => !p.isDisposed && p.context.path === notebookPath) ?? null;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const write = (): void => {
+      timer = undefined;
+      const panel = notebook();
+      if (!panel || explorer.isDisposed) {
+        return;
+      }
+      if (!panel.context.isReady) {
+        // Not read yet (e.g. while the layout is restored): write once it is.
+        void panel.context.ready.then(() => (timer === undefined ? write() : undefined));
+        return;
+      }
+      const s = explorer.scenario();
+      const blocked = upsertExplorerIn(panel, { id: explorer.id, coefficients: { a: s.a, T0: s.T0, b: s.b, c: s.c, d: s.d }, convention: s.convention, T: s.T, h: s.h });
+      if (blocked) {
+        notify(notebookPath, [blocked]);
+      }
+    };
+    explorer.scenarioChanged.connect(() => {
+      clearTimeout(timer);
+      timer = setTimeout(write, EXPLORER_SAVE_MS);
+    });
+    write();
+    explorer.disposed.connect(() => {
+      clearTimeout(timer);
+      const panel = notebook();
+      if (panel) {
+        removeExplorerFrom(panel, explorer.id);
+      }
+    });
   };
 
   return { panels: opened, followers, explorers, restore, reopenSaved, analyseOutput, analyseSelectedCell, analyseFile, openExplorer };

@@ -163,13 +163,16 @@ export async function openInLab(
   lab: Awaited<ReturnType<typeof labWith>>,
   notebookPath: string,
   content: INotebookContent,
-  options: { ready?: boolean } = {}
+  options: { ready?: boolean | Promise<void> } = {}
 ): Promise<NotebookPanel> {
   const panel = await notebookPanel(lab.serviceManager, notebookPath, content);
   if (options.ready) {
-    // As a notebook read from disk: its context is ready (nothing here talks to a server).
-    Object.defineProperty(panel.context, 'ready', { value: Promise.resolve() });
-    Object.defineProperty(panel.context, 'isReady', { value: true });
+    // As a notebook read from disk: its context is ready (nothing here talks to a server),
+    // at once or when the given promise resolves.
+    let isReady = options.ready === true;
+    const ready = options.ready === true ? Promise.resolve() : options.ready.then(() => void (isReady = true));
+    Object.defineProperty(panel.context, 'ready', { value: ready });
+    Object.defineProperty(panel.context, 'isReady', { get: () => isReady });
   }
   panel.id = `nb-${notebookPath.replace(/\W/g, '-')}`;
   lab.app.shell.add(panel, 'main');

@@ -174,6 +174,23 @@ describe('restoring psiscape panels after a reload', () => {
     expect(ours(tabsAfter)).toEqual(ours(tabsBefore));
     expect(tabGroups(again)).toEqual(tabGroupsBefore.map(g => g.filter(l => l !== 'curve.ipynb')).filter(g => g.length > 0));
 
+    // A notebook whose contents are read only after the layout is restored (as JupyterLab does with
+    // restored documents): a placeholder holds the place, then the analysis takes it, once.
+    let readNotebook: () => void = () => undefined;
+    const late = await labWith(plugins, PLUGIN_ID, { state: await reloadedState(db) });
+    await openInLab(late, 'curve.ipynb', saved, { ready: new Promise<void>(resolve => (readNotebook = resolve)) });
+    await late.layoutRestored;
+    expect(mainWidgets(late).filter(w => w.hasClass('jp-psiscape-AnalysisPlaceholder'))).toHaveLength(1);
+    expect(analysisPanels(late)).toHaveLength(1); // the file analysis
+    readNotebook();
+    await until(() => analysisPanels(late).length === 2);
+    await wait(SAVE_DELAY_MS + 300);
+    expect(mainWidgets(late).filter(w => w.hasClass('jp-psiscape-AnalysisPlaceholder'))).toHaveLength(0);
+    expect(analysisPanels(late).filter(p => p.session.id === analysis.session.id)).toHaveLength(1);
+    expect(tabGroups(late)).toEqual(tabGroupsBefore.map(g => g.filter(l => l !== 'curve.ipynb')).filter(g => g.length > 0));
+    // The restore entry is the analysis's again (the placeholder's went with it).
+    expect((await late.restorer['_connector'].list(TRACKER_NAMESPACES.analysis)).ids).toEqual([`${TRACKER_NAMESPACES.analysis}:curve.ipynb:${analysis.session.id}`]);
+
     // Reopening by hand does not duplicate the restored analysis.
     nb2.content.activeCellIndex = 0;
     expect(await again.app.commands.execute('psiscape:reopen-saved-analyses')).toBe(0);
@@ -189,6 +206,64 @@ describe('restoring psiscape panels after a reload', () => {
     await lab.layoutRestored;
     expect(analysisPanels(lab)).toHaveLength(0);
     expect((await db.list(TRACKER_NAMESPACES.analysis)).ids).toHaveLength(0);
+  });
+
+  // Case: an explorer opened from a notebook's fit keeps its scenario in the notebook, reopens with it once, and leaves when closed.
+  it('should keep a notebook explorer in the notebook metadata and reopen it once with the notebook', async () => {
+    const db = new StateDB();
+    const lab = await labWith(plugins, PLUGIN_ID, { state: db });
+    const nb = await openInLab(lab, 'curve.ipynb', notebookWithCurve(), { ready: true });
+    await lab.layoutRestored;
+    // What "Explore these coefficients" of a Landau fit runs.
+    const id = (await lab.app.commands.execute('psiscape:open-landau-explorer', { a: 0.5, T0: 100, b: -2, c: 4, d: 0, notebook: 'curve.ipynb' })) as string;
+    const explorer = explorersOf(lab).find(e => e.id === id)!;
+    const metaExplorers = () => ((nb.content.model!.getMetadata(SAVED_KEY) as { explorers?: { id: string; T: number; h: number; convention: string }[] } | undefined)?.explorers ?? []);
+    expect(metaExplorers().map(e => e.id)).toEqual([id]);
+    await explorer.setScenario({ ...explorer.scenario(), convention: 'devonshire', T: 101.5, h: 0.03 });
+    await until(() => metaExplorers()[0]?.T === 101.5);
+    expect(metaExplorers()[0]).toMatchObject({ convention: 'devonshire', h: 0.03 });
+    const scenario = explorer.scenario();
+    await wait(SAVE_DELAY_MS + 100);
+    await lab.restorer.save((lab.app.shell as LabShell).saveLayout());
+    const saved = nb.content.model!.toJSON() as INotebookContent;
+
+    // A new page without the workspace: the notebook alone brings the explorer back.
+    const fresh = await labWith(plugins, PLUGIN_ID, { state: new StateDB() });
+    await openInLab(fresh, 'curve.ipynb', saved, { ready: true });
+    await fresh.layoutRestored;
+    await until(() => explorersOf(fresh).length === 1);
+    expect(explorersOf(fresh)[0].scenario()).toEqual(scenario);
+
+    // With the workspace as well: the layout restorer and the notebook together open it once.
+    const again = await labWith(plugins, PLUGIN_ID, { state: await reloadedState(db) });
+    const nb2 = await openInLab(again, 'curve.ipynb', saved, { ready: true });
+    await again.layoutRestored;
+    await again.app.restored;
+    await wait(300);
+    expect(explorersOf(again)).toHaveLength(1);
+    expect(explorersOf(again)[0].id).toBe(id);
+    expect(explorersOf(again)[0].scenario()).toEqual(scenario);
+    // Nothing changed, so the notebook's copy is as it was.
+    expect(nb2.content.model!.getMetadata(SAVED_KEY)).toEqual(saved.metadata[SAVED_KEY]);
+
+    // Closing the explorer removes it from the notebook.
+    explorersOf(again)[0].dispose();
+    expect(nb2.content.model!.getMetadata(SAVED_KEY)).toBeUndefined();
+  });
+
+  // Case: an analysis never changed (so not in the notebook) reopens afresh on the output it read, under its id.
+  it('should reopen an analysis the notebook does not hold on the output it read', async () => {
+    const content = notebookWithCurve();
+    const db = new StateDB();
+    const cellId = (content.cells[1] as { id?: string }).id ?? '';
+    expect(cellId).not.toBe('');
+    await db.save(`${TRACKER_NAMESPACES.analysis}:curve.ipynb:fresh`, { data: { path: 'curve.ipynb', id: 'fresh', cellId, outputIndex: 0 } });
+    const lab = await labWith(plugins, PLUGIN_ID, { state: db });
+    await openInLab(lab, 'curve.ipynb', content, { ready: true });
+    await lab.layoutRestored;
+    const panels = analysisPanels(lab);
+    expect(panels.map(p => p.session.id)).toEqual(['fresh']);
+    await until(() => panels[0].title.label.startsWith('M vs T · cell 2 · '));
   });
 
   // Case: the explorer reports its scenario and takes one back, convention included.

@@ -9,6 +9,8 @@ import type { ISavedAnalysis, ISavedDeps, ISavedRead, SavedWriteResult } from '.
 import { catalogueKinds } from './kinds';
 import { readSavedWith } from './read';
 import { removeSavedWith, upsertSavedWith } from './write';
+import { removeExplorerWith, upsertExplorerWith } from './explorers';
+import type { ISavedExplorer } from './explorers';
 
 /**
  * Read what a notebook holds under {@link SAVED_KEY}. Never throws: see
@@ -34,6 +36,18 @@ export function removeSaved(raw: unknown, id: string, deps: ISavedDeps = {}): Sa
   return removeSavedWith(raw, id, deps.kinds ?? catalogueKinds);
 }
 
+/** Add or replace one Landau explorer in the metadata value `raw`, keeping all else. Never throws. */
+export function upsertExplorer(raw: unknown, entry: ISavedExplorer, deps: ISavedDeps = {}): SavedWriteResult {
+  return upsertExplorerWith(raw, entry, deps.kinds ?? catalogueKinds);
+}
+
+/** Remove one Landau explorer from the metadata value `raw`, keeping all else. Never throws. */
+export function removeExplorer(raw: unknown, id: string, deps: ISavedDeps = {}): SavedWriteResult {
+  return removeExplorerWith(raw, id, deps.kinds ?? catalogueKinds);
+}
+
+export { EXPLORER_CONVENTIONS, readSavedExplorers, removeExplorerWith, upsertExplorerWith } from './explorers';
+export type { ISavedExplorer, ISavedExplorersRead } from './explorers';
 export { classifyBlock, readSavedWith } from './read';
 export type { BlockState } from './read';
 export { removeSavedWith, upsertSavedWith } from './write';

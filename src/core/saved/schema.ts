@@ -33,9 +33,39 @@ export const SAVED_SCHEMA = {
   required: ['version', 'analyses'],
   properties: {
     version: { const: 2, description: 'Format version. A block with a higher version is left unchanged by psiscape versions that do not know it.' },
-    analyses: { type: 'array', items: { $ref: '#/definitions/analysis' } }
+    analyses: { type: 'array', items: { $ref: '#/definitions/analysis' } },
+    explorers: {
+      type: 'array',
+      description: 'Landau explorers opened from this notebook (optional). Readers check each entry on its own, like analyses.',
+      items: { $ref: '#/definitions/explorer' }
+    }
   },
   definitions: {
+    explorer: {
+      type: 'object',
+      description: 'One Landau free-energy explorer: the coefficients it shows (convention L: F = (a/2)(T − T0)ψ² + (d/3)ψ³ + (b/4)ψ⁴ + (c/6)ψ⁶ − hψ), the convention they are displayed in, and the temperature and field of its landscape.',
+      required: ['id', 'coefficients', 'convention', 'T', 'h'],
+      properties: {
+        id: { type: 'string', minLength: 1, description: 'Identifier, unique among the explorers of the notebook.' },
+        coefficients: {
+          type: 'object',
+          required: ['a', 'T0', 'b', 'c'],
+          properties: {
+            a: { type: 'number' },
+            T0: { type: 'number' },
+            b: { type: 'number' },
+            c: { type: 'number' },
+            d: { type: 'number', description: 'Cubic coefficient; 0 when absent.' }
+          }
+        },
+        convention: {
+          type: 'string',
+          description: 'Convention the coefficients are displayed in: "L", "no-fractions", "devonshire" or "ginzburg-landau". Readers show an unknown one as "L".'
+        },
+        T: { type: 'number', description: 'Temperature of the landscape.' },
+        h: { type: 'number', description: 'Conjugate field h.' }
+      }
+    },
     analysis: {
       type: 'object',
       description: 'One saved analysis: where its table came from, which columns it plots, a snapshot of them and the settings of its last run.',

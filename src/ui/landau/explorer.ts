@@ -192,7 +192,6 @@ export class LandauExplorer extends Panel {
       return;
     }
     this._throttle.cancel();
-    Signal.clearData(this);
     super.dispose();
   }
 

@@ -1,0 +1,101 @@
+// psiscape's panels come back after a page reload like the rest of JupyterLab:
+// an analysis of a demo table (its state from the notebook), a file analysis
+// (columns and kind from the workspace) and a Landau explorer with moved
+// sliders, once each, with tab titles that say what each panel is.
+import assert from 'node:assert/strict';
+import { test } from 'node:test';
+import { contextMenu, saveAndReload, screenshot, useDemoLab } from './lab.mjs';
+
+const suite = useDemoLab();
+
+/** The main area's tab groups (labels of each tab bar, sorted), without the notebook's. */
+async function tabGroups(page) {
+  const groups = await page.evaluate(() =>
+    [...document.querySelectorAll('#jp-main-dock-panel .lm-TabBar')].map(bar => [...bar.querySelectorAll('.lm-TabBar-tabLabel')].map(t => t.textContent ?? '').filter(l => !l.endsWith('.ipynb')).sort())
+  );
+  return groups.filter(g => g.length > 0).map(g => g.join(' | ')).sort();
+}
+
+/** Labels of the main area's tabs. */
+async function tabLabels(page) {
+  return page.locator('#jp-main-dock-panel .lm-TabBar-tab .lm-TabBar-tabLabel').allTextContents();
+}
+
+test('analyses, a file analysis and an explorer reopen once each after a reload, with their state and titles', async () => {
+  const { page } = suite.lab;
+
+  // An analysis of the demo notebook's first table, as a Weiss fit.
+  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
+  await contextMenu(page, output, 'Analyse This Table with psiscape');
+  const analysis = page.locator('.jp-psiscape-AnalysisPanel').last();
+  await analysis.locator('select.jp-psiscape-fit-kind').selectOption('weiss');
+  // A run saves the analysis in the notebook (its state's one home).
+  await analysis.locator('button.jp-psiscape-fit-run').click();
+  await analysis.locator('.jp-psiscape-FitSection .jp-psiscape-fit-table').waitFor({ timeout: 60000 });
+  await page.waitForFunction(() => [...document.querySelectorAll('.lm-TabBar-tabLabel')].some(t => / · cell \d+ · Weiss$/.test(t.textContent ?? '')));
+  const notebookTitle = (await tabLabels(page)).find(l => / · cell \d+ · Weiss$/.test(l));
+  assert.ok(notebookTitle, 'the analysis tab names its cell and kind');
+
+  // A file analysis of am17_MT.csv from the file browser, as a critical power law.
+  const item = page.locator('.jp-DirListing-item[data-file-type="csv"]', { hasText: 'am17_MT.csv' });
+  await item.click();
+  await contextMenu(page, item, 'Analyse with psiscape');
+  const file = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-AnalysisPanel-source', { hasText: 'file am17_MT.csv' }) });
+  await file.locator('.jp-psiscape-ChartView svg').first().waitFor({ timeout: 30000 });
+  await file.locator('select.jp-psiscape-fit-kind').selectOption('power-law');
+  await page.waitForFunction(() => [...document.querySelectorAll('.lm-TabBar-tabLabel')].some(t => / · am17_MT\.csv · power law$/.test(t.textContent ?? '')));
+  const fileTitle = (await tabLabels(page)).find(l => / · am17_MT\.csv · power law$/.test(l));
+  assert.ok(fileTitle, 'the file analysis tab names its file and kind');
+
+  // A Landau explorer with T and h moved by keyboard.
+  await page.evaluate(() => window.jupyterapp.commands.execute('psiscape:open-landau-explorer'));
+  const explorer = page.locator('.jp-psiscape-LandauExplorer');
+  await explorer.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  for (const [key, presses] of [['T', 4], ['h', 3]]) {
+    await explorer.locator(`input.jp-psiscape-landau-range[data-key="${key}"]`).focus();
+    for (let i = 0; i < presses; i++) {
+      await page.keyboard.press('PageUp');
+    }
+  }
+  const T = await explorer.locator('input.jp-psiscape-landau-range[data-key="T"]').inputValue();
+  const h = await explorer.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue();
+  assert.notEqual(Number(h), 0, 'h was moved');
+  await screenshot(page, 'restore-before-reload');
+  const before = (await tabLabels(page)).filter(l => l !== 'Launcher').sort();
+  const groupsBefore = await tabGroups(page);
+  // Let the trackers and the workspace write what they hold (both are debounced).
+  await page.waitForTimeout(1500);
+
+  await saveAndReload(page);
+  await page.waitForFunction(() => document.querySelectorAll('.jp-psiscape-AnalysisPanel').length >= 2 && document.querySelector('.jp-psiscape-LandauExplorer svg'), null, { timeout: 60000 });
+  // Whatever else restores (the notebook's own saved analyses) has had its chance to duplicate a panel.
+  await page.waitForTimeout(2000);
+  assert.equal(await page.locator('.jp-psiscape-AnalysisPanel').count(), 2, 'each analysis once');
+  assert.equal(await page.locator('.jp-psiscape-LandauExplorer').count(), 1, 'the explorer once');
+
+  const after = (await tabLabels(page)).filter(l => l !== 'Launcher').sort();
+  assert.deepEqual(after, before, 'the same tabs, with the same titles');
+  assert.deepEqual(await tabGroups(page), groupsBefore, 'in the same dock places');
+
+  const analysisAgain = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-AnalysisPanel-source', { hasText: 'cell' }) });
+  assert.equal(await analysisAgain.locator('select.jp-psiscape-fit-kind').inputValue(), 'weiss');
+  const fileAgain = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-AnalysisPanel-source', { hasText: 'file am17_MT.csv' }) });
+  assert.equal(await fileAgain.locator('select.jp-psiscape-fit-kind').inputValue(), 'power-law');
+  const explorerAgain = page.locator('.jp-psiscape-LandauExplorer');
+  assert.equal(await explorerAgain.locator('input.jp-psiscape-landau-range[data-key="T"]').inputValue(), T);
+  assert.equal(await explorerAgain.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue(), h);
+
+  // A panel's tab shows the full source as its caption.
+  const caption = await page.evaluate(title => {
+    const tab = [...document.querySelectorAll('#jp-main-dock-panel .lm-TabBar-tab')].find(t => t.querySelector('.lm-TabBar-tabLabel')?.textContent === title);
+    return tab?.getAttribute('title') ?? null;
+  }, fileTitle);
+  assert.equal(caption, 'file am17_MT.csv');
+
+  // The explorer's tab, then the file analysis's, for the pictures.
+  await page.locator('.lm-TabBar-tab', { hasText: 'Landau explorer' }).click();
+  await screenshot(page, 'restore-after-reload');
+  await page.locator('.lm-TabBar-tab', { hasText: fileTitle }).click();
+  await screenshot(page, 'restore-after-reload-file');
+  assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
+});
