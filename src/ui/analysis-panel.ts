@@ -73,7 +73,7 @@ export class AnalysisPanel extends Panel {
     this._status.addClass('jp-psiscape-AnalysisPanel-status');
     this._status.node.setAttribute('aria-live', 'polite');
     this._fit = new FitSection({ trans: this._trans, session: this._session, runner: options.runner, onExploreLandau: options.onExploreLandau });
-    this._isotherms = new IsothermSection({ trans: this._trans });
+    this._isotherms = new IsothermSection({ trans: this._trans, onRun: settings => this._session.setIsotherms(settings) });
     this._exports = options.exports
       ? new ExportBar({
           trans: this._trans,
@@ -260,6 +260,11 @@ export class AnalysisPanel extends Panel {
       if (table !== this._isothermTable) {
         this._isothermTable = table;
         this._isotherms.setTable(table);
+        // A saved isotherm analysis runs again on the new table (columns matched by position and header).
+        const savedIsotherms = s.isotherms;
+        if (table && savedIsotherms) {
+          this._isotherms.restore(savedIsotherms);
+        }
       }
       this._renderNotes(table);
     }

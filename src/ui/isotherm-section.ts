@@ -19,14 +19,16 @@ import { readChartTheme } from './chart-theme';
 import { outcomeNodes } from './outcome-nodes';
 import { translateMessage } from './translate';
 import { messageOf } from '../core/messages';
+import type { ISavedIsotherms } from '../core/saved/types';
 
 type Role = IsothermRole;
 
 /** Isotherm controls and results. */
 export class IsothermSection extends Panel {
-  constructor(options: { trans: TranslationBundle }) {
+  constructor(options: { trans: TranslationBundle; onRun?: (settings: ISavedIsotherms) => void }) {
     super();
     this._trans = options.trans;
+    this._onRun = options.onRun ?? null;
     this.addClass('jp-psiscape-IsothermSection');
     this.node.setAttribute('role', 'group');
     this.node.setAttribute('aria-label', this._trans.__('Isotherms'));
@@ -74,12 +76,70 @@ export class IsothermSection extends Panel {
     }
   }
 
-  /** Run the analysis with the current controls. */
-  run(): void {
+  /** The controls as saved with the analysis (columns by position and header), or null without a table. */
+  settings(): ISavedIsotherms | null {
+    const table = this._table;
+    if (!table) {
+      return null;
+    }
+    const ref = (role: Role) => {
+      const index = Number(this._pickers[role].value);
+      return { index, header: table.columns[index]?.header ?? '' };
+    };
+    const text = (input: HTMLInputElement): string | null => (input.value.trim() ? input.value.trim() : null);
+    return {
+      columns: { temperature: ref('temperature'), field: ref('field'), magnetisation: ref('magnetisation') },
+      units: { temperature: text(this._units.temperature), field: text(this._units.field), magnetisation: text(this._units.magnetisation) },
+      demagnetisingFactorSI: text(this._demag),
+      temperatureToleranceK: text(this._tolerance),
+      sampleMassMg: text(this._mass),
+      densityGPerCm3: text(this._density)
+    };
+  }
+
+  /**
+   * Set the controls from saved settings and run the analysis. Columns are
+   * matched by position and header; a column that is not there any more
+   * leaves the guessed one and says so.
+   */
+  restore(saved: ISavedIsotherms): void {
+    const table = this._table;
+    if (!table) {
+      return;
+    }
+    const missing: string[] = [];
+    for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
+      const ref = saved.columns[role];
+      const column = table.columns[ref.index];
+      if (column && column.header === ref.header && column.kind === 'number') {
+        this._pickers[role].value = String(ref.index);
+      } else {
+        missing.push(ref.header);
+      }
+      this._units[role].value = saved.units[role] ?? '';
+    }
+    this._demag.value = saved.demagnetisingFactorSI ?? '';
+    this._tolerance.value = saved.temperatureToleranceK ?? '';
+    this._mass.value = saved.sampleMassMg ?? '';
+    this._density.value = saved.densityGPerCm3 ?? '';
+    this.run({ quiet: true });
+    if (missing.length > 0) {
+      this._fail(this._trans.__('The saved isotherm analysis used the columns %1, which are not in the table any more.', missing.join(', ')));
+    }
+  }
+
+  /** Run the analysis with the current controls (`quiet`: a restore, not a user's change). */
+  run(options: { quiet?: boolean } = {}): void {
     this._error.hidden = true;
     const table = this._table;
     if (!table) {
       return;
+    }
+    if (!options.quiet) {
+      const settings = this.settings();
+      if (settings) {
+        this._onRun?.(settings);
+      }
     }
     const column = (role: Role): IColumn => table.columns[Number(this._pickers[role].value)];
     const overrides: Record<string, string> = {};
@@ -285,6 +345,7 @@ export class IsothermSection extends Panel {
   }
 
   private _trans: TranslationBundle;
+  private _onRun: ((settings: ISavedIsotherms) => void) | null;
   private _chart: ChartView;
   private _table: ITable | null = null;
   private _set: IIsothermSet | null = null;

@@ -23,7 +23,7 @@ describe('AnalysisPanel', () => {
     expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').length).toBe(3);
     expect(panel.node.querySelector('.jp-psiscape-AnalysisPanel-status')!.textContent).toBe('3 points plotted; 1 rows left out (missing or infinite values).');
     expect(panel.node.getAttribute('role')).toBe('region');
-    expect(panel.title.label).toBe('M vs T · sample.ipynb');
+    expect(panel.title.label).toBe('M vs T · sample.ipynb · power law');
   });
 
   it('should draw once for a burst of changes', async () => {

@@ -14,7 +14,7 @@ import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import { hashSnapshotValues, snapshotOf } from '../saved/snapshot';
 import { isSnapshotOmitted } from '../saved/types';
-import type { ISavedAnalysis, ISavedColumnRef, ISavedSettings } from '../saved/types';
+import type { ISavedAnalysis, ISavedColumnRef, ISavedIsotherms, ISavedSettings } from '../saved/types';
 import { CoreSignal } from '../signal';
 import type { ITableSource } from '../source';
 import { splitHeader } from '../table';
@@ -438,7 +438,26 @@ export class AnalysisSession {
       return null;
     }
     const settings = this._settings();
-    return { id: this.id, source: { ...source }, columns: { ...refs }, snapshot: this._snapshot(), settings };
+    const entry: ISavedAnalysis = { id: this.id, source: { ...source }, columns: { ...refs }, snapshot: this._snapshot(), settings };
+    if (this._isotherms) {
+      entry.isotherms = structuredClone(this._isotherms);
+    }
+    return entry;
+  }
+
+  /** The isotherm analysis's saved settings, or null when none was run. */
+  get isotherms(): Readonly<ISavedIsotherms> | null {
+    return this._isotherms;
+  }
+
+  /** The user ran the isotherm analysis with these settings: saved with the analysis. */
+  setIsotherms(settings: ISavedIsotherms): void {
+    if (JSON.stringify(settings) === JSON.stringify(this._isotherms)) {
+      return;
+    }
+    this._isotherms = structuredClone(settings);
+    this._touched = true;
+    this._scheduleSave();
   }
 
   /**
@@ -484,10 +503,11 @@ export class AnalysisSession {
       this._window = { min: Number.isFinite(w.min) ? w.min : null, max: Number.isFinite(w.max) ? w.max : null };
       this._hasRun = true;
     }
+    this._isotherms = saved.isotherms ? structuredClone(saved.isotherms) : null;
     this._dropOutcome();
     this._revision++;
     const savedHash = isSnapshotOmitted(saved.snapshot) ? saved.snapshot.hash : hashSnapshotValues(saved.snapshot.values);
-    this._baselineKey = this._keyOf({ source: saved.source, columns: saved.columns, settings: this._settings() }, savedHash);
+    this._baselineKey = this._keyOf({ source: saved.source, columns: saved.columns, settings: this._settings(), isotherms: saved.isotherms }, savedHash);
     this._touched = true;
     this._changed.emit('table');
     return { runFit: this._hasRun && roles !== null, problem };
@@ -621,7 +641,7 @@ export class AnalysisSession {
     return this._hash;
   }
 
-  private _keyOf(entry: Pick<ISavedAnalysis, 'source' | 'columns' | 'settings'>, snapshotHash: string): string {
+  private _keyOf(entry: Pick<ISavedAnalysis, 'source' | 'columns' | 'settings' | 'isotherms'>, snapshotHash: string): string {
     const s = entry.settings;
     return JSON.stringify([
       entry.source.notebookPath,
@@ -630,7 +650,8 @@ export class AnalysisSession {
       entry.source.contentHash,
       entry.columns,
       s ? [s.kind, Object.entries(s.options).map(([k, v]) => [k, optionToJson(v)]).sort(), optionToJson(s.window.min), optionToJson(s.window.max)] : null,
-      snapshotHash
+      snapshotHash,
+      entry.isotherms ?? null
     ]);
   }
 
@@ -649,7 +670,7 @@ export class AnalysisSession {
     if (!this._source || !this._refs || !this._roles) {
       return;
     }
-    const key = this._keyOf({ source: this._source, columns: this._refs, settings: this._settings() }, this._snapshotHash());
+    const key = this._keyOf({ source: this._source, columns: this._refs, settings: this._settings(), isotherms: this._isotherms ?? undefined }, this._snapshotHash());
     if (key === this._baselineKey) {
       return;
     }
@@ -671,6 +692,7 @@ export class AnalysisSession {
   }
 
   private _source: ITableSource | null;
+  private _isotherms: ISavedIsotherms | null = null;
   private _sourceState: SourceState = 'live';
   private _sourceMessages: readonly ICoreMessage[] = [];
   private _table: ITable | null = null;

@@ -8,7 +8,7 @@ import type { ICoreMessage } from '../messages';
 import { excerpt, isRecord, own, recordOf, textExcerpt } from './json';
 import type { JsonRecord } from './json';
 import { migrateV1Entry, v1Problem } from './migrate';
-import type { ISavedAnalysis, ISavedKinds, ISavedRead, ISavedSettings, SavedOptionValue, SavedSnapshot } from './types';
+import type { ISavedAnalysis, ISavedIsotherms, ISavedKinds, ISavedRead, ISavedSettings, SavedOptionValue, SavedSnapshot } from './types';
 import { SAVED_VERSION } from './types';
 import { checkEntry, entryLabel } from './validate';
 
@@ -112,7 +112,27 @@ function decodeEntry(entry: JsonRecord, settings: ISavedSettings | null): ISaved
     },
     columns: { x: decodeRef(own(columns, 'x') as JsonRecord), y: decodeRef(own(columns, 'y') as JsonRecord), sigma: isRecord(sigma) ? decodeRef(sigma) : null },
     snapshot: decodeSnapshot(own(entry, 'snapshot') as JsonRecord),
-    settings
+    settings,
+    ...(isRecord(own(entry, 'isotherms')) ? { isotherms: decodeIsotherms(own(entry, 'isotherms') as JsonRecord) } : {})
+  };
+}
+
+/** The isotherm analysis of a valid entry (the schema has checked every field). */
+function decodeIsotherms(iso: JsonRecord): ISavedIsotherms {
+  const columns = own(iso, 'columns') as JsonRecord;
+  const units = own(iso, 'units') as JsonRecord;
+  const text = (r: JsonRecord, key: string): string | null => (own(r, key) as string | null | undefined) ?? null;
+  return {
+    columns: {
+      temperature: decodeRef(own(columns, 'temperature') as JsonRecord),
+      field: decodeRef(own(columns, 'field') as JsonRecord),
+      magnetisation: decodeRef(own(columns, 'magnetisation') as JsonRecord)
+    },
+    units: { temperature: text(units, 'temperature'), field: text(units, 'field'), magnetisation: text(units, 'magnetisation') },
+    demagnetisingFactorSI: text(iso, 'demagnetisingFactorSI'),
+    temperatureToleranceK: text(iso, 'temperatureToleranceK'),
+    sampleMassMg: text(iso, 'sampleMassMg'),
+    densityGPerCm3: text(iso, 'densityGPerCm3')
   };
 }
 

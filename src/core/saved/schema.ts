@@ -22,6 +22,19 @@ const columnRefProperties = {
   header: { type: 'string', description: 'Header of the column in the source table.' }
 };
 
+/** A column of the isotherm analysis, by position and header. */
+const isothermColumn = {
+  type: 'object',
+  required: ['index', 'header'],
+  properties: {
+    index: { type: 'integer', minimum: 0, description: 'Position of the column in the source table, from 0.' },
+    header: { type: 'string', description: 'Header of the column in the source table.' }
+  }
+} as const;
+
+/** A control's text as the user typed it, or null when left blank. */
+const typedText = { type: ['string', 'null'], maxLength: 200 } as const;
+
 /** The schema object. */
 export const SAVED_SCHEMA = {
   $schema: 'http://json-schema.org/draft-07/schema#',
@@ -141,6 +154,29 @@ export const SAVED_SCHEMA = {
               required: ['min', 'max'],
               properties: { min: { type: ['number', 'null'] }, max: { type: ['number', 'null'] } }
             }
+          }
+        },
+        isotherms: {
+          type: 'object',
+          description:
+            'The isotherm (field-sweep) analysis of the same table, when one was run: its three columns and its controls as the user typed them (text; null when left blank).',
+          required: ['columns', 'units', 'demagnetisingFactorSI', 'temperatureToleranceK', 'sampleMassMg', 'densityGPerCm3'],
+          properties: {
+            columns: {
+              type: 'object',
+              required: ['temperature', 'field', 'magnetisation'],
+              properties: { temperature: isothermColumn, field: isothermColumn, magnetisation: isothermColumn }
+            },
+            units: {
+              type: 'object',
+              description: "Units typed over the headers' own.",
+              required: ['temperature', 'field', 'magnetisation'],
+              properties: { temperature: typedText, field: typedText, magnetisation: typedText }
+            },
+            demagnetisingFactorSI: { ...typedText, description: 'Demagnetising factor N_d, SI convention (0–1).' },
+            temperatureToleranceK: { ...typedText, description: 'Readings within this many kelvin form one isotherm.' },
+            sampleMassMg: { ...typedText, description: 'Sample mass in mg.' },
+            densityGPerCm3: { ...typedText, description: 'Density in g/cm³.' }
           }
         }
       }

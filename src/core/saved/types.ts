@@ -82,6 +82,25 @@ export interface ISavedAnalysis {
   snapshot: SavedSnapshot;
   /** Settings of the last analysis run, or null when none was run. */
   settings: ISavedSettings | null;
+  /** The isotherm (field-sweep) analysis of the same table, when one was run. */
+  isotherms?: ISavedIsotherms;
+}
+
+/**
+ * The isotherm analysis of a table: its three columns and its controls as
+ * the user typed them (text, null when left blank), so a value the analysis
+ * refused is kept as it was.
+ */
+export interface ISavedIsotherms {
+  columns: { temperature: ISavedColumnRef; field: ISavedColumnRef; magnetisation: ISavedColumnRef };
+  /** Units typed over the headers' own, per column. */
+  units: { temperature: string | null; field: string | null; magnetisation: string | null };
+  /** Demagnetising factor N_d in the SI convention (0–1). */
+  demagnetisingFactorSI: string | null;
+  /** Readings within this many kelvin form one isotherm. */
+  temperatureToleranceK: string | null;
+  sampleMassMg: string | null;
+  densityGPerCm3: string | null;
 }
 
 /** Whether a snapshot kept no values (a large table: reference and hash only). */

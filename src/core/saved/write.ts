@@ -48,13 +48,25 @@ function encodeEntry(entry: ISavedAnalysis): JsonRecord | string {
     }
     jsonSettings = { kind: settings.kind, options: recordOf(options), window: { min, max } };
   }
-  return {
+  const json: JsonRecord = {
     id: entry.id,
     source: { notebookPath: source.notebookPath, cellId: source.cellId, outputIndex: source.outputIndex, contentHash: source.contentHash },
     columns: { x: ref(columns.x), y: ref(columns.y), sigma: columns.sigma ? ref(columns.sigma) : null },
     snapshot: snapshotToJson(entry.snapshot) as unknown as JsonRecord,
     settings: jsonSettings
   };
+  const iso = entry.isotherms;
+  if (iso) {
+    json.isotherms = {
+      columns: { temperature: ref(iso.columns.temperature), field: ref(iso.columns.field), magnetisation: ref(iso.columns.magnetisation) },
+      units: { temperature: iso.units.temperature, field: iso.units.field, magnetisation: iso.units.magnetisation },
+      demagnetisingFactorSI: iso.demagnetisingFactorSI,
+      temperatureToleranceK: iso.temperatureToleranceK,
+      sampleMassMg: iso.sampleMassMg,
+      densityGPerCm3: iso.densityGPerCm3
+    };
+  }
+  return json;
 }
 
 interface IMergeSpec {
@@ -65,8 +77,15 @@ interface IMergeSpec {
 
 const REF: IMergeSpec = { known: ['index', 'header'] };
 const SPEC: IMergeSpec = {
-  known: ['id', 'source', 'columns', 'snapshot', 'settings'],
+  known: ['id', 'source', 'columns', 'snapshot', 'settings', 'isotherms'],
   children: {
+    isotherms: {
+      known: ['columns', 'units', 'demagnetisingFactorSI', 'temperatureToleranceK', 'sampleMassMg', 'densityGPerCm3'],
+      children: {
+        columns: { known: ['temperature', 'field', 'magnetisation'], children: { temperature: REF, field: REF, magnetisation: REF } },
+        units: { known: ['temperature', 'field', 'magnetisation'] }
+      }
+    },
     source: { known: ['notebookPath', 'cellId', 'outputIndex', 'contentHash'] },
     columns: { known: ['x', 'y', 'sigma'], children: { x: REF, y: REF, sigma: REF } },
     snapshot: { known: ['headers', 'units', 'values', 'rows', 'hash', 'omitted'] },
