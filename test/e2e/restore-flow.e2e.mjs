@@ -4,9 +4,33 @@
 // sliders, once each, with tab titles that say what each panel is.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, saveAndReload, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, saveAndReload, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
+
+/**
+ * JupyterLab rehydrates the main area's dock layout only in "multiple-document" mode, which a
+ * Jupyter server's page configuration names; the demo page does not, so reloaded pages get it
+ * here, as from a server.
+ */
+let routed = false;
+async function serveInMultipleDocumentMode(page) {
+  if (routed) {
+    return;
+  }
+  routed = true;
+  await page.route(
+    u => u.pathname.includes('/lab'),
+    async route => {
+      if (route.request().resourceType() !== 'document') {
+        return route.continue();
+      }
+      const response = await route.fetch();
+      const body = (await response.text()).replace('"labFlavour":"in-browser"', '"labFlavour":"in-browser","mode":"multiple-document"');
+      return route.fulfill({ response, body });
+    }
+  );
+}
 
 /** The main area's tab groups (labels of each tab bar, sorted), without the notebook's. */
 async function tabGroups(page) {
@@ -66,20 +90,7 @@ test('analyses, a file analysis and an explorer reopen once each after a reload,
   // Let the trackers and the workspace write what they hold (both are debounced).
   await page.waitForTimeout(1500);
 
-  // JupyterLab rehydrates the main area's dock layout only in "multiple-document" mode, which a
-  // Jupyter server's page configuration names; the demo page does not, so the reloaded page gets it
-  // here, as from a server.
-  await page.route(
-    u => u.pathname.includes('/lab'),
-    async route => {
-      if (route.request().resourceType() !== 'document') {
-        return route.continue();
-      }
-      const response = await route.fetch();
-      const body = (await response.text()).replace('"labFlavour":"in-browser"', '"labFlavour":"in-browser","mode":"multiple-document"');
-      return route.fulfill({ response, body });
-    }
-  );
+  await serveInMultipleDocumentMode(page);
   await saveAndReload(page);
   await page.waitForFunction(() => document.querySelectorAll('.jp-psiscape-AnalysisPanel').length >= 2 && document.querySelector('.jp-psiscape-LandauExplorer svg'), null, { timeout: 60000 });
   // Whatever else restores (the notebook's own saved analyses) has had its chance to duplicate a panel.
@@ -111,5 +122,59 @@ test('analyses, a file analysis and an explorer reopen once each after a reload,
   await screenshot(page, 'restore-after-reload');
   await page.locator('.lm-TabBar-tab', { hasText: fileTitle }).click();
   await screenshot(page, 'restore-after-reload-file');
+  assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
+});
+
+test('an explorer opened from a Landau fit keeps its scenario in the notebook and comes back once', async () => {
+  const { page } = suite.lab;
+  // Close the previous test's panels: the notebook alone brings this explorer back.
+  await page.evaluate(() => {
+    for (const w of [...window.jupyterapp.shell.widgets('main')]) {
+      if (w.hasClass('jp-psiscape-LandauExplorer')) {
+        w.close();
+      }
+    }
+  });
+  await page.locator('#jp-main-dock-panel .lm-TabBar-tab', { hasText: / · cell \d+ · / }).first().click();
+  const panel = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-AnalysisPanel-source', { hasText: 'cell' }) });
+  await panel.locator('.jp-psiscape-FitSection select.jp-psiscape-fit-kind').selectOption('landau');
+  await setWindow(panel.locator('.jp-psiscape-FitSection'), '240', '300');
+  await panel.locator('.jp-psiscape-FitSection button.jp-psiscape-fit-run').click();
+  await panel.locator('button.jp-psiscape-fit-explore').waitFor({ timeout: 60000 });
+  await panel.locator('button.jp-psiscape-fit-explore').click();
+  const explorer = page.locator('.jp-psiscape-LandauExplorer');
+  await explorer.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await explorer.locator('select.jp-psiscape-landau-convention').selectOption('no-fractions');
+  await explorer.locator('input.jp-psiscape-landau-range[data-key="h"]').focus();
+  for (let i = 0; i < 2; i++) {
+    await page.keyboard.press('PageUp');
+  }
+  const T0 = await explorer.locator('input.jp-psiscape-landau-number[data-key="T0"]').inputValue();
+  const h = await explorer.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue();
+  // The scenario is in the notebook's metadata, beside the analyses.
+  await page.waitForFunction(
+    hv => {
+      const nb = window.jupyterapp.shell.currentWidget?.context ? null : [...window.jupyterapp.shell.widgets('main')].find(w => w.context?.path === 'am17-demo.ipynb');
+      const meta = nb?.context.model.getMetadata('psiscape');
+      return meta?.explorers?.length === 1 && Math.abs(meta.explorers[0].h - Number(hv)) < 1e-9 && meta.explorers[0].convention === 'no-fractions';
+    },
+    h,
+    { timeout: 10000 }
+  );
+  await page.waitForTimeout(1000);
+
+  await serveInMultipleDocumentMode(page);
+  await saveAndReload(page);
+  await page.waitForFunction(() => document.querySelector('.jp-psiscape-LandauExplorer svg'), null, { timeout: 60000 });
+  await page.waitForTimeout(2000);
+  assert.equal(await page.locator('.jp-psiscape-LandauExplorer').count(), 1, 'the explorer once');
+  const again = page.locator('.jp-psiscape-LandauExplorer');
+  assert.equal(await again.locator('select.jp-psiscape-landau-convention').inputValue(), 'no-fractions');
+  assert.equal(await again.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue(), h);
+  // T0 is shown in the no-fractions form too (same T0 in every convention).
+  assert.equal(await again.locator('input.jp-psiscape-landau-number[data-key="T0"]').inputValue(), T0);
+  await again.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await page.locator('.lm-TabBar-tab', { hasText: 'Landau explorer' }).click();
+  await screenshot(page, 'restore-explorer-from-fit');
   assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
 });
