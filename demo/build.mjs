@@ -191,6 +191,8 @@ function assemble() {
     appName: 'psiscape demo lab',
     // The flavour demo/host/main.js starts: contents and settings in the browser.
     labFlavour: 'in-browser',
+    // As a Jupyter server's page says: JupyterLab then restores the main area's dock layout on reload.
+    mode: 'multiple-document',
     appVersion: require('@jupyterlab/application/package.json').version,
     baseUrl: '/',
     appUrl: '/lab',
