@@ -84,6 +84,7 @@ export class AnalysisPanel extends Panel {
             spec: () => this._chart.spec,
             baseName: () => this._notebookName.replace(/\.[^.]*$/, '') || 'analysis',
             analysis: () => ({ id: this._session.id, saved: this._session.toSaved() }),
+            hasResult: () => this._session.outcome !== null && this._session.outcomeIsCurrent && this._session.plotted() !== null,
             fitted: () => this._fittedPoints(),
             chartSize: () => {
               const box = (this._chart.node.querySelector('svg, canvas') ?? this._chart.node).getBoundingClientRect();

@@ -34,6 +34,8 @@ export interface IExportHost {
 export interface IExportSource {
   /** The current fit's record, or null when no fit of the data and settings now chosen is shown. */
   report(): IAnalysisReport | null;
+  /** Whether report() would give a record (cheap: read on every redraw to enable the buttons). */
+  hasResult(): boolean;
   /** The chart's Vega view, or null before it is drawn. */
   view(): View | null;
   /** The Vega-Lite spec of the chart drawn, or null. */
@@ -136,17 +138,16 @@ export class ExportBar extends Widget {
   canRun(action: ExportAction): boolean {
     switch (action) {
       case 'insert':
-        return this._host.insert !== undefined && this._source.report() !== null && this._source.view() !== null;
+        return this._host.insert !== undefined && this._source.hasResult() && this._source.view() !== null;
       case 'markdown':
       case 'latex':
       case 'csv':
       case 'json':
-        return this._source.report() !== null;
+      case 'data':
+        return this._source.hasResult();
       case 'svg':
       case 'png':
         return this._source.view() !== null;
-      case 'data':
-        return this._source.report() !== null && this._source.fitted() !== null;
       case 'vega-lite':
         return this._source.spec() !== null;
     }
@@ -208,8 +209,11 @@ export class ExportBar extends Widget {
       }
       case 'data': {
         const points = this._source.fitted();
-        if (!report || !points) {
+        if (!report) {
           return trans.__('Run a fit first: there is no result of the data and settings now chosen.');
+        }
+        if (!points) {
+          return trans.__('This fit does not keep one residual per data point, so its points cannot be saved with the model.');
         }
         const path = await this._host.save(`${base} ${report.kind} data.csv`, dataCsv(report, points), 'text');
         return trans.__('Saved %1.', path);

@@ -72,7 +72,14 @@ export function renderInlineAnalysis(host: Panel, data: unknown, translator: ITr
     runner: new AnalysisRunner()
   });
   panel.addClass('jp-psiscape-mod-inline');
-  panel.disposed.connect(() => session.dispose());
+  // Outputs are not among the lab's panels: follow theme changes here (the
+  // lab marks the theme on the body), once the new CSS variables apply.
+  const themeWatch = new MutationObserver(() => requestAnimationFrame(() => panel.isDisposed || panel.redraw()));
+  themeWatch.observe(document.body, { attributes: true, attributeFilter: ['data-jp-theme-name'] });
+  panel.disposed.connect(() => {
+    themeWatch.disconnect();
+    session.dispose();
+  });
   host.addWidget(panel);
   if (restored.runFit) {
     void panel.fitSection.runFit();

@@ -9,20 +9,10 @@ import path from 'node:path';
 import Ajv from 'ajv';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { parseMime } from '../../src/core/table';
-import { weissMagnetisation } from '../../src/core/physics/weiss';
 import type { IExportHost } from '../../src/ui/export-bar';
-import { choose, panelFor } from './helpers';
+import { choose, panelFor, weissCsv } from './helpers';
 
 const schema = JSON.parse(fs.readFileSync(path.resolve(__dirname, '../../schema/analysis-result.v1.json'), 'utf8'));
-
-function weissCsv(): string {
-  // Spin-½ Weiss curve (REFERENCE.md B1) with a deterministic ±0.3 wiggle standing in for noise.
-  const rows = ['T (K),M (emu/g),sigma_M (emu/g)'];
-  const T = Array.from({ length: 60 }, (_, i) => 20 + 5 * i);
-  const m = weissMagnetisation(0.5, T.map(t => t / 250));
-  T.forEach((t, i) => rows.push(`${t},${(80 * m[i] + 0.3 * Math.sin(7 * i)).toFixed(5)},0.3`));
-  return rows.join('\n');
-}
 
 function host() {
   const copied: string[] = [];

@@ -7,17 +7,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { MessageLoop } from '@lumino/messaging';
 import { parseMime } from '../../src/core/table';
-import { weissMagnetisation } from '../../src/core/physics/weiss';
-import { choose, panelFor, type } from './helpers';
-
-function weissCsv(): string {
-  // Spin-½ Weiss curve (REFERENCE.md B1) with a deterministic ±0.3 wiggle standing in for noise.
-  const rows = ['T (K),M (emu/g),sigma_M (emu/g)'];
-  const T = Array.from({ length: 60 }, (_, i) => 20 + 5 * i);
-  const m = weissMagnetisation(0.5, T.map(t => t / 250));
-  T.forEach((t, i) => rows.push(`${t},${(80 * m[i] + 0.3 * Math.sin(7 * i)).toFixed(5)},0.3`));
-  return rows.join('\n');
-}
+import { choose, panelFor, type, weissCsv } from './helpers';
 
 function open() {
   return panelFor(parseMime('text/csv', weissCsv()));

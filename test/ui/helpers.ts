@@ -10,6 +10,7 @@ import { AnalysisSession } from '../../src/core/analysis/session';
 import type { ParseResult } from '../../src/core/table';
 import { AnalysisPanel } from '../../src/ui/analysis-panel';
 import { AnalysisRunner } from '../../src/ui/analysis-runner';
+import { weissMagnetisation } from '../../src/core/physics/weiss';
 import type { IExportHost } from '../../src/ui/export-bar';
 
 /** An attached panel showing `parse`, with a spy for "Show source cell". */
@@ -41,4 +42,14 @@ export function choose(select: HTMLSelectElement, value: string): void {
 export function type(input: HTMLInputElement, text: string): void {
   input.value = text;
   input.dispatchEvent(new Event('change'));
+}
+
+/** A spin-½ Weiss M(T) table with σ, as CSV. */
+export function weissCsv(): string {
+  // Spin-½ Weiss curve (REFERENCE.md B1) with a deterministic ±0.3 wiggle standing in for noise.
+  const rows = ['T (K),M (emu/g),sigma_M (emu/g)'];
+  const T = Array.from({ length: 60 }, (_, i) => 20 + 5 * i);
+  const m = weissMagnetisation(0.5, T.map(t => t / 250));
+  T.forEach((t, i) => rows.push(`${t},${(80 * m[i] + 0.3 * Math.sin(7 * i)).toFixed(5)},0.3`));
+  return rows.join('\n');
 }

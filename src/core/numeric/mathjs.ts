@@ -10,65 +10,8 @@
  * Type guards (isSymbolNode, …) are plain functions: import them from
  * 'mathjs' directly; they pull in no instance.
  */
-import {
-  create,
-  createUnitDependencies,
-  unitDependencies,
-  expDependencies,
-  expm1Dependencies,
-  logDependencies,
-  log10Dependencies,
-  log2Dependencies,
-  log1pDependencies,
-  sqrtDependencies,
-  cbrtDependencies,
-  absDependencies,
-  signDependencies,
-  sinDependencies,
-  cosDependencies,
-  tanDependencies,
-  secDependencies,
-  cscDependencies,
-  cotDependencies,
-  asinDependencies,
-  acosDependencies,
-  atanDependencies,
-  atan2Dependencies,
-  sinhDependencies,
-  coshDependencies,
-  tanhDependencies,
-  sechDependencies,
-  cschDependencies,
-  cothDependencies,
-  asinhDependencies,
-  acoshDependencies,
-  atanhDependencies,
-  squareDependencies,
-  cubeDependencies,
-  powDependencies,
-  nthRootDependencies,
-  minDependencies,
-  maxDependencies,
-  addDependencies,
-  subtractDependencies,
-  multiplyDependencies,
-  divideDependencies,
-  unaryMinusDependencies,
-  unaryPlusDependencies,
-  smallerDependencies,
-  smallerEqDependencies,
-  largerDependencies,
-  largerEqDependencies,
-  equalDependencies,
-  unequalDependencies,
-  andDependencies,
-  orDependencies,
-  xorDependencies,
-  notDependencies,
-  piDependencies,
-  eDependencies,
-  parseDependencies
-} from 'mathjs';
+import { create, createUnitDependencies, unitDependencies } from 'mathjs';
+import * as parserFactories from './mathjs-factories';
 import type * as M from 'mathjs';
 
 /** Factories of the unit functions (for an instance that adds its own units). */
@@ -76,70 +19,11 @@ export const unitMathFactories = { unitDependencies, createUnitDependencies };
 
 /**
  * The parser's instance also holds every function and operator a model
- * expression may use (src/core/expr/compile.ts: SUPPORTED_FUNCTIONS,
- * SUPPORTED_OPERATORS, and the constants pi and e), so that mathjs's own
- * evaluation of a parsed node (the fallback path and the tests' reference)
- * works. A test checks the two lists agree.
+ * expression may use (mathjs-factories.ts), so that mathjs's own evaluation
+ * of a parsed node (the fallback path and the tests' reference) works. A test
+ * checks the lists agree.
  */
-const parser = create(
-  {
-    expDependencies,
-    expm1Dependencies,
-    logDependencies,
-    log10Dependencies,
-    log2Dependencies,
-    log1pDependencies,
-    sqrtDependencies,
-    cbrtDependencies,
-    absDependencies,
-    signDependencies,
-    sinDependencies,
-    cosDependencies,
-    tanDependencies,
-    secDependencies,
-    cscDependencies,
-    cotDependencies,
-    asinDependencies,
-    acosDependencies,
-    atanDependencies,
-    atan2Dependencies,
-    sinhDependencies,
-    coshDependencies,
-    tanhDependencies,
-    sechDependencies,
-    cschDependencies,
-    cothDependencies,
-    asinhDependencies,
-    acoshDependencies,
-    atanhDependencies,
-    squareDependencies,
-    cubeDependencies,
-    powDependencies,
-    nthRootDependencies,
-    minDependencies,
-    maxDependencies,
-    addDependencies,
-    subtractDependencies,
-    multiplyDependencies,
-    divideDependencies,
-    unaryMinusDependencies,
-    unaryPlusDependencies,
-    smallerDependencies,
-    smallerEqDependencies,
-    largerDependencies,
-    largerEqDependencies,
-    equalDependencies,
-    unequalDependencies,
-    andDependencies,
-    orDependencies,
-    xorDependencies,
-    notDependencies,
-    piDependencies,
-    eDependencies,
-    parseDependencies
-  },
-  {}
-);
+const parser = create(parserFactories, {});
 
 /** mathjs's expression parser (an instance of our own; no global state). */
 export const parse: M.ParseFunction = parser.parse;

@@ -13,13 +13,15 @@
 /** `$id` of the schema. */
 export const SAVED_SCHEMA_ID = 'urn:psiscape:saved-analyses:2';
 
+const headerProperty = { type: 'string', description: 'Header of the column in the source table.' } as const;
+
 const columnRefProperties = {
   index: {
     type: 'integer',
     minimum: -1,
     description: 'Position of the column in the source table, from 0. -1 (only in entries migrated from format 1, which saved headers alone): the first column with this header.'
   },
-  header: { type: 'string', description: 'Header of the column in the source table.' }
+  header: headerProperty
 };
 
 /** A column of the isotherm analysis, by position and header. */
@@ -28,7 +30,7 @@ const isothermColumn = {
   required: ['index', 'header'],
   properties: {
     index: { type: 'integer', minimum: 0, description: 'Position of the column in the source table, from 0.' },
-    header: { type: 'string', description: 'Header of the column in the source table.' }
+    header: headerProperty
   }
 } as const;
 

@@ -14,7 +14,7 @@
  */
 import { formatPlain, formatWithError } from './notation';
 import type { IAnalysisReport } from './report';
-import { reportMarkdown } from './writers';
+import { distinctDerived, reportMarkdown, sourceText, VERDICT_WORDS, windowText } from './writers';
 
 /** psiscape's own MIME type for a whole analysis (version 1). */
 export const ANALYSIS_MIME = 'application/vnd.psiscape.analysis.v1+json';
@@ -53,11 +53,6 @@ export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, c => ESCAPES[c]);
 }
 
-const VERDICT_WORDS: Record<IAnalysisReport['verdict']['state'], string> = {
-  fits: 'Describes the data',
-  'does-not-describe': 'Converged, but does not describe the data',
-  'not-converged': 'Did not converge'
-};
 
 /** The result as an HTML fragment: headline, verdict, table, statistics, convention, cautions, source. Every text is escaped. */
 export function reportHtml(r: IAnalysisReport): string {
@@ -67,19 +62,18 @@ export function reportHtml(r: IAnalysisReport): string {
       const interval = p.interval ? `${formatPlain(p.interval[0])} … ${formatPlain(p.interval[1])}` : '—';
       return `<tr><td>${e(p.name)}${p.fixed ? ' (fixed)' : ''}</td><td>${e(formatWithError(p.value, p.sigma ?? NaN))}</td><td>${e(interval)}</td></tr>`;
     })
+    .concat(distinctDerived(r).map(d => `<tr><td>${e(d.name)}</td><td>${e(formatWithError(d.value, d.sigma ?? NaN))}</td><td>${e(d.note)}</td></tr>`))
     .join('');
-  const end = (v: number | null): string => (v === null ? '—' : formatPlain(v));
-  const source = r.file ? `file ${r.file}` : r.source ? `${r.source.notebookPath}, cell id ${r.source.cellId}, output ${r.source.outputIndex + 1}` : 'unknown source';
   const cautions = r.cautions.length > 0 ? `<ul>${r.cautions.map(c => `<li>${e(c)}</li>`).join('')}</ul>` : '';
   return (
     `<div class="psiscape-result">` +
-    `<p><strong>${e(r.kindLabel)}</strong>: ${e(r.columns.y.header)} against ${e(r.columns.x.header)}, window ${e(end(r.window.min))} … ${e(end(r.window.max))}</p>` +
+    `<p><strong>${e(r.kindLabel)}</strong>: ${e(r.columns.y.header)} against ${e(r.columns.x.header)}, window ${e(windowText(r))}</p>` +
     `<p><em>${e(VERDICT_WORDS[r.verdict.state])}.</em> ${e(r.verdict.summary)}</p>` +
     `<table><thead><tr><th>parameter</th><th>value ± standard error</th><th>${e(formatPlain(100 * r.fit.confidenceLevel))} % interval</th></tr></thead><tbody>${rows}</tbody></table>` +
     `<p>χ²_red = ${e(r.fit.reducedChi2 === null ? '—' : formatPlain(r.fit.reducedChi2))} for ${r.fit.dof} degrees of freedom; ${r.points.used} points fitted.</p>` +
     `<p>Model: <code>${e(r.equation)}</code>. ${e(r.convention)}</p>` +
     cautions +
-    `<p>Data: ${e(source)}. psiscape ${e(r.psiscapeVersion)}.</p>` +
+    `<p>Data: ${e(sourceText(r))}. psiscape ${e(r.psiscapeVersion)}.</p>` +
     `</div>`
   );
 }

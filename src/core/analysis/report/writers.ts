@@ -6,7 +6,8 @@
 import { formatConcise, formatPlain, formatWithError } from './notation';
 import type { IAnalysisReport } from './report';
 
-const VERDICT_WORDS: Record<IAnalysisReport['verdict']['state'], string> = {
+/** The verdict's headline, as the panel words it. */
+export const VERDICT_WORDS: Record<IAnalysisReport['verdict']['state'], string> = {
   fits: 'Describes the data',
   'does-not-describe': 'Converged, but does not describe the data',
   'not-converged': 'Did not converge'
@@ -17,12 +18,14 @@ function columnText(c: { header: string }): string {
   return c.header;
 }
 
-function windowText(r: IAnalysisReport): string {
+/** "250 … 286"; an open end is "—". */
+export function windowText(r: IAnalysisReport): string {
   const end = (v: number | null): string => (v === null ? '—' : formatPlain(v));
   return `${end(r.window.min)} … ${end(r.window.max)}`;
 }
 
-function sourceText(r: IAnalysisReport): string {
+/** Where the data came from, in a few words. */
+export function sourceText(r: IAnalysisReport): string {
   if (r.file) {
     return `file ${r.file}`;
   }
@@ -33,7 +36,7 @@ function sourceText(r: IAnalysisReport): string {
 }
 
 /** Derived values that repeat a parameter (same name, or the same value and error) are listed once. */
-function distinctDerived(r: IAnalysisReport): IAnalysisReport['derived'] {
+export function distinctDerived(r: IAnalysisReport): IAnalysisReport['derived'] {
   return r.derived.filter(d => !r.fit.parameters.some(p => p.name === d.name || (p.value === d.value && p.sigma === d.sigma)));
 }
 
