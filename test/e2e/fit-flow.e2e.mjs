@@ -59,7 +59,7 @@ test('a critical power-law fit over a window below Tc gives Tc and the effective
   await section.locator('button.jp-psiscape-fit-run').click();
   // the result table of this fit has a beta row (the Weiss fit's has none)
   await section.locator('.jp-psiscape-fit-table tbody tr', { hasText: /^beta/ }).waitFor({ timeout: 60000 });
-  // Acceptance: the 250–286 K window of the demo is shown as fitting the data.
+  // The 250–286 K window of the demo is shown as fitting the data.
   assert.equal(await section.locator('.jp-psiscape-verdict').getAttribute('data-verdict'), 'fits');
   assert.match(await section.locator('.jp-psiscape-verdict').textContent(), /Describes the data/);
   const read = async label => {

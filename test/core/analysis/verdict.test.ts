@@ -1,6 +1,6 @@
 /**
  * The verdict on a fit: each check on hand-made cases, the runs test against
- * hand-computed examples, edge inputs, and seeded acceptance runs (correct
+ * hand-computed examples, edge inputs, and seeded Monte Carlo runs (correct
  * models must pass, wrong models must be caught).
  */
 import { describe, expect, it } from 'vitest';
@@ -352,7 +352,7 @@ describe('judgeFit: edge inputs', () => {
 });
 
 // ---------------------------------------------------------------------------
-// Acceptance: seeded Monte Carlo runs, 200 fits each.
+// Seeded Monte Carlo runs, 200 fits each.
 
 const RUNS = 200;
 
@@ -430,7 +430,7 @@ function parabolaCase(seed: number, withSigma: boolean): IVerdict {
   return judgeFit(fit, { x, y, sigma });
 }
 
-describe('judgeFit: acceptance over seeded fits', () => {
+describe('judgeFit: verdicts over seeded fits', () => {
   it('well-specified fits WITH σ: "fits" in 97–100 % (power law via fitPowerLaw, decay via fitCurve)', () => {
     const power = share('fits', s => powerLawCase(s, true));
     const dec = share('fits', s => decayCase(s, true));
