@@ -117,6 +117,21 @@ function decodeEntry(entry: JsonRecord, settings: ISavedSettings | null): ISaved
   };
 }
 
+/** Optional text controls of the isotherm analysis (written by newer files; absent in older ones). */
+const OPTIONAL_ISOTHERM_TEXTS = ['demagnetisingFactorCgs', 'sampleShape', 'fieldMin', 'fieldMax', 'tMax', 'bootstrapSamples', 'view'] as const;
+
+/** The optional text fields present in `r`, each as string or null. */
+function optionalTexts(r: JsonRecord, keys: readonly (typeof OPTIONAL_ISOTHERM_TEXTS)[number][]): Partial<ISavedIsotherms> {
+  const out: Partial<Record<(typeof OPTIONAL_ISOTHERM_TEXTS)[number], string | null>> = {};
+  for (const key of keys) {
+    const v = own(r, key);
+    if (typeof v === 'string' || v === null) {
+      out[key] = v;
+    }
+  }
+  return out;
+}
+
 /** The isotherm analysis of a valid entry (the schema has checked every field). */
 function decodeIsotherms(iso: JsonRecord): ISavedIsotherms {
   const columns = own(iso, 'columns') as JsonRecord;
@@ -132,7 +147,11 @@ function decodeIsotherms(iso: JsonRecord): ISavedIsotherms {
     demagnetisingFactorSI: text(iso, 'demagnetisingFactorSI'),
     temperatureToleranceK: text(iso, 'temperatureToleranceK'),
     sampleMassMg: text(iso, 'sampleMassMg'),
-    densityGPerCm3: text(iso, 'densityGPerCm3')
+    densityGPerCm3: text(iso, 'densityGPerCm3'),
+    ...optionalTexts(iso, OPTIONAL_ISOTHERM_TEXTS),
+    ...(own(iso, 'demagnetisingConvention') === 'cgs' || own(iso, 'demagnetisingConvention') === 'SI'
+      ? { demagnetisingConvention: own(iso, 'demagnetisingConvention') as 'SI' | 'cgs' }
+      : {})
   };
 }
 

@@ -178,7 +178,15 @@ export const SAVED_SCHEMA = {
             demagnetisingFactorSI: { ...typedText, description: 'Demagnetising factor N_d, SI convention (0–1).' },
             temperatureToleranceK: { ...typedText, description: 'Readings within this many kelvin form one isotherm.' },
             sampleMassMg: { ...typedText, description: 'Sample mass in mg.' },
-            densityGPerCm3: { ...typedText, description: 'Density in g/cm³.' }
+            densityGPerCm3: { ...typedText, description: 'Density in g/cm³.' },
+            demagnetisingConvention: { type: 'string', enum: ['SI', 'cgs'], description: 'Convention N_d was typed in; absent means SI.' },
+            demagnetisingFactorCgs: { ...typedText, description: 'Demagnetising factor N_d, cgs convention (0–4π), when that convention was chosen.' },
+            sampleShape: { ...typedText, description: 'Sample-shape preset chosen for N_d.' },
+            fieldMin: { ...typedText, description: "Lowest field used, in the field column's unit." },
+            fieldMax: { ...typedText, description: "Highest field used, in the field column's unit." },
+            tMax: { ...typedText, description: 'Largest |t| = |T − Tc|/Tc of the exponent fits.' },
+            bootstrapSamples: { ...typedText, description: 'Bootstrap resamples over isotherms.' },
+            view: { ...typedText, description: 'The view of the isotherm analysis shown.' }
           }
         }
       }

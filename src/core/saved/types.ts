@@ -101,6 +101,21 @@ export interface ISavedIsotherms {
   temperatureToleranceK: string | null;
   sampleMassMg: string | null;
   densityGPerCm3: string | null;
+  /** Which convention N_d was typed in (absent: SI, as older files wrote it). */
+  demagnetisingConvention?: 'SI' | 'cgs';
+  /** N_d as typed in the cgs convention (0–4π), when that convention was chosen. */
+  demagnetisingFactorCgs?: string | null;
+  /** The sample-shape preset chosen for N_d ('custom' when typed). */
+  sampleShape?: string | null;
+  /** Field range used, in the field column's unit. */
+  fieldMin?: string | null;
+  fieldMax?: string | null;
+  /** Largest |t| of the exponent fits. */
+  tMax?: string | null;
+  /** Bootstrap resamples over isotherms. */
+  bootstrapSamples?: string | null;
+  /** The view shown (a tab of the isotherm analysis). */
+  view?: string | null;
 }
 
 /** Whether a snapshot kept no values (a large table: reference and hash only). */

@@ -65,6 +65,11 @@ function encodeEntry(entry: ISavedAnalysis): JsonRecord | string {
       sampleMassMg: iso.sampleMassMg,
       densityGPerCm3: iso.densityGPerCm3
     };
+    for (const key of ['demagnetisingConvention', 'demagnetisingFactorCgs', 'sampleShape', 'fieldMin', 'fieldMax', 'tMax', 'bootstrapSamples', 'view'] as const) {
+      if (iso[key] !== undefined) {
+        (json.isotherms as JsonRecord)[key] = iso[key] ?? null;
+      }
+    }
   }
   return json;
 }
@@ -80,7 +85,22 @@ const SPEC: IMergeSpec = {
   known: ['id', 'source', 'columns', 'snapshot', 'settings', 'isotherms'],
   children: {
     isotherms: {
-      known: ['columns', 'units', 'demagnetisingFactorSI', 'temperatureToleranceK', 'sampleMassMg', 'densityGPerCm3'],
+      known: [
+        'columns',
+        'units',
+        'demagnetisingFactorSI',
+        'temperatureToleranceK',
+        'sampleMassMg',
+        'densityGPerCm3',
+        'demagnetisingConvention',
+        'demagnetisingFactorCgs',
+        'sampleShape',
+        'fieldMin',
+        'fieldMax',
+        'tMax',
+        'bootstrapSamples',
+        'view'
+      ],
       children: {
         columns: { known: ['temperature', 'field', 'magnetisation'], children: { temperature: REF, field: REF, magnetisation: REF } },
         units: { known: ['temperature', 'field', 'magnetisation'] }

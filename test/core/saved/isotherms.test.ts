@@ -43,6 +43,30 @@ describe('saved isotherm analysis', () => {
     expect(validate(value)).toBe(true);
   });
 
+  it('should write and read back the later controls (N_d convention and shape, field range, window, bootstrap, view)', () => {
+    const later: ISavedIsotherms = {
+      ...isotherms,
+      demagnetisingFactorSI: null,
+      demagnetisingConvention: 'cgs',
+      demagnetisingFactorCgs: '2.51',
+      sampleShape: 'custom',
+      fieldMin: '500',
+      fieldMax: null,
+      tMax: '0.05',
+      bootstrapSamples: '',
+      view: 'critical'
+    };
+    const value = valueOf(upsertSavedWith(undefined, entry('a', { isotherms: later }), kinds));
+    const validate = new Ajv({ allowUnionTypes: true }).compile(JSON.parse(fs.readFileSync(SCHEMA_FILE, 'utf8')));
+    expect(validate(value)).toBe(true);
+    expect(readSavedWith(value, kinds).analyses[0].isotherms).toEqual(later);
+    // An older file (without the later fields) still reads, with none of them invented.
+    expect(readSavedWith(valueOf(upsertSavedWith(undefined, entry('b', { isotherms }), kinds)), kinds).analyses[0].isotherms).toEqual(isotherms);
+    // A convention that is neither SI nor cgs is refused by the schema, and the entry is reported.
+    ((value.analyses as Record<string, unknown>[])[0].isotherms as Record<string, unknown>).demagnetisingConvention = 'Gaussian';
+    expect(readSavedWith(value, kinds).problems).toHaveLength(1);
+  });
+
   it('should keep fields a newer writer put inside the isotherm analysis', () => {
     const value = valueOf(upsertSavedWith(undefined, entry('a', { isotherms }), kinds));
     const stored = (value.analyses as Record<string, unknown>[])[0];
