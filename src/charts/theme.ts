@@ -19,6 +19,42 @@ export interface IChartTheme {
   accent2: string;
   /** Font family for all chart text. */
   font: string;
+  /**
+   * Colours of unordered series (one per field change, per H_min …), in
+   * order; {@link DEFAULT_CATEGORICAL} when omitted.
+   */
+  categorical?: readonly string[];
+  /**
+   * Sequential ramp from the lowest to the highest value of a colour scale
+   * (heat maps), at least two colours; {@link DEFAULT_SEQUENTIAL} when omitted.
+   */
+  sequential?: readonly string[];
+}
+
+/**
+ * Series colours when the theme gives none: the Okabe–Ito palette (told
+ * apart with the common colour-vision deficiencies), its black left out so
+ * it reads on dark backgrounds too.
+ */
+export const DEFAULT_CATEGORICAL: readonly string[] = Object.freeze(['#0072B2', '#E69F00', '#009E73', '#CC79A7', '#56B4E9', '#D55E00', '#F0E442']);
+
+/**
+ * Sequential ramp when the theme gives none: pale yellow through orange and
+ * red to deep purple, lightness falling monotonically, so the order of the
+ * values survives colour-vision deficiencies and greyscale printing.
+ */
+export const DEFAULT_SEQUENTIAL: readonly string[] = Object.freeze(['#FCF4C4', '#F9CF7A', '#F19A4B', '#D9603B', '#A63556', '#6B1F66', '#2E1646']);
+
+/** The theme's series colours, or {@link DEFAULT_CATEGORICAL}. */
+export function categoricalColours(theme: IChartTheme): string[] {
+  const own = (theme.categorical ?? []).filter(c => typeof c === 'string' && c.length > 0);
+  return own.length > 0 ? own.slice() : DEFAULT_CATEGORICAL.slice();
+}
+
+/** The theme's sequential ramp (low to high), or {@link DEFAULT_SEQUENTIAL}. */
+export function sequentialColours(theme: IChartTheme): string[] {
+  const own = (theme.sequential ?? []).filter(c => typeof c === 'string' && c.length > 0);
+  return own.length >= 2 ? own.slice() : DEFAULT_SEQUENTIAL.slice();
 }
 
 /** Vega-Lite `config` block for a theme. */

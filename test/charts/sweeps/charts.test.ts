@@ -78,7 +78,7 @@ describe('sweep chart builders', () => {
     const p = pts.data.values.find(v => v.T === iso.T) as { x: number; y: number };
     expect(p.x).toBeCloseTo((iso.H[0] / iso.M[0]) ** (1 / 1.3), 12);
     expect(p.y).toBeCloseTo(iso.M[0] ** (1 / 0.4), 12);
-    expect(JSON.stringify(spec)).toContain('applied H');
+    expect(JSON.stringify(spec)).toContain('applied field');
     expect(() => buildModifiedArrottSpec({ isotherms: set.isotherms, beta: 0, gamma: 1, theme })).toThrow(RangeError);
   });
 
@@ -105,7 +105,8 @@ describe('sweep chart builders', () => {
     const copy = JSON.stringify(cells);
     const { spec } = buildExponentWindowSpec(cells, 'beta', theme);
     compiles(spec);
-    const [bars, line] = layers(spec);
+    // After the universality classes' rules and labels: the error bars, then the line.
+    const [, , bars, line] = layers(spec);
     expect(line.encoding.x.field).toBe('tMax');
     expect(line.encoding.y.field).toBe('value');
     expect(bars.encoding.y.field).toBe('lo');
@@ -137,7 +138,7 @@ describe('sweep chart builders', () => {
     const [pts] = layers(spec);
     expect(pts.encoding.x.field).toBe('h');
     expect(pts.encoding.y.field).toBe('m');
-    expect(new Set(pts.data.values.map(v => v.branch))).toEqual(new Set(['t < 0', 't > 0']));
+    expect(new Set(pts.data.values.map(v => v.branch))).toEqual(new Set(['T < Tc', 'T > Tc']));
     expect(pts.data.values.some(v => v.T === 10)).toBe(false);
     const iso = set.isotherms[set.isotherms.length - 1];
     const t = (iso.T - 10) / 10;
