@@ -43,7 +43,17 @@ function stat(v: number[]): IBootstrapStat {
 }
 
 /** Resamples isotherms `samples` times (default 50, seed 1) and reruns the iteration. */
-export function bootstrapModifiedArrott(set: IIsothermSet, options: IModifiedArrottOptions & { samples?: number; seed?: number } = {}): IBootstrapResult {
+export function bootstrapModifiedArrott(
+  set: IIsothermSet,
+  options: IModifiedArrottOptions & {
+    samples?: number;
+    seed?: number;
+    /** Polled before every sample; true stops the resampling (the samples drawn so far are kept). */
+    shouldStop?: () => boolean;
+    /** Called after every sample with the number done. */
+    onSample?: (done: number) => void;
+  } = {}
+): IBootstrapResult {
   const samples = options.samples ?? 50;
   const seed = options.seed ?? 1;
   if (!Number.isInteger(samples) || samples < 2) {
@@ -56,6 +66,9 @@ export function bootstrapModifiedArrott(set: IIsothermSet, options: IModifiedArr
   const t: number[] = [];
   let failed = 0;
   for (let s = 0; s < samples; s++) {
+    if (options.shouldStop?.() === true) {
+      break;
+    }
     const pick: IIsotherm[] = [];
     for (let k = 0; k < iso.length; k++) {
       pick.push(iso[Math.floor(rand() * iso.length)]);
@@ -69,6 +82,7 @@ export function bootstrapModifiedArrott(set: IIsothermSet, options: IModifiedArr
     } else {
       failed++;
     }
+    options.onSample?.(s + 1);
   }
   return {
     beta: stat(b),

@@ -52,33 +52,70 @@ function prepare(isotherms: readonly IIsotherm[], hMin: number): IPrepared[] {
   });
 }
 
+// scratch buffers of the scaled coordinates, reused between calls (grown on demand)
+let scratchX = new Float64Array(0);
+let scratchY = new Float64Array(0);
+
 function cost(prep: readonly IPrepared[], Tc: number, beta: number, gamma: number, tMin: number, tMax: number, k: number): ICollapseCost {
   let sum = 0;
   let count = 0;
+  let total = 0;
+  for (const p of prep) {
+    total += p.lnH.length;
+  }
+  if (scratchX.length < total) {
+    scratchX = new Float64Array(total);
+    scratchY = new Float64Array(total);
+  }
+  const sx = scratchX;
+  const sy = scratchY;
+  const bg = beta + gamma;
   for (const sign of [-1, 1]) {
-    const br = prep
-      .map(p => ({ p, t: (p.T - Tc) / Tc }))
-      .filter(q => Math.sign(q.t) === sign && Math.abs(q.t) >= tMin && Math.abs(q.t) <= tMax)
-      .sort((a, b) => Math.abs(a.t) - Math.abs(b.t));
-    const scaled = br.map(q => {
-      const lt = Math.log(Math.abs(q.t));
-      return { x: q.p.lnH.map(v => v - (beta + gamma) * lt), y: q.p.lnM.map(v => v - beta * lt) };
-    });
-    for (let i = 0; i < scaled.length; i++) {
-      for (let j = i + 1; j <= Math.min(scaled.length - 1, i + k); j++) {
-        const a = scaled[i];
-        const b = scaled[j];
-        let s = 0;
-        for (let q = 0; q < a.x.length; q++) {
-          const x = a.x[q];
-          if (!(x >= b.x[0] && x <= b.x[b.x.length - 1])) {
+    const br: { p: IPrepared; at: number }[] = [];
+    for (const p of prep) {
+      const t = (p.T - Tc) / Tc;
+      if (Math.sign(t) === sign && Math.abs(t) >= tMin && Math.abs(t) <= tMax) {
+        br.push({ p, at: Math.abs(t) });
+      }
+    }
+    br.sort((a, b) => a.at - b.at);
+    // scaled coordinates of the branch, isotherm after isotherm in the scratch buffers
+    const start: number[] = [];
+    let o = 0;
+    for (const q of br) {
+      const lt = Math.log(q.at);
+      start.push(o);
+      const h = q.p.lnH;
+      const m = q.p.lnM;
+      for (let i = 0; i < h.length; i++) {
+        sx[o] = h[i] - bg * lt;
+        sy[o] = m[i] - beta * lt;
+        o++;
+      }
+    }
+    start.push(o);
+    for (let i = 0; i < br.length; i++) {
+      for (let j = i + 1; j <= Math.min(br.length - 1, i + k); j++) {
+        const a0 = start[i];
+        const a1 = start[i + 1];
+        const b0 = start[j];
+        const b1 = start[j + 1];
+        if (b1 - b0 < 1) {
+          continue;
+        }
+        const bLo = sx[b0];
+        const bHi = sx[b1 - 1];
+        let s = b0;
+        for (let q = a0; q < a1; q++) {
+          const x = sx[q];
+          if (!(x >= bLo && x <= bHi)) {
             continue;
           }
-          while (s + 1 < b.x.length - 1 && b.x[s + 1] < x) {
+          while (s + 1 < b1 - 1 && sx[s + 1] < x) {
             s++;
           }
-          const w = b.x[s + 1] === b.x[s] ? 0 : (x - b.x[s]) / (b.x[s + 1] - b.x[s]);
-          const d = a.y[q] - (b.y[s] + w * (b.y[s + 1] - b.y[s]));
+          const w = sx[s + 1] === sx[s] || s + 1 >= b1 ? 0 : (x - sx[s]) / (sx[s + 1] - sx[s]);
+          const d = sy[q] - (sy[s] + w * ((s + 1 < b1 ? sy[s + 1] : sy[s]) - sy[s]));
           sum += d * d;
           count++;
         }

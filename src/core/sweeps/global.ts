@@ -10,7 +10,8 @@ import { messageOf, msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { fitCurve } from '../fit/index';
-import type { IFitModel, IFitResult } from '../fit/index';
+import type { IFitOptions, IFitResult } from '../fit/index';
+import { equationOfStateModel } from './eos-model';
 import type { IIsotherm, IValueSigma } from './types';
 
 /** Starting values of the global fit. */
@@ -86,40 +87,6 @@ export function solveEquationOfState(lnH: number, c: number, lnM1: number, beta:
   return u;
 }
 
-function eosModel(lnH: Float64Array, T: Float64Array, guess: Float64Array): IFitModel {
-  const solve = (p: Float64Array, i: number): number =>
-    solveEquationOfState(lnH[i], (T[i] - p[0]) / p[3], Math.log(p[4]), p[1], p[2], guess[i]);
-  return {
-    parameters: ['Tc', 'beta', 'gamma', 'T1', 'M1'],
-    evaluate(p, x, out) {
-      for (let k = 0; k < x.length; k++) {
-        out[k] = solve(p, x[k]);
-      }
-    },
-    jacobian(p, x, out) {
-      const [Tc, beta, gamma, T1, M1] = p;
-      const lnM1 = Math.log(M1);
-      for (let k = 0; k < x.length; k++) {
-        const i = x[k];
-        const u = solve(p, i);
-        const a = Math.exp((lnH[i] - u) / gamma);
-        const b = Math.exp((u - lnM1) / beta);
-        const Fu = -a / gamma - b / beta;
-        const Fp = [
-          1 / T1,
-          (b * (u - lnM1)) / (beta * beta),
-          (-a * (lnH[i] - u)) / (gamma * gamma),
-          (T[i] - Tc) / (T1 * T1),
-          b / (beta * M1)
-        ];
-        for (let j = 0; j < 5; j++) {
-          out[5 * k + j] = -Fp[j] / Fu;
-        }
-      }
-    }
-  };
-}
-
 /** Window of the global fit. */
 export interface IGlobalWindow {
   tMax: number;
@@ -127,23 +94,44 @@ export interface IGlobalWindow {
   hMin?: number;
 }
 
-/** Fits the equation of state to the points of `isotherms` inside the window around start.Tc. */
-export function fitEquationOfState(isotherms: readonly IIsotherm[], start: IEquationOfStateStart, window: IGlobalWindow): IGlobalFit {
+/** Engine options passed through to the fit (cancel, progress, budget). */
+export type IGlobalFitHooks = Pick<IFitOptions, 'shouldStop' | 'onProgress' | 'maxEvaluations'>;
+
+/** The points of the global fit: ln H, T and ln M of every point in the window, with the isotherm each came from. */
+export interface IEquationOfStatePoints {
+  lnH: Float64Array;
+  T: Float64Array;
+  lnM: Float64Array;
+  /** Index into the isotherms passed of each point's isotherm. */
+  isotherm: Int32Array;
+}
+
+/** Points with H > 0, M > 0 and H ≥ H_min of the isotherms with |T − Tc|/Tc ≤ t_max, in isotherm order. */
+export function equationOfStatePoints(isotherms: readonly IIsotherm[], Tc: number, window: IGlobalWindow): IEquationOfStatePoints {
   const lnH: number[] = [];
   const T: number[] = [];
   const y: number[] = [];
-  for (const iso of isotherms) {
-    if (Math.abs(iso.T - start.Tc) / start.Tc > window.tMax) {
-      continue;
+  const which: number[] = [];
+  isotherms.forEach((iso, k) => {
+    if (!(Math.abs(iso.T - Tc) / Tc <= window.tMax)) {
+      return;
     }
     for (let i = 0; i < iso.H.length; i++) {
       if (iso.H[i] > 0 && iso.M[i] > 0 && iso.H[i] >= (window.hMin ?? 0)) {
         lnH.push(Math.log(iso.H[i]));
         T.push(iso.T);
         y.push(Math.log(iso.M[i]));
+        which.push(k);
       }
     }
-  }
+  });
+  return { lnH: Float64Array.from(lnH), T: Float64Array.from(T), lnM: Float64Array.from(y), isotherm: Int32Array.from(which) };
+}
+
+/** Fits the equation of state to the points of `isotherms` inside the window around start.Tc. */
+export function fitEquationOfState(isotherms: readonly IIsotherm[], start: IEquationOfStateStart, window: IGlobalWindow, hooks: IGlobalFitHooks = {}): IGlobalFit {
+  const pts = equationOfStatePoints(isotherms, start.Tc, window);
+  const y = pts.lnM;
   const n = y.length;
   const nan: IValueSigma = { value: NaN, sigma: NaN };
   const fail = (reason: ICoreMessage): IGlobalFit => ({ Tc: nan, beta: nan, gamma: nan, T1: nan, M1: nan, delta: nan, correlationTcBeta: NaN, n, converged: false, reason, fit: null });
@@ -151,13 +139,14 @@ export function fitEquationOfState(isotherms: readonly IIsotherm[], start: IEqua
     return fail(msg('sweeps.global.too-few', 'Too few points in the window (%1) for the global fit: at least 10 are needed.', wholeNumber(n)));
   }
   const x = Float64Array.from({ length: n }, (_v, i) => i);
-  const model = eosModel(Float64Array.from(lnH), Float64Array.from(T), Float64Array.from(y));
+  const model = equationOfStateModel(pts.lnH, pts.T, y);
   let fit: IFitResult;
   try {
     fit = fitCurve(model, { x, y }, {
       start: [start.Tc, start.beta, start.gamma, start.T1, start.M1],
       lower: [0, 0.02, 0.1, 1e-12, 1e-300],
-      upper: [Infinity, 3, 6, Infinity, Infinity]
+      upper: [Infinity, 3, 6, Infinity, Infinity],
+      ...hooks
     });
   } catch (e) {
     return fail(messageOf(e));

@@ -111,6 +111,66 @@ export function windowPoints(lines: readonly IIsothermLine[], Tc: number, tMin: 
   return { ms, chi };
 }
 
+/** Fewest isotherms on each side of Tc for a step's power laws (amplitude, Tc and exponent need 4). */
+export const MIN_ISOTHERMS_PER_SIDE = 4;
+/** Range of β and γ a step may report (an exponent at or beyond these limits is not a result). */
+const BETA_RANGE: readonly [number, number] = [0.05, 3];
+const GAMMA_RANGE: readonly [number, number] = [0.2, 5];
+
+/** Whether a power law's exponent is a result: finite, inside the range, and known better than to 100 %. */
+export function usableExponent(f: IPowerFit, range: readonly [number, number]): boolean {
+  const e = f.exponent;
+  return Number.isFinite(e.value) && e.value > range[0] && e.value < range[1] && Number.isFinite(e.sigma) && e.sigma >= 0 && e.sigma < e.value;
+}
+
+/** Why step `it` of the iteration gives no usable exponents, or null when it does. */
+function stepProblem(it: number, below: number, above: number, fm: IPowerFit, fc: IPowerFit): { reason: ICoreMessage; cause: ICoreMessage | null } | null {
+  const kept =
+    it === 1
+      ? msg('sweeps.map.no-usable-step', 'No step of the modified Arrott iteration gave usable exponents, so it reports none.')
+      : msg('sweeps.map.kept-step', 'The values are those of step %1, the last usable one.', it - 1);
+  if (below < MIN_ISOTHERMS_PER_SIDE || above < MIN_ISOTHERMS_PER_SIDE) {
+    return {
+      reason: msg(
+        'sweeps.map.step-too-few',
+        'The modified Arrott iteration stopped at step %1: only %2 isotherms below and %3 above Tc had a usable line in the window, where %4 on each side are needed.',
+        it,
+        below,
+        above,
+        MIN_ISOTHERMS_PER_SIDE
+      ),
+      cause: kept
+    };
+  }
+  if (!Number.isFinite(fm.exponent.value)) {
+    return { reason: msg('sweeps.map.ms-fit-failed', 'The modified Arrott iteration stopped: the power law of Ms(T) could not be fitted.'), cause: fm.reason };
+  }
+  if (!Number.isFinite(fc.exponent.value)) {
+    return { reason: msg('sweeps.map.chi-fit-failed', 'The modified Arrott iteration stopped: the power law of 1/χ0(T) could not be fitted.'), cause: fc.reason };
+  }
+  for (const [f, range, name] of [
+    [fm, BETA_RANGE, 'β'],
+    [fc, GAMMA_RANGE, 'γ']
+  ] as const) {
+    if (!usableExponent(f, range)) {
+      return {
+        reason: msg(
+          'sweeps.map.step-unusable',
+          'The modified Arrott iteration stopped at step %1: its power law gave %2 = %3 ± %4, outside %5 to %6 or with an uncertainty as large as the value.',
+          it,
+          name,
+          f.exponent.value,
+          f.exponent.sigma,
+          range[0],
+          range[1]
+        ),
+        cause: kept
+      };
+    }
+  }
+  return null;
+}
+
 /** The iteration on given isotherms (no branch selection, no set warnings). */
 export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: IModifiedArrottOptions = {}) {
   let beta = options.start?.beta ?? HEIS?.beta.value ?? 0.3689;
@@ -157,22 +217,25 @@ export function iterateModifiedArrott(isotherms: readonly IIsotherm[], options: 
     const pts = windowPoints(lines, Tc, tMin, tMax);
     const fm = fitCriticalPower(pts.ms.map(p => p.T), pts.ms.map(p => p.value), 'below', { Tc, exponent: beta }, pts.ms.map(p => p.sigma));
     const fc = fitCriticalPower(pts.chi.map(p => p.T), pts.chi.map(p => p.value), 'above', { Tc, exponent: gamma }, pts.chi.map(p => p.sigma));
-    if (!Number.isFinite(fm.exponent.value) || !Number.isFinite(fc.exponent.value)) {
-      if (!Number.isFinite(fm.exponent.value)) {
-        reason = msg('sweeps.map.ms-fit-failed', 'The modified Arrott iteration stopped: the power law of Ms(T) could not be fitted.');
-        cause = fm.reason;
-      } else {
-        reason = msg('sweeps.map.chi-fit-failed', 'The modified Arrott iteration stopped: the power law of 1/χ0(T) could not be fitted.');
-        cause = fc.reason;
+    const problem = stepProblem(it, pts.ms.length, pts.chi.length, fm, fc);
+    if (problem !== null) {
+      // never report exponents from this step: keep the last usable step's fits, or none
+      reason = problem.reason;
+      cause = problem.cause;
+      if (it === 1) {
+        MsFit = usableExponent(fm, BETA_RANGE) ? fm : null;
+        chiFit = usableExponent(fc, GAMMA_RANGE) ? fc : null;
+        if (MsFit === null || chiFit === null) {
+          MsFit = null;
+          chiFit = null;
+        }
       }
-      MsFit = MsFit ?? fm;
-      chiFit = chiFit ?? fc;
       break;
     }
     MsFit = fm;
     chiFit = fc;
-    const nb = Math.min(Math.max(fm.exponent.value, 0.05), 3);
-    const ng = Math.min(Math.max(fc.exponent.value, 0.2), 5);
+    const nb = Math.min(Math.max(fm.exponent.value, BETA_RANGE[0]), BETA_RANGE[1]);
+    const ng = Math.min(Math.max(fc.exponent.value, GAMMA_RANGE[0]), GAMMA_RANGE[1]);
     const nTc = combine(fm.Tc, fc.Tc).value;
     const change = Math.max(Math.abs(nb - beta), Math.abs(ng - gamma), Math.abs(nTc - Tc) / Math.abs(Tc));
     beta = nb;

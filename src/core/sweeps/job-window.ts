@@ -1,0 +1,69 @@
+/**
+ * Exponents of the global equation-of-state fit against the window: a small
+ * grid of t_max and H_min, each cell a global fit started from the primary
+ * result (so each converges in a few steps), with δ from the critical
+ * isotherm at that cell's Tc [B8 in REFERENCES.md].
+ */
+import { msg } from '../messages';
+import { criticalIsotherm } from './critical';
+import type { IEquationOfStateStart, IGlobalFitHooks } from './global';
+import { fitEquationOfState } from './global';
+import type { IIsothermSet } from './types';
+import { conventionsOf } from './types';
+import type { IExponentWindowCell, IExponentWindowScan } from './window';
+
+/** The t_max of the scan: fractions of the analysis window. */
+export const WINDOW_T_FRACTIONS: readonly number[] = [0.25, 0.5, 1];
+/** The H_min of the scan: fractions of the highest field every isotherm reaches. */
+export const WINDOW_H_FRACTIONS: readonly number[] = [0, 0.3];
+
+/** The grid scan from the primary start; `onCell` is told how many cells are done. */
+export function globalWindowScan(
+  set: IIsothermSet,
+  start: IEquationOfStateStart,
+  tMax: number,
+  hooks: IGlobalFitHooks & { onCell?: (done: number, total: number) => void } = {}
+): IExponentWindowScan {
+  const iso = set.isotherms;
+  let hTop = Infinity;
+  for (const i of iso) {
+    hTop = Math.min(hTop, i.H[i.H.length - 1]);
+  }
+  const tMaxs = WINDOW_T_FRACTIONS.map(f => f * tMax);
+  const hMins = WINDOW_H_FRACTIONS.map(f => f * (Number.isFinite(hTop) ? hTop : 0));
+  const cells: IExponentWindowCell[] = [];
+  const nan = { value: NaN, sigma: NaN };
+  const total = tMaxs.length * hMins.length;
+  for (const t of tMaxs) {
+    for (const hMin of hMins) {
+      if (hooks.shouldStop?.() === true) {
+        break;
+      }
+      const g = fitEquationOfState(iso, start, { tMax: t, hMin }, { shouldStop: hooks.shouldStop });
+      const dCrit = Number.isFinite(g.Tc.value) ? criticalIsotherm(iso, g.Tc.value, { hMin }).delta : nan;
+      cells.push({
+        tMax: t,
+        hMin,
+        method: 'global',
+        beta: g.beta,
+        gamma: g.gamma,
+        Tc: g.Tc,
+        delta: g.delta,
+        deltaCriticalIsotherm: dCrit,
+        kouvelFisherBeta: nan,
+        kouvelFisherGamma: nan,
+        n: g.n,
+        converged: g.converged,
+        reason: g.reason
+      });
+      hooks.onCell?.(cells.length, total);
+    }
+  }
+  const notes = [
+    msg(
+      'sweeps.convention.job-window',
+      'Each cell of the window scan is a global fit started from the primary result, over the isotherms with |T − Tc|/Tc ≤ t_max around the primary Tc and the points with H ≥ H_min.'
+    )
+  ];
+  return { cells, conventions: conventionsOf(set, notes), warnings: [] };
+}
