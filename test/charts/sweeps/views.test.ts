@@ -35,7 +35,7 @@ import {
 } from '../../../src/core/sweeps/index';
 import type { IBanerjeeEvidence, ICollapseResult, ICriticalIsothermResult, IEntropyResult, IExponentWindowCell, IIsotherm, IModifiedArrottResult } from '../../../src/core/sweeps/index';
 import { anSet, beanRodbellSet, linspace } from '../../core/sweeps/generators';
-import { checkChart, distinctTheme as theme, layers, markOf } from './helpers';
+import { checkChart, compilesCleanly, distinctTheme as theme, layers, markOf } from './helpers';
 
 const P = { Tc: 300, beta: 0.3689, gamma: 1.396, T1: 5, M1: 1e5 };
 const set = anSet(P, linspace(285, 315, 13), linspace(1e3, 1e5, 60), 1e-3, 7);
@@ -383,5 +383,17 @@ describe('theme colours', () => {
     checkChart(map, withDefaults);
     expect(layers(curves.spec)[1].encoding.color.scale?.range).toEqual([...DEFAULT_CATEGORICAL]);
     expect(layers(map.spec)[0].encoding.color.scale?.range).toEqual([...DEFAULT_SEQUENTIAL]);
+  });
+});
+
+describe('the checks themselves', () => {
+  it('a spec Vega-Lite warns about fails the compile check', () => {
+    const warned = {
+      $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+      data: { values: [{ a: 'x', b: 1 }] },
+      mark: 'point',
+      encoding: { x: { field: 'a', type: 'nominal', scale: { type: 'log' } }, y: { field: 'b', type: 'quantitative' } }
+    };
+    expect(() => compilesCleanly(warned as never)).toThrow();
   });
 });
