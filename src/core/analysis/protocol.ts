@@ -18,6 +18,14 @@
  *           { id, kind: 'cancelled', best }   (the flag stopped the job)
  *           { id, kind: 'failed', message }   (an ICoreMessage, for the UI to translate)
  *
+ * Request:  { id, kind: 'isotherms', job, cancelFlag? }
+ *           The isotherm analysis (runIsothermJob) on three columns and its
+ *           controls; the columns' values may be Float64Arrays (transferred).
+ * Replies:  { id, kind: 'isotherm-progress', stage, fraction }  (at most every PROGRESS_INTERVAL_MS, and at each new stage)
+ *           { id, kind: 'isotherms-done', answer }   (ok, needs-unit or refused)
+ *           { id, kind: 'cancelled', best: null }    (the flag stopped the job)
+ *           { id, kind: 'failed', message }
+ *
  * Without shared memory a busy worker cannot see a cancel request, so the
  * client ends the worker instead and keeps the best point of the last
  * progress reply: that is why every progress reply carries it.
@@ -28,6 +36,8 @@ import type { IFitProgress, IFitResult } from '../fit/types';
 import type { IAnalysisJob, IAnalysisOutcome } from './types';
 import { runAnalysisJob } from './run';
 import { parseMime, parseOutput } from '../table';
+import { runIsothermJob } from '../sweeps/job';
+import type { IIsothermJob, IsothermJobAnswer, IsothermStage } from '../sweeps/job-types';
 import type { ParseResult } from '../table';
 
 /** A request to run one job. */
@@ -48,7 +58,16 @@ export interface IParseRequest {
   source: ParseSource;
 }
 
-export type AnalysisRequest = IRunRequest | IParseRequest;
+/** A request to run the isotherm analysis. */
+export interface IIsothermRequest {
+  id: number;
+  kind: 'isotherms';
+  job: IIsothermJob;
+  /** Cooperative cancel, as for a run request. */
+  cancelFlag?: Int32Array;
+}
+
+export type AnalysisRequest = IRunRequest | IParseRequest | IIsothermRequest;
 
 /** Parse a table source (the worker's job for a parse request; also the main-thread fallback). */
 export function parseSource(source: ParseSource): ParseResult {
@@ -117,7 +136,22 @@ export interface IParsedReply {
   result: ParseResult;
 }
 
-export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply | IParsedReply;
+/** Progress of an isotherm analysis: the stage running and the fraction of the whole job done. */
+export interface IIsothermProgressReply {
+  id: number;
+  kind: 'isotherm-progress';
+  stage: IsothermStage;
+  fraction: number;
+}
+
+/** The isotherm analysis's answer (its report, or why there is none). */
+export interface IIsothermsDoneReply {
+  id: number;
+  kind: 'isotherms-done';
+  answer: IsothermJobAnswer;
+}
+
+export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply | IParsedReply | IIsothermProgressReply | IIsothermsDoneReply;
 
 /** Least time between two progress replies, in ms. */
 export const PROGRESS_INTERVAL_MS = 100;
@@ -156,6 +190,46 @@ function isRunRequest(v: unknown): v is IRunRequest {
   );
 }
 
+/** Whether `v` looks like an isotherm request (the job itself is checked by the job). */
+function isIsothermRequest(v: unknown): v is IIsothermRequest {
+  const r = v as Partial<IIsothermRequest> | null;
+  return (
+    typeof r === 'object' &&
+    r !== null &&
+    r.kind === 'isotherms' &&
+    typeof r.id === 'number' &&
+    typeof r.job === 'object' &&
+    r.job !== null &&
+    (r.cancelFlag === undefined || (r.cancelFlag instanceof Int32Array && r.cancelFlag.length >= 1))
+  );
+}
+
+/** Runs an isotherm request: progress (throttled, and at each new stage), then one answer. */
+function handleIsotherms(request: IIsothermRequest, post: (response: AnalysisResponse) => void, now: () => number): void {
+  const { id, job, cancelFlag } = request;
+  const stopped = cancelFlag ? (): boolean => Atomics.load(cancelFlag, 0) !== 0 : (): boolean => false;
+  let last = -Infinity;
+  let lastStage: IsothermStage | null = null;
+  let answer: IsothermJobAnswer;
+  try {
+    answer = runIsothermJob(job, {
+      shouldStop: cancelFlag ? stopped : undefined,
+      onProgress: (stage, fraction) => {
+        const t = now();
+        if (stage !== lastStage || t - last >= PROGRESS_INTERVAL_MS) {
+          last = t;
+          lastStage = stage;
+          post({ id, kind: 'isotherm-progress', stage, fraction });
+        }
+      }
+    });
+  } catch (e) {
+    post(stopped() ? { id, kind: 'cancelled', best: null } : { id, kind: 'failed', message: messageOf(e) });
+    return;
+  }
+  post(stopped() || answer.status === 'cancelled' ? { id, kind: 'cancelled', best: null } : { id, kind: 'isotherms-done', answer });
+}
+
 /**
  * Run a request and post its replies: progress (throttled), then exactly one
  * of done, cancelled or failed. Never throws.
@@ -172,6 +246,10 @@ export function handleAnalysisMessage(request: unknown, post: (response: Analysi
       result = { ok: false, message: messageOf(e) };
     }
     post({ id: r.id, kind: 'parsed', result });
+    return;
+  }
+  if (isIsothermRequest(request)) {
+    handleIsotherms(request, post, now);
     return;
   }
   if (!isRunRequest(request)) {

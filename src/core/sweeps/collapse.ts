@@ -21,6 +21,10 @@ export interface ICollapseOptions {
   hMin?: number;
   /** Same-branch neighbours each isotherm is compared with (default 3). */
   neighbours?: number;
+  /** First steps of the search in (Tc, β, γ) (default 2e-3·Tc, 0.02, 0.05). */
+  steps?: readonly [number, number, number];
+  /** Stopping tolerances of the search: relative spread of the cost, and simplex size relative to the first steps (defaults 1e-10, 1e-7). */
+  tolerance?: { cost: number; size: number };
 }
 
 /** The collapse cost and its pieces. */
@@ -156,7 +160,7 @@ export function scalingCollapse(isotherms: readonly IIsotherm[], start: { Tc: nu
   const x0 = [start.Tc, start.beta, start.gamma];
   const startCost = f(x0);
   const warnings = [msg('sweeps.collapse.weak-evidence', 'A collapse that looks good on log axes is weak evidence on its own; its cost says how good it is.')];
-  const r = nelderMead(f, x0, [2e-3 * start.Tc, 0.02, 0.05], 3000, 1e-10, 1e-7);
+  const r = nelderMead(f, x0, options.steps ?? [2e-3 * start.Tc, 0.02, 0.05], 3000, options.tolerance?.cost ?? 1e-10, options.tolerance?.size ?? 1e-7);
   const best = cost(prep, r.x[0], r.x[1], r.x[2], tMin, tMax, k);
   const steps = [1e-4 * r.x[0], 2e-3, 5e-3];
   const sumF = (x: number[]): number => cost(prep, x[0], x[1], x[2], tMin, tMax, k).sum;

@@ -39,15 +39,17 @@ export function solveLnM(lnH: number, c: number, lnM1: number, beta: number, gam
       return u;
     }
     const df = -a * ig - b * ib;
-    let next = u - f / df;
+    const step = -f / df;
+    const tol = 1e-13 * Math.max(1, Math.abs(u));
+    if (Math.abs(step) <= tol || hi - lo <= tol) {
+      return Math.abs(step) <= tol ? u + step : 0.5 * (lo + hi);
+    }
+    let next = u + step;
     if (!(next > lo && next < hi)) {
       // a step out of the bracket (or no step): bisect, or walk out when one side is still open
       next = Number.isFinite(lo) && Number.isFinite(hi) ? 0.5 * (lo + hi) : f > 0 ? u + MAX_STEP : u - MAX_STEP;
     } else if (!Number.isFinite(lo) || !Number.isFinite(hi)) {
       next = Math.min(Math.max(next, u - MAX_STEP), u + MAX_STEP);
-    }
-    if (Math.abs(next - u) <= 1e-13 * Math.max(1, Math.abs(u))) {
-      return next;
     }
     u = next;
   }

@@ -10,7 +10,6 @@
  * ln M residual of the equation of state on a subsample of the points.
  */
 import type { IEquationOfStateStart } from './global';
-import { equationOfStatePoints } from './global';
 import { solveLnM } from './eos-model';
 import type { IIsotherm } from './types';
 
@@ -163,26 +162,28 @@ export function amplitudesAt(isotherms: readonly IIsotherm[], e: ITrialExponents
 }
 
 /** Mean squared ln M residual of the equation of state at `start` over (at most `maxPoints` of) the window's points. */
-export function startCost(isotherms: readonly IIsotherm[], start: IEquationOfStateStart, tMax: number, maxPoints = 1500): number {
-  const pts = equationOfStatePoints(isotherms, start.Tc, { tMax });
-  const n = pts.lnM.length;
+export function startCost(isotherms: readonly IIsotherm[], start: IEquationOfStateStart, tMax: number, maxPoints = 600): number {
+  const near = isotherms.filter(iso => Math.abs(iso.T - start.Tc) / start.Tc <= tMax);
+  let total = 0;
+  for (const iso of near) {
+    total += iso.H.length;
+  }
+  const p = pointsOf(near, Math.max(1, Math.floor(total / maxPoints)));
+  const n = p.H.length;
   if (n < 10) {
     return Infinity;
   }
-  const stride = Math.max(1, Math.floor(n / maxPoints));
   const lnM1 = Math.log(start.M1);
   let sum = 0;
-  let count = 0;
-  for (let i = 0; i < n; i += stride) {
-    const u = solveLnM(pts.lnH[i], (pts.T[i] - start.Tc) / start.T1, lnM1, start.beta, start.gamma, pts.lnM[i]);
+  for (let i = 0; i < n; i++) {
+    const lnM = Math.log(p.M[i]);
+    const u = solveLnM(Math.log(p.H[i]), (p.T[i] - start.Tc) / start.T1, lnM1, start.beta, start.gamma, lnM);
     if (!Number.isFinite(u)) {
       return Infinity;
     }
-    const r = u - pts.lnM[i];
-    sum += r * r;
-    count++;
+    sum += (u - lnM) ** 2;
   }
-  return sum / count;
+  return sum / n;
 }
 
 /**
@@ -200,7 +201,7 @@ export function equationOfStateCandidates(
   for (const iso of isotherms) {
     total += iso.H.length;
   }
-  const stride = Math.max(1, Math.floor(total / 4000));
+  const stride = Math.max(1, Math.floor(total / 2000));
   const out: IStartCandidate[] = [];
   for (const e of trials) {
     const seen: number[] = [];

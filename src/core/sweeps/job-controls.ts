@@ -123,8 +123,8 @@ export function readIsothermTable(job: IIsothermJob): { set: IIsothermSet; contr
     return refuse(answer.message);
   }
   // the field range is typed in the field column's unit: convert it with that column's factor
-  const unit = readColumnUnit(H.name, H.unit, 'field');
-  const toSI = (v: number | null, open: number): number => (v === null || unit.status !== 'ok' ? open : unit.factor * v + unit.offset);
+  const unit = c.fieldMin !== null || c.fieldMax !== null ? readColumnUnit(H.name, H.unit, 'field') : null;
+  const toSI = (v: number | null, open: number): number => (v === null || unit === null || unit.status !== 'ok' ? open : unit.factor * v + unit.offset);
   return {
     set: answer.set,
     controls: {

@@ -6,14 +6,14 @@
  */
 import { msg } from '../messages';
 import { criticalIsotherm } from './critical';
-import type { IEquationOfStateStart, IGlobalFitHooks } from './global';
+import type { IEquationOfStateStart, IGlobalFit, IGlobalFitHooks } from './global';
 import { fitEquationOfState } from './global';
 import type { IIsothermSet } from './types';
 import { conventionsOf } from './types';
 import type { IExponentWindowCell, IExponentWindowScan } from './window';
 
-/** The t_max of the scan: fractions of the analysis window. */
-export const WINDOW_T_FRACTIONS: readonly number[] = [0.25, 0.5, 1];
+/** The t_max of the scan: fractions of the analysis window (or of the isotherms' own extent when narrower). */
+export const WINDOW_T_FRACTIONS: readonly number[] = [1 / 3, 2 / 3, 1];
 /** The H_min of the scan: fractions of the highest field every isotherm reaches. */
 export const WINDOW_H_FRACTIONS: readonly number[] = [0, 0.3];
 
@@ -22,15 +22,27 @@ export function globalWindowScan(
   set: IIsothermSet,
   start: IEquationOfStateStart,
   tMax: number,
-  hooks: IGlobalFitHooks & { onCell?: (done: number, total: number) => void } = {}
+  hooks: IGlobalFitHooks & {
+    onCell?: (done: number, total: number) => void;
+    /** The fit over the whole window (every field, |t| ≤ tMax around `Tc`), reused as that cell when it holds the same isotherms. */
+    whole?: { fit: IGlobalFit; Tc: number };
+  } = {}
 ): IExponentWindowScan {
   const iso = set.isotherms;
   let hTop = Infinity;
   for (const i of iso) {
     hTop = Math.min(hTop, i.H[i.H.length - 1]);
   }
-  const tMaxs = WINDOW_T_FRACTIONS.map(f => f * tMax);
+  // a window wider than the isotherms holds the same points as the whole: scale to what is there
+  let extent = 0;
+  for (const i of iso) {
+    extent = Math.max(extent, Math.abs(i.T - start.Tc) / start.Tc);
+  }
+  const widest = Math.min(tMax, extent);
+  const tMaxs = WINDOW_T_FRACTIONS.map(f => (f === 1 ? tMax : f * widest));
   const hMins = WINDOW_H_FRACTIONS.map(f => f * (Number.isFinite(hTop) ? hTop : 0));
+  const inside = (Tc: number): string => iso.map(i => (Math.abs(i.T - Tc) / Tc <= tMax ? '1' : '0')).join('');
+  const reuse = hooks.whole !== undefined && inside(hooks.whole.Tc) === inside(start.Tc) ? hooks.whole.fit : null;
   const cells: IExponentWindowCell[] = [];
   const nan = { value: NaN, sigma: NaN };
   const total = tMaxs.length * hMins.length;
@@ -39,7 +51,7 @@ export function globalWindowScan(
       if (hooks.shouldStop?.() === true) {
         break;
       }
-      const g = fitEquationOfState(iso, start, { tMax: t, hMin }, { shouldStop: hooks.shouldStop });
+      const g = t === tMax && hMin === 0 && reuse !== null ? reuse : fitEquationOfState(iso, start, { tMax: t, hMin }, { shouldStop: hooks.shouldStop });
       const dCrit = Number.isFinite(g.Tc.value) ? criticalIsotherm(iso, g.Tc.value, { hMin }).delta : nan;
       cells.push({
         tMax: t,

@@ -50,6 +50,20 @@ export const STAGE_START: Readonly<Record<IsothermStage, number>> = Object.freez
   bootstrap: 0.88
 });
 
+/**
+ * The collapse search starts at the primary result with first steps of 20σ
+ * of the primary values (at least 1e-5·Tc, 1e-3 in β, 2e-3 in γ; the simplex
+ * expands when the minimum lies farther) and stops when the cost's spread
+ * over the simplex is within 1e-9 of its value and the simplex within 1e-3
+ * of those steps, i.e. about σ/50.
+ */
+const COLLAPSE_TOLERANCE = { cost: 1e-9, size: 1e-3 };
+
+function collapseSteps(P: IPrimaryValues): [number, number, number] {
+  const s = (v: IValueSigma, floor: number): number => (Number.isFinite(v.sigma) ? Math.max(20 * v.sigma, floor) : 10 * floor);
+  return [s(P.Tc, 1e-5 * P.Tc.value), s(P.beta, 1e-3), s(P.gamma, 2e-3)];
+}
+
 /** Thrown inside the job when shouldStop says so. */
 class Stopped extends Error {}
 
@@ -169,6 +183,7 @@ function run(job: IIsothermJob, hooks: IIsothermJobHooks): IsothermJobAnswer {
   if (primary.start !== null && P.ok) {
     const scan = globalWindowScan(set, { Tc: P.Tc.value, beta: P.beta.value, gamma: P.gamma.value, T1: g.T1.value, M1: g.M1.value }, tMax, {
       shouldStop: hooks.shouldStop,
+      whole: { fit: g, Tc: primary.start.Tc },
       onCell: (done, total) => stage('window', done / total, 'entropy')
     });
     check();
@@ -373,7 +388,7 @@ function crossCheckCollapse(iso: readonly IIsotherm[], P: IPrimaryValues, tMax: 
     return noPrimary();
   }
   try {
-    const r = scalingCollapse(iso, { Tc: P.Tc.value, beta: P.beta.value, gamma: P.gamma.value }, { tMax });
+    const r = scalingCollapse(iso, { Tc: P.Tc.value, beta: P.beta.value, gamma: P.gamma.value }, { tMax, tolerance: COLLAPSE_TOLERANCE, steps: collapseSteps(P) });
     const agreement = agreementOf(
       [
         { name: 'Tc', value: r.Tc, primary: P.Tc },
