@@ -71,7 +71,7 @@ print("Sample AM-17, mass 12.4 mg, measured on warming at 0.05 T")"""),
     ("markdown", """\
 Field sweeps: M(H) isotherms every 0.8 K from 281.4 K to 293.4 K, in long format
 (one row per point; the temperature reads a little off its setpoint, as real thermometers do).
-Right-click the table and use **Isotherms M(H) at several temperatures** in the panel."""),
+Right-click the table and choose **Analyse Isotherms in This Table** (or run *Analyse Isotherms in Selected Cell* from the command palette)."""),
     ("code", """\
 rng = np.random.default_rng(42)
 rows = []

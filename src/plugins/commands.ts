@@ -20,6 +20,8 @@ import type { IRestoreHooks } from './restore';
 export namespace CommandIDs {
   export const analyseOutput = 'psiscape:analyse-output';
   export const analyseSelectedCell = 'psiscape:analyse-selected-cell';
+  export const analyseIsothermsOutput = 'psiscape:analyse-isotherms-output';
+  export const analyseIsothermsSelectedCell = 'psiscape:analyse-isotherms-selected-cell';
   export const analyseFile = 'psiscape:analyse-file';
   export const reopenSaved = 'psiscape:reopen-saved-analyses';
   export const reopenSavedAnalysis = 'psiscape:reopen-saved-analysis';
@@ -107,6 +109,28 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     isEnabled: () => tracker.currentWidget !== null && tracker.activeCell !== null,
     execute: async () => {
       await (await workbench()).analyseSelectedCell();
+    }
+  });
+
+  app.commands.addCommand(CommandIDs.analyseIsothermsOutput, {
+    label: trans.__('Analyse Isotherms in This Table'),
+    caption: trans.__('Open the M(H) isotherms in this output in a psiscape panel: Tc and the critical exponents from field sweeps'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => tracker.currentWidget !== null,
+    execute: async () => {
+      const node = app.contextMenuHitTest(n => n.classList.contains('jp-OutputArea-child'));
+      const located = node ? locateOutputNode(tracker, node) : null;
+      await (await workbench()).analyseOutput(located, 'isotherms');
+    }
+  });
+
+  app.commands.addCommand(CommandIDs.analyseIsothermsSelectedCell, {
+    label: trans.__('Analyse Isotherms in Selected Cell'),
+    caption: trans.__('Open the M(H) isotherms of the selected cell\'s first table output in a psiscape panel'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => tracker.currentWidget !== null && tracker.activeCell !== null,
+    execute: async () => {
+      await (await workbench()).analyseSelectedCell('isotherms');
     }
   });
 

@@ -64,7 +64,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
       }
     });
     if (palette) {
-      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer, ...EXPORT_COMMANDS.map(([id]) => id)]) {
+      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.analyseIsothermsSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer, ...EXPORT_COMMANDS.map(([id]) => id)]) {
         palette.addItem({ command, category: trans.__('psiscape') });
       }
     }

@@ -63,9 +63,9 @@ export interface IWorkbench {
   /** Reopen the saved analyses of a notebook that are not open (at most `limit`); resolves with how many opened. */
   restore(panel: NotebookPanel, limit?: number): Promise<number>;
   /** Analyse the output located under the context menu, or say that none was found. */
-  analyseOutput(located: ILocatedOutput | null): Promise<void>;
-  /** Analyse the first table output of the selected cell. */
-  analyseSelectedCell(): Promise<void>;
+  analyseOutput(located: ILocatedOutput | null, mode?: AnalysisPanel.Mode): Promise<void>;
+  /** Analyse the first table output of the selected cell (`mode`: what the panel shows first). */
+  analyseSelectedCell(mode?: AnalysisPanel.Mode): Promise<void>;
   /**
    * Analyse a CSV or TSV file; with `state` (as stored for the layout
    * restorer), with those columns, kind, options and window. Resolves with the
@@ -253,7 +253,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
    * the notebook holds: same id, columns and settings, and its snapshot stands
    * in for the output when that is gone.
    */
-  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis, at?: Widget, freshId?: string): AnalysisPanel => {
+  const open = (panel: NotebookPanel, located: ILocatedOutput | null, parse: ParseResult, saved?: ISavedAnalysis, at?: Widget, freshId?: string, mode?: AnalysisPanel.Mode): AnalysisPanel => {
     const source: ITableSource | null = saved
       ? { ...saved.source }
       : located
@@ -290,6 +290,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     const cellNumber = panel.content.widgets.findIndex(c => c.model.id === cellId) + 1;
     const widget = new AnalysisPanel({
       session,
+      // A saved analysis with isotherms and no fit of y(x) reopens on its isotherms.
+      mode: mode ?? (saved?.isotherms && !saved.settings ? 'isotherms' : 'fit'),
       notebookName: panel.title.label || panel.context.path,
       place: cellNumber > 0 ? trans.__('cell %1', cellNumber) : trans.__('cell ?'),
       sourceLabel,
@@ -531,7 +533,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     return holder.id;
   };
 
-  const analyseOutput = async (located: ILocatedOutput | null): Promise<void> => {
+  const analyseOutput = async (located: ILocatedOutput | null, mode?: AnalysisPanel.Mode): Promise<void> => {
     if (!located) {
       const panel = tracker.currentWidget;
       if (panel) {
@@ -539,10 +541,10 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       }
       return;
     }
-    open(located.panel, located, await parseOffThread({ bundle: located.bundle }));
+    open(located.panel, located, await parseOffThread({ bundle: located.bundle }), undefined, undefined, undefined, mode);
   };
 
-  const analyseSelectedCell = async (): Promise<void> => {
+  const analyseSelectedCell = async (mode?: AnalysisPanel.Mode): Promise<void> => {
     const panel = tracker.currentWidget;
     if (!panel) {
       return;
@@ -558,7 +560,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       }
       const parse = await parseOffThread({ bundle: located.bundle });
       if (parse.ok) {
-        open(panel, located, parse);
+        open(panel, located, parse, undefined, undefined, undefined, mode);
         return;
       }
       firstFailure = firstFailure ?? parse;

@@ -14,7 +14,7 @@ import { kindById } from '../core/analysis';
 import type { AnalysisSession, SessionChange } from '../core/analysis/session';
 import type { ITable } from '../core/table';
 import type { IPlottableColumn } from '../core/table/roles';
-import type { AnalysisRunner } from './analysis-runner';
+import { AnalysisRunner } from './analysis-runner';
 import { readChartTheme } from './chart-theme';
 import { ChartView } from './chart-view';
 import { ExportBar } from './export-bar';
@@ -73,7 +73,14 @@ export class AnalysisPanel extends Panel {
     this._status.addClass('jp-psiscape-AnalysisPanel-status');
     this._status.node.setAttribute('aria-live', 'polite');
     this._fit = new FitSection({ trans: this._trans, session: this._session, runner: options.runner, onExploreLandau: options.onExploreLandau });
-    this._isotherms = new IsothermSection({ trans: this._trans, onRun: settings => this._session.setIsotherms(settings) });
+    this._isotherms = new IsothermSection({
+      trans: this._trans,
+      // Its own runner (a fit and an isotherm analysis do not cancel each other) on the same worker.
+      runner: new AnalysisRunner({ host: options.runner.host }),
+      onRun: settings => this._session.setIsotherms(settings)
+    });
+    this._modes = new Widget({ node: this._buildModes() });
+    this._modes.addClass('jp-psiscape-AnalysisPanel-modes');
     this._exports = options.exports
       ? new ExportBar({
           trans: this._trans,
@@ -93,10 +100,11 @@ export class AnalysisPanel extends Panel {
           }
         })
       : null;
-    for (const w of [this._header, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
+    for (const w of [this._header, this._modes, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
+    this.setMode(options.mode ?? 'fit');
     this._pending.add('table');
     this._schedule();
   }
@@ -156,6 +164,24 @@ export class AnalysisPanel extends Panel {
   /** The fit controls and results. */
   get fitSection(): FitSection {
     return this._fit;
+  }
+
+  /** What the panel shows: the fit of y(x), or the isotherm (field-sweep) analysis. */
+  get mode(): AnalysisPanel.Mode {
+    return this._mode;
+  }
+
+  /** Show the fit of y(x) or the isotherm analysis (the other is kept, not shown). */
+  setMode(mode: AnalysisPanel.Mode): void {
+    this._mode = mode;
+    this.node.dataset.mode = mode;
+    this._isotherms.forced = mode === 'isotherms';
+    for (const [id, button] of this._modeButtons) {
+      button.setAttribute('aria-pressed', String(id === mode));
+      button.classList.toggle('jp-mod-current', id === mode);
+    }
+    this._pending.add('controls');
+    this._schedule();
   }
 
   /** The isotherm (field sweep) analysis. */
@@ -273,9 +299,12 @@ export class AnalysisPanel extends Panel {
     const usable = problem === null && s.plotted() !== null;
     this._message.node.textContent = problem ? [problem, ...s.problemDetails].map(m => translateMessage(this._trans, m)).join(' ') : '';
     this._message.setHidden(!problem);
-    this._controls.setHidden(!usable);
-    this._chart.setHidden(!usable);
-    this._fit.setHidden(!usable);
+    const isotherms = this._mode === 'isotherms';
+    this._controls.setHidden(!usable || isotherms);
+    this._chart.setHidden(!usable || isotherms);
+    this._fit.setHidden(!usable || isotherms);
+    this._status.setHidden(isotherms);
+    this._exports?.setHidden(isotherms);
     if (!usable) {
       this._chart.clear();
       this._status.node.textContent = '';
@@ -379,7 +408,9 @@ export class AnalysisPanel extends Panel {
   /** Tab title "M vs T · cell 3 · Weiss": the plotted columns, where the table is, and the analysis kind. */
   private _updateTitle(): void {
     const p = this._session.plotted();
-    if (p) {
+    if (this._mode === 'isotherms') {
+      this.title.label = this._trans.__('Isotherms · %1', this._place);
+    } else if (p) {
       this.title.label = this._trans.__('%1 vs %2 · %3 · %4', p.y.column.name, p.x.column.name, this._place, this._kindName(this._session.kind));
     }
   }
@@ -436,6 +467,23 @@ export class AnalysisPanel extends Panel {
     button.title = title;
     button.addEventListener('click', onClick);
     return button;
+  }
+
+  /** The two views of the panel as a pair of toggle buttons. */
+  private _buildModes(): HTMLElement {
+    const node = document.createElement('div');
+    node.setAttribute('role', 'group');
+    node.setAttribute('aria-label', this._trans.__('What to analyse'));
+    const modes: [AnalysisPanel.Mode, string, string][] = [
+      ['fit', this._trans.__('Fit y(x)'), this._trans.__('Fit one column against another: temperature sweeps, susceptibility, order parameter')],
+      ['isotherms', this._trans.__('Isotherms M(H, T)'), this._trans.__('Analyse field sweeps at several temperatures: Tc and the critical exponents')]
+    ];
+    for (const [id, text, title] of modes) {
+      const button = this._button(text, `jp-psiscape-mode jp-psiscape-mode-${id}`, title, () => this.setMode(id));
+      this._modeButtons.set(id, button);
+      node.appendChild(button);
+    }
+    return node;
   }
 
   private _buildControls(): HTMLElement {
@@ -509,6 +557,9 @@ export class AnalysisPanel extends Panel {
   private _fit: FitSection;
   private _exports: ExportBar | null;
   private _isotherms: IsothermSection;
+  private _modes: Widget;
+  private _mode: AnalysisPanel.Mode = 'fit';
+  private _modeButtons = new Map<AnalysisPanel.Mode, HTMLButtonElement>();
   private _xSelect!: HTMLSelectElement;
   private _ySelect!: HTMLSelectElement;
   private _sSelect!: HTMLSelectElement;
@@ -527,7 +578,12 @@ export class AnalysisPanel extends Panel {
 
 /** Options of {@link AnalysisPanel}. */
 export namespace AnalysisPanel {
+  /** What the panel shows. */
+  export type Mode = 'fit' | 'isotherms';
+
   export interface IOptions {
+    /** What to show first (default 'fit'). */
+    mode?: Mode;
     session: AnalysisSession;
     /** Short name of the notebook (or file), for the tab title "M vs T · name". */
     notebookName: string;

@@ -24,7 +24,8 @@
  */
 import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis/types';
 import { bestOfFit, handleAnalysisMessage, parseSource } from '../core/analysis/protocol';
-import type { AnalysisResponse, IBestSoFar, IParseRequest, IRunRequest, ParseSource } from '../core/analysis/protocol';
+import type { AnalysisResponse, IBestSoFar, IIsothermRequest, IParseRequest, IRunRequest, ParseSource } from '../core/analysis/protocol';
+import type { IIsothermJob, IIsothermJobColumn, IsothermJobAnswer, IsothermStage } from '../core/sweeps/job-types';
 import type { ParseResult } from '../core/table';
 import { CoreMessageError, messageOf, msg } from '../core/messages';
 import type { ICoreMessage } from '../core/messages';
@@ -63,6 +64,12 @@ export interface IRunCancelled {
 /** What {@link AnalysisRunner.run} resolves to. Failures reject with a {@link CoreMessageError}. */
 export type AnalysisRunResult = IRunDone | IRunCancelled;
 
+/** What an isotherm analysis resolves to: the job's answer, or cancelled. Failures reject with a {@link CoreMessageError}. */
+export type IsothermRunResult = { kind: 'done'; answer: IsothermJobAnswer } | { kind: 'cancelled' };
+
+/** Progress of an isotherm analysis: the stage running and the fraction of the whole job done. */
+export type IsothermProgress = (stage: IsothermStage, fraction: number) => void;
+
 /** Creates the worker (null: run on the main thread); replaced in tests. */
 export type WorkerFactory = () => Worker | null;
 
@@ -92,9 +99,12 @@ function cancelledResult(best: IBestSoFar | null): IRunCancelled {
 /** A submitted job. */
 interface ITask {
   readonly id: number;
-  readonly request: IRunRequest | IParseRequest;
+  readonly request: IRunRequest | IParseRequest | IIsothermRequest;
   /** Parse tasks: receives the parsed table. */
   readonly onParsed?: (result: ParseResult) => void;
+  /** Isotherm tasks: receives the job's answer, and its progress. */
+  readonly onIsotherms?: (answer: IsothermJobAnswer) => void;
+  readonly onStage?: IsothermProgress;
   readonly transfer: Transferable[];
   readonly onProgress: ((p: IRunProgress) => void) | undefined;
   readonly resolve: (result: AnalysisRunResult) => void;
@@ -208,6 +218,49 @@ export class AnalysisWorkerHost {
   }
 
   /**
+   * Queue an isotherm analysis. Its columns are copied at once and the
+   * copies' buffers transferred; progress reports the stage and the fraction
+   * done; cancel stops it between stages and inside the long fits.
+   */
+  submitIsotherms(job: IIsothermJob, onProgress?: IsothermProgress): { id: number; result: Promise<IsothermRunResult> } {
+    const id = ++this._lastId;
+    const column = (c: IIsothermJobColumn): IIsothermJobColumn => ({ name: c.name, unit: c.unit, values: Float64Array.from(c.values) });
+    const copy: IIsothermJob = {
+      temperature: column(job.temperature),
+      field: column(job.field),
+      magnetisation: column(job.magnetisation),
+      controls: structuredClone(job.controls)
+    };
+    const request: IIsothermRequest = { id, kind: 'isotherms', job: copy };
+    if (this._sharedMemory) {
+      request.cancelFlag = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT));
+    }
+    const transfer = [copy.temperature, copy.field, copy.magnetisation].map(c => (c.values as Float64Array).buffer as ArrayBuffer);
+    const result = new Promise<IsothermRunResult>((resolve, reject) => {
+      const task: ITask = {
+        id,
+        request,
+        transfer,
+        onProgress: undefined,
+        onIsotherms: answer => resolve({ kind: 'done', answer }),
+        onStage: onProgress,
+        resolve: () => resolve({ kind: 'cancelled' }),
+        reject,
+        best: null,
+        cancelRequested: false,
+        graceTimer: null
+      };
+      if (this._disposed) {
+        resolve({ kind: 'cancelled' });
+      } else {
+        this._queue.push(task);
+        this._pump();
+      }
+    });
+    return { id, result };
+  }
+
+  /**
    * Stop job `id`: a waiting job leaves the queue; a running one stops at
    * its best point so far. Its promise resolves with a cancelled result.
    */
@@ -226,7 +279,7 @@ export class AnalysisWorkerHost {
     if (!this._worker) {
       // Main thread: the job has not started (it runs in one piece after a yield).
       this._settle(task, cancelledResult(task.best));
-    } else if (task.request.kind === 'run' && task.request.cancelFlag) {
+    } else if ((task.request.kind === 'run' || task.request.kind === 'isotherms') && task.request.cancelFlag) {
       Atomics.store(task.request.cancelFlag, 0, 1);
       task.graceTimer = setTimeout(() => this._abandon(task), this._graceMs);
     } else {
@@ -330,6 +383,24 @@ export class AnalysisWorkerHost {
             console.error('psiscape: analysis progress handler failed', reason);
           }
         }
+        return;
+      case 'isotherm-progress':
+        if (!task.cancelRequested && task.onStage) {
+          try {
+            task.onStage(message.stage, message.fraction);
+          } catch (reason) {
+            console.error('psiscape: analysis progress handler failed', reason);
+          }
+        }
+        return;
+      case 'isotherms-done':
+        this._finish(task);
+        if (task.cancelRequested || message.answer.status === 'cancelled') {
+          task.resolve(cancelledResult(null));
+        } else {
+          task.onIsotherms?.(message.answer);
+        }
+        this._pump();
         return;
       case 'done':
         // A job cancelled after it had finished still answers as cancelled: the caller asked to stop.
@@ -471,6 +542,28 @@ export class AnalysisRunner {
     }
     this.cancel();
     const { id, result } = this._host.submit(job, onProgress);
+    this._current = id;
+    const clear = (): void => {
+      if (this._current === id) {
+        this._current = null;
+      }
+    };
+    result.then(clear, clear);
+    return result;
+  }
+
+  /**
+   * Run an isotherm analysis, cancelling this runner's previous job.
+   *
+   * @returns the job's answer, or `{ kind: 'cancelled' }`; rejects with a
+   * {@link CoreMessageError} when the job fails.
+   */
+  runIsotherms(job: IIsothermJob, onProgress?: IsothermProgress): Promise<IsothermRunResult> {
+    if (this._disposed) {
+      return Promise.resolve({ kind: 'cancelled' });
+    }
+    this.cancel();
+    const { id, result } = this._host.submitIsotherms(job, onProgress);
     this._current = id;
     const clear = (): void => {
       if (this._current === id) {

@@ -27,13 +27,15 @@ export interface IOutcomeView {
 }
 
 /** Marks of the three verdict states (shapes differ, so colour is never the only cue). */
-const MARKS: Record<VerdictState, string> = {
+/** The mark of each verdict state (shape tells them apart as well as colour). */
+export const MARKS: Record<VerdictState, string> = {
   fits: '◆',
   'does-not-describe': '▲',
   'not-converged': '■'
 };
 
-function headline(trans: TranslationBundle, state: VerdictState): string {
+/** The headline of each verdict state. */
+export function headline(trans: TranslationBundle, state: VerdictState): string {
   switch (state) {
     case 'fits':
       return trans.__('Describes the data');

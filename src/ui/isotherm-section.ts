@@ -1,100 +1,93 @@
 /**
  * Field sweeps in the analysis panel: a long-format table of M(H) isotherms
- * (temperature, field, magnetisation columns) → Arrott plot, Tc, β, γ, δ by
- * modified Arrott, Kouvel–Fisher and the critical isotherm, the Banerjee
- * evidence and every warning (demagnetisation, units, too few isotherms).
- * The analysis takes tens of milliseconds, so it runs on the main thread.
+ * (temperature, field, magnetisation columns) → the isotherm analysis run in
+ * the analysis worker (progress, Cancel): the global equation-of-state fit
+ * as the primary result, the cross-checks with whether they agree, and every
+ * view as a tab. The controls are saved with the analysis, the view shown
+ * too.
  */
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
-import { buildArrottSpec } from '../charts/sweeps';
-import { formatWithError } from '../core/analysis';
-import type { IIsothermAnalysis, IIsothermSet, ISampleInfo } from '../core/sweeps';
-import { analyseIsotherms, buildIsothermSet } from '../core/sweeps';
-import type { IColumn, ITable } from '../core/table';
-import { guessIsothermRoles } from '../core/table/roles';
-import type { IsothermRole } from '../core/table/roles';
-import { ChartView } from './chart-view';
+import { convertQuantity } from '../core/units/magnetic';
+import type { ISavedIsotherms } from '../core/saved/types';
+import type { IIsothermReport, IsothermStage } from '../core/sweeps/job-types';
+import type { ITable } from '../core/table';
+import { messageOf } from '../core/messages';
+import { AnalysisRunner } from './analysis-runner';
 import { readChartTheme } from './chart-theme';
 import { outcomeNodes } from './outcome-nodes';
 import { translateMessage } from './translate';
-import { messageOf } from '../core/messages';
-import type { ISavedIsotherms } from '../core/saved/types';
-
-type Role = IsothermRole;
+import { IsothermControls } from './isotherms/controls';
+import { summaryNodes } from './isotherms/summary';
+import { IsothermViews } from './isotherms/views';
+import type { IViewUnits } from './isotherms/view-specs';
 
 /** Isotherm controls and results. */
 export class IsothermSection extends Panel {
-  constructor(options: { trans: TranslationBundle; onRun?: (settings: ISavedIsotherms) => void }) {
+  constructor(options: IsothermSection.IOptions) {
     super();
     this._trans = options.trans;
     this._onRun = options.onRun ?? null;
+    this._runner = options.runner ?? null;
     this.addClass('jp-psiscape-IsothermSection');
     this.node.setAttribute('role', 'group');
     this.node.setAttribute('aria-label', this._trans.__('Isotherms'));
-    this._chart = new ChartView();
+    this._controls = new IsothermControls(
+      this._trans,
+      () => void this.run(),
+      () => this.cancel()
+    );
+    this._views = new IsothermViews({
+      trans: this._trans,
+      onSelect: id => {
+        this._controls.view = id;
+        const settings = this._controls.settings();
+        if (settings && this._report) {
+          this._onRun?.(settings);
+        }
+      }
+    });
     this._build();
   }
 
-  /** The latest analysis, or null. */
-  get analysis(): IIsothermAnalysis | null {
-    return this._analysis;
+  /** The latest report, or null. */
+  get report(): IIsothermReport | null {
+    return this._report;
   }
 
-  /** Resolves when the latest Arrott plot has been drawn. */
+  /** The views (tabs and chart). */
+  get views(): IsothermViews {
+    return this._views;
+  }
+
+  /** Resolves when the latest run has ended and its view has been drawn. */
   get rendered(): Promise<void> {
-    return this._rendered;
+    return this._running.then(() => this._views.rendered);
+  }
+
+  /** Show the section whatever the table looks like (the panel is in its field-sweep view). */
+  set forced(value: boolean) {
+    this._forced = value;
+    this.setHidden(!(value || this._looksLikeSweeps));
   }
 
   /** A new table: refill the column pickers and clear the results. */
   setTable(table: ITable | null): void {
+    this.cancel();
     this._table = table;
-    this._analysis = null;
+    this._report = null;
     this._result.replaceChildren();
-    this._chart.clear();
-    this._chart.hide();
+    this._details.replaceChildren();
+    this._views.setReport(null, readChartTheme(this.node), this._viewUnits());
+    this._views.hide();
     this._error.hidden = true;
-    const numeric = (table?.columns ?? []).map((c, i) => ({ c, i })).filter(({ c }) => c.kind === 'number');
-    // Shown for tables that look like field sweeps: three numeric columns, one of them a field.
-    const guessed = guessIsothermRoles(table);
-    this.setHidden(!guessed.looksLikeSweeps);
-    for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
-      const select = this._pickers[role];
-      select.replaceChildren(
-        ...numeric.map(({ c, i }) => {
-          const o = document.createElement('option');
-          o.value = String(i);
-          o.textContent = c.header;
-          return o;
-        })
-      );
-      const guess = guessed.roles[role];
-      if (guess !== null) {
-        select.value = String(guess);
-      }
-      this._units[role].value = '';
-    }
+    this._looksLikeSweeps = this._controls.setTable(table).looksLikeSweeps;
+    this.setHidden(!(this._forced || this._looksLikeSweeps));
   }
 
-  /** The controls as saved with the analysis (columns by position and header), or null without a table. */
+  /** The controls as saved with the analysis, or null without a table. */
   settings(): ISavedIsotherms | null {
-    const table = this._table;
-    if (!table) {
-      return null;
-    }
-    const ref = (role: Role) => {
-      const index = Number(this._pickers[role].value);
-      return { index, header: table.columns[index]?.header ?? '' };
-    };
-    const text = (input: HTMLInputElement): string | null => (input.value.trim() ? input.value.trim() : null);
-    return {
-      columns: { temperature: ref('temperature'), field: ref('field'), magnetisation: ref('magnetisation') },
-      units: { temperature: text(this._units.temperature), field: text(this._units.field), magnetisation: text(this._units.magnetisation) },
-      demagnetisingFactorSI: text(this._demag),
-      temperatureToleranceK: text(this._tolerance),
-      sampleMassMg: text(this._mass),
-      densityGPerCm3: text(this._density)
-    };
+    return this._controls.settings();
   }
 
   /**
@@ -102,109 +95,156 @@ export class IsothermSection extends Panel {
    * matched by position and header; a column that is not there any more
    * leaves the guessed one and says so.
    */
-  restore(saved: ISavedIsotherms): void {
-    const table = this._table;
-    if (!table) {
-      return;
+  restore(saved: ISavedIsotherms): Promise<void> {
+    if (!this._table) {
+      return Promise.resolve();
     }
-    const missing: string[] = [];
-    for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
-      const ref = saved.columns[role];
-      const column = table.columns[ref.index];
-      if (column && column.header === ref.header && column.kind === 'number') {
-        this._pickers[role].value = String(ref.index);
-      } else {
-        missing.push(ref.header);
-      }
-      this._units[role].value = saved.units[role] ?? '';
+    const missing = this._controls.restore(saved);
+    if (saved.view) {
+      this._views.select(saved.view);
     }
-    this._demag.value = saved.demagnetisingFactorSI ?? '';
-    this._tolerance.value = saved.temperatureToleranceK ?? '';
-    this._mass.value = saved.sampleMassMg ?? '';
-    this._density.value = saved.densityGPerCm3 ?? '';
-    this.run({ quiet: true });
+    const done = this.run({ quiet: true });
     if (missing.length > 0) {
       this._fail(this._trans.__('The saved isotherm analysis used the columns %1, which are not in the table any more.', missing.join(', ')));
     }
+    return done;
   }
 
   /** Run the analysis with the current controls (`quiet`: a restore, not a user's change). */
-  run(options: { quiet?: boolean } = {}): void {
+  run(options: { quiet?: boolean } = {}): Promise<void> {
     this._error.hidden = true;
     const table = this._table;
     if (!table) {
-      return;
+      return Promise.resolve();
     }
     if (!options.quiet) {
-      const settings = this.settings();
+      const settings = this._controls.settings();
       if (settings) {
         this._onRun?.(settings);
       }
     }
-    const column = (role: Role): IColumn => table.columns[Number(this._pickers[role].value)];
-    const overrides: Record<string, string> = {};
-    for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
-      if (this._units[role].value.trim()) {
-        overrides[column(role).name] = this._units[role].value.trim();
-      }
+    const reading = this._controls.read();
+    if (!reading.ok) {
+      this._fail(reading.message);
+      return Promise.resolve();
     }
-    const nd = this._demag.value.trim();
-    const ndValue = Number(nd);
-    if (nd && !(Number.isFinite(ndValue) && ndValue >= 0 && ndValue <= 1)) {
-      this._fail(this._trans.__('The demagnetising factor N_d (SI) must be a number from 0 to 1, got "%1".', nd));
-      return;
-    }
-    const sample: ISampleInfo = {};
-    const mass = Number(this._mass.value);
-    if (this._mass.value.trim() && mass > 0) {
-      sample.massKg = mass * 1e-6;
-    }
-    const density = Number(this._density.value);
-    if (this._density.value.trim() && density > 0) {
-      sample.densityKgPerM3 = density * 1000;
-    }
-    const tolText = this._tolerance.value.trim();
-    const tolerance = Number(tolText);
-    if (tolText && !(Number.isFinite(tolerance) && tolerance > 0)) {
-      this._fail(this._trans.__('The temperature grouping tolerance must be a positive number of kelvin, got "%1".', tolText));
-      return;
-    }
-    let answer: ReturnType<typeof buildIsothermSet>;
-    try {
-      answer = buildIsothermSet({
-      temperatureTolerance: tolText ? tolerance : undefined,
-      temperature: column('temperature'),
-      field: column('field'),
-      magnetisation: column('magnetisation'),
-      demag: nd ? { value: ndValue, convention: 'SI' } : undefined,
-      sample,
-      unitOverrides: overrides
-    });
-    } catch (e) {
-      this._fail(translateMessage(this._trans, messageOf(e)));
-      return;
-    }
-    if (answer.status !== 'ok') {
-      const reason = translateMessage(this._trans, answer.message);
-      this._fail(answer.status === 'needs-unit' ? this._trans.__('%1 Accepted units: %2.', reason, answer.options.join(', ')) : reason);
-      return;
-    }
-    let analysis: IIsothermAnalysis;
-    try {
-      analysis = analyseIsotherms(answer.set);
-    } catch (e) {
-      this._fail(translateMessage(this._trans, messageOf(e)));
-      return;
-    }
-    this._analysis = analysis;
-    this._render(answer.set, analysis);
+    const column = (index: number) => {
+      const c = table.columns[index];
+      const values = c && c.kind === 'number' ? (c.values as Float64Array) : new Float64Array(0);
+      return { name: c?.name ?? '', unit: c?.unit ?? null, values };
+    };
+    const job = {
+      temperature: column(reading.columns.temperature),
+      field: column(reading.columns.field),
+      magnetisation: column(reading.columns.magnetisation),
+      controls: reading.controls
+    };
+    this._runner ??= new AnalysisRunner();
+    const runner = this._runner;
+    const token = ++this._token;
+    this._controls.setRunning(true);
+    this._progress.hidden = false;
+    this._progress.value = 0;
+    this._status.textContent = this._trans.__('Analysing the isotherms…');
+    const done = runner
+      .runIsotherms(job, (stage, fraction) => {
+        if (token === this._token) {
+          this._progress.value = fraction;
+          this._status.textContent = this._trans.__('Analysing the isotherms: %1 (%2 %)', this._stageName(stage), Math.round(100 * fraction));
+        }
+      })
+      .then(
+        result => {
+          if (token !== this._token) {
+            return;
+          }
+          if (result.kind === 'cancelled') {
+            this._status.textContent = this._trans.__('Stopped by you: the isotherm analysis was not finished, and the results shown before are kept.');
+            return;
+          }
+          const answer = result.answer;
+          if (answer.status === 'ok') {
+            this._status.textContent = '';
+            this._report = answer.report;
+            this._render(answer.report);
+          } else if (answer.status === 'needs-unit') {
+            this._fail(this._trans.__('%1 Accepted units: %2.', translateMessage(this._trans, answer.message), answer.options.join(', ')));
+          } else if (answer.status === 'refused') {
+            this._fail(translateMessage(this._trans, answer.message));
+          }
+        },
+        (reason: unknown) => {
+          if (token === this._token) {
+            this._fail(translateMessage(this._trans, messageOf(reason)));
+          }
+        }
+      )
+      .finally(() => {
+        if (token === this._token) {
+          this._controls.setRunning(false);
+          this._progress.hidden = true;
+          if (this._status.textContent === this._trans.__('Analysing the isotherms…')) {
+            this._status.textContent = '';
+          }
+        }
+      });
+    this._running = done;
+    return done;
   }
 
-  /** Redraw the plot (theme change). */
+  /** Stop a running analysis (the results shown before stay). */
+  cancel(): void {
+    this._runner?.cancel();
+  }
+
+  /** Redraw the views (theme change). */
   redraw(): void {
-    if (this._analysis && this._set) {
-      this._draw(this._set, this._analysis);
+    if (this._report) {
+      this._views.setReport(this._report, readChartTheme(this.node), this._viewUnits());
     }
+  }
+
+  dispose(): void {
+    if (this.isDisposed) {
+      return;
+    }
+    this._token++;
+    this._runner?.dispose();
+    super.dispose();
+  }
+
+  private _stageName(stage: IsothermStage): string {
+    const t = this._trans;
+    const names: Record<IsothermStage, string> = {
+      grouping: t.__('grouping the readings'),
+      global: t.__('fitting the equation of state'),
+      'cross-checks': t.__('cross-checks'),
+      collapse: t.__('scaling collapse'),
+      window: t.__('exponents against the window'),
+      entropy: t.__('entropy change'),
+      bootstrap: t.__('bootstrap')
+    };
+    return names[stage] ?? stage;
+  }
+
+  /** Display units of the charts: the table's own field and magnetisation units where they convert. */
+  private _viewUnits(): IViewUnits {
+    const report = this._report;
+    const fieldKind = report?.set.fieldKind ?? 'applied';
+    const unit = (name: string | undefined, si: string): string | { unit: string; perSI: number } => {
+      if (!name || name === si) {
+        return si;
+      }
+      try {
+        const perSI = convertQuantity(1, si, name);
+        return Number.isFinite(perSI) && perSI > 0 ? { unit: name, perSI } : si;
+      } catch {
+        return si;
+      }
+    };
+    const display = report?.set.display;
+    const mUnit = report?.set.magnetisationUnit ?? 'A/m';
+    return { field: unit(display?.field, 'A/m'), magnetisation: mUnit === 'A/m' ? unit(display?.magnetisation, 'A/m') : mUnit, fieldKind };
   }
 
   private _fail(message: string): void {
@@ -212,151 +252,63 @@ export class IsothermSection extends Panel {
     this._error.hidden = false;
   }
 
-  private _draw(set: IIsothermSet, analysis: IIsothermAnalysis): void {
-    if (!this.isAttached) {
-      return;
-    }
-    this._chart.show();
-    const { spec } = buildArrottSpec({
-      isotherms: set.isotherms,
-      lines: analysis.arrott.lines,
-      theme: readChartTheme(this.node),
-      fieldKind: set.fieldKind,
-      magnetisationUnit: set.magnetisationUnit
-    });
-    this._rendered = this._chart.render(spec, this._trans.__('Arrott plot'));
-  }
-
-  private _render(set: IIsothermSet, a: IIsothermAnalysis): void {
-    this._set = set;
-    this._draw(set, a);
-    const rows: [string, string, string][] = [
-      [this._trans.__('Tc, Arrott (intercept crossing)'), formatWithError(a.arrott.Tc.value, a.arrott.Tc.sigma), 'K'],
-      [this._trans.__('Tc, modified Arrott'), formatWithError(a.modifiedArrott.Tc.value, a.modifiedArrott.Tc.sigma), 'K'],
-      ['β', formatWithError(a.modifiedArrott.beta.value, a.modifiedArrott.beta.sigma), this._trans.__('modified Arrott')],
-      ['γ', formatWithError(a.modifiedArrott.gamma.value, a.modifiedArrott.gamma.sigma), this._trans.__('modified Arrott')],
-      ['δ', formatWithError(a.modifiedArrott.deltaWidom.value, a.modifiedArrott.deltaWidom.sigma), this._trans.__('Widom: 1 + γ/β')],
-      ['δ', formatWithError(a.criticalIsotherm.delta.value, a.criticalIsotherm.delta.sigma), this._trans.__('critical isotherm (%1)', a.criticalIsotherm.source)],
-      [this._trans.__('Tc, Kouvel–Fisher'), formatWithError(a.kouvelFisher.Tc.value, a.kouvelFisher.Tc.sigma), 'K'],
-      ['β', formatWithError(a.kouvelFisher.below.exponent.value, a.kouvelFisher.below.exponent.sigma), this._trans.__('Kouvel–Fisher')],
-      ['γ', formatWithError(a.kouvelFisher.above.exponent.value, a.kouvelFisher.above.exponent.sigma), this._trans.__('Kouvel–Fisher')]
-    ];
-    const table = document.createElement('table');
-    table.className = 'jp-psiscape-fit-table jp-psiscape-isotherm-table';
-    const head = table.createTHead().insertRow();
-    for (const text of [this._trans.__('quantity'), this._trans.__('value ± standard error'), this._trans.__('method')]) {
-      const th = document.createElement('th');
-      th.scope = 'col';
-      th.textContent = text;
-      head.appendChild(th);
-    }
-    const body = table.createTBody();
-    for (const r of rows) {
-      const row = body.insertRow();
-      r.forEach(text => (row.insertCell().textContent = text));
-    }
-    const count = document.createElement('p');
-    count.textContent = this._trans._n('%1 isotherm', '%1 isotherms', set.isotherms.length) + ` · ${set.fieldKind === 'internal' ? this._trans.__('internal field') : this._trans.__('applied field (no demagnetisation correction)')}`;
-    const banerjee = document.createElement('p');
-    banerjee.className = 'jp-psiscape-isotherm-banerjee';
-    banerjee.textContent = this._trans.__('Banerjee criterion: %1', translateMessage(this._trans, a.arrott.banerjee.evidence));
-    const notes = document.createElement('ul');
-    notes.className = 'jp-psiscape-fit-notes';
-    const seen = new Set<string>();
-    for (const w of [...a.warnings, ...a.arrott.banerjee.caveats]) {
-      const text = translateMessage(this._trans, w);
-      if (seen.has(text)) {
-        continue;
-      }
-      seen.add(text);
-      const li = document.createElement('li');
-      li.className = 'jp-psiscape-fit-warning';
-      li.textContent = text;
-      notes.appendChild(li);
-    }
-    const conventions = document.createElement('p');
-    conventions.className = 'jp-psiscape-fit-convention';
-    conventions.textContent = [a.conventions.t, ...a.conventions.notes].map(m => translateMessage(this._trans, m)).join('; ');
-    this._result.replaceChildren(count, table, banerjee, notes, conventions);
+  private _render(report: IIsothermReport): void {
+    this._views.show();
+    this._views.setReport(report, readChartTheme(this.node), this._viewUnits());
+    const { head, rest } = summaryNodes(this._trans, report);
+    this._result.replaceChildren(...head);
+    this._details.replaceChildren(...rest);
   }
 
   private _build(): void {
-    const heading = document.createElement('h3');
-    heading.textContent = this._trans.__('Isotherms M(H) at several temperatures');
-    const row = document.createElement('div');
-    row.className = 'jp-psiscape-fit-row';
-    const labels: Record<Role, string> = {
-      temperature: this._trans.__('temperature'),
-      field: this._trans.__('field'),
-      magnetisation: this._trans.__('magnetisation')
-    };
-    for (const role of ['temperature', 'field', 'magnetisation'] as Role[]) {
-      const select = document.createElement('select');
-      select.className = `jp-mod-styled jp-psiscape-iso-${role}`;
-      this._pickers[role] = select;
-      const unit = document.createElement('input');
-      unit.type = 'text';
-      unit.className = `jp-mod-styled jp-psiscape-iso-unit jp-psiscape-iso-${role}-unit`;
-      unit.placeholder = this._trans.__('unit from header');
-      unit.setAttribute('aria-label', this._trans.__('unit of the %1 column', labels[role]));
-      this._units[role] = unit;
-      const label = document.createElement('label');
-      label.className = 'jp-psiscape-picker';
-      const span = document.createElement('span');
-      span.textContent = labels[role];
-      label.append(span, select, unit);
-      row.appendChild(label);
-    }
-    const row2 = document.createElement('div');
-    row2.className = 'jp-psiscape-fit-row';
-    const field = (cls: string, text: string, placeholder: string): HTMLInputElement => {
-      const input = document.createElement('input');
-      input.type = 'text';
-      input.inputMode = 'decimal';
-      input.className = `jp-mod-styled ${cls}`;
-      input.placeholder = placeholder;
-      const label = document.createElement('label');
-      label.className = 'jp-psiscape-picker';
-      const span = document.createElement('span');
-      span.textContent = text;
-      label.append(span, input);
-      row2.appendChild(label);
-      return input;
-    };
-    this._demag = field('jp-psiscape-iso-demag', this._trans.__('N_d (SI, 0–1)'), this._trans.__('unset'));
-    this._tolerance = field('jp-psiscape-iso-tolerance', this._trans.__('same isotherm within (K)'), '0.5');
-    this._mass = field('jp-psiscape-iso-mass', this._trans.__('sample mass (mg)'), '');
-    this._density = field('jp-psiscape-iso-density', this._trans.__('density (g/cm³)'), '');
-    const button = document.createElement('button');
-    button.type = 'button';
-    button.className = 'jp-Button jp-mod-styled jp-mod-accept jp-psiscape-iso-run';
-    button.textContent = this._trans.__('Analyse isotherms');
-    button.addEventListener('click', () => this.run());
-    row2.appendChild(button);
     ({ error: this._error, result: this._result } = outcomeNodes());
+    this._progress = document.createElement('progress');
+    this._progress.className = 'jp-psiscape-iso-progress';
+    this._progress.max = 1;
+    this._progress.hidden = true;
+    this._progress.setAttribute('aria-label', this._trans.__('Progress of the isotherm analysis'));
+    this._status = document.createElement('p');
+    this._status.className = 'jp-psiscape-iso-status';
+    this._status.setAttribute('role', 'status');
     const controls = new Widget();
-    controls.node.append(heading, row, row2, this._error);
+    controls.node.append(this._controls.node, this._progress, this._status, this._error);
     const results = new Widget();
     results.node.appendChild(this._result);
+    const details = new Widget();
+    this._details = document.createElement('div');
+    this._details.className = 'jp-psiscape-isotherm-details';
+    details.node.appendChild(this._details);
     this.addWidget(controls);
-    this.addWidget(this._chart);
     this.addWidget(results);
-    this._chart.hide();
+    this.addWidget(this._views);
+    this.addWidget(details);
+    this._views.hide();
   }
 
-  private _trans: TranslationBundle;
-  private _onRun: ((settings: ISavedIsotherms) => void) | null;
-  private _chart: ChartView;
+  private readonly _trans: TranslationBundle;
+  private readonly _onRun: ((settings: ISavedIsotherms) => void) | null;
+  private _runner: AnalysisRunner | null;
+  private readonly _controls: IsothermControls;
+  private readonly _views: IsothermViews;
   private _table: ITable | null = null;
-  private _set: IIsothermSet | null = null;
-  private _analysis: IIsothermAnalysis | null = null;
-  private _rendered: Promise<void> = Promise.resolve();
-  private _pickers = {} as Record<Role, HTMLSelectElement>;
-  private _units = {} as Record<Role, HTMLInputElement>;
-  private _demag!: HTMLInputElement;
-  private _mass!: HTMLInputElement;
-  private _tolerance!: HTMLInputElement;
-  private _density!: HTMLInputElement;
+  private _report: IIsothermReport | null = null;
+  private _forced = false;
+  private _looksLikeSweeps = false;
+  private _token = 0;
+  private _running: Promise<void> = Promise.resolve();
+  private _progress!: HTMLProgressElement;
+  private _status!: HTMLParagraphElement;
   private _error!: HTMLParagraphElement;
   private _result!: HTMLDivElement;
+  private _details!: HTMLDivElement;
+}
+
+export namespace IsothermSection {
+  export interface IOptions {
+    trans: TranslationBundle;
+    /** Runs the analysis in the worker (default: a runner of its own on the shared worker). */
+    runner?: AnalysisRunner;
+    /** Called with the controls when the user runs the analysis or picks a view (to save them). */
+    onRun?: (settings: ISavedIsotherms) => void;
+  }
 }

@@ -143,24 +143,3 @@ test('the fit controls are reachable with the keyboard', async () => {
   assert.ok(order.some(c => c.includes('jp-psiscape-fit-min')), `Tab reaches the window inputs: ${order.join(' | ')}`);
   assert.ok(order.some(c => c.includes('jp-psiscape-fit-run')), 'Tab reaches the Fit button');
 });
-
-test('isotherms M(H) at several temperatures give an Arrott plot and Tc', async () => {
-  const { page } = suite.lab;
-  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe th', { hasText: 'H (Oe)' }) }).first();
-  await contextMenu(page, output, 'Analyse This Table with psiscape');
-  const panel = page.locator('.jp-psiscape-AnalysisPanel').last();
-  const section = panel.locator('.jp-psiscape-IsothermSection');
-  await section.waitFor({ state: 'visible', timeout: 30000 });
-  assert.equal(await section.locator('select.jp-psiscape-iso-field option:checked').textContent(), 'H (Oe)');
-  await section.locator('button.jp-psiscape-iso-run').click();
-  await section.locator('svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 });
-  const tc = await section.locator('tbody tr', { hasText: 'Tc, Arrott' }).locator('td').nth(1).textContent();
-  const m = /^([\d.]+) ± ([\d.]+)$/.exec(tc);
-  // The demo isotherms are exact spin-½ mean-field isotherms with Tc = 287.4 K (demo/generate_notebooks.py).
-  assert.ok(m && Math.abs(Number(m[1]) - 287.4) < 1, `Arrott Tc reads "${tc}"`);
-  assert.match(await section.textContent(), /16 isotherms/);
-  assert.match(await section.textContent(), /demagnetising factor N_d is not set/);
-  await section.scrollIntoViewIfNeeded();
-  await screenshot(page, 'isotherms-light', { guide: 'isotherms' });
-  await darkScreenshot(page, 'isotherms-dark', () => section.locator('svg g.mark-symbol.role-mark path').first().waitFor({ timeout: 30000 }));
-});

@@ -27,26 +27,3 @@ test('an analysis saved with the notebook reopens, with its fit, after a reload'
   assert.equal(await restored.locator('select.jp-psiscape-fit-kind').inputValue(), 'weiss');
   await screenshot(page, 'saved-after-reload', { guide: 'saved-analysis-reopened' });
 });
-
-test('an isotherm analysis is saved with its controls and runs again after a reload', async () => {
-  const { page } = suite.lab;
-  const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe th', { hasText: 'H (Oe)' }) }).first();
-  await contextMenu(page, output, 'Analyse This Table with psiscape');
-  const panel = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-IsothermSection:visible') }).last();
-  const section = panel.locator('.jp-psiscape-IsothermSection');
-  await section.waitFor({ state: 'visible', timeout: 30000 });
-  await section.locator('input.jp-psiscape-iso-mass').fill('12.5');
-  await section.locator('input.jp-psiscape-iso-tolerance').fill('0.4');
-  await section.locator('button.jp-psiscape-iso-run').click();
-  await section.locator('tbody tr', { hasText: 'Tc, Arrott' }).waitFor({ timeout: 30000 });
-  const before = await section.locator('tbody tr', { hasText: 'Tc, Arrott' }).locator('td').nth(1).textContent();
-  await page.waitForTimeout(800); // the session's save debounce
-  await saveAndReload(page);
-  const restored = page.locator('.jp-psiscape-AnalysisPanel', { has: page.locator('.jp-psiscape-IsothermSection:visible') }).last();
-  const again = restored.locator('.jp-psiscape-IsothermSection');
-  await again.locator('tbody tr', { hasText: 'Tc, Arrott' }).waitFor({ timeout: 60000 });
-  assert.equal(await again.locator('input.jp-psiscape-iso-mass').inputValue(), '12.5');
-  assert.equal(await again.locator('input.jp-psiscape-iso-tolerance').inputValue(), '0.4');
-  assert.equal(await again.locator('select.jp-psiscape-iso-field option:checked').textContent(), 'H (Oe)');
-  assert.equal(await again.locator('tbody tr', { hasText: 'Tc, Arrott' }).locator('td').nth(1).textContent(), before);
-});

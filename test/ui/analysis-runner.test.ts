@@ -11,6 +11,7 @@ import { runAnalysisJob } from '../../src/core/analysis/run';
 import type { IAnalysisJob } from '../../src/core/analysis/types';
 import { CoreMessageError, messageOf, msg } from '../../src/core/messages';
 import { AnalysisRunner, AnalysisWorkerHost } from '../../src/ui/analysis-runner';
+import { DEFAULT_ISOTHERM_CONTROLS } from '../../src/core/sweeps/job-types';
 import type { AnalysisRunResult, IRunProgress } from '../../src/ui/analysis-runner';
 
 /** A Worker stand-in: records what it is sent; `auto` ones answer through the real handler after a yield. */
@@ -175,6 +176,54 @@ describe('AnalysisRunner', () => {
     fresh.reply({ id: fresh.lastId, kind: 'done', outcome });
     expect(doneOf(await next)).toBe(outcome);
     expect(FakeWorker.instances).toHaveLength(2);
+  });
+
+  it('should run an isotherm analysis in the worker with its columns transferred, stage progress, and cancel through the flag', async () => {
+    // Weiss isotherms in reduced units (REFERENCE.md B1: h = τ·artanh m − m), here only as a job to carry.
+    const T: number[] = [];
+    const H: number[] = [];
+    const M: number[] = [];
+    for (const tau of [0.97, 0.98, 0.99, 1.0, 1.01, 1.02, 1.03]) {
+      for (let k = 1; k <= 20; k++) {
+        const m = 0.05 + 0.02 * k;
+        const h = tau * Math.atanh(m) - m;
+        if (h > 0) {
+          T.push(300 * tau);
+          H.push(1e4 * h);
+          M.push(100 * m);
+        }
+      }
+    }
+    const job = {
+      temperature: { name: 'T', unit: 'K', values: T },
+      field: { name: 'H', unit: 'Oe', values: H },
+      magnetisation: { name: 'M', unit: 'emu/g', values: M },
+      controls: { ...DEFAULT_ISOTHERM_CONTROLS }
+    };
+    const runner = new AnalysisRunner({ host: host() });
+    const stages: string[] = [];
+    const result = await runner.runIsotherms(job, stage => stages.push(stage));
+    const sent = FakeWorker.instances[0].posted[0];
+    expect(sent.message.kind).toBe('isotherms');
+    expect(stages[0]).toBe('grouping');
+    expect(sent.transfer).toHaveLength(3);
+    expect(H).toHaveLength((job.field.values as number[]).length); // the caller's arrays are untouched
+    expect(result.kind).toBe('done');
+    expect(result.kind === 'done' && result.answer.status).toBe('ok');
+
+    // Shared memory: Cancel stores the flag the job polls; the job answers as cancelled.
+    FakeWorker.auto = false;
+    const flagged = host({ sharedMemory: true });
+    const second = new AnalysisRunner({ host: flagged });
+    const pending = second.runIsotherms(job);
+    await settle();
+    const worker = FakeWorker.instances.at(-1)!;
+    const request = worker.posted[0].message as unknown as { cancelFlag: Int32Array; id: number };
+    second.cancel();
+    expect(Atomics.load(request.cancelFlag, 0)).toBe(1);
+    handleAnalysisMessage(worker.posted[0].message, r => worker.reply(r));
+    expect(await pending).toEqual({ kind: 'cancelled' });
+    expect(worker.terminated).toBe(false);
   });
 
   it('should cancel before any report with no best point', async () => {

@@ -84,8 +84,11 @@ export interface IIsothermJobHooks {
 
 /** Whether a cross-check agrees with the primary result. */
 export interface IAgreement {
-  /** 'agrees': every compared value within 2σ (combined); 'disagrees': one is not; 'no-result': the method gave none. */
-  state: 'agrees' | 'disagrees' | 'no-result';
+  /**
+   * 'agrees': every compared value within 2σ (combined); 'close': beyond 2σ but within the method's usual
+   * systematic error (see CLOSE_RELATIVE in agreement.ts); 'disagrees': neither; 'no-result': the method gave none.
+   */
+  state: 'agrees' | 'close' | 'disagrees' | 'no-result';
   /** One sentence naming the values compared and how far apart they are (codes `sweeps.agree.*`). */
   message: ICoreMessage;
   /** How the method ended when that explains the state (its own reason, e.g. why it gave no result). */
