@@ -305,6 +305,24 @@ export class AnalysisSession {
     this._controlsChanged();
   }
 
+  /** How points are weighted; null: the default (the σ column when there is one, else equal). */
+  get weights(): Readonly<{ mode: 'sigma' | 'relative' | 'equal'; fraction: number | null }> | null {
+    return this._weights;
+  }
+
+  /** Set the weighting (null: the default). A relative fraction must be positive (null: estimated). */
+  setWeights(weights: { mode: 'sigma' | 'relative' | 'equal'; fraction: number | null } | null): void {
+    if (weights && weights.fraction !== null && !(Number.isFinite(weights.fraction) && weights.fraction > 0)) {
+      throw new RangeError(`relative weight fraction must be positive, got ${weights.fraction}`);
+    }
+    const next = weights ? { mode: weights.mode, fraction: weights.mode === 'relative' ? weights.fraction : null } : null;
+    if (JSON.stringify(next) === JSON.stringify(this._weights)) {
+      return;
+    }
+    this._weights = next;
+    this._controlsChanged();
+  }
+
   /** The window as entered (null ends follow the data range). */
   get windowInput(): { min: number | null; max: number | null } {
     return this._window;
@@ -371,6 +389,7 @@ export class AnalysisSession {
     const y = Float64Array.from(p.y.column.values as Float64Array);
     const sigma = p.sigma ? Float64Array.from(p.sigma.column.values as Float64Array) : undefined;
     const w = this._window;
+    const columns = this._optionColumns();
     return {
       kind: this._kind,
       x,
@@ -378,8 +397,31 @@ export class AnalysisSession {
       sigma,
       window: { min: w.min ?? -Infinity, max: w.max ?? Infinity },
       options: { ...this.options },
-      xNames: [p.x.column.name]
+      xNames: [p.x.column.name],
+      ...(this._weights ? { weights: { ...this._weights } } : {}),
+      ...(columns ? { columns } : {})
     };
+  }
+
+  /** Values of the chosen kind's column options (a header chosen, number columns only), by option key; null when none. */
+  private _optionColumns(): Record<string, Float64Array> | null {
+    const kind = kindById(this._kind);
+    const table = this._table;
+    if (!kind || !table) {
+      return null;
+    }
+    const out: Record<string, Float64Array> = {};
+    for (const [key, spec] of Object.entries(kind.options)) {
+      const header = this.options[key];
+      if ((spec as { type: string }).type !== 'column' || typeof header !== 'string' || header === '') {
+        continue;
+      }
+      const column = table.columns.find(c => c.header === header && c.kind === 'number');
+      if (column) {
+        out[key] = Float64Array.from(column.values as Float64Array);
+      }
+    }
+    return Object.keys(out).length > 0 ? out : null;
   }
 
   /** A run starts; returns its token (later reports with an older token are ignored). */
@@ -501,6 +543,7 @@ export class AnalysisSession {
       this._options.set(this._kind, optionsFromJson(this._kind, saved.settings.options));
       const w = saved.settings.window;
       this._window = { min: Number.isFinite(w.min) ? w.min : null, max: Number.isFinite(w.max) ? w.max : null };
+      this._weights = saved.settings.weights ? { ...saved.settings.weights } : null;
       this._hasRun = true;
     }
     this._isotherms = saved.isotherms ? structuredClone(saved.isotherms) : null;
@@ -649,7 +692,7 @@ export class AnalysisSession {
       entry.source.outputIndex,
       entry.source.contentHash,
       entry.columns,
-      s ? [s.kind, Object.entries(s.options).map(([k, v]) => [k, optionToJson(v)]).sort(), optionToJson(s.window.min), optionToJson(s.window.max)] : null,
+      s ? [s.kind, Object.entries(s.options).map(([k, v]) => [k, optionToJson(v)]).sort(), optionToJson(s.window.min), optionToJson(s.window.max), s.weights ?? null] : null,
       snapshotHash,
       entry.isotherms ?? null
     ]);
@@ -686,13 +729,15 @@ export class AnalysisSession {
       ? {
           kind: this._kind,
           options: { ...this.options },
-          window: { min: this._window.min ?? -Infinity, max: this._window.max ?? Infinity }
+          window: { min: this._window.min ?? -Infinity, max: this._window.max ?? Infinity },
+          ...(this._weights ? { weights: { ...this._weights } } : {})
         }
       : null;
   }
 
   private _source: ITableSource | null;
   private _isotherms: ISavedIsotherms | null = null;
+  private _weights: { mode: 'sigma' | 'relative' | 'equal'; fraction: number | null } | null = null;
   private _sourceState: SourceState = 'live';
   private _sourceMessages: readonly ICoreMessage[] = [];
   private _table: ITable | null = null;

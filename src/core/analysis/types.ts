@@ -25,6 +25,14 @@ export interface IAnalysisJob {
   options: Readonly<Record<string, AnalysisOptionValue>>;
   /** Names by which a user's expression may call the x column (besides `x`). */
   xNames?: string[];
+  /**
+   * How points are weighted: 'sigma' by the σ column (the default when σ is
+   * given), 'relative' σ_i = f·|y_i| (f given, or estimated when null), 'equal'
+   * (the default without σ).
+   */
+  weights?: { mode: 'sigma' | 'relative' | 'equal'; fraction?: number | null };
+  /** Values of the kind's column options (e.g. 1/χ for a joint Landau fit), by option key, row-aligned with x. */
+  columns?: Record<string, ArrayLike<number>>;
 }
 
 /** A number derived from the fit, with its standard error. */

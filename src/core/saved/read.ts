@@ -80,7 +80,15 @@ function decodeSettings(settings: JsonRecord): ISavedSettings {
   return {
     kind: own(settings, 'kind') as string,
     options: recordOf(Object.keys(options).map(k => [k, options[k]] as const)) as Record<string, SavedOptionValue>,
-    window: decodeWindow(own(settings, 'window') as JsonRecord)
+    window: decodeWindow(own(settings, 'window') as JsonRecord),
+    ...(isRecord(own(settings, 'weights'))
+      ? {
+          weights: {
+            mode: own(own(settings, 'weights') as JsonRecord, 'mode') as 'sigma' | 'relative' | 'equal',
+            fraction: (own(own(settings, 'weights') as JsonRecord, 'fraction') as number | null) ?? null
+          }
+        }
+      : {})
   };
 }
 

@@ -155,6 +155,15 @@ export const SAVED_SCHEMA = {
               description: 'The fit window in units of the x column; null is an open end.',
               required: ['min', 'max'],
               properties: { min: { type: ['number', 'null'] }, max: { type: ['number', 'null'] } }
+            },
+            weights: {
+              type: 'object',
+              description: 'How points were weighted, when not the default (the σ column when there is one, else equal weights).',
+              required: ['mode', 'fraction'],
+              properties: {
+                mode: { type: 'string', enum: ['sigma', 'relative', 'equal'] },
+                fraction: { type: ['number', 'null'], exclusiveMinimum: 0, description: 'Relative weights: σ_i = fraction·|y_i|; null: estimated from the residuals.' }
+              }
             }
           }
         },

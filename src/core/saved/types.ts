@@ -46,6 +46,8 @@ export interface ISavedSettings {
   options: Record<string, SavedOptionValue>;
   /** Fit window; JSON null stands for an open end (−∞ / +∞). */
   window: { min: number; max: number };
+  /** How points were weighted, when not the default (σ column when there is one, else equal). */
+  weights?: { mode: 'sigma' | 'relative' | 'equal'; fraction: number | null };
 }
 
 /** The plotted columns as last seen, with their values (missing values as null). */

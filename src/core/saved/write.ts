@@ -47,6 +47,9 @@ function encodeEntry(entry: ISavedAnalysis): JsonRecord | string {
       options.push([key, typeof v === 'number' && !Number.isFinite(v) ? (v > 0 ? 'inf' : '-inf') : v]);
     }
     jsonSettings = { kind: settings.kind, options: recordOf(options), window: { min, max } };
+    if (settings.weights) {
+      jsonSettings.weights = { mode: settings.weights.mode, fraction: settings.weights.fraction };
+    }
   }
   const json: JsonRecord = {
     id: entry.id,
@@ -109,7 +112,7 @@ const SPEC: IMergeSpec = {
     source: { known: ['notebookPath', 'cellId', 'outputIndex', 'contentHash'] },
     columns: { known: ['x', 'y', 'sigma'], children: { x: REF, y: REF, sigma: REF } },
     snapshot: { known: ['headers', 'units', 'values', 'rows', 'hash', 'omitted'] },
-    settings: { known: ['kind', 'options', 'window'], children: { window: { known: ['min', 'max'] } } }
+    settings: { known: ['kind', 'options', 'window', 'weights'], children: { window: { known: ['min', 'max'] }, weights: { known: ['mode', 'fraction'] } } }
   }
 };
 

@@ -218,3 +218,27 @@ describe('catalogue rules for saved settings', () => {
     expect(validateKindSettings({ kind: 'power-law', options: { proxyPower: 2, futureOption: 'x' } })).toBeNull();
   });
 });
+
+describe('AnalysisSession weights', () => {
+  it('should carry a chosen weighting into the job and the saved settings, and restore it', () => {
+    const s = new AnalysisSession({ id: 'w1', source: SOURCE });
+    s.setParse(MT);
+    expect('weights' in (s.job() as object)).toBe(false);
+    s.setWeights({ mode: 'relative', fraction: null });
+    expect((s.job() as { weights?: unknown }).weights).toEqual({ mode: 'relative', fraction: null });
+    s.setWeights({ mode: 'equal', fraction: 0.5 });
+    // A fraction only means something for relative weights.
+    expect(s.weights).toEqual({ mode: 'equal', fraction: null });
+    expect(() => s.setWeights({ mode: 'relative', fraction: -1 })).toThrow(RangeError);
+    s.setWeights({ mode: 'relative', fraction: 0.003 });
+    const token = s.beginRun();
+    s.cancelRun(token, null);
+    const saved = s.toSaved()!;
+    expect(saved.settings?.weights).toEqual({ mode: 'relative', fraction: 0.003 });
+    const again = new AnalysisSession({ id: 'w1', source: null });
+    again.restore(saved, MT, NOTE);
+    expect(again.weights).toEqual({ mode: 'relative', fraction: 0.003 });
+    s.dispose();
+    again.dispose();
+  });
+});
