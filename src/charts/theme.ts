@@ -29,6 +29,13 @@ export interface IChartTheme {
    * (heat maps), at least two colours; {@link DEFAULT_SEQUENTIAL} when omitted.
    */
   sequential?: readonly string[];
+  /**
+   * Diverging ramp from the most negative to the most positive value of a
+   * scale centred on zero (correlations), at least three colours, an odd
+   * number so the middle one sits at zero; {@link DEFAULT_DIVERGING} when
+   * omitted.
+   */
+  diverging?: readonly string[];
 }
 
 /**
@@ -45,6 +52,13 @@ export const DEFAULT_CATEGORICAL: readonly string[] = Object.freeze(['#0072B2', 
  */
 export const DEFAULT_SEQUENTIAL: readonly string[] = Object.freeze(['#FCF4C4', '#F9CF7A', '#F19A4B', '#D9603B', '#A63556', '#6B1F66', '#2E1646']);
 
+/**
+ * Diverging ramp when the theme gives none: blue through a pale neutral to
+ * red, lightness rising to the middle and falling again on both sides, so
+ * the sign reads by hue and the size by lightness (also in greyscale).
+ */
+export const DEFAULT_DIVERGING: readonly string[] = Object.freeze(['#2166AC', '#4393C3', '#92C5DE', '#F7F7F7', '#F4A582', '#D6604D', '#B2182B']);
+
 /** The theme's series colours, or {@link DEFAULT_CATEGORICAL}. */
 export function categoricalColours(theme: IChartTheme): string[] {
   const own = (theme.categorical ?? []).filter(c => typeof c === 'string' && c.length > 0);
@@ -55,6 +69,12 @@ export function categoricalColours(theme: IChartTheme): string[] {
 export function sequentialColours(theme: IChartTheme): string[] {
   const own = (theme.sequential ?? []).filter(c => typeof c === 'string' && c.length > 0);
   return own.length >= 2 ? own.slice() : DEFAULT_SEQUENTIAL.slice();
+}
+
+/** The theme's diverging ramp (negative to positive), or {@link DEFAULT_DIVERGING}. */
+export function divergingColours(theme: IChartTheme): string[] {
+  const own = (theme.diverging ?? []).filter(c => typeof c === 'string' && c.length > 0);
+  return own.length >= 3 ? own.slice() : DEFAULT_DIVERGING.slice();
 }
 
 /** Vega-Lite `config` block for a theme. */

@@ -2,15 +2,20 @@
  * The fit overlay spec builder: small series drawn point for point, large
  * series reduced for display with each fit-window group reduced on its own,
  * the counts a panel prints ("N of M points drawn"), non-finite pairs left
- * out, and a spec Vega-Lite compiles.
+ * out, and a spec Vega-Lite compiles; the fit-window brush (started at the
+ * window, read and moved through a Vega view) and the ±σ error bars.
  */
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
-import { buildFitOverlayChart, buildFitOverlaySpec } from '../../src/charts/fit-overlay';
+import type { TopLevelSpec } from 'vega-lite';
+import { parse, View as VegaView } from 'vega';
+import type { View } from 'vega';
+import { buildFitOverlayChart, buildFitOverlaySpec, FIT_WINDOW_PARAM, fitWindowFromSignal, readFitWindow, setFitWindow } from '../../src/charts/fit-overlay';
 import type { IFitOverlayOptions } from '../../src/charts/fit-overlay';
 import { DISPLAY_MAX_POINTS } from '../../src/charts/reduce';
 import type { IChartTheme } from '../../src/charts/theme';
 import { mulberry32 } from '../../src/core/numeric/random';
+import { coloursIn, compilesCleanly, distinctTheme, nonFinitePaths, strings, themeColours } from './sweeps/helpers';
 
 const theme: IChartTheme = { background: '#101010', text: '#eeeeee', grid: '#444444', accent: '#3080ff', accent2: '#ff8030', font: 'sans-serif' };
 
@@ -127,7 +132,10 @@ describe('buildFitOverlaySpec on a large series', () => {
   it('should compile to Vega with the reduced points and the whole curve', () => {
     const { x, y } = large();
     const chart = buildFitOverlayChart(options(x, y));
-    const sizes = (compile(chart.spec).spec.data ?? []).map(d => ('values' in d && Array.isArray(d.values) ? d.values.length : 0)).filter(n => n > 0);
+    const sizes = (compile(chart.spec).spec.data ?? [])
+      .filter(d => d.name !== `${FIT_WINDOW_PARAM}_store`)
+      .map(d => ('values' in d && Array.isArray(d.values) ? d.values.length : 0))
+      .filter(n => n > 0);
     expect(sizes.sort((a, b) => a - b)).toEqual([3, chart.reduced!.shown]);
   });
 });
@@ -158,5 +166,167 @@ describe('buildFitOverlayChart on a small series', () => {
 
   it('should refuse columns of different lengths', () => {
     expect(() => buildFitOverlayChart(options([1, 2], [1]))).toThrow('x has 2 values but y has 1');
+  });
+});
+
+interface IOverlayLayer {
+  data: { values: Record<string, number | string>[] };
+  mark: { type: string };
+  params?: { name: string; select: { type: string; encodings: string[] }; value?: { x: number[] } }[];
+  encoding: Record<string, unknown>;
+}
+
+function overlayLayers(spec: unknown): IOverlayLayer[] {
+  return (spec as { layer: IOverlayLayer[] }).layer;
+}
+
+/** The common checks on an overlay spec: no warning, finite numbers, no "NaN" text, theme colours only. */
+function checkOverlay(spec: TopLevelSpec, t: IChartTheme = theme): void {
+  compilesCleanly(spec);
+  expect(nonFinitePaths(spec)).toEqual([]);
+  for (const s of strings(spec)) {
+    expect(s).not.toMatch(/NaN|Infinity|∞|undefined/);
+  }
+  const allowed = themeColours(t);
+  for (const c of coloursIn(spec)) {
+    expect(allowed.has(c), `colour ${c} is not the theme's`).toBe(true);
+  }
+  expect(JSON.stringify(spec)).not.toContain('"scheme"');
+}
+
+const small = { x: [100, 120, 150, 200, 260, 280], y: [80, 75, 60, 40, 10, 5] };
+
+describe('buildFitOverlayChart: the fit-window brush', () => {
+  it('should put an interval selection on x on the points, started at the fit window', () => {
+    const chart = buildFitOverlayChart({ ...options(small.x, small.y, { min: 120, max: 250 }), theme: distinctTheme });
+    checkOverlay(chart.spec, distinctTheme);
+    const [points] = overlayLayers(chart.spec);
+    expect(points.params).toHaveLength(1);
+    const param = points.params![0];
+    expect(param.name).toBe(FIT_WINDOW_PARAM);
+    expect(param.select.type).toBe('interval');
+    expect(param.select.encodings).toEqual(['x']);
+    expect(param.value).toEqual({ x: [120, 250] });
+    // Inside the brush: accent; outside: the theme's text colour, faded.
+    expect(points.encoding.color).toEqual({ condition: { param: FIT_WINDOW_PARAM, empty: true, value: distinctTheme.accent }, value: distinctTheme.text });
+    const opacity = points.encoding.opacity as { condition: { value: number }; value: number };
+    expect(opacity.condition.value).toBeGreaterThan(opacity.value);
+    // Points and curve only.
+    expect(overlayLayers(chart.spec).map(l => l.mark.type)).toEqual(['point', 'line']);
+  });
+
+  it('should start an open-ended window at the ends of the data, and draw no brush value for an empty window', () => {
+    const open = buildFitOverlayChart(options(small.x, small.y, { min: -Infinity, max: Infinity }));
+    checkOverlay(open.spec);
+    expect(overlayLayers(open.spec)[0].params![0].value).toEqual({ x: [100, 280] });
+    const half = buildFitOverlayChart({ ...options(small.x, small.y, { min: 150, max: Infinity }), curve: null });
+    expect(overlayLayers(half.spec)[0].params![0].value).toEqual({ x: [150, 280] });
+    for (const w of [
+      { min: 200, max: 150 },
+      { min: Number.NaN, max: 200 },
+      { min: 150, max: 150 }
+    ]) {
+      const chart = buildFitOverlayChart({ ...options(small.x, small.y, w), curve: null });
+      checkOverlay(chart.spec);
+      expect(overlayLayers(chart.spec)[0].params![0].value).toBeUndefined();
+    }
+  });
+
+  it('should give a valid spec for no points, only non-finite points and a single point', () => {
+    for (const [x, y] of [
+      [[], []],
+      [[Number.NaN, 1], [2, Number.POSITIVE_INFINITY]],
+      [[150], [3]]
+    ] as number[][][]) {
+      for (const window of [
+        { min: 100, max: 240 },
+        { min: -Infinity, max: Infinity }
+      ]) {
+        const chart = buildFitOverlayChart({ ...options(x, y, window), curve: null, sigma: x.map(() => 0.5) });
+        checkOverlay(chart.spec);
+      }
+    }
+  });
+
+  it('should colour by the given window without the brush: a fixed shaded band, accent inside, grey outside', () => {
+    const chart = buildFitOverlayChart({ ...options(small.x, small.y, { min: 120, max: 250 }), brush: false });
+    checkOverlay(chart.spec);
+    const ls = overlayLayers(chart.spec);
+    expect(ls.map(l => l.mark.type)).toEqual(['rect', 'point', 'line']);
+    expect(ls.every(l => l.params === undefined)).toBe(true);
+    expect(ls[0].data.values).toEqual([{ lo: 120, hi: 250 }]);
+    expect((ls[1].encoding.color as { scale: unknown }).scale).toEqual({ domain: ['fitted', 'outside window'], range: [theme.accent, theme.text] });
+  });
+});
+
+describe('buildFitOverlayChart: error bars', () => {
+  it('should draw y ± σ for the points with a finite positive σ, and no bars without σ', () => {
+    const sigma = [1, Number.NaN, -2, 0, 3, Number.POSITIVE_INFINITY];
+    const chart = buildFitOverlayChart({ ...options(small.x, small.y), sigma, theme: distinctTheme });
+    checkOverlay(chart.spec, distinctTheme);
+    const ls = overlayLayers(chart.spec);
+    expect(ls.map(l => l.mark.type)).toEqual(['point', 'rule', 'line']);
+    expect(ls[1].data.values).toEqual([
+      { x: 100, lo: 79, hi: 81, row: 0 },
+      { x: 150, lo: 58, hi: 62, row: 2 },
+      { x: 260, lo: 7, hi: 13, row: 4 }
+    ]);
+    // The bars follow the brush like the points.
+    expect(ls[1].encoding.color).toEqual(ls[0].encoding.color);
+    expect(ls[0].data.values.filter(p => 'sigma' in p).map(p => p.sigma)).toEqual([1, 2, 3]);
+
+    const without = buildFitOverlayChart(options(small.x, small.y));
+    expect(overlayLayers(without.spec).some(l => l.mark.type === 'rule')).toBe(false);
+    const noneUsable = buildFitOverlayChart({ ...options(small.x, small.y), sigma: small.x.map(() => Number.NaN) });
+    expect(overlayLayers(noneUsable.spec).some(l => l.mark.type === 'rule')).toBe(false);
+  });
+
+  it('should draw bars for the reduced points only, and refuse σ of another length', () => {
+    const { x, y } = large();
+    const sigma = new Float64Array(x.length).fill(0.2);
+    const chart = buildFitOverlayChart({ ...options(x, y), sigma });
+    const ls = overlayLayers(chart.spec);
+    expect(ls[1].data.values.length).toBe(chart.reduced!.shown);
+    expect(() => buildFitOverlayChart({ ...options([1, 2], [1, 2]), sigma: [1] })).toThrow('sigma has 1 values but y has 2');
+  });
+});
+
+describe('the fit-window brush in a Vega view', () => {
+  async function viewOf(spec: TopLevelSpec): Promise<View> {
+    const view = new VegaView(parse(compile(spec).spec), { renderer: 'none' });
+    await view.runAsync();
+    return view;
+  }
+
+  it('should hold the initial window in the signal, follow setFitWindow and tell a listener', async () => {
+    const view = await viewOf(buildFitOverlaySpec(options(small.x, small.y, { min: 120, max: 250 })));
+    const w = readFitWindow(view)!;
+    expect(w.min).toBeCloseTo(120, 9);
+    expect(w.max).toBeCloseTo(250, 9);
+    const heard: ({ min: number; max: number } | null)[] = [];
+    view.addSignalListener(FIT_WINDOW_PARAM, (_name, value) => heard.push(fitWindowFromSignal(value)));
+    await setFitWindow(view, { min: 140, max: 210 });
+    const moved = readFitWindow(view)!;
+    expect(moved.min).toBeCloseTo(140, 9);
+    expect(moved.max).toBeCloseTo(210, 9);
+    expect(heard.length).toBeGreaterThan(0);
+    expect(heard[heard.length - 1]!.min).toBeCloseTo(140, 9);
+    // Open ends go to the plot's edges; null clears the brush.
+    await setFitWindow(view, { min: -Infinity, max: 200 });
+    const edge = readFitWindow(view)!;
+    expect(edge.max).toBeCloseTo(200, 9);
+    expect(edge.min).toBeLessThanOrEqual(100);
+    await setFitWindow(view, null);
+    expect(readFitWindow(view)).toBeNull();
+    view.finalize();
+  });
+
+  it('should read no window from values that are not a finite interval', () => {
+    expect(fitWindowFromSignal({})).toBeNull();
+    expect(fitWindowFromSignal(null)).toBeNull();
+    expect(fitWindowFromSignal({ x: [1] })).toBeNull();
+    expect(fitWindowFromSignal({ x: [1, Number.NaN] })).toBeNull();
+    expect(fitWindowFromSignal({ x: [3, 3] })).toBeNull();
+    expect(fitWindowFromSignal({ x: [5, 2] })).toEqual({ min: 2, max: 5 });
   });
 });

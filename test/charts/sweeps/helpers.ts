@@ -18,12 +18,13 @@ export const distinctTheme: IChartTheme = {
   accent2: '#cba321',
   font: 'serif',
   categorical: ['#a10101', '#02b202', '#0303c3', '#d404d4', '#05e5e5'],
-  sequential: ['#f7f1e1', '#c08a40', '#602010']
+  sequential: ['#f7f1e1', '#c08a40', '#602010'],
+  diverging: ['#1a2b8c', '#8c9ad0', '#eeeef0', '#d09a8c', '#8c2b1a']
 };
 
 /** Every colour the theme defines, lower case. */
 export function themeColours(theme: IChartTheme): Set<string> {
-  return new Set([theme.background, theme.text, theme.grid, theme.accent, theme.accent2, ...(theme.categorical ?? []), ...(theme.sequential ?? [])].map(c => c.toLowerCase()));
+  return new Set([theme.background, theme.text, theme.grid, theme.accent, theme.accent2, ...(theme.categorical ?? []), ...(theme.sequential ?? []), ...(theme.diverging ?? [])].map(c => c.toLowerCase()));
 }
 
 /** Compiles the spec; fails on any Vega-Lite warning or error. */
