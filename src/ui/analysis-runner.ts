@@ -24,7 +24,8 @@
  */
 import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis/types';
 import { bestOfFit, handleAnalysisMessage, parseSource } from '../core/analysis/protocol';
-import type { AnalysisResponse, IBestSoFar, IIsothermRequest, IParseRequest, IRunRequest, ParseSource } from '../core/analysis/protocol';
+import type { AnalysisResponse, IBestSoFar, IIsothermRequest, IParseRequest, IRunRequest, ITaskRequest, ParseSource } from '../core/analysis/protocol';
+import type { AnalysisTask, AnalysisTaskResult } from '../core/analysis/tasks-types';
 import type { IIsothermJob, IIsothermJobColumn, IsothermJobAnswer, IsothermStage } from '../core/sweeps/job-types';
 import type { ParseResult } from '../core/table';
 import { CoreMessageError, messageOf, msg } from '../core/messages';
@@ -67,6 +68,9 @@ export type AnalysisRunResult = IRunDone | IRunCancelled;
 /** What an isotherm analysis resolves to: the job's answer, or cancelled. Failures reject with a {@link CoreMessageError}. */
 export type IsothermRunResult = { kind: 'done'; answer: IsothermJobAnswer } | { kind: 'cancelled' };
 
+/** What a task (comparison, window scan, bootstrap) resolves to. Failures reject with a {@link CoreMessageError}. */
+export type TaskRunResult = { kind: 'done'; result: Exclude<AnalysisTaskResult, { type: 'cancelled' }> } | { kind: 'cancelled' };
+
 /** Progress of an isotherm analysis: the stage running and the fraction of the whole job done. */
 export type IsothermProgress = (stage: IsothermStage, fraction: number) => void;
 
@@ -99,12 +103,15 @@ function cancelledResult(best: IBestSoFar | null): IRunCancelled {
 /** A submitted job. */
 interface ITask {
   readonly id: number;
-  readonly request: IRunRequest | IParseRequest | IIsothermRequest;
+  readonly request: IRunRequest | IParseRequest | IIsothermRequest | ITaskRequest;
   /** Parse tasks: receives the parsed table. */
   readonly onParsed?: (result: ParseResult) => void;
   /** Isotherm tasks: receives the job's answer, and its progress. */
   readonly onIsotherms?: (answer: IsothermJobAnswer) => void;
   readonly onStage?: IsothermProgress;
+  /** Task requests: receives the result, and the fraction done. */
+  readonly onTask?: (result: AnalysisTaskResult) => void;
+  readonly onFraction?: (fraction: number) => void;
   readonly transfer: Transferable[];
   readonly onProgress: ((p: IRunProgress) => void) | undefined;
   readonly resolve: (result: AnalysisRunResult) => void;
@@ -261,6 +268,49 @@ export class AnalysisWorkerHost {
   }
 
   /**
+   * Queue a task of several fits of one job. The job's columns are copied
+   * and their buffers transferred; cancel stops it between and inside fits.
+   */
+  submitTask(task: AnalysisTask, onProgress?: (fraction: number) => void): { id: number; result: Promise<TaskRunResult> } {
+    const id = ++this._lastId;
+    const transfer: ArrayBuffer[] = [];
+    const copy = (v: ArrayLike<number>): Float64Array => {
+      const out = Float64Array.from(v);
+      transfer.push(out.buffer as ArrayBuffer);
+      return out;
+    };
+    const job = task.job;
+    const columns = job.columns ? Object.fromEntries(Object.entries(job.columns).map(([k, v]) => [k, copy(v)])) : undefined;
+    const jobCopy = { ...job, x: copy(job.x), y: copy(job.y), ...(job.sigma ? { sigma: copy(job.sigma) } : {}), ...(columns ? { columns } : {}) };
+    const request: ITaskRequest = { id, kind: 'task', task: { ...task, job: jobCopy } };
+    if (this._sharedMemory) {
+      request.cancelFlag = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT));
+    }
+    const result = new Promise<TaskRunResult>((resolve, reject) => {
+      const taskEntry: ITask = {
+        id,
+        request,
+        transfer,
+        onProgress: undefined,
+        onTask: r => resolve(r.type === 'cancelled' ? { kind: 'cancelled' } : { kind: 'done', result: r }),
+        onFraction: onProgress,
+        resolve: () => resolve({ kind: 'cancelled' }),
+        reject,
+        best: null,
+        cancelRequested: false,
+        graceTimer: null
+      };
+      if (this._disposed) {
+        resolve({ kind: 'cancelled' });
+      } else {
+        this._queue.push(taskEntry);
+        this._pump();
+      }
+    });
+    return { id, result };
+  }
+
+  /**
    * Stop job `id`: a waiting job leaves the queue; a running one stops at
    * its best point so far. Its promise resolves with a cancelled result.
    */
@@ -279,7 +329,7 @@ export class AnalysisWorkerHost {
     if (!this._worker) {
       // Main thread: the job has not started (it runs in one piece after a yield).
       this._settle(task, cancelledResult(task.best));
-    } else if ((task.request.kind === 'run' || task.request.kind === 'isotherms') && task.request.cancelFlag) {
+    } else if (task.request.kind !== 'parse' && task.request.cancelFlag) {
       Atomics.store(task.request.cancelFlag, 0, 1);
       task.graceTimer = setTimeout(() => this._abandon(task), this._graceMs);
     } else {
@@ -399,6 +449,24 @@ export class AnalysisWorkerHost {
           task.resolve(cancelledResult(null));
         } else {
           task.onIsotherms?.(message.answer);
+        }
+        this._pump();
+        return;
+      case 'task-progress':
+        if (!task.cancelRequested && task.onFraction) {
+          try {
+            task.onFraction(message.fraction);
+          } catch (reason) {
+            console.error('psiscape: analysis progress handler failed', reason);
+          }
+        }
+        return;
+      case 'task-done':
+        this._finish(task);
+        if (task.cancelRequested) {
+          task.resolve(cancelledResult(null));
+        } else {
+          task.onTask?.(message.result);
         }
         this._pump();
         return;
@@ -564,6 +632,26 @@ export class AnalysisRunner {
     }
     this.cancel();
     const { id, result } = this._host.submitIsotherms(job, onProgress);
+    this._current = id;
+    const clear = (): void => {
+      if (this._current === id) {
+        this._current = null;
+      }
+    };
+    result.then(clear, clear);
+    return result;
+  }
+
+  /**
+   * Run a task (comparison, window scan, bootstrap), cancelling this runner's
+   * previous job.
+   */
+  runTask(task: AnalysisTask, onProgress?: (fraction: number) => void): Promise<TaskRunResult> {
+    if (this._disposed) {
+      return Promise.resolve({ kind: 'cancelled' });
+    }
+    this.cancel();
+    const { id, result } = this._host.submitTask(task, onProgress);
     this._current = id;
     const clear = (): void => {
       if (this._current === id) {

@@ -13,6 +13,7 @@ import { formatPlain, formatWithError, kindById } from '../core/analysis';
 import type { IAnalysisOutcome } from '../core/analysis';
 import type { VerdictState } from '../core/analysis/verdict';
 import { translateMessage } from './translate';
+import { parameterUnit } from '../core/analysis/parameter-units';
 
 /** What {@link renderOutcome} needs. */
 export interface IOutcomeView {
@@ -24,6 +25,8 @@ export interface IOutcomeView {
   /** The kind now chosen: a previous result of another kind is not shown at all. */
   currentKind: string;
   onExploreLandau: ((k: NonNullable<IAnalysisOutcome['landau']>) => void) | null;
+  /** Units of the x and y columns, for the parameters' units (null: none given). */
+  units?: { x: string | null; y: string | null };
 }
 
 /** Marks of the three verdict states (shapes differ, so colour is never the only cue). */
@@ -106,7 +109,7 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
   const equation = document.createElement('p');
   equation.className = 'jp-psiscape-fit-equation';
   equation.textContent = outcome.equation;
-  nodes.push(equation, parameterTable(trans, outcome));
+  nodes.push(equation, parameterTable(trans, outcome, view.units ?? { x: null, y: null }));
 
   const notes = document.createElement('ul');
   notes.className = 'jp-psiscape-fit-notes';
@@ -151,7 +154,7 @@ export function renderOutcome(box: HTMLElement, view: IOutcomeView): void {
   box.append(...nodes);
 }
 
-function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome): HTMLTableElement {
+function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome, units: { x: string | null; y: string | null }): HTMLTableElement {
   const fit = outcome.fit;
   const table = document.createElement('table');
   table.className = 'jp-psiscape-fit-table';
@@ -162,7 +165,7 @@ function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome): HT
       : trans.__('Standard errors scaled by √χ²_red (no σ column given).');
   table.appendChild(caption);
   const header = table.createTHead().insertRow();
-  for (const text of [trans.__('parameter'), trans.__('value ± standard error'), trans.__('%1 % interval', formatPlain(100 * fit.confidenceLevel))]) {
+  for (const text of [trans.__('parameter'), trans.__('value ± standard error'), trans.__('unit'), trans.__('%1 % interval', formatPlain(100 * fit.confidenceLevel))]) {
     const th = document.createElement('th');
     th.scope = 'col';
     th.textContent = text;
@@ -172,7 +175,8 @@ function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome): HT
   fit.parameters.forEach((name, i) => {
     const row = body.insertRow();
     const [lo, hi] = fit.confidenceIntervals[i];
-    for (const text of [name, formatWithError(fit.values[i], fit.standardErrors[i]), `${formatPlain(lo)} … ${formatPlain(hi)}`]) {
+    const unit = parameterUnit(name, units.x, units.y);
+    for (const text of [name, formatWithError(fit.values[i], fit.standardErrors[i]), unit === '1' ? '' : (unit ?? ''), `${formatPlain(lo)} … ${formatPlain(hi)}`]) {
       row.insertCell().textContent = text;
     }
   });
@@ -183,7 +187,8 @@ function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome): HT
     const row = body.insertRow();
     row.className = 'jp-psiscape-fit-derived';
     const sigmaText = Number.isFinite(d.sigma) ? formatWithError(d.value, d.sigma) : Number.isFinite(d.value) ? trans.__('%1 (from the fitted values; no error propagated)', formatPlain(d.value)) : '—';
-    for (const text of [d.name, sigmaText, translateMessage(trans, d.note)]) {
+    const unit = parameterUnit(d.name, units.x, units.y);
+    for (const text of [d.name, sigmaText, unit === '1' ? '' : (unit ?? ''), translateMessage(trans, d.note)]) {
       row.insertCell().textContent = text;
     }
   }

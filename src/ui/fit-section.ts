@@ -99,6 +99,18 @@ export class FitSection extends Widget {
         input.removeAttribute('aria-invalid');
       }
     }
+    const weights = s.weights;
+    if (document.activeElement !== this._weights) {
+      this._weights.value = weights?.mode ?? '';
+    }
+    if (document.activeElement !== this._fraction) {
+      this._fraction.value = weights?.fraction != null ? formatPlain(weights.fraction) : '';
+    }
+    this._fractionLabel.hidden = (weights?.mode ?? '') !== 'relative';
+    const sigmaOption = this._weights.querySelector<HTMLOptionElement>('option[value="sigma"]');
+    if (sigmaOption) {
+      sigmaOption.disabled = !s.plotted()?.sigma;
+    }
     const run = s.run;
     const running = run.phase === 'running';
     this._fitButton.disabled = running || s.plotted() === null;
@@ -127,7 +139,8 @@ export class FitSection extends Widget {
       current: s.outcomeIsCurrent,
       running,
       currentKind: s.kind,
-      onExploreLandau: this._onExploreLandau
+      onExploreLandau: this._onExploreLandau,
+      units: { x: s.plotted()?.x.column.unit ?? null, y: s.plotted()?.y.column.unit ?? null }
     });
   }
 
@@ -166,6 +179,33 @@ export class FitSection extends Widget {
     }
     row2.append(label(trans.__('fit window: x from'), this._min), label(trans.__('to'), this._max), this._windowMessage);
 
+    const rowWeights = document.createElement('div');
+    rowWeights.className = 'jp-psiscape-fit-row jp-psiscape-fit-weights';
+    this._weights = document.createElement('select');
+    this._weights.className = 'jp-mod-styled jp-psiscape-fit-weights-mode';
+    for (const [value, text] of [
+      ['', trans.__('default: by the σ column if chosen, else equal')],
+      ['sigma', trans.__('by the σ column')],
+      ['relative', trans.__('relative: σ ∝ |y|')],
+      ['equal', trans.__('equal')]
+    ]) {
+      const option = document.createElement('option');
+      option.value = value;
+      option.textContent = text;
+      this._weights.appendChild(option);
+    }
+    this._fraction = textInput('jp-psiscape-fit-weights-fraction');
+    this._fraction.inputMode = 'decimal';
+    this._fraction.placeholder = trans.__('estimate');
+    this._fraction.setAttribute('aria-label', trans.__('relative uncertainty of y, as a fraction (e.g. 0.003); empty to estimate it'));
+    this._fractionLabel = label(trans.__('σ/|y|'), this._fraction);
+    this._weightsMessage = document.createElement('span');
+    this._weightsMessage.className = 'jp-psiscape-fit-window-message';
+    this._weightsMessage.setAttribute('aria-live', 'polite');
+    this._weights.addEventListener('change', () => this._weightsChanged());
+    this._fraction.addEventListener('change', () => this._weightsChanged());
+    rowWeights.append(label(trans.__('weights'), this._weights), this._fractionLabel, this._weightsMessage);
+
     const row3 = document.createElement('div');
     row3.className = 'jp-psiscape-fit-row';
     this._fitButton = button(trans.__('Fit'), 'jp-mod-accept jp-psiscape-fit-run', () => void this.runFit());
@@ -177,7 +217,31 @@ export class FitSection extends Widget {
     row3.append(this._fitButton, this._cancelButton, this._status);
 
     ({ error: this._error, result: this._result } = outcomeNodes());
-    this.node.append(heading, row1, this._description, this._options, row2, row3, this._error, this._result);
+    this.node.append(heading, row1, this._description, this._options, row2, rowWeights, row3, this._error, this._result);
+  }
+
+  /** The weighting chosen: the mode, and for relative weights a fraction (empty: estimated). */
+  private _weightsChanged(): void {
+    const mode = this._weights.value;
+    this._fractionLabel.hidden = mode !== 'relative';
+    if (mode === '') {
+      this._weightsMessage.textContent = '';
+      this._session.setWeights(null);
+      return;
+    }
+    let fraction: number | null = null;
+    if (mode === 'relative' && this._fraction.value.trim()) {
+      const v = Number(this._fraction.value.trim());
+      if (!(Number.isFinite(v) && v > 0 && v < 1)) {
+        this._fraction.setAttribute('aria-invalid', 'true');
+        this._weightsMessage.textContent = this._trans.__('Write the relative uncertainty as a fraction between 0 and 1 (0.003 for 0.3 %), or leave it empty to estimate it.');
+        return;
+      }
+      fraction = v;
+    }
+    this._fraction.removeAttribute('aria-invalid');
+    this._weightsMessage.textContent = '';
+    this._session.setWeights({ mode: mode as 'sigma' | 'relative' | 'equal', fraction });
   }
 
   /** A window end typed by the user: a number, or empty for the data's end. Anything else is refused and not applied. */
@@ -287,6 +351,23 @@ export class FitSection extends Widget {
       box.addEventListener('change', () => s.setOption(key, box.checked));
       return box;
     }
+    if (spec.type === 'column') {
+      // A column of the same table (by header), or none.
+      const select = document.createElement('select');
+      select.className = `jp-mod-styled jp-psiscape-option jp-psiscape-option-${key}`;
+      const none = document.createElement('option');
+      none.value = '';
+      none.textContent = this._trans.__('none');
+      select.appendChild(none);
+      for (const c of s.columns) {
+        const option = document.createElement('option');
+        option.value = c.column.header;
+        option.textContent = c.label;
+        select.appendChild(option);
+      }
+      select.addEventListener('change', () => s.setOption(key, select.value));
+      return select;
+    }
     if (spec.type === 'text') {
       const input = textInput(`jp-psiscape-option jp-psiscape-option-${key}`);
       input.placeholder = spec.placeholder;
@@ -319,7 +400,7 @@ export class FitSection extends Widget {
       }
       if (spec.type === 'boolean') {
         (control as HTMLInputElement).checked = value === true;
-      } else if (spec.type === 'text') {
+      } else if (spec.type === 'text' || spec.type === 'column') {
         control.value = String(value);
       } else {
         control.value = String(spec.choices.findIndex(c => c.value === value));
@@ -341,6 +422,10 @@ export class FitSection extends Widget {
   private _min!: HTMLInputElement;
   private _max!: HTMLInputElement;
   private _windowMessage!: HTMLSpanElement;
+  private _weights!: HTMLSelectElement;
+  private _fraction!: HTMLInputElement;
+  private _fractionLabel!: HTMLLabelElement;
+  private _weightsMessage!: HTMLSpanElement;
   private _fitButton!: HTMLButtonElement;
   private _cancelButton!: HTMLButtonElement;
   private _status!: HTMLSpanElement;

@@ -37,6 +37,7 @@ import type { IAnalysisJob, IAnalysisOutcome } from './types';
 import { runAnalysisJob } from './run';
 import { parseMime, parseOutput } from '../table';
 import { runIsothermJob } from '../sweeps/job';
+import type { AnalysisTask, AnalysisTaskResult } from './tasks-types';
 import type { IIsothermJob, IsothermJobAnswer, IsothermStage } from '../sweeps/job-types';
 import type { ParseResult } from '../table';
 
@@ -67,7 +68,16 @@ export interface IIsothermRequest {
   cancelFlag?: Int32Array;
 }
 
-export type AnalysisRequest = IRunRequest | IParseRequest | IIsothermRequest;
+/** A request to run several fits of one job: model comparison, window scan or bootstrap. */
+export interface ITaskRequest {
+  id: number;
+  kind: 'task';
+  task: AnalysisTask;
+  /** Cooperative cancel, as for a run request. */
+  cancelFlag?: Int32Array;
+}
+
+export type AnalysisRequest = IRunRequest | IParseRequest | IIsothermRequest | ITaskRequest;
 
 /** Parse a table source (the worker's job for a parse request; also the main-thread fallback). */
 export function parseSource(source: ParseSource): ParseResult {
@@ -151,7 +161,30 @@ export interface IIsothermsDoneReply {
   answer: IsothermJobAnswer;
 }
 
-export type AnalysisResponse = IProgressReply | IDoneReply | ICancelledReply | IFailedReply | IParsedReply | IIsothermProgressReply | IIsothermsDoneReply;
+/** Progress of a task: the fraction of its fits done. */
+export interface ITaskProgressReply {
+  id: number;
+  kind: 'task-progress';
+  fraction: number;
+}
+
+/** A task's result. */
+export interface ITaskDoneReply {
+  id: number;
+  kind: 'task-done';
+  result: AnalysisTaskResult;
+}
+
+export type AnalysisResponse =
+  | IProgressReply
+  | IDoneReply
+  | ICancelledReply
+  | IFailedReply
+  | IParsedReply
+  | IIsothermProgressReply
+  | IIsothermsDoneReply
+  | ITaskProgressReply
+  | ITaskDoneReply;
 
 /** Least time between two progress replies, in ms. */
 export const PROGRESS_INTERVAL_MS = 100;
