@@ -42,6 +42,8 @@ export interface IDerivedValue {
   sigma: number;
   /** How it was obtained (formula, units). */
   note: ICoreMessage;
+  /** Why `sigma` is not a number, whenever it is not (e.g. no finite covariance). */
+  sigmaReason?: ICoreMessage;
 }
 
 /** What a job returns. */
@@ -65,6 +67,48 @@ export interface IAnalysisOutcome {
   derived: IDerivedValue[];
   /** Cautions a careful reader needs next to these numbers. */
   cautions: ICoreMessage[];
+  /**
+   * Order of the transition where the fit decides it (Landau: sign of b;
+   * Bean–Rodbell: η against 1), with how sure: z = (b or η − 1)/σ and the
+   * probability of first order under a normal approximation.
+   */
+  transitionOrder?: { order: 'first' | 'second' | 'undecided'; z: number; probabilityFirst: number; statement: ICoreMessage };
   /** Landau fits: the coefficients in convention L with a = 1 (for the free-energy explorer). */
   landau?: { a: number; T0: number; b: number; c: number; d: number };
+  /** How the points were weighted, and whether the residuals ask for other weights (see weights.ts). */
+  weighting?: IWeighting;
+}
+
+/** How the points of a fit were weighted (see weights.ts). */
+export interface IWeighting {
+  mode: 'sigma' | 'relative' | 'equal';
+  /** f of σ_i = f·|y_i| in 'relative' mode (given or estimated), else null. */
+  fraction: number | null;
+  /** Whether f was estimated from the residuals (relative mode without f). */
+  fractionEstimated: boolean;
+  /** How the points were weighted and what the standard errors rest on (code `weights.*`). */
+  note: ICoreMessage;
+  /** The residual check of an equal or σ fit; null when it was not made (relative mode, or not asked for). */
+  check: IResidualCheck | null;
+}
+
+/** Does the scatter grow with |y|? Made on the residuals of an equal-weight or σ fit. */
+export interface IResidualCheck {
+  /**
+   * −2 ln L of the weights used minus −2 ln L of σ_i ∝ |y_i|, each with its
+   * scale profiled, on this fit's residuals (> 0 favours σ ∝ |y|); NaN when not tested.
+   */
+  gain: number;
+  /** Spearman rank correlation of |residual| with |y| (NaN when not tested). */
+  spearman: number;
+  /** Whether σ ∝ |y| describes the scatter better (gain above the threshold in weights.ts). */
+  relativeBetter: boolean;
+  /** f = rms of residual/|y| of this fit, for σ_i = f·|y_i| (NaN when not tested). */
+  fraction: number;
+  /** When relative weights fit better: σ with relative weights / σ of this fit, by derived value. */
+  errorFactors: { name: string; factor: number }[];
+  /** What was found, in one sentence. */
+  message: ICoreMessage;
+  /** The advice to refit with relative weights and how the errors change; null when none. */
+  suggestion: ICoreMessage | null;
 }

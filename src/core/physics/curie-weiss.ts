@@ -174,3 +174,124 @@ export function fitCurieWeiss(
     Tmin
   };
 }
+
+/**
+ * Plausible range of an effective moment per formula unit, in μB. Free ions
+ * carry at most about 10.6 μB (Dy³⁺, Ho³⁺) and a formula unit with a few
+ * of them up to about 15; below 0.5 μB no local moment is left to fit a
+ * Curie law to. Both limits are common practice, no source: outside them a
+ * unit or normalisation mistake is far likelier than the moment.
+ */
+export const PEFF_PLAUSIBLE = { low: 0.5, high: 15 } as const;
+
+/**
+ * The factor by which p_eff changes when a molar χ given in one system is
+ * read in the other: 1 cm³/mol = 4π·10⁻⁶ m³/mol [C7], and p_eff ∝ √(C/prefactor),
+ * so p_eff(cgs number read as SI) / p_eff(cgs) = √(prefactor_cgs/prefactor_SI)
+ * = √(0.1/μ0) ≈ √(10⁶/(4π)) ≈ 282.1.
+ */
+export function unitMistakeFactor(): number {
+  return Math.sqrt(curiePrefactor('cgs-emu') / curiePrefactor('SI'));
+}
+
+/**
+ * A message naming the likely unit or normalisation mistake when p_eff is
+ * outside {@link PEFF_PLAUSIBLE}, else null.
+ */
+export function effectiveMomentPlausibility(pEff: number, units: MolarUnits): ICoreMessage | null {
+  if (!Number.isFinite(pEff) || !(pEff > 0)) {
+    return null;
+  }
+  const factor = unitMistakeFactor();
+  const inRange = (p: number): boolean => p >= PEFF_PLAUSIBLE.low && p <= PEFF_PLAUSIBLE.high;
+  const digits = { value: factor, digits: 4 };
+  if (pEff > PEFF_PLAUSIBLE.high) {
+    if (units === 'SI' && inRange(pEff / factor)) {
+      return msg(
+        'physics.curie-weiss.peff-cgs-as-si',
+        'p_eff = %1 μB: the data look like cgs-emu values (emu mol⁻¹ Oe⁻¹) read as SI (m³ mol⁻¹). A molar χ in SI is 4π·10⁻⁶ times its cgs number, so p_eff comes out √(0.1/μ0) = %2 times too large; read as cgs-emu it is %3 μB. Set the units to cgs-emu.',
+        { value: pEff, digits: 4 },
+        digits,
+        { value: pEff / factor, digits: 3 }
+      );
+    }
+    return msg(
+      'physics.curie-weiss.peff-high',
+      'p_eff = %1 μB is above %2 μB, more than a few magnetic ions carry: check the units option (%3), the molar mass used to normalise, whether a mass susceptibility was read as molar, and the number of magnetic ions per formula unit (p_eff per formula unit grows as √n).',
+      { value: pEff, digits: 4 },
+      PEFF_PLAUSIBLE.high,
+      units
+    );
+  }
+  if (pEff < PEFF_PLAUSIBLE.low) {
+    if (units === 'cgs-emu' && inRange(pEff * factor)) {
+      return msg(
+        'physics.curie-weiss.peff-si-as-cgs',
+        'p_eff = %1 μB: the data may be SI values (m³ mol⁻¹) read as cgs-emu (emu mol⁻¹ Oe⁻¹), which makes p_eff %2 times too small; read as SI it is %3 μB. Otherwise y is not per mole: a mass susceptibility (emu g⁻¹ Oe⁻¹) must be multiplied by the molar mass (p_eff grows by √M_w, ×10 for 100 g/mol), and a raw emu/Oe divided by the amount of substance in mol.',
+        { value: pEff, digits: 4 },
+        digits,
+        { value: pEff * factor, digits: 3 }
+      );
+    }
+    return msg(
+      'physics.curie-weiss.peff-low',
+      'p_eff = %1 μB is below %2 μB: y is probably not a molar susceptibility. A mass susceptibility (per gram) must be multiplied by the molar mass (p_eff grows by √M_w, ×10 for 100 g/mol); a raw emu/Oe (moment over field) must be divided by the amount of substance in mol (p_eff grows by 1/√n, ×141 for 5·10⁻⁵ mol).',
+      { value: pEff, digits: 4 },
+      PEFF_PLAUSIBLE.low
+    );
+  }
+  return null;
+}
+
+/**
+ * |θ| more than this many times the fitted temperature range away from the
+ * lowest fitted temperature: θ is a long extrapolation of 1/χ (common
+ * practice, no source).
+ */
+export const THETA_EXTRAPOLATION_RANGES = 5;
+
+/**
+ * Cautions on θ against the fitted temperatures: θ at (or above) the lowest
+ * fitted T, the window starting below 2θ [B2: fit at T ≳ 2·max(Tc, |θ|)], and
+ * θ far outside the data. `correlation` is that of θ with χ0 (NaN when χ0 is fixed).
+ */
+export function thetaCautions(theta: number, Tmin: number, Tmax: number, correlation: number): ICoreMessage[] {
+  const out: ICoreMessage[] = [];
+  if (!Number.isFinite(theta)) {
+    return out;
+  }
+  const range = Tmax - Tmin;
+  if (theta >= Tmin - 1e-6 * Math.max(1, Math.abs(Tmin))) {
+    out.push(
+      msg(
+        'physics.curie-weiss.theta-at-lowest-t',
+        'θ = %1 K reached the lowest fitted temperature (%2 K): a paramagnet has θ below every temperature it is fitted at, so the window probably reaches into the ordered state, or y is not a susceptibility. Move the window up.',
+        { value: theta, digits: 5 },
+        { value: Tmin, digits: 5 }
+      )
+    );
+  } else if (theta > 0 && Tmin < 2 * theta) {
+    out.push(
+      msg(
+        'physics.curie-weiss.window-near-theta',
+        'The window starts at %1 K, below 2θ = %2 K: critical fluctuations bend 1/χ there, which biases θ and C. Start the window higher if the data allow.',
+        { value: Tmin, digits: 4 },
+        { value: 2 * theta, digits: 4 }
+      )
+    );
+  }
+  if (range > 0 && Tmin - theta > THETA_EXTRAPOLATION_RANGES * range) {
+    out.push(
+      msg(
+        'physics.curie-weiss.theta-extrapolated',
+        'θ = %1 K lies %2 times the fitted range (%3–%4 K) below the data: it is a long extrapolation of 1/χ and hangs on χ0 (correlation of θ with χ0: %5). Quote it with that caution, or widen the window.',
+        { value: theta, digits: 4 },
+        { value: (Tmin - theta) / range, digits: 2 },
+        { value: Tmin, digits: 4 },
+        { value: Tmax, digits: 4 },
+        { value: correlation, digits: 2 }
+      )
+    );
+  }
+  return out;
+}

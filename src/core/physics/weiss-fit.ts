@@ -46,6 +46,12 @@ export interface IWeissMTOptions {
   J: number;
   /** Fit J as a continuous effective parameter (bounded to [0.5, 50]). */
   fitJ?: boolean;
+  /**
+   * Fit J through u = 1/J in [0, 2] instead (parameter '1/J'): J ≥ ½, and
+   * u = 0 is the classical (Langevin) limit J = ∞ itself, so that limit is
+   * reachable. Overrides `fitJ`; `J` is the start (∞ starts at u = 0.1).
+   */
+  fitInverseJ?: boolean;
   /** Constant applied field μ0H in tesla (default 0). */
   fieldTesla?: number;
   /** Moment g·J in Bohr magnetons, needed when `fieldTesla` ≠ 0. */
@@ -134,8 +140,18 @@ function coarseBlocks(
   return { T: bT, M: bM, sigma: bS };
 }
 
-/** The M(T) model as an engine model (parameters Ms, Tc[, J]). */
-export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBohr = 0): IFitModel {
+/** Spin from the fitted u = 1/J (u = 0: the classical limit J = ∞). */
+export function spinFromInverse(u: number): number {
+  return u > 0 ? 1 / u : Infinity;
+}
+
+/**
+ * The M(T) model as an engine model: parameters Ms, Tc, and J when `fitJ` is
+ * true, or u = 1/J (named '1/J') when `fitJ` is 'inverse'.
+ */
+export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 0, momentBohr = 0): IFitModel {
+  const inverse = fitJ === 'inverse';
+  const spinOf = (p: Float64Array): number => (inverse ? spinFromInverse(p[2]) : fitJ ? p[2] : J);
   const hNumerator = (momentBohr * PHYS.muB * fieldTesla) / PHYS.kB; // h = hNumerator / Tc
   let tau = new Float64Array(0);
   // The engine asks for the Jacobian at the point it has just evaluated:
@@ -155,13 +171,13 @@ export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBoh
     for (let i = 0; i < n; i++) {
       tau[i] = x[i] / Tc;
     }
-    const s = solveWeiss(fitJ ? p[2] : J, tau, hNumerator / Tc);
+    const s = solveWeiss(spinOf(p), tau, hNumerator / Tc);
     cacheP = Float64Array.from(p);
     cacheX = x;
     cacheS = s;
     return s;
   };
-  const params = fitJ ? ['Ms', 'Tc', 'J'] : ['Ms', 'Tc'];
+  const params = inverse ? ['Ms', 'Tc', '1/J'] : fitJ ? ['Ms', 'Tc', 'J'] : ['Ms', 'Tc'];
   return {
     parameters: params,
     // each point is solved on its own; the cache is keyed by the x array
@@ -183,7 +199,10 @@ export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBoh
       jacobianInto(p, x, jac);
     }
   };
-  /** ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂J (when fitted) by central differences of the solution. */
+  /**
+   * ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂J (or ∂M/∂u) by
+   * central differences of the solution (forward from u = 0, where J = ∞).
+   */
   function jacobianInto(p: Float64Array, x: Float64Array, out: Float64Array): void {
     const Ms = p[0];
     const Tc = p[1];
@@ -195,15 +214,17 @@ export function weissMTModel(J: number, fitJ: boolean, fieldTesla = 0, momentBoh
       out[i * k] = s.m[i];
       out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
     }
-    if (fitJ) {
-      const dJ = 1e-6 * Math.max(1, p[2]);
+    if (fitJ !== false) {
+      const dJ = inverse ? 1e-6 : 1e-6 * Math.max(1, p[2]);
       const pp = Float64Array.from(p);
       pp[2] = p[2] + dJ;
       const up = reduced(pp, x).m.slice();
-      pp[2] = p[2] - dJ;
+      // one-sided at the lower bound u = 0 (no spin beyond ∞)
+      const below = inverse && p[2] - dJ < 0 ? p[2] : p[2] - dJ;
+      pp[2] = below;
       const dn = reduced(pp, x).m;
       for (let i = 0; i < x.length; i++) {
-        out[i * k + 2] = (Ms * (up[i] - dn[i])) / (2 * dJ);
+        out[i * k + 2] = (Ms * (up[i] - dn[i])) / (p[2] + dJ - below);
       }
       // leave the cache at p
       reduced(p, x);
@@ -219,7 +240,14 @@ export function fitWeissMT(
   data: { T: ArrayLike<number>; M: ArrayLike<number>; sigma?: ArrayLike<number> },
   options: IWeissMTOptions
 ): IWeissFitResult {
-  requireSpin(options.J);
+  if (options.fitJ === true || options.fitInverseJ === true) {
+    // J is only the start of a fitted, continuous J: any value above 0 (or ∞)
+    if (!(options.J > 0)) {
+      requireSpin(options.J);
+    }
+  } else {
+    requireSpin(options.J);
+  }
   checkColumns(data.T, data.M, data.sigma);
   const field = options.fieldTesla ?? 0;
   if (field !== 0 && !(options.momentBohr !== undefined && options.momentBohr > 0)) {
@@ -227,15 +255,16 @@ export function fitWeissMT(
       msg('physics.weiss.moment-needed', 'A field of %1 T is applied, so the moment g·J (in Bohr magnetons, above 0) is needed as well.', field)
     );
   }
-  const fitJ = options.fitJ === true;
-  const model = weissMTModel(options.J, fitJ, field, options.momentBohr ?? 0);
+  const mode: boolean | 'inverse' = options.fitInverseJ === true ? 'inverse' : options.fitJ === true;
+  const fitJ = mode !== false;
+  const model = weissMTModel(options.J, mode, field, options.momentBohr ?? 0);
   let start: number[] = options.start ?? estimateWeissStart(data.T, data.M);
-  const J0 = options.J === Infinity ? 50 : options.J;
+  const J0 = mode === 'inverse' ? (options.J === Infinity ? 0.1 : 1 / options.J) : options.J === Infinity ? 50 : options.J;
   if (fitJ) {
     start = [start[0], start[1], J0];
   }
-  const lower = fitJ ? [-Infinity, 1e-9, 0.5] : [-Infinity, 1e-9];
-  const upper = fitJ ? [Infinity, Infinity, 50] : [Infinity, Infinity];
+  const lower = fitJ ? [-Infinity, 1e-9, mode === 'inverse' ? 0 : 0.5] : [-Infinity, 1e-9];
+  const upper = fitJ ? [Infinity, Infinity, mode === 'inverse' ? 2 : 50] : [Infinity, Infinity];
   const n = data.T.length;
   const coarseAbove = options.coarseAbove ?? 2000;
   let coarseNote: ICoreMessage | null = null;
@@ -245,7 +274,7 @@ export function fitWeissMT(
     // full fit starts close to its optimum and needs only a few expensive iterations.
     const blocks = coarseBlocks(data.T, data.M, data.sigma, options.coarsePoints ?? 400);
     const coarse = fitCurve(
-      weissMTModel(options.J, fitJ, field, options.momentBohr ?? 0),
+      weissMTModel(options.J, mode, field, options.momentBohr ?? 0),
       { x: blocks.T, y: blocks.M, sigma: blocks.sigma },
       { ...WEISS_TOLERANCES, lower, upper, ...options.engine, onProgress: undefined, start }
     );
@@ -263,7 +292,8 @@ export function fitWeissMT(
   if (coarseNote !== null) {
     res.notes = [...res.notes, coarseNote];
   }
-  return { ...res, convention: WEISS_CONVENTION, J: fitJ ? res.values[2] : options.J, jFitted: fitJ };
+  const J = mode === 'inverse' ? spinFromInverse(res.values[2]) : fitJ ? res.values[2] : options.J;
+  return { ...res, convention: WEISS_CONVENTION, J, jFitted: fitJ };
 }
 
 /** Options of `fitWeissIsotherms`. */

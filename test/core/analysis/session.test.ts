@@ -77,7 +77,7 @@ describe('AnalysisSession', () => {
     s.beginRun();
     vi.advanceTimersByTime(SAVE_DEBOUNCE_MS + 1);
     expect(saves).toHaveLength(1);
-    expect(saves[0].settings).toEqual({ kind: 'weiss', options: { J: 3.5 }, window: { min: 15, max: Infinity } });
+    expect(saves[0].settings).toEqual({ kind: 'weiss', options: { J: 3.5, freeJ: false }, window: { min: 15, max: Infinity } });
   });
 
   it('should restore without asking to save, then save the next change', () => {
@@ -202,11 +202,11 @@ describe('AnalysisSession', () => {
 describe('catalogue rules for saved settings', () => {
   it('should accept a saved spin J = 7 and restore it as 7 (a data-loss case: it restored as an error)', () => {
     expect(validateKindSettings({ kind: 'weiss', options: { J: 7 } })).toBeNull();
-    expect(optionsFromJson('weiss', { J: 7 })).toEqual({ J: 7 });
+    expect(optionsFromJson('weiss', { J: 7 })).toEqual({ J: 7, freeJ: false });
   });
 
   it('should read the Langevin limit written as "inf"', () => {
-    expect(optionsFromJson('weiss', { J: 'inf' })).toEqual({ J: Infinity });
+    expect(optionsFromJson('weiss', { J: 'inf' })).toEqual({ J: Infinity, freeJ: false });
   });
 
   it('should name an option value the kind does not allow, and an unknown kind', () => {

@@ -1,10 +1,14 @@
 /**
  * Curie–Weiss susceptibility χ = χ0 + C/(T − θ) and the effective moment
- * [B2 in REFERENCES.md].
+ * [B2 in REFERENCES.md]. y must be a molar susceptibility in the units the
+ * option names; the effective moment is checked for plausibility (a value
+ * outside 0.5–15 μB names the likely unit or normalisation mistake) and θ
+ * against the fitted temperatures (see physics/curie-weiss.ts).
  */
-import { curieWeissModel, fitCurieWeiss } from '../../physics/curie-weiss';
+import { curieWeissModel, effectiveMomentPlausibility, fitCurieWeiss, thetaCautions } from '../../physics/curie-weiss';
 import { msg } from '../../messages';
-import { conventionOf, curveOf, requireChangingY, requirePoints, valueOf } from './common';
+import type { ICoreMessage } from '../../messages';
+import { conventionOf, correlation, curveOf, extent, requireChangingY, requirePoints, valueOf } from './common';
 import type { IAnalysisKind, IChoiceOption } from './types';
 
 export const unitsOption: IChoiceOption<string> = {
@@ -20,7 +24,10 @@ export const unitsOption: IChoiceOption<string> = {
 export const curieWeissKind = {
   id: 'curie-weiss',
   label: msg('kind.curie-weiss', 'Curie–Weiss χ0 + C/(T − θ)'),
-  description: msg('kind.curie-weiss.description', 'Paramagnetic susceptibility well above the ordering: θ, C and the effective moment.'),
+  description: msg(
+    'kind.curie-weiss.description',
+    'Paramagnetic susceptibility well above the ordering: θ, C and the effective moment. y must be a molar susceptibility, in emu mol⁻¹ Oe⁻¹ (cgs-emu) or m³ mol⁻¹ (SI) as the units option says.'
+  ),
   options: { units: unitsOption },
   minPoints: () => 5,
   run: (job, pts, hooks) => {
@@ -33,6 +40,13 @@ export const curieWeissKind = {
     const theta = valueOf(fit, 'theta');
     const chi0 = valueOf(fit, 'chi0');
     const curve = curveOf(curieWeissModel, fit.values, pts.x);
+    const { min: Tmin, max: Tmax } = extent(pts.x);
+    const checks: ICoreMessage[] = [];
+    const plausibility = effectiveMomentPlausibility(fit.pEff, units);
+    if (plausibility) {
+      checks.push(plausibility);
+    }
+    checks.push(...thetaCautions(theta.value, Tmin, Tmax, correlation(fit, 'theta', 'chi0')));
     return {
       outcome: {
         equation: 'χ = χ0 + C/(T − θ)',
@@ -52,8 +66,11 @@ export const curieWeissKind = {
           }
         ],
         cautions: [
+          ...checks,
           msg('caution.curie-weiss-range', 'Fit only well above the ordering temperature (T ≳ 2·max(Tc, |θ|)): critical fluctuations bend 1/χ near Tc.'),
-          msg('caution.peff-units', 'p_eff assumes a molar susceptibility in the stated units; per formula unit, not per magnetic ion.'),
+          units === 'SI'
+            ? msg('caution.peff-units.si', 'y must be a molar susceptibility in m³ mol⁻¹ (SI): multiply a mass susceptibility (m³ kg⁻¹) by the molar mass in kg/mol. p_eff is per formula unit, not per magnetic ion.')
+            : msg('caution.peff-units.cgs', 'y must be a molar susceptibility in emu mol⁻¹ Oe⁻¹ (= cm³ mol⁻¹, cgs-emu): multiply a mass susceptibility (emu g⁻¹ Oe⁻¹) by the molar mass, divide a raw emu/Oe by the amount of substance in mol. p_eff is per formula unit, not per magnetic ion.'),
           msg('caution.remanent-field', 'A nominal zero field in a superconducting magnet can be 0.1–3 mT of remanent field.')
         ]
       },

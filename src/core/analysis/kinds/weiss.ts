@@ -1,12 +1,21 @@
 /**
  * Weiss mean field M(T) = Ms·m(T/Tc) with m = B_J(3J m/((J + 1)τ)) for a
- * chosen spin J, or the Langevin limit [B1 in REFERENCES.md].
+ * chosen spin J, or the Langevin limit [B1 in REFERENCES.md]; or with J
+ * fitted as a continuous effective parameter.
+ *
+ * J free: the fit varies u = 1/J over [0, 2], so J ≥ ½ and the classical
+ * limit J = ∞ (u = 0) is reachable rather than capped. J and its standard
+ * error are reported as a derived value, σ_J = σ_u/u² (first-order
+ * propagation); at u = 0 the data prefer classical moments and J = ∞ is
+ * reported without σ.
  */
-import { fitWeissMT, weissMTModel } from '../../physics/weiss-fit';
+import { fitWeissMT, spinFromInverse, weissMTModel } from '../../physics/weiss-fit';
 import { msg } from '../../messages';
 import { AnalysisInputError } from '../errors';
 import { conventionOf, curveOf, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
-import type { IAnalysisKind, IChoiceOption, IOptionChoice } from './types';
+import type { IDerivedValue } from '../types';
+import type { ICoreMessage } from '../../messages';
+import type { IAnalysisKind, IBooleanOption, IChoiceOption, IOptionChoice } from './types';
 
 /** Half-integer spins ½ … 8, then the classical (Langevin) limit. */
 const SPIN_CHOICES: IOptionChoice<number>[] = [
@@ -24,41 +33,72 @@ export const spinOption: IChoiceOption<number> = {
   default: 0.5
 };
 
+/** Fit J as well (as a continuous effective parameter); the chosen J is then the start. */
+export const freeJOption: IBooleanOption = { type: 'boolean', label: msg('option.free-j', 'fit J'), default: false };
+
+/** The start of u = 1/J for a J-free fit from the chosen J (kept off the bounds u = 0 and u = 2). */
+function inverseStart(J: number): number {
+  return Math.min(1.8, Math.max(0.05, J === Infinity ? 0 : 1 / J));
+}
+
 export const weissKind = {
   id: 'weiss',
   label: msg('kind.weiss', 'Weiss mean field M(T)'),
   description: msg('kind.weiss.description', 'The whole ordered curve with a Brillouin function of spin J; Tc and Ms.'),
-  options: { J: spinOption },
-  minPoints: () => 4,
+  options: { J: spinOption, freeJ: freeJOption },
+  minPoints: o => (o.freeJ === true ? 5 : 4),
   run: (job, pts, hooks) => {
     const J = Number(job.options.J ?? spinOption.default);
-    // Ms and Tc: 2 free parameters.
-    requirePoints(pts, 4, 2);
+    const free = job.options.freeJ === true;
+    // Ms and Tc (and J): 2 or 3 free parameters.
+    requirePoints(pts, free ? 5 : 4, free ? 3 : 2);
     for (let i = 0; i < pts.x.length; i++) {
       if (!(pts.x[i] > 0)) {
         throw new AnalysisInputError(msg('weiss.absolute-temperature', 'The Weiss fit needs absolute temperatures (K > 0) in the x column, but it holds %1; convert °C to K first.', pts.x[i]));
       }
     }
     requireChangingY(pts, 'transition');
-    const fit = fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, engine: { ...hooks } });
+    const fit = free
+      ? fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J: 1 / inverseStart(J), fitInverseJ: true, engine: { ...hooks } })
+      : fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, engine: { ...hooks } });
     const Tc = valueOf(fit, 'Tc');
     const Ms = valueOf(fit, 'Ms');
-    const curve = curveOf(weissMTModel(J, false), fit.values, pts.x);
+    const curve = curveOf(weissMTModel(J, free ? 'inverse' : false), fit.values, pts.x);
+    const spin: IDerivedValue[] = [];
+    const extra: ICoreMessage[] = [];
+    if (free) {
+      const u = valueOf(fit, '1/J');
+      const Jfit = spinFromInverse(u.value);
+      spin.push({
+        name: 'J',
+        value: Jfit,
+        sigma: u.value > 0 ? u.sigma / (u.value * u.value) : Number.NaN,
+        note: msg('derived.weiss-j', 'effective spin J, fitted as u = 1/J over [0, 2] (σ_J = σ_u/u²); J = ∞ is the classical limit')
+      });
+      if (!(u.value > 0)) {
+        extra.push(msg('caution.weiss-j-classical', 'J went to the classical limit (1/J = 0): the data prefer classical moments; fit with J = ∞ to quote Tc and Ms.'));
+      } else if (u.value >= 2) {
+        extra.push(msg('caution.weiss-j-half', 'J went to its smallest value ½: the curve is squarer than any Brillouin function allows.'));
+      }
+      extra.push(msg('caution.weiss-j-effective', 'A fitted J is an effective shape parameter of the mean-field curve, not the spin of the ion: compare it with the fixed-J fits before quoting it.'));
+    }
     return {
       outcome: {
-        equation: `M = Ms·m(T/Tc), m = B_J(3J m/((J+1) τ)), J = ${J === Infinity ? '∞ (Langevin)' : J}`,
+        equation: free ? 'M = Ms·m(T/Tc), m = B_J(3J m/((J+1) τ)), J fitted (as 1/J)' : `M = Ms·m(T/Tc), m = B_J(3J m/((J+1) τ)), J = ${J === Infinity ? '∞ (Langevin)' : J}`,
         convention: conventionOf(fit.convention),
         fit,
         used: pts.x.length,
         curve,
         derived: [
           { name: 'Tc', value: Tc.value, sigma: Tc.sigma, note: msg('derived.weiss-tc', 'mean-field Curie temperature, in K') },
-          { name: 'Ms', value: Ms.value, sigma: Ms.sigma, note: msg('derived.ms', 'saturation value, in the units of the y column') }
+          { name: 'Ms', value: Ms.value, sigma: Ms.sigma, note: msg('derived.ms', 'saturation value, in the units of the y column') },
+          ...spin
         ],
         cautions: [
           windowCaution(),
           msg('caution.mean-field-phenomenological', 'Mean field describes the whole curve only phenomenologically: real magnets follow spin waves (Bloch T^3/2) at low T and critical laws near Tc, so β = ½ here is assumed, not measured.'),
-          msg('caution.field-rounding', 'A magnetisation measured in a field is not spontaneous: the field-induced tail rounds the curve at Tc.')
+          msg('caution.field-rounding', 'A magnetisation measured in a field is not spontaneous: the field-induced tail rounds the curve at Tc.'),
+          ...extra
         ]
       },
       fitted: { ...pts, curve: curve.y }
