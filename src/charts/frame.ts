@@ -35,8 +35,8 @@ export interface IChartFrame {
   /** Accessible description of the chart. */
   description: string;
   theme: IChartTheme;
-  /** Title drawn above the chart, optionally with a subtitle line; none when omitted. */
-  title?: string | { text: string; subtitle?: string };
+  /** Title drawn above the chart, optionally with a subtitle (one line, or one string per line); none when omitted. */
+  title?: string | { text: string; subtitle?: string | string[] };
   /** Height in px (default {@link DEFAULT_CHART_HEIGHT}). */
   height?: number;
 }

@@ -55,3 +55,30 @@ export function uniqueLabels(labels: readonly string[], fallback: string): strin
     return label;
   });
 }
+
+/** Longest line of a subtitle, in characters: longer captions are wrapped at their "; " breaks. */
+const SUBTITLE_LINE = 64;
+
+/**
+ * The frame's title when the options ask for one: the title and the caption
+ * below it, wrapped into lines at "; " so a long caption does not widen the
+ * chart (a fitted chart would shrink its plot to make room).
+ */
+export function titleLines(title: string, caption: string, options: ITemperatureChartOptions | undefined): { text: string; subtitle?: string[] } | undefined {
+  if (!options?.showTitle) {
+    return undefined;
+  }
+  if (!caption) {
+    return { text: title };
+  }
+  const lines: string[] = [];
+  for (const part of caption.split('; ')) {
+    const last = lines.length - 1;
+    if (last >= 0 && lines[last].length + 2 + part.length <= SUBTITLE_LINE) {
+      lines[last] = `${lines[last]}; ${part}`;
+    } else {
+      lines.push(part);
+    }
+  }
+  return { text: title, subtitle: lines };
+}

@@ -11,9 +11,9 @@ import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import { divergingColours } from '../theme';
 import type { ISweepChart } from '../sweeps/common';
-import { finite, frameTitle } from '../sweeps/common';
+import { finite } from '../sweeps/common';
 import type { ITemperatureChartOptions } from './common';
-import { uniqueLabels } from './common';
+import { titleLines, uniqueLabels } from './common';
 
 /** Input of {@link buildCorrelationSpec}. */
 export interface ICorrelationInput {
@@ -114,7 +114,7 @@ export function buildCorrelationSpec(input: ICorrelationInput, theme: IChartThem
           type: 'quantitative',
           title: 'correlation',
           scale: { type: 'linear', domain, range: ramp, interpolate: 'rgb' },
-          legend: { values: [-1, -0.5, 0, 0.5, 1] }
+          legend: { values: [-1, -0.5, 0, 0.5, 1], format: '.1f' }
         },
         tooltip: [
           { field: 'b', type: 'nominal', title: 'parameter' },
@@ -149,7 +149,7 @@ export function buildCorrelationSpec(input: ICorrelationInput, theme: IChartThem
     spec: layeredChart(layer, {
       description: `${title}: a heat map of the correlation of each pair of fitted parameters, from −1 to 1, with the value in each cell. ${caption}`,
       theme,
-      title: frameTitle(title, caption, options),
+      title: titleLines(title, caption, options),
       height: options.height ?? Math.max(2, names.length) * CELL_PX + 40
     }),
     rows: 2 * cells.length + missing.length,

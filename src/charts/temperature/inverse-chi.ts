@@ -9,9 +9,9 @@ import type { ChartLayer } from '../frame';
 import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from '../sweeps/common';
-import { finite, finiteRows, fmt, frameTitle } from '../sweeps/common';
+import { finite, finiteRows, fmt } from '../sweeps/common';
 import type { ITemperatureChartOptions } from './common';
-import { drawnRows, reducedNote } from './common';
+import { drawnRows, reducedNote, titleLines } from './common';
 
 /** Input of {@link buildInverseChiSpec}. */
 export interface IInverseChiInput {
@@ -163,7 +163,7 @@ export function buildInverseChiSpec(input: IInverseChiInput, theme: IChartTheme,
     spec: layeredChart(layer, {
       description: `1/χ against T: the data, 1/χ of the Curie–Weiss fit, and θ where it reaches zero. ${caption}`,
       theme,
-      title: frameTitle(title, caption, options),
+      title: titleLines(title, caption, options),
       height: options.height
     }),
     rows: 1 + points.length + bars.length + line.length + reach.length + (theta !== null ? 2 : 0),

@@ -9,9 +9,9 @@ import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import { categoricalColours } from '../theme';
 import type { ISweepChart } from '../sweeps/common';
-import { finite, frameTitle } from '../sweeps/common';
+import { finite } from '../sweeps/common';
 import type { ITemperatureChartOptions } from './common';
-import { drawnRows, reducedNote, uniqueLabels } from './common';
+import { drawnRows, reducedNote, titleLines, uniqueLabels } from './common';
 
 /** Input of {@link buildReducedSpec}. */
 export interface IReducedInput {
@@ -120,7 +120,7 @@ export function buildReducedSpec(input: IReducedInput, theme: IChartTheme, optio
     spec: layeredChart(layer, {
       description: `${title}: the data as points, reference curves as lines told apart by colour and dash. ${caption}`,
       theme,
-      title: frameTitle(title, caption, options),
+      title: titleLines(title, caption, options),
       height: options.height
     }),
     rows: points.length + line.length,

@@ -8,9 +8,9 @@ import type { ChartLayer } from '../frame';
 import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import type { ISweepChart } from '../sweeps/common';
-import { finite, fmt, frameTitle } from '../sweeps/common';
+import { finite, fmt } from '../sweeps/common';
 import type { ITemperatureChartOptions } from './common';
-import { drawnRows, reducedNote } from './common';
+import { drawnRows, reducedNote, titleLines } from './common';
 
 /** Input of {@link buildResidualSpec}. */
 export interface IResidualInput {
@@ -97,7 +97,7 @@ export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, opt
     const share = fmt((100 * beyond) / total, 2);
     const left = n - total;
     caption =
-      `${total} residuals divided by σ; ${beyond} beyond ±2σ (${share} %; about 5 % for a good fit with Gaussian errors)` +
+      `${total} residuals divided by σ; ${beyond} beyond ±2σ (${share} %, about 5 % for a good fit with Gaussian errors)` +
       (left > 0 ? `; ${left} rows without a finite residual or σ left out` : '') +
       reducedNote(rows.length, total);
   } else {
@@ -107,7 +107,7 @@ export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, opt
     spec: layeredChart(layer, {
       description: `${title} against ${input.xTitle}${normalised ? ' with bands at ±1σ and ±2σ' : ''} and a rule at zero. ${caption}`,
       theme,
-      title: frameTitle(title, caption, options),
+      title: titleLines(title, caption, options),
       height: options.height
     }),
     rows: points.length + layer.length - 1,

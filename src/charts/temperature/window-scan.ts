@@ -11,8 +11,9 @@ import { layeredChart } from '../frame';
 import type { IChartTheme } from '../theme';
 import { categoricalColours } from '../theme';
 import type { ISweepChart } from '../sweeps/common';
-import { finite, finiteRows, fmt, frameTitle } from '../sweeps/common';
+import { finite, finiteRows, fmt } from '../sweeps/common';
 import type { ITemperatureChartOptions } from './common';
+import { titleLines } from './common';
 
 /** Input of {@link buildWindowScanSpec}. */
 export interface IWindowScanInput {
@@ -28,10 +29,10 @@ export interface IWindowScanInput {
 
 /** Legend words of the verdict states the fits give; other states are shown as they are. */
 export const WINDOW_VERDICT_WORDS: Readonly<Record<string, string>> = Object.freeze({
-  fits: 'fit describes the data',
-  'does-not-describe': 'fit does not describe the data',
-  'does-not-fit': 'fit does not describe the data',
-  'not-converged': 'fit did not converge'
+  fits: 'describes the data',
+  'does-not-describe': 'does not describe',
+  'does-not-fit': 'does not describe',
+  'not-converged': 'did not converge'
 });
 
 /** Marker of the windows whose fit describes the data; the others take the shapes after it. */
@@ -80,13 +81,13 @@ export function buildWindowScanSpec(input: IWindowScanInput, theme: IChartTheme,
   // Verdicts in a fixed order (fits first), colours and shapes paired with them.
   const order = [...new Set([WINDOW_VERDICT_WORDS.fits, WINDOW_VERDICT_WORDS['does-not-describe'], WINDOW_VERDICT_WORDS['not-converged'], ...points.map(p => p.verdict)])];
   const present = order.filter(v => points.some(p => p.verdict === v));
-  const palette = [theme.accent, theme.accent2, ...categoricalColours(theme)];
+  const palette = [theme.accent, theme.accent2, theme.text, ...categoricalColours(theme)];
   const colourOf = new Map(order.map((v, k) => [v, palette[k % palette.length]]));
   const shapeOf = new Map(order.map((v, k) => [v, SHAPES[k % SHAPES.length]]));
   const color: ColorDef<Field> = {
     field: 'verdict',
     type: 'nominal',
-    title: 'window',
+    title: 'fit in the window',
     scale: { domain: present, range: present.map(v => colourOf.get(v)!) }
   };
   const rules = (input.classes ?? []).filter(c => finite(c.beta)).map(c => ({ value: c.beta, label: c.label || c.id }));
@@ -101,12 +102,20 @@ export function buildWindowScanSpec(input: IWindowScanInput, theme: IChartTheme,
         mark: { type: 'rule', color: theme.text, opacity: 0.45, strokeDash: [2, 3] },
         encoding: { y: { field: 'value', type: 'quantitative' } }
       },
+      // Labels alternate between the left and the right edge, so neighbouring classes do not overprint.
       {
-        data: { values: labels },
+        data: { values: labels.filter((_, k) => k % 2 === 0) },
         mark: { type: 'text', color: theme.text, opacity: 0.8, align: 'left', baseline: 'bottom', dx: 4, dy: -2, fontSize: 10 },
         encoding: { x: { value: 0 }, y: { field: 'value', type: 'quantitative' }, text: { field: 'label', type: 'nominal' } }
       }
     );
+    if (labels.length > 1) {
+      layer.push({
+        data: { values: labels.filter((_, k) => k % 2 === 1) },
+        mark: { type: 'text', color: theme.text, opacity: 0.8, align: 'right', baseline: 'bottom', dx: -4, dy: -2, fontSize: 10 },
+        encoding: { x: { value: 'width' }, y: { field: 'value', type: 'quantitative' }, text: { field: 'label', type: 'nominal' } }
+      });
+    }
   }
   if (suggested !== null) {
     const values = [{ tMax: suggested, label: `suggested t_max = ${fmt(suggested, 3)}` }];
@@ -145,7 +154,7 @@ export function buildWindowScanSpec(input: IWindowScanInput, theme: IChartTheme,
       x,
       y: { field: 'value', type: 'quantitative', title: name, scale: { zero: false } },
       color,
-      shape: { field: 'verdict', type: 'nominal', title: 'window', scale: { domain: present, range: present.map(v => shapeOf.get(v)!) } },
+      shape: { field: 'verdict', type: 'nominal', title: 'fit in the window', scale: { domain: present, range: present.map(v => shapeOf.get(v)!) } },
       tooltip: [
         { field: 'tMax', type: 'quantitative', title: 't_max', format: '.3~g' },
         { field: 'value', type: 'quantitative', title: name, format: '.4~g' },
@@ -172,7 +181,7 @@ export function buildWindowScanSpec(input: IWindowScanInput, theme: IChartTheme,
     spec: layeredChart(layer, {
       description: `${name} of each fit window against its t_max on a log axis, error bars ±1σ, universality classes as labelled rules, the suggested t_max as a vertical rule. ${caption}`,
       theme,
-      title: frameTitle(title, caption, options),
+      title: titleLines(title, caption, options),
       height: options.height
     }),
     rows: points.length * (points.length > 1 ? 2 : 1) + bars.length + rules.length + labels.length + (suggested !== null ? 2 : 0),

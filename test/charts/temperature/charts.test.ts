@@ -200,26 +200,29 @@ describe('buildWindowScanSpec', () => {
     const chart = buildWindowScanSpec(input, distinctTheme);
     checkChart(chart);
     const ls = layers(chart.spec);
-    expect(ls.map(markOf)).toEqual(['rule', 'text', 'rule', 'text', 'line', 'rule', 'point']);
+    expect(ls.map(markOf)).toEqual(['rule', 'text', 'text', 'rule', 'text', 'line', 'rule', 'point']);
     expect(ls[0].data.values.map(v => v.value)).toEqual([0.3265, 0.3485, 0.3689, 0.5]);
-    expect(ls[1].data.values.length).toBe(4);
-    expect(ls[2].data.values).toEqual([{ tMax: 0.05, label: 'suggested t_max = 0.05' }]);
-    expect(ls[2].encoding.x.field).toBe('tMax');
-    const pts = ls[6];
+    // Four labels, alternating between the left and right edges.
+    expect(ls[1].data.values.map(v => v.value)).toEqual([0.3265, 0.3689]);
+    expect(ls[2].data.values.map(v => v.value)).toEqual([0.3485, 0.5]);
+    expect(ls[3].data.values).toEqual([{ tMax: 0.05, label: 'suggested t_max = 0.05' }]);
+    expect(ls[3].encoding.x.field).toBe('tMax');
+    const pts = ls[7];
     expect(pts.encoding.x.scale?.type).toBe('log');
     expect(pts.data.values.map(v => v.tMax)).toEqual([0.02, 0.05, 0.1, 0.2]);
     // Bars only where σ is finite.
-    expect(ls[5].data.values.map(v => v.tMax)).toEqual([0.02, 0.05, 0.1]);
-    expect(ls[5].data.values[0].lo).toBeCloseTo(0.31, 12);
+    expect(ls[6].data.values.map(v => v.tMax)).toEqual([0.02, 0.05, 0.1]);
+    expect(ls[6].data.values[0].lo).toBeCloseTo(0.31, 12);
+    expect(chart.rows).toBe(2 * 4 + 3 + 4 + 4 + 2);
     expect(chart.caption).toContain('4 of 6 windows gave a value');
     expect(chart.caption).toContain('2 of them not described by the fit');
   });
 
   it('should mark the windows that do not fit by shape as well as colour', () => {
-    const pts = layers(buildWindowScanSpec(input, distinctTheme).spec)[6];
+    const pts = layers(buildWindowScanSpec(input, distinctTheme).spec)[7];
     const color = pts.encoding.color.scale as { domain: string[]; range: string[] };
     const shape = pts.encoding.shape.scale as { domain: string[]; range: string[] };
-    expect(color.domain).toEqual(['fit describes the data', 'fit does not describe the data', 'fit did not converge']);
+    expect(color.domain).toEqual(['describes the data', 'does not describe', 'did not converge']);
     expect(shape.domain).toEqual(color.domain);
     expect(new Set(color.range).size).toBe(3);
     expect(new Set(shape.range).size).toBe(3);
