@@ -59,6 +59,10 @@ export interface IWindowScanCell {
   n: number;
   verdict: string;
   converged: boolean;
+  /** Whether the window stopped changing with its own Tc (false: the round limit was reached, the last fit is shown). */
+  settled?: boolean;
+  /** Rounds of fit-then-move-the-window it took. */
+  rounds?: number;
 }
 
 /** Result of the window scan. */

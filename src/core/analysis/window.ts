@@ -12,6 +12,8 @@ export interface IWindowedPoints {
   sigma?: number[];
   /** Points inside the window left out because x, y or σ was not finite. */
   skipped: number;
+  /** Row of the job's columns each point came from (to align `job.columns` with the points). */
+  rows?: number[];
 }
 
 /**
@@ -31,7 +33,7 @@ export function windowedPoints(job: Pick<IAnalysisJob, 'x' | 'y' | 'sigma' | 'wi
   if (!(window.min <= window.max)) {
     throw new AnalysisInputError(msg('window.empty', 'The fit window is empty: it runs from %1 to %2. Make the lower end smaller than the upper.', window.min, window.max));
   }
-  const out: IWindowedPoints = { x: [], y: [], sigma: sigma ? [] : undefined, skipped: 0 };
+  const out: IWindowedPoints = { x: [], y: [], sigma: sigma ? [] : undefined, skipped: 0, rows: [] };
   for (let i = 0; i < x.length; i++) {
     const xi = x[i];
     if (!(xi >= window.min && xi <= window.max)) {
@@ -48,6 +50,7 @@ export function windowedPoints(job: Pick<IAnalysisJob, 'x' | 'y' | 'sigma' | 'wi
     out.x.push(xi);
     out.y.push(y[i]);
     out.sigma?.push(si);
+    out.rows?.push(i);
   }
   return out;
 }

@@ -7,6 +7,7 @@
  */
 import { msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
+import { beanRodbellKind } from './bean-rodbell';
 import { curieWeissKind } from './curie-weiss';
 import { expressionKind } from './expression';
 import { landauKind } from './landau';
@@ -15,7 +16,7 @@ import type { IAnalysisKind, OptionSpec, OptionValue } from './types';
 import { weissKind } from './weiss';
 
 /** Every analysis kind, in the order the picker shows them. */
-export const ANALYSIS_KINDS = [powerLawKind, powerLawCorrectedKind, weissKind, curieWeissKind, landauKind, expressionKind] as const;
+export const ANALYSIS_KINDS = [powerLawKind, powerLawCorrectedKind, weissKind, curieWeissKind, landauKind, beanRodbellKind, expressionKind] as const;
 
 /** The id of a catalogued kind. */
 export type AnalysisKindId = (typeof ANALYSIS_KINDS)[number]['id'];
@@ -55,7 +56,7 @@ export function optionFromJson(spec: OptionSpec, value: unknown): OptionValue | 
   if (spec.type === 'boolean') {
     return typeof value === 'boolean' ? value : undefined;
   }
-  if (spec.type === 'text') {
+  if (spec.type === 'text' || spec.type === 'column') {
     return typeof value === 'string' ? value : undefined;
   }
   const numeric = typeof spec.default === 'number';
@@ -87,7 +88,7 @@ export function validateKindSettings(settings: { kind: string; options: Record<s
     if (optionFromJson(spec, raw) === undefined) {
       return spec.type === 'choice'
         ? msg('saved.bad-choice', 'its option "%1" is %2, which is not one of %3', key, JSON.stringify(raw)?.slice(0, 40) ?? 'undefined', choiceList(spec))
-        : msg('saved.bad-option-type', 'its option "%1" should be %2', key, spec.type === 'boolean' ? 'true or false' : 'text');
+        : msg('saved.bad-option-type', 'its option "%1" should be %2', key, spec.type === 'boolean' ? 'true or false' : spec.type === 'column' ? 'a column name' : 'text');
     }
   }
   return null;
@@ -109,4 +110,4 @@ export function optionsFromJson(id: string, options: Record<string, unknown>): R
   return out;
 }
 
-export type { IAnalysisKind, IKindResult, OptionSpec, OptionValue, ResultView, IChoiceOption, IBooleanOption, ITextOption, IOptionChoice } from './types';
+export type { IAnalysisKind, IKindResult, OptionSpec, OptionValue, ResultView, IChoiceOption, IBooleanOption, ITextOption, IColumnOption, IOptionChoice } from './types';

@@ -46,14 +46,21 @@ export const proxyOption: IChoiceOption<number> = {
 
 export const backgroundOption: IBooleanOption = { type: 'boolean', label: msg('option.background', 'constant background'), default: false };
 
-/** Correction-to-scaling exponents Δ by universality class [B17]. */
+/**
+ * Value of {@link deltaOption} meaning "Δ fitted": Δ = ων > 0 always, so 0
+ * cannot be a class value, and saved files of versions without it stay valid.
+ */
+export const FREE_DELTA = 0;
+
+/** Correction-to-scaling exponents Δ by universality class [B17], or Δ fitted. */
 export const deltaOption: IChoiceOption<number> = {
   type: 'choice',
   label: msg('option.wegner-delta', 'correction exponent Δ'),
   choices: [
     { value: 0.52, label: msg('option.wegner-delta.ising', '0.52 (3D Ising)') },
     { value: 0.53, label: msg('option.wegner-delta.xy', '0.53 (3D XY)') },
-    { value: 0.55, label: msg('option.wegner-delta.heisenberg', '0.55 (3D Heisenberg)') }
+    { value: 0.55, label: msg('option.wegner-delta.heisenberg', '0.55 (3D Heisenberg)') },
+    { value: FREE_DELTA, label: msg('option.wegner-delta.free', 'free (fitted)') }
   ],
   default: 0.52
 };
@@ -63,7 +70,8 @@ function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHo
   const background = job.options.background === true;
   requireChangingY(pts, 'transition');
   const { Tc, spansTc } = crossingEstimate(pts);
-  const options: IPowerLawOptions = { proxyPower, background, allowTcInsideData: spansTc, aboveTc: 'zero', wegnerDelta };
+  const freeDelta = wegnerDelta === FREE_DELTA;
+  const options: IPowerLawOptions = { proxyPower, background, allowTcInsideData: spansTc, aboveTc: 'zero', wegnerDelta: freeDelta ? undefined : wegnerDelta, freeDelta };
   const fit = fitPowerLaw(
     { T: pts.x, y: pts.y, sigma: pts.sigma },
     { ...options, start: spansTc ? { Tc } : undefined, engine: { ...hooks } }
@@ -78,8 +86,16 @@ function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHo
   if (spansTc) {
     cautions.push(msg('caution.window-through-tc', 'The window runs through Tc: points above Tc are fitted as zero order parameter. Asymptotic exponents need a window close to Tc.'));
   }
-  if (wegnerDelta !== undefined) {
+  if (wegnerDelta !== undefined && !freeDelta) {
     cautions.push(msg('caution.wegner', 'With the correction term, β is the asymptotic exponent only if Δ is that of the right universality class; compare with the fit without it.'));
+  }
+  if (freeDelta) {
+    cautions.push(
+      msg('caution.wegner-free', 'With Δ fitted, β, aW and Δ are strongly correlated (r(β, Δ) = %1): a window far wider than the correction needs is required to fix Δ; prefer Δ fixed to a class value unless the data say otherwise.', {
+        value: correlation(fit, 'beta', 'Delta'),
+        digits: 2
+      })
+    );
   }
   cautions.push(msg('caution.field-tail', 'A magnetisation measured in a field is not spontaneous: the field-induced tail near Tc biases Tc and β.'));
   const derived: IDerivedValue[] = [
@@ -91,8 +107,12 @@ function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHo
       note: proxyPower === 1 ? msg('derived.beta', 'order-parameter exponent') : msg('derived.beta-proxy', 'order-parameter exponent (the data go as ψ^%1, so they fall as (−t)^(%1β))', proxyPower)
     }
   ];
+  if (freeDelta) {
+    const d = valueOf(fit, 'Delta');
+    derived.push({ name: 'Δ', value: d.value, sigma: d.sigma, note: msg('derived.wegner-delta', 'correction-to-scaling exponent, fitted') });
+  }
   const p = proxyPower === 1 ? '' : `${proxyPower}·`;
-  const correction = wegnerDelta === undefined ? '' : `·[1 + aW·(1 − T/Tc)^${wegnerDelta}]`;
+  const correction = wegnerDelta === undefined ? '' : `·[1 + aW·(1 − T/Tc)^${freeDelta ? 'Δ' : wegnerDelta}]`;
   const curve = curveOf(powerLawModel(options), fit.values, pts.x);
   return {
     outcome: {
@@ -123,16 +143,17 @@ export const powerLawKind = {
   views: ['data-and-curve']
 } as const satisfies IAnalysisKind<'power-law'>;
 
-/** The critical power law with Wegner's first correction to scaling, Δ fixed to a class value. */
+/** The critical power law with Wegner's first correction to scaling, Δ fixed to a class value or fitted. */
 export const powerLawCorrectedKind = {
   id: 'power-law-corrected',
   label: msg('kind.power-law-corrected', 'Critical power law with correction to scaling'),
-  description: msg('kind.power-law-corrected.description', 'Asymptotic β from a wider window: A(1 − T/Tc)^β·[1 + aW(1 − T/Tc)^Δ], Δ fixed.'),
+  description: msg('kind.power-law-corrected.description', 'Asymptotic β from a wider window: A(1 − T/Tc)^β·[1 + aW(1 − T/Tc)^Δ], Δ fixed to a class value or fitted.'),
   options: { proxyPower: proxyOption, background: backgroundOption, wegnerDelta: deltaOption },
-  minPoints: o => (o.background === true ? 7 : 6),
+  minPoints: o => (o.background === true ? 7 : 6) + (Number(o.wegnerDelta) === FREE_DELTA ? 1 : 0),
   run: (job, pts, hooks) => {
-    // A, Tc, β, aW [, y0].
-    requirePoints(pts, job.options.background === true ? 7 : 6, job.options.background === true ? 5 : 4);
+    // A, Tc, β, aW [, y0] [, Δ].
+    const extra = (job.options.background === true ? 1 : 0) + (Number(job.options.wegnerDelta) === FREE_DELTA ? 1 : 0);
+    requirePoints(pts, 6 + extra, 4 + extra);
     return runPowerLaw(job, pts, hooks, Number(job.options.wegnerDelta ?? deltaOption.default));
   },
   views: ['data-and-curve']

@@ -44,8 +44,19 @@ export interface ITextOption {
   readonly placeholder: string;
 }
 
+/**
+ * A column of the table chosen by the user (e.g. 1/χ for a joint fit). The
+ * value is the chosen column's header, '' for none; the session passes that
+ * column's values in `job.columns[key]`, row-aligned with x.
+ */
+export interface IColumnOption {
+  readonly type: 'column';
+  readonly label: ICoreMessage;
+  readonly default: '';
+}
+
 /** Any option of a kind. */
-export type OptionSpec = IChoiceOption | IBooleanOption | ITextOption;
+export type OptionSpec = IChoiceOption | IBooleanOption | ITextOption | IColumnOption;
 
 /** Result views a kind can offer under its result. */
 export type ResultView = 'data-and-curve' | 'landau-explorer';

@@ -4,6 +4,7 @@
  * counterparts that also work with a cubic term.
  */
 import { bracketRoot } from '../../numeric/scalar';
+import { regularizedGammaQ } from '../../numeric/chi2';
 import { msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
 import { PhysicsInputError } from '../errors';
@@ -205,4 +206,151 @@ export function landauOrderParameterClosedForm(k: ILandauCoefficients, T: number
   // (−b + √disc)/(2c) written without cancellation
   const psi2 = (4 * a * (k.T0 - T)) / (2 * (b + Math.sqrt(disc)));
   return Math.sqrt(psi2);
+}
+
+/** Convention-L coefficients without cubic term, in the order of a covariance matrix: a, T0, b, c. */
+export interface ILandauParameters {
+  a: number;
+  T0: number;
+  b: number;
+  c: number;
+}
+
+/** A derived quantity with its standard error propagated through the fit covariance. */
+export interface ILandauDerivedValue {
+  /** 'T0', 'T1', 'T**', 'Δψ', 'L', 'ψb', 'Fb' or 'ΔC'. */
+  name: string;
+  value: number;
+  sigma: number;
+  /** Why σ is not a number (null whenever σ is finite). */
+  sigmaReason: ICoreMessage | null;
+}
+
+/** Order of the transition from the sign of b, with how sure. */
+export interface ILandauOrder {
+  order: 'first' | 'second' | 'undecided';
+  /** b/σ_b (NaN when σ_b is not known). */
+  z: number;
+  /** Probability that b < 0 under a normal approximation N(b, σ_b²). */
+  probabilityFirst: number;
+  statement: ICoreMessage;
+}
+
+/**
+ * Step of the central differences of the derived quantities, as a fraction
+ * of each coefficient's standard error: h_i = 1e-3·σ_i. Relative to σ the
+ * quantities are smooth (closed forms of [B3]), so the truncation error of
+ * the gradient is O(h²) ≈ 1e-6 of its scale, and the step is far above
+ * rounding for any σ the engine reports. Coefficients with σ = 0 (held
+ * fixed) add no variance and are not stepped.
+ */
+export const DERIVED_STEP = 1e-3;
+
+/** |z| at or beyond which the order is stated (2σ: 97.7 % one-sided). */
+export const ORDER_Z = 2;
+
+/** Φ(x) of the standard normal, from the regularised incomplete gamma function. */
+function normalCdf(x: number): number {
+  const tail = 0.5 * regularizedGammaQ(0.5, (x * x) / 2);
+  return x >= 0 ? 1 - tail : tail;
+}
+
+type Formula = (p: ILandauParameters) => number;
+
+/** Closed forms of [B3 in REFERENCES.md] (i) and (ii), written as smooth functions of (a, T0, b, c) on each side of b = 0. */
+const FIRST_ORDER: readonly [string, Formula][] = [
+  ['T0', p => p.T0],
+  ['T1', p => p.T0 + (3 * p.b * p.b) / (16 * p.a * p.c)],
+  ['T**', p => p.T0 + (p.b * p.b) / (4 * p.a * p.c)],
+  ['Δψ', p => Math.sqrt((-3 * p.b) / (4 * p.c))],
+  ['L', p => (3 * p.a * -p.b * (p.T0 + (3 * p.b * p.b) / (16 * p.a * p.c))) / (8 * p.c)],
+  ['ψb', p => Math.sqrt(-p.b / (4 * p.c))],
+  ['Fb', p => (-p.b * p.b * p.b) / (96 * p.c * p.c)]
+];
+
+const SECOND_ORDER: readonly [string, Formula][] = [
+  ['T0', p => p.T0],
+  ['T1', p => p.T0],
+  ['ΔC', p => (p.T0 * p.a * p.a) / (2 * p.b)]
+];
+
+const KEYS = ['a', 'T0', 'b', 'c'] as const;
+
+/**
+ * T0, T1, T** (first order), the jump Δψ at T1, the latent heat L, the
+ * barrier position ψb and height Fb at T1 (first order), or ΔC (second
+ * order), each with σ from the linear propagation σ² = gᵀΣg, g the
+ * central-difference gradient (step {@link DERIVED_STEP}·σ_i); and the order
+ * from b/σ_b. The regime is that of the fitted b; the formulas of that
+ * regime are used for every step, so the gradient never crosses b = 0.
+ *
+ * @param covariance 4×4 in the order a, T0, b, c (rows of a fixed coefficient zero).
+ */
+export function landauDerivedWithErrors(p: ILandauParameters, covariance: readonly (readonly number[])[]): { values: ILandauDerivedValue[]; order: ILandauOrder } {
+  const sig = KEYS.map((_, i) => Math.sqrt(covariance[i]?.[i] ?? Number.NaN));
+  const covOk = covariance.length === 4 && covariance.every(r => r.length === 4 && r.every(v => Number.isFinite(v)));
+  const first = p.b < 0;
+  const formulas = first ? FIRST_ORDER : SECOND_ORDER;
+  const values: ILandauDerivedValue[] = formulas.map(([name, f]) => {
+    const value = f(p);
+    if (!Number.isFinite(value)) {
+      return { name, value, sigma: Number.NaN, sigmaReason: msg('physics.landau.sigma-undefined', 'This quantity is not defined at the fitted coefficients (c must be above 0 for a first-order transition, b above 0 for a second-order one).') };
+    }
+    if (!covOk) {
+      return { name, value, sigma: Number.NaN, sigmaReason: msg('physics.landau.sigma-no-covariance', 'The fit gave no finite covariance of the coefficients, so no uncertainty can be propagated.') };
+    }
+    const g = [0, 0, 0, 0];
+    for (let i = 0; i < 4; i++) {
+      if (!(sig[i] > 0)) {
+        continue;
+      }
+      const h = DERIVED_STEP * sig[i];
+      const up = { ...p, [KEYS[i]]: p[KEYS[i]] + h };
+      const down = { ...p, [KEYS[i]]: p[KEYS[i]] - h };
+      g[i] = (f(up) - f(down)) / (2 * h);
+      if (!Number.isFinite(g[i])) {
+        return {
+          name,
+          value,
+          sigma: Number.NaN,
+          sigmaReason: msg('physics.landau.sigma-step', 'The coefficient %1 lies within the difference step (%2 of its σ) of where this quantity stops being defined, so its uncertainty cannot be propagated linearly.', KEYS[i], DERIVED_STEP)
+        };
+      }
+    }
+    let v = 0;
+    for (let i = 0; i < 4; i++) {
+      for (let j = 0; j < 4; j++) {
+        v += g[i] * covariance[i][j] * g[j];
+      }
+    }
+    return { name, value, sigma: Math.sqrt(Math.max(0, v)), sigmaReason: null };
+  });
+  return { values, order: landauOrder(p.b, sig[2]) };
+}
+
+/** The order from the sign of b and how sure: z = b/σ_b, P(b < 0) = Φ(−z) under a normal approximation. */
+export function landauOrder(b: number, sigmaB: number): ILandauOrder {
+  if (!(sigmaB >= 0) || !Number.isFinite(sigmaB)) {
+    return {
+      order: b < 0 ? 'first' : 'second',
+      z: Number.NaN,
+      probabilityFirst: b < 0 ? 1 : 0,
+      statement: msg('physics.landau.order.unknown-sigma', 'Order from the sign of b alone (b = %1): its uncertainty is not known, so how sure this is cannot be said.', b)
+    };
+  }
+  const z = sigmaB > 0 ? b / sigmaB : b < 0 ? -Infinity : b > 0 ? Infinity : 0;
+  const pFirst = sigmaB > 0 ? normalCdf(-z) : b < 0 ? 1 : 0;
+  const probability = { value: pFirst, digits: 3 };
+  if (z <= -ORDER_Z) {
+    return { order: 'first', z, probabilityFirst: pFirst, statement: msg('physics.landau.order.first', 'First order: b = %1 ± %2 lies %3σ below 0 (probability %4 that b < 0, normal approximation).', b, sigmaB, { value: -z, digits: 3 }, probability) };
+  }
+  if (z >= ORDER_Z) {
+    return { order: 'second', z, probabilityFirst: pFirst, statement: msg('physics.landau.order.second', 'Second order: b = %1 ± %2 lies %3σ above 0 (probability %4 that b < 0, normal approximation).', b, sigmaB, { value: z, digits: 3 }, probability) };
+  }
+  return {
+    order: 'undecided',
+    z,
+    probabilityFirst: pFirst,
+    statement: msg('physics.landau.order.undecided', 'Order undecided: b = %1 ± %2 is within %3σ of 0 (probability %4 that b < 0, normal approximation), close to a tricritical point.', b, sigmaB, ORDER_Z, probability)
+  };
 }
