@@ -33,6 +33,7 @@ import { landauEquilibriumPsi } from '../physics/landau';
 import type { IValueSigma } from '../sweeps/types';
 import { AnalysisInputError } from './errors';
 import { defaultOptions, kindById } from './kinds';
+import { requireDistinctX } from './kinds/common';
 import type { OptionValue } from './kinds/types';
 import { freeCount, runAnalysisJob } from './run';
 import type { IComparedModel, IModelComparison, ITaskHooks } from './tasks-types';
@@ -195,6 +196,8 @@ export function compareModels(job: IAnalysisJob, hooks: ITaskHooks = {}): IModel
         : msg('compare.too-few-points', 'Comparing models needs at least %1 points in the fit window, but it holds %2. Widen the window.', COMPARE_MIN_POINTS, n)
     );
   }
+  // Every candidate has at least 2 free parameters: refuse x values that cannot tell them apart.
+  requireDistinctX(pts.x, COMPARE_MIN_POINTS - 1);
   const plan = resolveWeights(job, pts);
   const known = plan.mode === 'sigma' || (plan.mode === 'relative' && plan.fraction !== null);
   // The scale each residual is divided by in S (see the module comment).

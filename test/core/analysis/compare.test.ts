@@ -3,7 +3,7 @@
  * AICc among the fixed-J Weiss fits, J fitted freely, and refusals.
  */
 import { describe, expect, it } from 'vitest';
-import { compareModels } from '../../../src/core/analysis/compare';
+import { compareModels, looksLikeSusceptibility } from '../../../src/core/analysis/compare';
 import { defaultOptions } from '../../../src/core/analysis';
 import type { IAnalysisJob } from '../../../src/core/analysis';
 import { messageText } from '../../../src/core/messages';
@@ -41,5 +41,61 @@ describe('compareModels', () => {
     const Tc = weiss[0].values.Tc;
     expect(Math.abs(Tc.value - TRUE.Tc)).toBeLessThan(2 * Tc.sigma);
     expect(progress.at(-1)).toBe(1);
+  });
+});
+
+describe('compareModels on other data and bad input', () => {
+  it('should add Curie–Weiss for a susceptibility above the ordering and rank it first', () => {
+    // χ = χ0 + C/(T − θ) [B2] with an invented C = 4.3767, θ = −35 K, χ0 = 2e-4, 0.3 % relative noise.
+    const rnd = normal(31);
+    const T = Array.from({ length: 120 }, (_, i) => 70 + (330 * i) / 119);
+    const chi = T.map(t => (2e-4 + 4.3767 / (t + 35)) * (1 + 0.003 * rnd()));
+    expect(looksLikeSusceptibility(T, chi)).toBe(true);
+    const cmp = compareModels({ kind: 'curie-weiss', x: T, y: chi, window: { min: 0, max: 1000 }, options: { units: 'cgs-emu' }, weights: { mode: 'relative', fraction: null } })!;
+    expect(cmp.models[0].kind).toBe('curie-weiss');
+    expect(cmp.convention.code).toBe('compare.convention.profiled-relative');
+  });
+
+  it('should not take an ordered M(T) for a susceptibility', () => {
+    const job = brillouinJob(5);
+    expect(looksLikeSusceptibility(job.x, job.y)).toBe(false);
+  });
+
+  it('should return null when cancelled, and report progress until then', () => {
+    let polls = 0;
+    const progress: number[] = [];
+    const out = compareModels(brillouinJob(6), { shouldStop: () => ++polls > 40, onProgress: f => progress.push(f) });
+    expect(out).toBeNull();
+    expect(progress.every(f => f > 0 && f < 1)).toBe(true);
+  });
+
+  it('should refuse an empty or inverted window, one point, constant x, and zero y with relative weights', () => {
+    const job = brillouinJob(7);
+    expect(() => compareModels({ ...job, window: { min: 500, max: 400 } })).toThrow(/fit window is empty/);
+    expect(() => compareModels({ ...job, window: { min: 1000, max: 2000 } })).toThrow(/at least 4 points in the fit window, but it holds 0/);
+    expect(() => compareModels({ ...job, x: [300], y: [1] })).toThrow(/at least 4 points in the fit window, but it holds 1/);
+    expect(() => compareModels({ ...job, x: [300, 300, 300, 300, 300], y: [1, 2, 3, 4, 5] })).toThrow(/same x/);
+    const y = Array.from(job.y);
+    y[3] = 0;
+    expect(() => compareModels({ ...job, y, weights: { mode: 'relative', fraction: 0.01 } })).toThrow(/need y away from zero/);
+  });
+
+  it('should leave out NaN and ±∞ in y, say so, and refuse when nothing is left', () => {
+    const job = brillouinJob(8, 60);
+    const y = Array.from(job.y);
+    y[2] = Number.NaN;
+    y[5] = Infinity;
+    y[9] = -Infinity;
+    const cmp = compareModels({ ...job, y })!;
+    expect(cmp.warnings.some(w => w.code === 'compare.skipped' && w.args[0] === 3)).toBe(true);
+    expect(cmp.models.filter(m => m.converged).every(m => m.n === 57)).toBe(true);
+    expect(() => compareModels({ ...job, y: Array.from(job.y, () => Number.NaN) })).toThrow(/holds 0 \(60 more were left out/);
+  });
+
+  it('should fit data with duplicated rows', () => {
+    const job = brillouinJob(9, 60);
+    const cmp = compareModels({ ...job, x: [...Array.from(job.x), ...Array.from(job.x)], y: [...Array.from(job.y), ...Array.from(job.y)] })!;
+    expect(cmp.models[0].n).toBe(120);
+    expect(cmp.models[0].converged).toBe(true);
   });
 });
