@@ -83,3 +83,31 @@ describe('joint Landau fit with a 1/χ column', () => {
     expect(Math.abs(joint.landau!.a - 0.8)).toBeLessThan(0.05);
   });
 });
+
+describe('Landau options: the ΔC jump as text and the 1/χ column in saved settings', () => {
+  it('reads "ΔC ± σ" and refuses other text', async () => {
+    const { parseValueSigma } = await import('../../../src/core/analysis/kinds/landau');
+    expect(parseValueSigma('6.25 ± 0.3')).toEqual({ value: 6.25, sigma: 0.3 });
+    expect(parseValueSigma('6.25 +- 0.3')).toEqual({ value: 6.25, sigma: 0.3 });
+    expect(parseValueSigma('')).toBeNull();
+    expect(() => parseValueSigma('six')).toThrow(/value and its σ/);
+  });
+
+  it('fits ψ(T) with the jump ΔC = T0·a²/(2b) and fixes the scale a', () => {
+    // Second order, c = 0.6: ΔC = T0 a²/(2b) = 240·0.64/3 = 51.2 (the c term does not change the jump [B3 (i)]).
+    const k = { a: 0.8, T0: 240, b: 1.5, c: 0.6, d: 0 };
+    const rnd = normal(5);
+    const T = Array.from({ length: 80 }, (_, i) => 200 + 0.6 * i);
+    const psi = T.map(t => landauEquilibriumPsi(k, t) + 0.003 * rnd());
+    const out = runAnalysisJob({ kind: 'landau', x: T, y: psi, window: { min: -Infinity, max: Infinity }, options: { specificHeatJump: '51.2 ± 1' } });
+    expect(out.fit.parameters).toEqual(['a', 'T0', 'b', 'c']);
+    expect(Math.abs(out.landau!.a - 0.8)).toBeLessThan(0.05);
+    expect(Math.abs(d(out, 'ΔC').value - 51.2)).toBeLessThan(3 * d(out, 'ΔC').sigma);
+  });
+
+  it('accepts a column name (text) for a column option in saved settings and refuses a number', async () => {
+    const { validateKindSettings } = await import('../../../src/core/analysis');
+    expect(validateKindSettings({ kind: 'landau', options: { inverseChi: 'chi_inv (1/emu)' } })).toBeNull();
+    expect(validateKindSettings({ kind: 'landau', options: { inverseChi: 3 } })?.code).toBe('saved.bad-option-type');
+  });
+});

@@ -65,6 +65,9 @@ describe('windowScan', () => {
     expect(scan.classes.map(c => c.id)).toContain('3d-ising');
     expect(scan.classes.find(c => c.id === '3d-ising')!.beta).toBeCloseTo(0.32648, 5);
     expect(messageText(scan.suggested.reason).length).toBeGreaterThan(20);
+    // The suggested window is one whose fit describes the data (the rule of suggestWindow).
+    expect(scan.suggested.tMax).not.toBeNull();
+    expect(cells.find(c => c.tMax === scan.suggested.tMax)!.verdict).toBe('fits');
   });
 
   it('recovers β and Tc within 2σ with the Wegner term, Δ fixed to 0.52 (the panel defaults)', () => {

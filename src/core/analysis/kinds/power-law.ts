@@ -114,6 +114,13 @@ function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHo
   const p = proxyPower === 1 ? '' : `${proxyPower}·`;
   const correction = wegnerDelta === undefined ? '' : `·[1 + aW·(1 − T/Tc)^${freeDelta ? 'Δ' : wegnerDelta}]`;
   const curve = curveOf(powerLawModel(options), fit.values, pts.x);
+  for (const d of derived) {
+    if (!Number.isFinite(d.sigma)) {
+      d.sigmaReason = fit.converged
+        ? msg('derived.no-covariance', 'The fit gave no finite covariance, so no uncertainty can be propagated.')
+        : msg('derived.not-converged', 'The fit did not converge, so its values carry no uncertainty.');
+    }
+  }
   return {
     outcome: {
       equation: `y = A·(1 − T/Tc)^(${p}β)${correction}${background ? ' + y0' : ''} below Tc, ${background ? 'y0' : '0'} above`,
