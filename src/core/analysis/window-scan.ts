@@ -3,8 +3,9 @@
  * critical power law on the points with (Tc − T)/Tc ≤ t_max, where Tc is the
  * fit's own Tc. The window and the fit are iterated together until the set
  * of points stops changing, so no Tc from another fit (or another criterion)
- * decides which points a window holds [A5.4, B17 in REFERENCES.md; Part D
- * items 5 and 6 of the domain notes: Tc must be free or self-consistent].
+ * decides which points a window holds: Tc stays free and self-consistent.
+ * Corrections to scaling make β_eff drift with t_max [B17 in REFERENCES.md],
+ * which is what the scan shows.
  *
  * Each window is fitted through {@link runAnalysisJob} with the job's own
  * weights and options, so every cell carries the verdict the panel would
