@@ -26,6 +26,11 @@ import { FitSection } from './fit-section';
 import type { ILandauOutcome } from './fit-section';
 import { IsothermSection } from './isotherm-section';
 import { translateMessage } from './translate';
+import { WindowBrush } from './window-brush';
+import { FitChecks } from './fit-checks';
+import { BootstrapView, ComparisonView, InverseChiView, ReducedPlotView, WINDOW_SCAN_KINDS, WindowScanView } from './temperature';
+import type { IChartTheme } from '../charts/theme';
+import type { IAnalysisOutcome } from '../core/analysis';
 
 let panelCount = 0;
 
@@ -69,6 +74,15 @@ export class AnalysisPanel extends Panel {
     this._controls = new Widget({ node: this._buildControls() });
     this._controls.addClass('jp-psiscape-AnalysisPanel-controls');
     this._chart = new ChartView();
+    this._brush = new WindowBrush(
+      this._chart,
+      {
+        window: () => this._session.window,
+        range: () => this._session.xRange(),
+        setWindow: (min, max) => this._session.setWindow(min, max)
+      },
+      this._trans.__('Drag across the chart to set the fit window; with the chart focused, ←/→ move it, Shift+←/→ its upper end, Alt+←/→ its lower end, Escape the whole range.')
+    );
     this._status = new Widget();
     this._status.addClass('jp-psiscape-AnalysisPanel-status');
     this._status.node.setAttribute('aria-live', 'polite');
@@ -79,6 +93,26 @@ export class AnalysisPanel extends Panel {
       runner: new AnalysisRunner({ host: options.runner.host }),
       onRun: settings => this._session.setIsotherms(settings)
     });
+    this._checks = new FitChecks({
+      trans: this._trans,
+      onUseRelativeWeights: () => {
+        this._session.setWeights({ mode: 'relative', fraction: null });
+        void this._fit.runFit();
+      }
+    });
+    // Views of several fits of the same job: each with its own runner on the shared worker,
+    // so a comparison, a scan or a bootstrap never cancels the fit (or each other).
+    const theme = (): IChartTheme => readChartTheme(this.node);
+    const runner = (): AnalysisRunner => {
+      const r = new AnalysisRunner({ host: options.runner.host });
+      this._taskRunners.push(r);
+      return r;
+    };
+    this._comparison = new ComparisonView({ trans: this._trans, session: this._session, runner: runner(), theme });
+    this._scan = new WindowScanView({ trans: this._trans, session: this._session, runner: runner(), theme });
+    this._bootstrap = new BootstrapView({ trans: this._trans, session: this._session, runner: runner(), theme });
+    this._reduced = new ReducedPlotView({ trans: this._trans, session: this._session, theme });
+    this._inverseChi = new InverseChiView({ trans: this._trans, session: this._session, theme });
     this._modes = new Widget({ node: this._buildModes() });
     this._modes.addClass('jp-psiscape-AnalysisPanel-modes');
     this._exports = options.exports
@@ -100,7 +134,7 @@ export class AnalysisPanel extends Panel {
           }
         })
       : null;
-    for (const w of [this._header, this._modes, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._isotherms]) {
+    for (const w of [this._header, this._modes, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._checks, this._inverseChi, this._reduced, this._comparison, this._scan, this._bootstrap, this._isotherms]) {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
@@ -217,6 +251,10 @@ export class AnalysisPanel extends Panel {
 
   /** Redraw everything (after a theme change, say). */
   redraw(): void {
+    this._checks.redraw();
+    void this._scan.redraw();
+    void this._reduced.redraw();
+    void this._inverseChi.redraw();
     this._pending.add('table');
     this._schedule();
     this._isotherms.redraw();
@@ -227,6 +265,10 @@ export class AnalysisPanel extends Panel {
       return;
     }
     this._session.changed.disconnect(this._onChanged);
+    this._brush.dispose();
+    for (const r of this._taskRunners) {
+      r.dispose();
+    }
     clearTimeout(this._runningDraw);
     clearTimeout(this._holdTimer);
     super.dispose();
@@ -306,6 +348,7 @@ export class AnalysisPanel extends Panel {
     this._status.setHidden(isotherms);
     this._exports?.setHidden(isotherms);
     if (!usable) {
+      this._renderChecks(true);
       this._chart.clear();
       this._status.node.textContent = '';
       this._exports?.update();
@@ -318,6 +361,7 @@ export class AnalysisPanel extends Panel {
       this._updateTitle();
     }
     this._fit.render();
+    this._renderChecks(isotherms);
     this._exports?.update();
     const run = s.run;
     if (this._holdForFit) {
@@ -344,6 +388,36 @@ export class AnalysisPanel extends Panel {
     }
   }
 
+  /** The views of several fits and the views of the current fit, shown only where they apply. */
+  private _renderViews(hidden: boolean): void {
+    const s = this._session;
+    const outcome = !hidden && s.outcomeIsCurrent ? s.outcome : null;
+    for (const w of [this._comparison, this._bootstrap]) {
+      w.setHidden(hidden);
+    }
+    this._scan.setHidden(hidden || !(WINDOW_SCAN_KINDS as readonly string[]).includes(s.kind));
+    this._inverseChi.setHidden(hidden || s.kind !== 'curie-weiss' || outcome === null);
+    this._reduced.setHidden(hidden || outcome === null || s.kind === 'curie-weiss' || s.kind === 'expression');
+    if (outcome !== this._viewsOutcome) {
+      this._viewsOutcome = outcome;
+      void this._reduced.update(outcome);
+      void this._inverseChi.update(outcome, null);
+    }
+  }
+
+  /** Residuals, correlations and the weights check of the current fit. */
+  private _renderChecks(hidden: boolean): void {
+    this._renderViews(hidden);
+    const s = this._session;
+    const p = s.plotted();
+    const job = s.job();
+    if (hidden || !p || !('kind' in job) || !this.isAttached) {
+      this._checks.setOutcome(null, null, readChartTheme(this.node), { x: '', yUnit: '' });
+      return;
+    }
+    this._checks.setOutcome(s.outcomeIsCurrent ? s.outcome : null, job, readChartTheme(this.node), { x: p.x.label, yUnit: p.y.column.unit ?? '' });
+  }
+
   /** Stop waiting for a restored analysis's fit and draw what there is. */
   private _releaseHold(): void {
     clearTimeout(this._holdTimer);
@@ -367,6 +441,7 @@ export class AnalysisPanel extends Panel {
     const chart = buildFitOverlayChart({
       x: xs,
       y: ys,
+      sigma: p.sigma ? (p.sigma.column.values as Float64Array) : null,
       xTitle: p.x.label,
       yTitle: p.y.label,
       window: outcome ? outcome.window : s.window,
@@ -386,7 +461,8 @@ export class AnalysisPanel extends Panel {
     this._drawCount++;
     this._drawnWithCurve = outcome !== null;
     this._chartDone = this._chart
-      .render(spec, this._trans.__('Scatter of %1 against %2', p.y.label, p.x.label))
+      .render(spec, this._trans.__('Scatter of %1 against %2. Drag across the chart, or use the arrow keys, to set the fit window.', p.y.label, p.x.label))
+      .then(() => this._brush.attach(this._chart.view))
       .catch(reason => {
         this._status.node.textContent = this._trans.__('The chart could not be drawn: %1', reason instanceof Error ? reason.message : String(reason));
       })
@@ -553,6 +629,15 @@ export class AnalysisPanel extends Panel {
   private _notes: Widget;
   private _controls: Widget;
   private _chart: ChartView;
+  private _brush: WindowBrush;
+  private _checks: FitChecks;
+  private _comparison: ComparisonView;
+  private _scan: WindowScanView;
+  private _bootstrap: BootstrapView;
+  private _reduced: ReducedPlotView;
+  private _inverseChi: InverseChiView;
+  private _taskRunners: AnalysisRunner[] = [];
+  private _viewsOutcome: IAnalysisOutcome | null = null;
   private _status: Widget;
   private _fit: FitSection;
   private _exports: ExportBar | null;

@@ -27,8 +27,9 @@ export function inlineValueCount(spec: Spec): number {
   while (stack.length > 0) {
     const node = stack.pop() as { data?: unknown; marks?: unknown };
     if (Array.isArray(node.data)) {
-      for (const d of node.data as { values?: unknown }[]) {
-        if (Array.isArray(d?.values)) {
+      for (const d of node.data as { name?: unknown; values?: unknown }[]) {
+        // A selection's store (e.g. the fit-window brush) is state, not data to draw.
+        if (Array.isArray(d?.values) && !(typeof d.name === 'string' && d.name.endsWith('_store'))) {
           count += d.values.length;
         }
       }

@@ -115,6 +115,6 @@ describe('a restored analysis', () => {
     await panel.rendered;
     expect(session.run.phase).toBe('done');
     expect(panel.drawCount).toBe(1);
-    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-line path').length).toBe(1);
+    expect(panel.chart.node.querySelectorAll('svg .mark-line path').length).toBe(1);
   });
 });

@@ -35,7 +35,7 @@ describe('FitSection in the analysis panel', () => {
     const { panel } = open();
     await panel.rendered;
     const kinds = Array.from(q<HTMLSelectElement>(panel.node, 'select.jp-psiscape-fit-kind').options).map(o => o.value);
-    expect(kinds).toEqual(['power-law', 'power-law-corrected', 'weiss', 'curie-weiss', 'landau', 'expression']);
+    expect(kinds).toEqual(['power-law', 'power-law-corrected', 'weiss', 'curie-weiss', 'landau', 'bean-rodbell', 'expression']);
     choose(q(panel.node, 'select.jp-psiscape-fit-kind'), 'weiss');
     await panel.rendered;
     const spins = Array.from(q<HTMLSelectElement>(panel.node, 'select.jp-psiscape-option-J').options).map(o => o.textContent);
@@ -59,8 +59,9 @@ describe('FitSection in the analysis panel', () => {
     expect(rows).toEqual(['Ms', 'Tc']);
     expect(panel.node.querySelectorAll('.jp-psiscape-fit-table tbody tr')[1].children[1].textContent).toMatch(/^250\.\d+ ± 0\.\d+$/);
     expect(q(panel.node, '.jp-psiscape-fit-table caption').textContent).toBe('Standard errors from the σ column (not rescaled).');
-    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg .mark-line path').length).toBe(1);
-    expect(panel.node.querySelectorAll('.jp-psiscape-ChartView svg g.mark-symbol.role-mark path').length).toBe(60);
+    expect(panel.chart.node.querySelectorAll('svg .mark-line path').length).toBe(1);
+    // The data chart (the residual chart under the fit draws its own 60 points).
+    expect(panel.chart.node.querySelectorAll('svg g.mark-symbol.role-mark path').length).toBe(60);
   });
 
   it('should never show the success style for a power law over the whole ordered range of mean-field data', async () => {

@@ -37,6 +37,7 @@ import type { IAnalysisJob, IAnalysisOutcome } from './types';
 import { runAnalysisJob } from './run';
 import { parseMime, parseOutput } from '../table';
 import { runIsothermJob } from '../sweeps/job';
+import { runAnalysisTask } from './tasks';
 import type { AnalysisTask, AnalysisTaskResult } from './tasks-types';
 import type { IIsothermJob, IsothermJobAnswer, IsothermStage } from '../sweeps/job-types';
 import type { ParseResult } from '../table';
@@ -263,6 +264,50 @@ function handleIsotherms(request: IIsothermRequest, post: (response: AnalysisRes
   post(stopped() || answer.status === 'cancelled' ? { id, kind: 'cancelled', best: null } : { id, kind: 'isotherms-done', answer });
 }
 
+/** Whether `v` looks like a task request (the job inside is checked by the task's fits). */
+function isTaskRequest(v: unknown): v is ITaskRequest {
+  const r = v as Partial<ITaskRequest> | null;
+  const task = r?.task as Partial<AnalysisTask> | undefined;
+  return (
+    typeof r === 'object' &&
+    r !== null &&
+    r.kind === 'task' &&
+    typeof r.id === 'number' &&
+    typeof task === 'object' &&
+    task !== null &&
+    (task.type === 'compare' || task.type === 'window-scan' || task.type === 'bootstrap') &&
+    typeof task.job === 'object' &&
+    task.job !== null &&
+    isArrayLikeOfNumbers(task.job.x) &&
+    isArrayLikeOfNumbers(task.job.y) &&
+    (r.cancelFlag === undefined || (r.cancelFlag instanceof Int32Array && r.cancelFlag.length >= 1))
+  );
+}
+
+/** Runs a task request: progress (throttled), then one result, cancelled or failed. */
+function handleTask(request: ITaskRequest, post: (response: AnalysisResponse) => void, now: () => number): void {
+  const { id, task, cancelFlag } = request;
+  const stopped = cancelFlag ? (): boolean => Atomics.load(cancelFlag, 0) !== 0 : (): boolean => false;
+  let last = -Infinity;
+  let result: AnalysisTaskResult;
+  try {
+    result = runAnalysisTask(task, {
+      shouldStop: cancelFlag ? stopped : undefined,
+      onProgress: fraction => {
+        const t = now();
+        if (t - last >= PROGRESS_INTERVAL_MS) {
+          last = t;
+          post({ id, kind: 'task-progress', fraction });
+        }
+      }
+    });
+  } catch (e) {
+    post(stopped() ? { id, kind: 'cancelled', best: null } : { id, kind: 'failed', message: messageOf(e) });
+    return;
+  }
+  post(stopped() || result.type === 'cancelled' ? { id, kind: 'cancelled', best: null } : { id, kind: 'task-done', result });
+}
+
 /**
  * Run a request and post its replies: progress (throttled), then exactly one
  * of done, cancelled or failed. Never throws.
@@ -283,6 +328,10 @@ export function handleAnalysisMessage(request: unknown, post: (response: Analysi
   }
   if (isIsothermRequest(request)) {
     handleIsotherms(request, post, now);
+    return;
+  }
+  if (isTaskRequest(request)) {
+    handleTask(request, post, now);
     return;
   }
   if (!isRunRequest(request)) {
