@@ -69,6 +69,12 @@ export interface IFitOverlayOptions {
    * (for pictures that are not interactive).
    */
   brush?: boolean;
+  /**
+   * Start the brush empty even though `window` is set (e.g. the window is the
+   * whole range): a drag then draws a new interval, where inside a brush it
+   * would move it. Points are still classed by `window`.
+   */
+  emptyBrush?: boolean;
 }
 
 /** An overlay spec with the counts a panel shows beside it. */
@@ -164,7 +170,7 @@ export function buildFitOverlayChart(options: IFitOverlayOptions): IFitOverlayCh
     }
   }
   const brush = options.brush ?? true;
-  const initial = windowInData(window, points, line);
+  const initial = options.emptyBrush ? null : windowInData(window, points, line);
   const xEnc: PositionFieldDef<Field> = { field: 'x', type: 'quantitative', title: options.xTitle, scale: { zero: false } };
   const yEnc: PositionFieldDef<Field> = { field: 'y', type: 'quantitative', title: options.yTitle, scale: { zero: false } };
   // Inside the window: accent; outside: the text colour, faded, so it reads grey on light and dark themes.

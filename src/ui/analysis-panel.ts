@@ -445,6 +445,8 @@ export class AnalysisPanel extends Panel {
       xTitle: p.x.label,
       yTitle: p.y.label,
       window: outcome ? outcome.window : s.window,
+      // The whole range is drawn with no brush, so that a drag draws a new one (inside a brush, a drag moves it).
+      emptyBrush: s.windowInput.min === null && s.windowInput.max === null,
       curve: outcome ? outcome.curve : null,
       curveLabel: this._trans.__('fitted model'),
       pointSize: this._pointSize,

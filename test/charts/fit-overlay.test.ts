@@ -330,3 +330,24 @@ describe('the fit-window brush in a Vega view', () => {
     expect(fitWindowFromSignal({ x: [5, 2] })).toEqual({ min: 2, max: 5 });
   });
 });
+
+describe('fit overlay with an empty brush', () => {
+  it('starts the brush empty but still classes the points by the window', () => {
+    const chart = buildFitOverlayChart({
+      x: [1, 2, 3, 4],
+      y: [4, 3, 2, 1],
+      xTitle: 'T',
+      yTitle: 'M',
+      window: { min: 1, max: 4 },
+      curve: null,
+      curveLabel: 'model',
+      pointSize: 30,
+      theme: { background: '#fff', text: '#111', grid: '#ccc', accent: '#c00', accent2: '#00c', font: 'sans-serif' },
+      emptyBrush: true
+    });
+    const json = JSON.stringify(chart.spec);
+    expect(json).toContain('"name":"fitWindow"');
+    expect(json).not.toContain('"value":{"x":');
+    expect(json.match(/"used":"fitted"/g)?.length).toBe(4);
+  });
+});
