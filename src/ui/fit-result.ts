@@ -186,7 +186,13 @@ function parameterTable(trans: TranslationBundle, outcome: IAnalysisOutcome, uni
   for (const d of outcome.derived.filter(d => !repeats(d))) {
     const row = body.insertRow();
     row.className = 'jp-psiscape-fit-derived';
-    const sigmaText = Number.isFinite(d.sigma) ? formatWithError(d.value, d.sigma) : Number.isFinite(d.value) ? trans.__('%1 (from the fitted values; no error propagated)', formatPlain(d.value)) : '—';
+    const sigmaText = Number.isFinite(d.sigma)
+      ? formatWithError(d.value, d.sigma)
+      : Number.isFinite(d.value)
+        ? d.sigmaReason
+          ? trans.__('%1 (no σ: %2)', formatPlain(d.value), translateMessage(trans, d.sigmaReason))
+          : trans.__('%1 (from the fitted values; no error propagated)', formatPlain(d.value))
+        : '—';
     const unit = parameterUnit(d.name, units.x, units.y);
     for (const text of [d.name, sigmaText, unit === '1' ? '' : (unit ?? ''), translateMessage(trans, d.note)]) {
       row.insertCell().textContent = text;
