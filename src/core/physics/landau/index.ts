@@ -6,3 +6,6 @@ export * from './thermal';
 export * from './paths';
 export * from './fit';
 export * from './explorer';
+export * from './phase-diagram';
+export * from './landscape-2d';
+export * from './typed';
