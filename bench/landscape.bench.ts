@@ -8,7 +8,8 @@
  */
 import { writeFileSync } from 'node:fs';
 import { performance } from 'node:perf_hooks';
-import { compileFreeEnergy, coupledLandscape, landauPhaseDiagram, typedStationary } from '../src/core/physics/landau/index';
+import { compileFreeEnergy } from '../src/core/expr/index';
+import { coupledLandscape, landauPhaseDiagram, typedStationary } from '../src/core/physics/landau/index';
 
 function arg(name: string): string | null {
   const i = process.argv.indexOf(name);

@@ -21,3 +21,5 @@ export { guessStarts, GUESS_EVALUATIONS, GUESS_POINTS } from './guess';
 export type { IStartGuess } from './guess';
 export { variableNamesFromHeader, columnKey } from './names';
 export { DERIVATIVE_NODE_BUDGET } from './derivative';
+export { compileFreeEnergy, typedErrorText, ORDER_PARAMETER_NAMES } from './free-energy';
+export type { ICompiledFreeEnergy } from './free-energy';

@@ -4,15 +4,13 @@
  * energies typed by the user.
  */
 import { describe, expect, it } from 'vitest';
-import { ExpressionError } from '../../../src/core/expr/index';
+import { ExpressionError, compileFreeEnergy, typedErrorText } from '../../../src/core/expr/index';
 import {
-  compileFreeEnergy,
   coupledLandscape,
   landauF,
   landauPhaseDiagram,
   phaseDiagramClosedForms,
   stationaryPoints,
-  typedErrorText,
   typedStationary,
   wingAt
 } from '../../../src/core/physics/landau/index';

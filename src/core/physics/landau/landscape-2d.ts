@@ -104,7 +104,11 @@ export function coupledLandscape(k: ICoupledCoefficients, T: number, options: IL
   }
   const minima: ILandscape2dMinimum[] = [];
   const Fg = equilibrium.F;
-  const tol = 1e-9 * Math.max(1e-300, ...states.map(s => Math.abs(s.F)));
+  let scale = 1e-300;
+  for (const s of states) {
+    scale = Math.max(scale, Math.abs(s.F));
+  }
+  const tol = 1e-9 * scale;
   for (const s of states) {
     if (!s.stable) {
       continue;

@@ -1,27 +1,13 @@
 /**
- * A free energy typed by the user, F(ψ; T, h, coefficients), in the
- * expression language of src/core/expr (mathjs, checked and compiled the same
- * way as fit models). The order parameter is `ψ` or `psi`; `T` and `h` are
- * the temperature and the field; every other name is a coefficient. F′ and F″
- * in ψ are symbolic; stationary points are the roots of F′, bracketed on a
- * grid and polished by Newton steps (bisection where Newton leaves the
- * bracket), and classified by F″ (or by the sign change of F′ where F″ = 0).
+ * Stationary points of a free energy given as a kernel of F, F′ and F″ in ψ
+ * (e.g. one typed by the user and compiled by src/core/expr/free-energy.ts):
+ * roots of F′ bracketed on a grid and polished by Newton steps (bisection
+ * where Newton leaves the bracket), classified by F″ (or by the sign change
+ * of F′ where F″ = 0); the lowest minimum is the global one.
  */
-import type { MathNode } from 'mathjs';
-import { msg } from '../../messages';
-import { BUILTIN_CONSTANTS, analyseExpression, errorAtName } from '../../expr/analyse';
-import { SharedTerms, collectSymbols, numberLiteral, toJavaScript } from '../../expr/compile';
-import { DerivativeLimitError, Differentiator } from '../../expr/derivative';
-import type { Kernel } from '../../expr/kernelFactory';
-import { generate, interpretMany } from '../../expr/kernelFactory';
-import { ExpressionError } from '../../expr/normalize';
-import { caretLines } from '../../expr/syntax';
 import type { ILandscapePoint } from './explorer';
 
-/** Names with a fixed meaning in a typed free energy. */
-export const TYPED_VARIABLES = { psi: ['ψ', 'psi'], T: 'T', h: 'h' } as const;
-
-/** A compiled free energy. */
+/** A free energy F(ψ; T, h, coefficients) with its first two ψ-derivatives. */
 export interface ITypedFreeEnergy {
   /** The text as typed. */
   readonly text: string;
@@ -36,99 +22,6 @@ export interface ITypedStationary {
   points: ILandscapePoint[];
   /** Index of the global minimum in `points`, or −1 when there is none. */
   global: number;
-}
-
-let functionConstructorAllowed: boolean | null = null;
-function canGenerate(): boolean {
-  if (functionConstructorAllowed === null) {
-    try {
-      functionConstructorAllowed = new Function('return 1')() === 1;
-    } catch {
-      functionConstructorAllowed = false;
-    }
-  }
-  return functionConstructorAllowed;
-}
-
-function hasOwn(o: object, key: string): boolean {
-  return Object.prototype.hasOwnProperty.call(o, key);
-}
-
-/**
- * Reads and compiles `text`.
- *
- * @throws ExpressionError (with the position in `text`) when it cannot be read,
- *   has no order parameter, or has no symbolic derivative in ψ.
- */
-export function compileFreeEnergy(text: string): ITypedFreeEnergy {
-  const analysed = analyseExpression(text, () => true);
-  const node = analysed.rhsNode;
-  const symbols = collectSymbols(node);
-  const psiNames = TYPED_VARIABLES.psi.filter(n => symbols.includes(n));
-  if (psiNames.length === 0) {
-    throw new ExpressionError(msg('landau.typed.no-psi', 'The free energy does not depend on the order parameter: write it in ψ (or psi), e.g. a/2*(T - T0)*ψ^2 + b/4*ψ^4 - h*ψ.'), null);
-  }
-  if (psiNames.length > 1) {
-    throw errorAtName(analysed.rhsLocator, 'psi', k => msg('landau.typed.two-psi', 'Character %1: write the order parameter one way, ψ or psi, not both.', k));
-  }
-  const psiName = psiNames[0];
-  const coefficients = symbols.filter(s => s !== psiName && s !== 'T' && s !== 'h' && !hasOwn(BUILTIN_CONSTANTS, s));
-  let d1: MathNode;
-  let d2: MathNode;
-  try {
-    const diff = new Differentiator();
-    d1 = diff.derivative(node, psiName);
-    d2 = diff.derivative(d1, psiName);
-  } catch (err) {
-    if (err instanceof DerivativeLimitError) {
-      throw new ExpressionError(msg('landau.typed.derivative', 'The free energy has no symbolic derivative in ψ here (%1); write it with the supported functions.', String(err.what)), null);
-    }
-    throw err;
-  }
-  const parameters = ['T', 'h', ...coefficients];
-  const resolve = (name: string): string | null => {
-    if (name === psiName) {
-      return 'v0';
-    }
-    const i = parameters.indexOf(name);
-    if (i >= 0) {
-      return `q${i}`;
-    }
-    if (hasOwn(BUILTIN_CONSTANTS, name)) {
-      return numberLiteral(BUILTIN_CONSTANTS[name]);
-    }
-    return null;
-  };
-  let kernel: Kernel;
-  if (canGenerate()) {
-    const terms = new SharedTerms();
-    const js = [node, d1, d2].map(nd => toJavaScript(nd, resolve, terms));
-    kernel = generate(parameters.length, 1, false, js, [null], terms.lines);
-  } else {
-    // checks the whitelist the same way
-    toJavaScript(node, resolve);
-    kernel = interpretMany([node, d1, d2], parameters, [psiName], { ...BUILTIN_CONSTANTS }, [null]);
-  }
-  const p = new Float64Array(parameters.length);
-  return {
-    text,
-    coefficients,
-    evaluate(psi, T, h, values) {
-      p[0] = T;
-      p[1] = h;
-      coefficients.forEach((c, i) => {
-        p[i + 2] = values[c] ?? Number.NaN;
-      });
-      const out = new Float64Array(psi.length * 3);
-      kernel(p, psi, out);
-      return out;
-    }
-  };
-}
-
-/** The words of an expression error with the caret line under its place, or just the words. */
-export function typedErrorText(text: string, words: string, position: number | null): string {
-  return position === null ? words : `${words}\n${caretLines(text, position)}`;
 }
 
 /** Options of {@link typedStationary}. */
