@@ -35,6 +35,8 @@ export interface IBranchesLabels {
   kinds: IKindLabels;
   heating: string;
   cooling: string;
+  data: string;
+  fitted: string;
 }
 
 /** Input of {@link buildBranchesSpec}. */
@@ -50,6 +52,18 @@ export interface IBranchesChartOptions {
   h: number;
   theme: IChartTheme;
   labels?: Partial<IBranchesLabels>;
+  /** Measured points drawn over the branches (e.g. the data of a fit). */
+  data?: readonly { T: number; psi: number }[];
+  /** A fitted curve drawn over the branches. */
+  fitted?: readonly { T: number; psi: number }[];
+  /** Fixed axis domains (the view); the data decide when absent. */
+  xDomain?: [number, number];
+  yDomain?: [number, number];
+  /**
+   * Keep every layer (even with no rows) and name every dataset, so a drawn
+   * view can take new rows in place ({@link branchesRows}); default false.
+   */
+  patchable?: boolean;
 }
 
 const DASH: Record<LandauPointKind, number[]> = { stable: [1, 0], metastable: [7, 4], unstable: [2, 3], inflection: [1, 3] };
@@ -96,35 +110,68 @@ function pathRows(path: IBranchesPath | undefined, name: string, label: string):
  * Layered ψ(T) spec. Non-finite points, jumps and markers are left out;
  * inputs are not changed.
  */
-export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart {
-  const { theme } = options;
+function branchesLabels(options: IBranchesChartOptions): IBranchesLabels {
   const kinds = { ...DEFAULT_KIND_LABELS, ...options.labels?.kinds };
-  const labels: IBranchesLabels = {
+  return {
     title: `ψ(T) at h = ${fmt(options.h)}`,
     T: 'T',
     psi: 'ψ',
     kind: 'branch',
     heating: 'heating',
     cooling: 'cooling',
+    data: 'data',
+    fitted: 'fit',
     ...options.labels,
     kinds
   };
+}
+
+/** Rows of every dataset of the branches chart, by dataset name (for in-place updates). */
+export function branchesRows(options: IBranchesChartOptions): Record<string, Record<string, unknown>[]> {
+  const labels = branchesLabels(options);
+  const kinds = labels.kinds;
   // An inflection point exists only at isolated temperatures (where a minimum
   // and a maximum merge); it is not a branch of its own.
   const segments = traceBranches(options.branches.filter(p => p.kind !== 'inflection')).map(p => ({ T: p.T, psi: p.psi, kind: kinds[p.kind], segment: p.segment, order: p.order }));
   const heating = pathRows(options.heating, 'h', labels.heating);
   const cooling = pathRows(options.cooling, 'c', labels.cooling);
-  const paths = [...heating.line, ...cooling.line];
-  const jumps = [...heating.jumps, ...cooling.jumps];
   const markers = (options.markers ?? []).filter(m => finite(m.T));
   const current = options.current && finite(options.current.T) ? [options.current] : [];
+  const jumps = [...heating.jumps, ...cooling.jumps];
+  const xy = (rows: readonly { T: number; psi: number }[] | undefined) => (rows ?? []).filter(r => finite(r.T) && finite(r.psi)).map(r => ({ T: r.T, psi: r.psi }));
+  return {
+    paths: [...heating.line, ...cooling.line] as unknown as Record<string, unknown>[],
+    jumps,
+    jump_arrows: jumps,
+    jump_text: jumps,
+    branches: segments,
+    markers: markers.map(m => ({ T: m.T, label: m.label })),
+    marker_text: markers.map((m, i) => ({ T: m.T, label: m.label, py: 2 + 13 * i })),
+    current: current.map(c => ({ T: c.T, label: c.label })),
+    data: xy(options.data),
+    fit: xy(options.fitted).map((r, i) => ({ ...r, order: i }))
+  };
+}
+
+export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart {
+  const { theme } = options;
+  const labels = branchesLabels(options);
+  const kinds = labels.kinds;
+  const rows = branchesRows(options);
+  const all = options.patchable === true;
+  const paths = rows.paths;
+  const jumps = rows.jumps;
+  const segments = rows.branches;
+  const markers = rows.markers;
+  const current = rows.current;
 
   const shown = KIND_ORDER.filter(k => k !== 'inflection');
   const colours = kindColours(theme);
-  const x: PositionFieldDef<Field> = { field: 'T', type: 'quantitative', title: labels.T, scale: { zero: false, nice: false } };
-  const y: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false } };
+  const domain = (d: [number, number] | undefined) => (d && finite(d[0]) && finite(d[1]) && d[1] > d[0] ? { domain: d } : {});
+  const x: PositionFieldDef<Field> = { field: 'T', type: 'quantitative', title: labels.T, scale: { zero: false, nice: false, ...domain(options.xDomain) } };
+  const y: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, ...domain(options.yDomain) } };
   const layer: ChartLayer[] = [];
-  if (paths.length) {
+  if (all || paths.length) {
     layer.push({
       name: 'branches_paths',
       data: { name: 'paths', values: paths },
@@ -132,18 +179,18 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       encoding: { x, y, detail: { field: 'part', type: 'nominal' }, order: { field: 'order', type: 'quantitative' } }
     });
   }
-  if (jumps.length) {
+  if (all || jumps.length) {
     layer.push(
       {
         name: 'branches_jumps',
         data: { name: 'jumps', values: jumps },
-        mark: { type: 'rule', color: theme.text, opacity: 0.5, strokeWidth: 1.5, strokeDash: [3, 2] },
+        mark: { type: 'rule', color: theme.text, opacity: 0.5, strokeWidth: 1.5, strokeDash: [3, 2], clip: true },
         encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'psi', type: 'quantitative' }, y2: { field: 'psi2' } }
       },
       {
         name: 'branches_jump_arrows',
-        data: { name: 'jump_arrows', values: jumps },
-        mark: { type: 'point', filled: true, size: 70, color: theme.text, opacity: 0.8 },
+        data: { name: 'jump_arrows', values: rows.jump_arrows },
+        mark: { type: 'point', filled: true, size: 70, color: theme.text, opacity: 0.8, clip: true },
         encoding: {
           x: { field: 'T', type: 'quantitative' },
           y: { field: 'mid', type: 'quantitative' },
@@ -156,8 +203,8 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       },
       {
         name: 'branches_jump_text',
-        data: { name: 'jump_text', values: jumps },
-        mark: { type: 'text', align: 'left', dx: 8, color: theme.text, opacity: 0.8 },
+        data: { name: 'jump_text', values: rows.jump_text },
+        mark: { type: 'text', align: 'left', dx: 8, color: theme.text, opacity: 0.8, clip: true },
         encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'mid', type: 'quantitative' }, text: { field: 'text' } }
       }
     );
@@ -175,40 +222,64 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       strokeDash: kindEncoding(labels.kind, shown, kinds, k => DASH[k], false)
     }
   });
-  if (markers.length) {
+  if (options.fitted !== undefined) {
     layer.push({
-      name: 'branches_markers',
-      data: { name: 'markers', values: markers.map(m => ({ T: m.T, label: m.label })) },
-      mark: { type: 'rule', color: theme.text, opacity: 0.45, strokeDash: [4, 4] },
-      encoding: { x: { field: 'T', type: 'quantitative' } }
-    });
-    markers.forEach((m, i) => {
-      layer.push({
-        name: `branches_marker_text_${i}`,
-        data: { values: [{ T: m.T, label: m.label }] },
-        mark: { type: 'text', baseline: 'top', align: 'left', dx: 3, dy: 2 + 13 * i, color: theme.text },
-        encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: 0 }, text: { field: 'label' } }
-      });
+      name: 'branches_fit',
+      data: { name: 'fit', values: rows.fit },
+      mark: { type: 'line', color: theme.accent2, strokeWidth: 2.5, opacity: 0.9, clip: true },
+      encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'psi', type: 'quantitative' }, order: { field: 'order', type: 'quantitative' } }
     });
   }
-  if (current.length) {
+  if (options.data !== undefined) {
+    layer.push({
+      name: 'branches_data',
+      data: { name: 'data', values: rows.data },
+      mark: { type: 'point', filled: false, size: 30, color: theme.text, opacity: 0.75, clip: true, tooltip: true },
+      encoding: {
+        x: { field: 'T', type: 'quantitative' },
+        y: { field: 'psi', type: 'quantitative' },
+        tooltip: [
+          { field: 'T', type: 'quantitative', title: labels.T, format: '.6~g' },
+          { field: 'psi', type: 'quantitative', title: `${labels.psi} (${labels.data})`, format: '.6~g' }
+        ]
+      }
+    });
+  }
+  if (all || markers.length) {
+    layer.push(
+      {
+        name: 'branches_markers',
+        data: { name: 'markers', values: markers },
+        mark: { type: 'rule', color: theme.text, opacity: 0.45, strokeDash: [4, 4], clip: true },
+        encoding: { x: { field: 'T', type: 'quantitative' } }
+      },
+      {
+        name: 'branches_marker_text',
+        data: { name: 'marker_text', values: rows.marker_text },
+        mark: { type: 'text', baseline: 'top', align: 'left', dx: 3, color: theme.text, clip: true },
+        // y in pixels (scale null): one line per marker so close labels do not overlap
+        encoding: { x: { field: 'T', type: 'quantitative' }, y: { field: 'py', type: 'quantitative', scale: null }, text: { field: 'label' } }
+      }
+    );
+  }
+  if (all || current.length) {
     // one named dataset for the rule and its label, so a view can move both by replacing 'current'
     layer.push({
-      data: { name: 'current', values: current.map(c => ({ T: c.T, label: c.label })) },
+      data: { name: 'current', values: current },
       layer: [
         {
           name: 'branches_current',
-          mark: { type: 'rule', color: theme.accent, strokeWidth: 1.5 },
+          mark: { type: 'rule', color: theme.accent, strokeWidth: 1.5, clip: true },
           encoding: { x: { field: 'T', type: 'quantitative' } }
         },
         {
           name: 'branches_current_text',
-          mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -3, color: theme.accent },
+          mark: { type: 'text', baseline: 'bottom', align: 'left', dx: 3, dy: -3, color: theme.accent, clip: true },
           encoding: { x: { field: 'T', type: 'quantitative' }, y: { value: { expr: 'height' } }, text: { field: 'label' } }
         }
       ]
     });
   }
   const spec = layeredChart(layer, { description: `${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, title: labels.title, theme });
-  return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length };
+  return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length + rows.data.length + rows.fit.length };
 }

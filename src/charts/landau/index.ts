@@ -3,3 +3,6 @@ export * from './common';
 export * from './trace';
 export * from './landscape';
 export * from './branches';
+export * from './phase-diagram';
+export * from './landscape-2d';
+export * from './loop';
