@@ -33,6 +33,12 @@ export interface IAnalysisJob {
   weights?: { mode: 'sigma' | 'relative' | 'equal'; fraction?: number | null };
   /** Values of the kind's column options (e.g. 1/χ for a joint Landau fit), by option key, row-aligned with x. */
   columns?: Record<string, ArrayLike<number>>;
+  /**
+   * Where the fit starts, by parameter name (the fit's `parameters`), in place
+   * of the kind's own start for those parameters. Names the kind does not fit
+   * and values that are not finite are ignored.
+   */
+  start?: Record<string, number>;
 }
 
 /** A number derived from the fit, with its standard error. */

@@ -11,11 +11,39 @@ import { msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
 import type { IDerivedValue } from '../types';
 import { grid } from '../window';
-import { extent, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
+import { extent, requireChangingY, requirePoints, startValue, startsOver, valueOf, windowCaution } from './common';
 import { robustScatter } from './landau';
 import { crossingEstimate } from './power-law';
 import type { IAnalysisKind, IChoiceOption, IOptionChoice } from './types';
 import { beanRodbellMagnetisation } from '../../physics/bean-rodbell';
+import type { IFitModel } from '../../fit/types';
+
+/** Names of the fitted parameters, in the order of the fit. */
+const PARAMETERS = ['Ms', 'T0', 'eta'] as const;
+
+/** The fitted M(T) = Ms·σ(T/T0; η, J) as an engine model (NaN where T0 ≤ 0 or η < 0, as in the fit). */
+function beanRodbellModel(J: number): IFitModel {
+  let tau = new Float64Array(0);
+  return {
+    parameters: PARAMETERS,
+    evaluate(p, x, out) {
+      if (!(p[1] > 0) || !(p[2] >= 0)) {
+        out.fill(Number.NaN);
+        return;
+      }
+      if (tau.length !== x.length) {
+        tau = new Float64Array(x.length);
+      }
+      for (let i = 0; i < x.length; i++) {
+        tau[i] = x[i] / p[1];
+      }
+      const s = beanRodbellMagnetisation(J, p[2], tau);
+      for (let i = 0; i < x.length; i++) {
+        out[i] = p[0] * s[i];
+      }
+    }
+  };
+}
 
 const SPINS: IOptionChoice<number>[] = [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map(J => ({
   value: J,
@@ -82,7 +110,11 @@ export const beanRodbellKind = {
     } catch {
       start = null;
     }
-    const starts: [number, number, number][] = start !== null && start.every(Number.isFinite) ? [start] : ETA_STARTS.map(eta => [peak * 1.02, T0start, eta]);
+    let starts: [number, number, number][] = start !== null && start.every(Number.isFinite) ? [start] : ETA_STARTS.map(eta => [peak * 1.02, T0start, eta]);
+    if (PARAMETERS.some(name => startValue(job, name) !== undefined)) {
+      // Starts given with the job: one fit from there (missing names from the first automatic start).
+      starts = [startsOver(job, PARAMETERS, starts[0]) as [number, number, number]];
+    }
     for (const s of starts) {
       const r = fitBeanRodbell({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, start: s, engine: { shouldStop: hooks.shouldStop } });
       if (best === null || (r.converged && !best.converged) || (r.converged === best.converged && r.chi2 < best.chi2)) {
@@ -188,5 +220,6 @@ export const beanRodbellKind = {
       fitted: { ...pts, curve: curveY }
     };
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: job => ({ curve: beanRodbellModel(Number(job.options.J ?? beanRodbellSpinOption.default)) })
 } as const satisfies IAnalysisKind<'bean-rodbell'>;

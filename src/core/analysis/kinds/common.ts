@@ -25,6 +25,21 @@ export function valueOf(fit: IFitResult, name: string): { value: number; sigma: 
   return i < 0 ? { value: Number.NaN, sigma: Number.NaN } : { value: fit.values[i], sigma: fit.standardErrors[i] };
 }
 
+/** The job's start value of a parameter (`job.start`), or undefined when none is given or it is not finite. */
+export function startValue(job: { start?: Readonly<Record<string, number>> }, name: string): number | undefined {
+  const start = job.start;
+  if (!start || !Object.prototype.hasOwnProperty.call(start, name)) {
+    return undefined;
+  }
+  const v = start[name];
+  return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
+}
+
+/** The job's start values of `names` over `fallback` (same order): each given finite start replaces its entry. */
+export function startsOver(job: { start?: Readonly<Record<string, number>> }, names: readonly string[], fallback: readonly number[]): number[] {
+  return names.map((name, i) => startValue(job, name) ?? fallback[i]);
+}
+
 /** Correlation coefficient of two fitted parameters (NaN when either is missing). */
 export function correlation(fit: IFitResult, a: string, b: string): number {
   const i = fit.parameters.indexOf(a);

@@ -8,7 +8,7 @@
 import { curieWeissModel, effectiveMomentPlausibility, fitCurieWeiss, thetaCautions } from '../../physics/curie-weiss';
 import { msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
-import { conventionOf, correlation, curveOf, extent, requireChangingY, requirePoints, valueOf } from './common';
+import { conventionOf, correlation, curveOf, extent, requireChangingY, requirePoints, startValue, startsOver, valueOf } from './common';
 import type { IAnalysisKind, IChoiceOption } from './types';
 
 export const unitsOption: IChoiceOption<string> = {
@@ -35,7 +35,9 @@ export const curieWeissKind = {
     // C, θ and χ0: 3 free parameters.
     requirePoints(pts, 5, 3);
     requireChangingY(pts, 'curie-weiss');
-    const fit = fitCurieWeiss({ T: pts.x, chi: pts.y, sigma: pts.sigma }, { units, engine: { ...hooks } });
+    const given = ['C', 'theta', 'chi0'].some(name => startValue(job, name) !== undefined);
+    const start = given ? (startsOver(job, ['C', 'theta', 'chi0'], defaultStart(pts.x, pts.y)) as [number, number, number]) : undefined;
+    const fit = fitCurieWeiss({ T: pts.x, chi: pts.y, sigma: pts.sigma }, { units, start, engine: { ...hooks } });
     const C = valueOf(fit, 'C');
     const theta = valueOf(fit, 'theta');
     const chi0 = valueOf(fit, 'chi0');
@@ -77,5 +79,13 @@ export const curieWeissKind = {
       fitted: { ...pts, curve: curve.y }
     };
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: () => ({ curve: curieWeissModel })
 } as const satisfies IAnalysisKind<'curie-weiss'>;
+
+/** The start fitCurieWeiss takes by itself: 1/χ ≈ (T − θ)/C through the first and last points, χ0 = 0. */
+function defaultStart(T: readonly number[], chi: readonly number[]): [number, number, number] {
+  const last = T.length - 1;
+  const C0 = (T[last] - T[0]) / (1 / chi[last] - 1 / chi[0]);
+  return [C0, T[0] - C0 / chi[0], 0];
+}

@@ -6,7 +6,7 @@ import { fitCurve } from '../../fit';
 import { guessStarts, parseExpressionModel, variableNamesFromHeader } from '../../expr';
 import { CoreMessageError, msg } from '../../messages';
 import { AnalysisInputError } from '../errors';
-import { curveOf, requirePoints, windowCaution } from './common';
+import { curveOf, requirePoints, startValue, windowCaution } from './common';
 import type { IAnalysisKind, ITextOption } from './types';
 
 export const expressionOption: ITextOption = { type: 'text', label: msg('option.expression', 'y ='), default: '', placeholder: 'A*exp(-x/T0) + c' };
@@ -52,6 +52,13 @@ export const expressionKind = {
     if (unknown.length) {
       throw new AnalysisInputError(msg('expression.unknown-start', 'The start values name %1, which the expression does not use (its parameters: %2).', unknown.join(', '), model.parameters.join(', ')));
     }
+    // Starts given with the job (e.g. "fit from here") take the place of those typed and of the guesses.
+    for (const name of model.parameters) {
+      const v = startValue(job, name);
+      if (v !== undefined) {
+        starts[name] = v;
+      }
+    }
     const guess = guessStarts(model, pts.x, pts.y, starts);
     if (guess.problems.length) {
       throw new CoreMessageError(guess.problems[0]);
@@ -80,5 +87,9 @@ export const expressionKind = {
       fitted: { ...pts, curve: curve.y }
     };
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: job => {
+    const aliases = (job.xNames ?? []).flatMap(name => variableNamesFromHeader(name)).filter(name => name !== 'x');
+    return { curve: parseExpressionModel(String(job.options.expression ?? '').trim(), { variables: ['x'], aliases }) };
+  }
 } as const satisfies IAnalysisKind<'expression'>;

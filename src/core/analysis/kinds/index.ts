@@ -110,4 +110,4 @@ export function optionsFromJson(id: string, options: Record<string, unknown>): R
   return out;
 }
 
-export type { IAnalysisKind, IKindResult, OptionSpec, OptionValue, ResultView, IChoiceOption, IBooleanOption, ITextOption, IColumnOption, IOptionChoice } from './types';
+export type { IAnalysisKind, IKindModel, IKindResult, OptionSpec, OptionValue, ResultView, IChoiceOption, IBooleanOption, ITextOption, IColumnOption, IOptionChoice } from './types';

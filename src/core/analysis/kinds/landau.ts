@@ -24,15 +24,16 @@
 import { fitCurve } from '../../fit';
 import type { IFitModel, IFitResult } from '../../fit/types';
 import { fitLandau, landauDerivedWithErrors, landauEquilibriumPsi } from '../../physics/landau';
+import { landauFitModel } from '../../physics/landau/fit-model';
 import type { ILandauFitData, ILandauParameters } from '../../physics/landau';
 import { messageOf, msg } from '../../messages';
 import type { ICoreMessage } from '../../messages';
-import type { IAnalysisJob, IDerivedValue } from '../types';
+import type { IAnalysisJob, IAnalysisOutcome, IDerivedValue } from '../types';
 import { AnalysisInputError } from '../errors';
 import type { IWindowedPoints } from '../window';
 import { grid, windowedPoints } from '../window';
-import { distinctCount, extent, requireChangingY, requireDistinctX, requirePoints, windowCaution } from './common';
-import type { IAnalysisKind, IColumnOption, ITextOption } from './types';
+import { distinctCount, extent, requireChangingY, requireDistinctX, requirePoints, startsOver, windowCaution } from './common';
+import type { IAnalysisKind, IColumnOption, IKindModel, ITextOption } from './types';
 
 /** Points with ψ below this fraction of the largest |ψ| count as disordered and are not fitted. */
 export const ORDERED_FRACTION = 0.05;
@@ -55,6 +56,87 @@ const inverseLandau: IFitModel = {
     }
   }
 };
+
+/** The points with |ψ| above {@link ORDERED_FRACTION} of its largest, as ψ = |y| and T, and their largest T. */
+function orderedBranch(pts: IWindowedPoints): { psi: number[]; T: number[]; Tmax: number } {
+  let ymax = 0;
+  for (let i = 0; i < pts.y.length; i++) {
+    ymax = Math.max(ymax, Math.abs(pts.y[i]));
+  }
+  const psi: number[] = [];
+  const T: number[] = [];
+  let Tmax = -Infinity;
+  for (let i = 0; i < pts.x.length; i++) {
+    if (Math.abs(pts.y[i]) > ORDERED_FRACTION * ymax) {
+      psi.push(Math.abs(pts.y[i]));
+      T.push(pts.x[i]);
+      Tmax = Math.max(Tmax, pts.x[i]);
+    }
+  }
+  return { psi, T, Tmax };
+}
+
+/**
+ * ψ(T) of a joint fit: every windowed point, with the sign of the largest
+ * value taken off (kept on every point: folding |y| would bias the
+ * disordered points' noise upwards), weighted by the σ column or else by the
+ * set's point-to-point scatter.
+ */
+function jointPsi(pts: IWindowedPoints): { T: number[]; y: number[]; sigma: number[] } {
+  let peak = 0;
+  for (const v of pts.y) {
+    peak = Math.abs(v) > Math.abs(peak) ? v : peak;
+  }
+  const T = pts.x.slice();
+  const y = pts.y.map(v => (peak < 0 ? -v : v));
+  const scatter = pts.sigma ? 0 : robustScatter(T, y);
+  return { T, y, sigma: pts.sigma ?? T.map(() => scatter) };
+}
+
+/** ψ_eq(T) at h = 0 as an engine model: over (a, T0, b, c) for a joint fit, else over (T0, b/a, c/a) with a = 1. */
+function equilibriumModel(joint: boolean): IFitModel {
+  const k = { a: 1, T0: 0, b: 0, c: 0, d: 0 };
+  return {
+    parameters: joint ? ['a', 'T0', 'b', 'c'] : ['T0', 'b/a', 'c/a'],
+    evaluate(p, x, out) {
+      const o = joint ? 1 : 0;
+      k.a = joint ? p[0] : 1;
+      k.T0 = p[o];
+      k.b = p[o + 1];
+      k.c = p[o + 2];
+      for (let i = 0; i < x.length; i++) {
+        out[i] = landauEquilibriumPsi(k, x[i]);
+      }
+    }
+  };
+}
+
+/** The model of a Landau outcome: ψ_eq(T) drawn, and the points fitted (T against ψ, or the joint data sets). */
+function landauModel(job: IAnalysisJob, pts: IWindowedPoints, outcome: IAnalysisOutcome): IKindModel {
+  const joint = outcome.fit.parameters[0] === 'a';
+  if (!joint) {
+    const { psi, T } = orderedBranch(pts);
+    return { curve: equilibriumModel(false), fitted: { model: inverseLandau, x: psi, y: T } };
+  }
+  const psi = jointPsi(pts);
+  const chi = inverseChiPoints(job, pts);
+  const chiScatter = chi !== null ? robustScatter(chi.T, chi.y) : 0;
+  const chiSigma = chi !== null ? chi.T.map(() => chiScatter) : [];
+  // ΔC entered the fit unless the ψ-only fit found b < 0: then the fit has one point fewer.
+  const dcGiven = parseValueSigma(String(job.options.specificHeatJump ?? ''));
+  const dc = dcGiven !== null && outcome.fit.residuals.length === psi.T.length + (chi?.T.length ?? 0) + 1 ? dcGiven : null;
+  const kinds = [...psi.T.map(() => 0), ...(chi?.T.map(() => 1) ?? []), ...(dc !== null ? [2] : [])];
+  const Ts = [...psi.T, ...(chi?.T ?? []), ...(dc !== null ? [0] : [])];
+  return {
+    curve: equilibriumModel(true),
+    fitted: {
+      model: landauFitModel(kinds, Ts),
+      x: kinds.map((_, i) => i),
+      y: [...psi.y, ...(chi?.y ?? []), ...(dc !== null ? [dc.value] : [])],
+      sigma: [...psi.sigma, ...chiSigma, ...(dc !== null ? [dc.sigma] : [])]
+    }
+  };
+}
 
 /** Option of the 1/χ column. */
 const inverseChiOption: IColumnOption = { type: 'column', label: msg('option.landau-inverse-chi', '1/χ(T) column (joint fit)'), default: '' };
@@ -198,20 +280,7 @@ export const landauKind = {
     // T0, b/a and c/a: 3 free parameters.
     requirePoints(pts, 4, 3);
     requireChangingY(pts, 'transition');
-    let ymax = 0;
-    for (let i = 0; i < pts.y.length; i++) {
-      ymax = Math.max(ymax, Math.abs(pts.y[i]));
-    }
-    const psi: number[] = [];
-    const T: number[] = [];
-    let Tmax = -Infinity;
-    for (let i = 0; i < pts.x.length; i++) {
-      if (Math.abs(pts.y[i]) > ORDERED_FRACTION * ymax) {
-        psi.push(Math.abs(pts.y[i]));
-        T.push(pts.x[i]);
-        Tmax = Math.max(Tmax, pts.x[i]);
-      }
-    }
+    const { psi, T, Tmax } = orderedBranch(pts);
     if (psi.length < 4) {
       throw new AnalysisInputError(
         msg('landau.too-few-ordered', 'The Landau fit needs at least 4 ordered points (ψ above %1 % of its largest value) in the fit window, but there are %2. Widen the window.', 100 * ORDERED_FRACTION, psi.length)
@@ -225,7 +294,7 @@ export const landauKind = {
         msg('landau.too-few-distinct-psi', 'The %1 ordered points in the fit window have only %2 different values of ψ, but the Landau fit of T against ψ needs at least 4. Widen the window or choose another y column.', psi.length, distinctPsi)
       );
     }
-    const inverse = fitCurve(inverseLandau, { x: psi, y: T }, { start: [Tmax, 0, 0], shouldStop: hooks.shouldStop });
+    const inverse = fitCurve(inverseLandau, { x: psi, y: T }, { start: startsOver(job, ['T0', 'b/a', 'c/a'], [Tmax, 0, 0]), shouldStop: hooks.shouldStop });
     const chi = inverseChiPoints(job, pts);
     let dc = parseValueSigma(String(job.options.specificHeatJump ?? ''));
     const cautions: ICoreMessage[] = [windowCaution()];
@@ -243,15 +312,7 @@ export const landauKind = {
       const [T0i, B, C] = inverse.values;
       const a0 = chi !== null ? slopeAbove(chi, T0i) : Number.NaN;
       const a = a0 > 0 ? a0 : dc !== null && B > 0 ? Math.sqrt((2 * B * dc.value) / Math.max(T0i, 1e-300)) : 1;
-      const psiT = pts.x.slice();
-      // The sign of the ordered values, kept on every point: folding |y| would bias the disordered points' noise upwards.
-      let peak = 0;
-      for (const v of pts.y) {
-        peak = Math.abs(v) > Math.abs(peak) ? v : peak;
-      }
-      const psiY = pts.y.map(v => (peak < 0 ? -v : v));
-      const psiScatter = pts.sigma ? 0 : robustScatter(psiT, psiY);
-      const psiSigma = pts.sigma ?? psiT.map(() => psiScatter);
+      const { T: psiT, y: psiY, sigma: psiSigma } = jointPsi(pts);
       const data: ILandauFitData = { psi: { T: psiT, y: psiY, sigma: psiSigma } };
       const chiScatter = chi !== null ? robustScatter(chi.T, chi.y) : 0;
       const chiSigma = chi !== null ? chi.T.map(() => chiScatter) : [];
@@ -261,7 +322,8 @@ export const landauKind = {
       if (dc !== null) {
         data.specificHeatJump = dc;
       }
-      const res = fitLandau(data, { start: { a, T0: T0i, b: a * B, c: Math.max(a * C, 0) }, engine: { shouldStop: hooks.shouldStop } });
+      const [sa, sT0, sb, sc] = startsOver(job, ['a', 'T0', 'b', 'c'], [a, T0i, a * B, Math.max(a * C, 0)]);
+      const res = fitLandau(data, { start: { a: sa, T0: sT0, b: sb, c: sc }, engine: { shouldStop: hooks.shouldStop } });
       fit = res;
       params = { p: { a: res.values[0], T0: res.values[1], b: res.values[2], c: res.values[3] }, covariance: res.covariance };
       fitted = {
@@ -322,5 +384,6 @@ export const landauKind = {
       fitted: joint ? { ...fitted } : { x: psi, y: T, curve: curve.y }
     };
   },
-  views: ['data-and-curve', 'landau-explorer']
+  views: ['data-and-curve', 'landau-explorer'],
+  model: landauModel
 } as const satisfies IAnalysisKind<'landau'>;

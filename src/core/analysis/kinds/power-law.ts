@@ -10,7 +10,7 @@ import type { ICoreMessage } from '../../messages';
 import type { IAnalysisJob, IDerivedValue } from '../types';
 import type { IWindowedPoints } from '../window';
 import type { IAnalysisHooks } from '../hooks';
-import { conventionOf, correlation, curveOf, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
+import { conventionOf, correlation, curveOf, requireChangingY, requirePoints, startValue, valueOf, windowCaution } from './common';
 import type { IAnalysisKind, IChoiceOption, IKindResult, IBooleanOption } from './types';
 
 /** Tc estimate for data that run through the transition: where |y| last exceeds 10 % of its largest value. */
@@ -65,16 +65,45 @@ export const deltaOption: IChoiceOption<number> = {
   default: 0.52
 };
 
+/** The physics options of a power-law job on its points (`wegnerDelta` undefined: no correction term). */
+function powerLawOptions(job: IAnalysisJob, pts: IWindowedPoints, wegnerDelta: number | undefined): IPowerLawOptions {
+  const { spansTc } = crossingEstimate(pts);
+  const freeDelta = wegnerDelta === FREE_DELTA;
+  return {
+    proxyPower: Number(job.options.proxyPower ?? 1),
+    background: job.options.background === true,
+    allowTcInsideData: spansTc,
+    aboveTc: 'zero',
+    wegnerDelta: freeDelta ? undefined : wegnerDelta,
+    freeDelta
+  };
+}
+
+/** The correction exponent a power-law kind's job asks for (undefined: none). */
+function deltaOf(job: IAnalysisJob): number | undefined {
+  return job.kind === 'power-law-corrected' ? Number(job.options.wegnerDelta ?? deltaOption.default) : undefined;
+}
+
+/** Start values given with the job, by the physics module's names. */
+const START_NAMES = ['A', 'Tc', 'beta', 'y0', 'aW', 'Delta'] as const;
+
 function runPowerLaw(job: IAnalysisJob, pts: IWindowedPoints, hooks: IAnalysisHooks, wegnerDelta: number | undefined): IKindResult {
   const proxyPower = Number(job.options.proxyPower ?? 1);
   const background = job.options.background === true;
   requireChangingY(pts, 'transition');
   const { Tc, spansTc } = crossingEstimate(pts);
   const freeDelta = wegnerDelta === FREE_DELTA;
-  const options: IPowerLawOptions = { proxyPower, background, allowTcInsideData: spansTc, aboveTc: 'zero', wegnerDelta: freeDelta ? undefined : wegnerDelta, freeDelta };
+  const options = powerLawOptions(job, pts, wegnerDelta);
+  const start: NonNullable<IPowerLawOptions['start']> = spansTc ? { Tc } : {};
+  for (const name of START_NAMES) {
+    const v = startValue(job, name);
+    if (v !== undefined) {
+      start[name] = v;
+    }
+  }
   const fit = fitPowerLaw(
     { T: pts.x, y: pts.y, sigma: pts.sigma },
-    { ...options, start: spansTc ? { Tc } : undefined, engine: { ...hooks } }
+    { ...options, start: Object.keys(start).length > 0 ? start : undefined, engine: { ...hooks } }
   );
   const Tcv = valueOf(fit, 'Tc');
   const beta = valueOf(fit, 'beta');
@@ -147,7 +176,8 @@ export const powerLawKind = {
     requirePoints(pts, job.options.background === true ? 6 : 5, job.options.background === true ? 4 : 3);
     return runPowerLaw(job, pts, hooks, undefined);
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: (job, pts) => ({ curve: powerLawModel(powerLawOptions(job, pts, deltaOf(job))) })
 } as const satisfies IAnalysisKind<'power-law'>;
 
 /** The critical power law with Wegner's first correction to scaling, Δ fixed to a class value or fitted. */
@@ -163,5 +193,6 @@ export const powerLawCorrectedKind = {
     requirePoints(pts, 6 + extra, 4 + extra);
     return runPowerLaw(job, pts, hooks, Number(job.options.wegnerDelta ?? deltaOption.default));
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: (job, pts) => ({ curve: powerLawModel(powerLawOptions(job, pts, deltaOf(job))) })
 } as const satisfies IAnalysisKind<'power-law-corrected'>;

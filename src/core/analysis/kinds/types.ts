@@ -95,6 +95,26 @@ export interface IAnalysisKind<Id extends string = string> {
   run(job: IAnalysisJob, points: IWindowedPoints, hooks: IAnalysisHooks): IKindResult;
   /** Views offered under the result. */
   readonly views: readonly ResultView[];
+  /**
+   * The model of an outcome of this kind, to evaluate it at other parameter
+   * values (see `model-curve.ts`). `points` are the job's windowed points with
+   * the σ the fit was weighted by.
+   */
+  model?(job: IAnalysisJob, points: IWindowedPoints, outcome: IAnalysisOutcome): IKindModel;
+}
+
+/**
+ * The model of a fitted outcome: its drawn curve and the points its χ² sums
+ * over, both as engine models over the fit's parameters (same order).
+ */
+export interface IKindModel {
+  /** y of the drawn curve at x (the outcome's `curve.x`). */
+  curve: IFitModel;
+  /**
+   * The points the fit's χ² sums over, the model of them and their σ (none:
+   * unweighted); omitted when they are `points` themselves under `curve`.
+   */
+  fitted?: { model: IFitModel; x: ArrayLike<number>; y: ArrayLike<number>; sigma?: ArrayLike<number> };
 }
 
 /** The engine model of a fitted outcome, to redraw a curve (e.g. with other parameter values). */

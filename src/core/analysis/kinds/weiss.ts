@@ -9,10 +9,10 @@
  * propagation); at u = 0 the data prefer classical moments and J = ∞ is
  * reported without σ.
  */
-import { fitWeissMT, spinFromInverse, weissMTModel } from '../../physics/weiss-fit';
+import { estimateWeissStart, fitWeissMT, spinFromInverse, weissMTModel } from '../../physics/weiss-fit';
 import { msg } from '../../messages';
 import { AnalysisInputError } from '../errors';
-import { conventionOf, curveOf, requireChangingY, requirePoints, valueOf, windowCaution } from './common';
+import { conventionOf, curveOf, requireChangingY, requirePoints, startValue, startsOver, valueOf, windowCaution } from './common';
 import type { IDerivedValue } from '../types';
 import type { ICoreMessage } from '../../messages';
 import type { IAnalysisKind, IBooleanOption, IChoiceOption, IOptionChoice } from './types';
@@ -58,9 +58,13 @@ export const weissKind = {
       }
     }
     requireChangingY(pts, 'transition');
+    // A start given for Ms or Tc replaces that part of the estimate; one for 1/J is kept off its bounds like the chosen J.
+    const start = startValue(job, 'Ms') !== undefined || startValue(job, 'Tc') !== undefined ? (startsOver(job, ['Ms', 'Tc'], estimateWeissStart(pts.x, pts.y)) as [number, number]) : undefined;
+    const u0 = startValue(job, '1/J');
+    const uStart = u0 !== undefined ? Math.min(1.8, Math.max(0.05, u0)) : inverseStart(J);
     const fit = free
-      ? fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J: 1 / inverseStart(J), fitInverseJ: true, engine: { ...hooks } })
-      : fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, engine: { ...hooks } });
+      ? fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J: 1 / uStart, fitInverseJ: true, start, engine: { ...hooks } })
+      : fitWeissMT({ T: pts.x, M: pts.y, sigma: pts.sigma }, { J, start, engine: { ...hooks } });
     const Tc = valueOf(fit, 'Tc');
     const Ms = valueOf(fit, 'Ms');
     const curve = curveOf(weissMTModel(J, free ? 'inverse' : false), fit.values, pts.x);
@@ -104,5 +108,6 @@ export const weissKind = {
       fitted: { ...pts, curve: curve.y }
     };
   },
-  views: ['data-and-curve']
+  views: ['data-and-curve'],
+  model: job => ({ curve: weissMTModel(Number(job.options.J ?? spinOption.default), job.options.freeJ === true ? 'inverse' : false) })
 } as const satisfies IAnalysisKind<'weiss'>;
