@@ -25,6 +25,69 @@ export interface ISavedExplorer {
   convention: (typeof EXPLORER_CONVENTIONS)[number];
   T: number;
   h: number;
+  /** Preset the free energy was set from (absent: none, or an unknown one). */
+  preset?: (typeof EXPLORER_PRESETS)[number];
+  /** The preset's own parameters by name. */
+  presetValues?: Record<string, number>;
+  /** A free energy typed by the user, with its coefficients' values. */
+  typed?: { text: string; values: Record<string, number> };
+  /** Coefficients of the two-order-parameter landscape. */
+  coupled?: { a1: number; T1: number; b1: number; a2: number; T2: number; b2: number; lambda: number };
+  /** The chart tab shown (absent: the landscape, or an unknown one). */
+  view?: (typeof EXPLORER_VIEWS)[number];
+}
+
+/** Presets of the workbench. */
+export const EXPLORER_PRESETS = ['bean-rodbell', 'devonshire', 'de-gennes'] as const;
+
+/** Chart tabs of the workbench. */
+export const EXPLORER_VIEWS = ['landscape', 'branches', 'phase-diagram', 'landscape-2d', 'loop'] as const;
+
+const COUPLED_KEYS = ['a1', 'T1', 'b1', 'a2', 'T2', 'b2', 'lambda'] as const;
+
+/** A record of finite numbers by name, or undefined. */
+function numbersOf(v: unknown): Record<string, number> | undefined {
+  if (!isRecord(v)) {
+    return undefined;
+  }
+  const out: Record<string, number> = {};
+  for (const key of Object.keys(v)) {
+    const x = own(v, key);
+    if (!finite(x)) {
+      return undefined;
+    }
+    out[key] = x;
+  }
+  return out;
+}
+
+/** The optional workbench fields of an entry; malformed ones are left out (and kept in the notebook as they are). */
+function optionalFields(raw: JsonRecord): Partial<ISavedExplorer> {
+  const out: Partial<ISavedExplorer> = {};
+  const preset = own(raw, 'preset');
+  if ((EXPLORER_PRESETS as readonly unknown[]).includes(preset)) {
+    out.preset = preset as ISavedExplorer['preset'];
+  }
+  const values = numbersOf(own(raw, 'presetValues'));
+  if (values) {
+    out.presetValues = values;
+  }
+  const typed = own(raw, 'typed');
+  if (isRecord(typed) && typeof own(typed, 'text') === 'string') {
+    const tv = numbersOf(own(typed, 'values'));
+    if (tv) {
+      out.typed = { text: own(typed, 'text') as string, values: tv };
+    }
+  }
+  const coupled = numbersOf(own(raw, 'coupled'));
+  if (coupled && COUPLED_KEYS.every(k => finite(coupled[k]))) {
+    out.coupled = { a1: coupled.a1, T1: coupled.T1, b1: coupled.b1, a2: coupled.a2, T2: coupled.T2, b2: coupled.b2, lambda: coupled.lambda };
+  }
+  const view = own(raw, 'view');
+  if ((EXPLORER_VIEWS as readonly unknown[]).includes(view)) {
+    out.view = view as ISavedExplorer['view'];
+  }
+  return out;
 }
 
 /** What {@link readSavedExplorers} found. */
@@ -61,7 +124,8 @@ function readExplorer(raw: unknown, index: number): ISavedExplorer | ICoreMessag
     coefficients: { a: own(k, 'a') as number, T0: own(k, 'T0') as number, b: own(k, 'b') as number, c: own(k, 'c') as number, d },
     convention: (EXPLORER_CONVENTIONS as readonly unknown[]).includes(convention) ? (convention as ISavedExplorer['convention']) : 'L',
     T,
-    h
+    h,
+    ...optionalFields(raw)
   };
 }
 
@@ -94,7 +158,7 @@ export function readSavedExplorers(value: unknown): ISavedExplorersRead {
   }
 }
 
-const KNOWN = ['id', 'coefficients', 'convention', 'T', 'h'];
+const KNOWN = ['id', 'coefficients', 'convention', 'T', 'h', 'preset', 'presetValues', 'typed', 'coupled', 'view'];
 const KNOWN_COEFFICIENTS = ['a', 'T0', 'b', 'c', 'd'];
 
 /** Stored fields in their order, known ones replaced by the new ones, unknown ones kept; then new fields. */
@@ -117,7 +181,23 @@ function mergeRecord(raw: JsonRecord, next: JsonRecord, known: readonly string[]
 
 function encode(e: ISavedExplorer): JsonRecord {
   const k = e.coefficients;
-  return { id: e.id, coefficients: { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d }, convention: e.convention, T: e.T, h: e.h };
+  const out: JsonRecord = { id: e.id, coefficients: { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d }, convention: e.convention, T: e.T, h: e.h };
+  if (e.preset !== undefined) {
+    out.preset = e.preset;
+  }
+  if (e.presetValues !== undefined) {
+    out.presetValues = { ...e.presetValues };
+  }
+  if (e.typed !== undefined) {
+    out.typed = { text: e.typed.text, values: { ...e.typed.values } };
+  }
+  if (e.coupled !== undefined) {
+    out.coupled = { ...e.coupled };
+  }
+  if (e.view !== undefined) {
+    out.view = e.view;
+  }
+  return out;
 }
 
 /** The block with a new explorers list (dropped when empty); a format 1 block's analyses migrated. */
@@ -142,7 +222,8 @@ function rebuild(block: JsonRecord, version: 1 | 2, entries: unknown[], explorer
 
 function invalid(e: ISavedExplorer): boolean {
   const k = e.coefficients;
-  return e.id === '' || ![k.a, k.T0, k.b, k.c, k.d, e.T, e.h].every(v => Number.isFinite(v));
+  const extra = [...Object.values(e.presetValues ?? {}), ...Object.values(e.typed?.values ?? {}), ...Object.values(e.coupled ?? {})];
+  return e.id === '' || ![k.a, k.T0, k.b, k.c, k.d, e.T, e.h, ...extra].every(v => Number.isFinite(v));
 }
 
 /**

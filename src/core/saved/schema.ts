@@ -78,7 +78,35 @@ export const SAVED_SCHEMA = {
           description: 'Convention the coefficients are displayed in: "L", "no-fractions", "devonshire" or "ginzburg-landau". Readers show an unknown one as "L".'
         },
         T: { type: 'number', description: 'Temperature of the landscape.' },
-        h: { type: 'number', description: 'Conjugate field h.' }
+        h: { type: 'number', description: 'Conjugate field h.' },
+        preset: {
+          type: 'string',
+          description: 'Optional. The preset the free energy was set from: "bean-rodbell", "devonshire" or "de-gennes"; readers ignore an unknown one.'
+        },
+        presetValues: {
+          type: 'object',
+          description: 'Optional. The preset\'s own parameters by name (e.g. eta and T0 of Bean–Rodbell).',
+          additionalProperties: { type: 'number' }
+        },
+        typed: {
+          type: 'object',
+          description: 'Optional. A free energy typed by the user in ψ (or psi), T, h and named coefficients, with the coefficients\' values; when present it is the free energy shown.',
+          required: ['text', 'values'],
+          properties: {
+            text: { type: 'string' },
+            values: { type: 'object', additionalProperties: { type: 'number' } }
+          }
+        },
+        coupled: {
+          type: 'object',
+          description: 'Optional. Coefficients of the two-order-parameter landscape F(ψ, φ) = (a1/2)(T − T1)ψ² + (b1/4)ψ⁴ + (a2/2)(T − T2)φ² + (b2/4)φ⁴ + (λ/2)ψ²φ².',
+          required: ['a1', 'T1', 'b1', 'a2', 'T2', 'b2', 'lambda'],
+          additionalProperties: { type: 'number' }
+        },
+        view: {
+          type: 'string',
+          description: 'Optional. The chart tab shown: "landscape", "branches", "phase-diagram", "landscape-2d" or "loop"; readers show the landscape for an unknown one.'
+        }
       }
     },
     analysis: {
