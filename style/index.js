@@ -1,2 +1,3 @@
 import './base.css';
 import './landau.css';
+import './sliders.css';

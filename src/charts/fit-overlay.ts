@@ -38,6 +38,25 @@ export const FIT_WINDOW_PARAM = 'fitWindow';
  */
 export const FIT_WINDOW_PIXEL_SIGNAL = `${FIT_WINDOW_PARAM}_x_1`;
 
+/**
+ * Name of the model curve's dataset: its rows are {@link fitCurveRows}, so a
+ * drawn view can show another curve with `view.data(FIT_CURVE_DATA, rows)`
+ * and `runAsync()`, without a new spec.
+ */
+export const FIT_CURVE_DATA = 'curve';
+
+/** Rows of the curve dataset: the finite (x, y) pairs of a curve, with its legend text. */
+export function fitCurveRows(curve: { x: ArrayLike<number>; y: ArrayLike<number> }, label: string): { x: number; y: number; series: string }[] {
+  const rows: { x: number; y: number; series: string }[] = [];
+  const n = Math.min(curve.x.length, curve.y.length);
+  for (let i = 0; i < n; i++) {
+    if (Number.isFinite(curve.x[i]) && Number.isFinite(curve.y[i])) {
+      rows.push({ x: curve.x[i], y: curve.y[i], series: label });
+    }
+  }
+  return rows;
+}
+
 /** Opacity of the points (and error bars) inside and outside the fit window. */
 const OPACITY_INSIDE = 0.9;
 const OPACITY_OUTSIDE = 0.3;
@@ -249,7 +268,7 @@ export function buildFitOverlayChart(options: IFitOverlayOptions): IFitOverlayCh
   }
   if (line.length) {
     layers.push({
-      data: { values: line.map(p => ({ ...p, series: options.curveLabel })) },
+      data: { name: FIT_CURVE_DATA, values: line.map(p => ({ ...p, series: options.curveLabel })) },
       mark: { type: 'line', color: theme.accent2, strokeWidth: 2, clip: true },
       encoding: {
         x: xEnc,

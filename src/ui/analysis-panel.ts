@@ -9,7 +9,7 @@
 import type { ITranslator, TranslationBundle } from '@jupyterlab/translation';
 import type { Message } from '@lumino/messaging';
 import { Panel, Widget } from '@lumino/widgets';
-import { buildFitOverlayChart } from '../charts/fit-overlay';
+import { buildFitOverlayChart, FIT_CURVE_DATA, fitCurveRows } from '../charts/fit-overlay';
 import { kindById } from '../core/analysis';
 import type { AnalysisSession, SessionChange } from '../core/analysis/session';
 import type { ITable } from '../core/table';
@@ -28,6 +28,8 @@ import { IsothermSection } from './isotherm-section';
 import { translateMessage } from './translate';
 import { WindowBrush } from './window-brush';
 import { FitChecks } from './fit-checks';
+import { ModelSliders } from './model-sliders';
+import type { IModelEvaluation } from '../core/analysis/model-curve';
 import { BootstrapView, ComparisonView, InverseChiView, ReducedPlotView, WINDOW_SCAN_KINDS, WindowScanView } from './temperature';
 import type { IChartTheme } from '../charts/theme';
 import type { IAnalysisOutcome } from '../core/analysis';
@@ -100,6 +102,16 @@ export class AnalysisPanel extends Panel {
         void this._fit.runFit();
       }
     });
+    this._sliders = new ModelSliders({
+      trans: this._trans,
+      onPreview: (_, evaluation) => this._previewModel(evaluation),
+      onFitFromHere: values => {
+        // The job is taken at once, so the start applies to this fit only.
+        this._session.setStart(values);
+        void this._fit.runFit();
+        this._session.setStart(null);
+      }
+    });
     // Views of several fits of the same job: each with its own runner on the shared worker,
     // so a comparison, a scan or a bootstrap never cancels the fit (or each other).
     const theme = (): IChartTheme => readChartTheme(this.node);
@@ -134,7 +146,7 @@ export class AnalysisPanel extends Panel {
           }
         })
       : null;
-    for (const w of [this._header, this._modes, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._checks, this._inverseChi, this._reduced, this._comparison, this._scan, this._bootstrap, this._isotherms]) {
+    for (const w of [this._header, this._modes, ...(this._exports ? [this._exports] : []), this._banner, this._message, this._notes, this._controls, this._chart, this._status, this._fit, this._sliders, this._checks, this._inverseChi, this._reduced, this._comparison, this._scan, this._bootstrap, this._isotherms]) {
       this.addWidget(w);
     }
     this._session.changed.connect(this._onChanged);
@@ -413,8 +425,10 @@ export class AnalysisPanel extends Panel {
     const job = s.job();
     if (hidden || !p || !('kind' in job) || !this.isAttached) {
       this._checks.setOutcome(null, null, readChartTheme(this.node), { x: '', yUnit: '' });
+      this._sliders.setOutcome(null, null);
       return;
     }
+    this._sliders.setOutcome(s.outcomeIsCurrent ? s.outcome : null, job);
     this._checks.setOutcome(s.outcomeIsCurrent ? s.outcome : null, job, readChartTheme(this.node), { x: p.x.label, yUnit: p.y.column.unit ?? '' });
   }
 
@@ -465,10 +479,31 @@ export class AnalysisPanel extends Panel {
     this._chartDone = this._chart
       .render(spec, this._trans.__('Scatter of %1 against %2. Drag across the chart, or use the arrow keys, to set the fit window.', p.y.label, p.x.label))
       .then(() => this._brush.attach(this._chart.view))
+      .then(() => this._sliders.replay())
       .catch(reason => {
         this._status.node.textContent = this._trans.__('The chart could not be drawn: %1', reason instanceof Error ? reason.message : String(reason));
       })
       .then(() => this._exports?.update());
+  }
+
+  /** The model at the sliders' values, patched into the drawn chart and residuals (no new spec). */
+  private async _previewModel(evaluation: IModelEvaluation): Promise<void> {
+    const model = this._sliders.model;
+    const view = this._chart.view;
+    const drawn: Promise<unknown>[] = [this._checks.previewResiduals(evaluation.residuals)];
+    if (view && model) {
+      let named = true;
+      try {
+        view.data(FIT_CURVE_DATA);
+      } catch {
+        named = false;
+      }
+      if (named) {
+        view.data(FIT_CURVE_DATA, fitCurveRows({ x: model.curveX, y: evaluation.curveY }, this._trans.__('fitted model')));
+        drawn.push(view.runAsync());
+      }
+    }
+    await Promise.all(drawn);
   }
 
   private _renderNotes(table: ITable | null): void {
@@ -633,6 +668,7 @@ export class AnalysisPanel extends Panel {
   private _chart: ChartView;
   private _brush: WindowBrush;
   private _checks: FitChecks;
+  private _sliders: ModelSliders;
   private _comparison: ComparisonView;
   private _scan: WindowScanView;
   private _bootstrap: BootstrapView;

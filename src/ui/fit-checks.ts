@@ -7,6 +7,7 @@
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
 import { buildCorrelationSpec, buildResidualSpec } from '../charts/temperature';
+import { RESIDUAL_DATA, residualRows } from '../charts/temperature/residuals';
 import type { IChartTheme } from '../charts/theme';
 import type { IAnalysisJob, IAnalysisOutcome } from '../core/analysis';
 import { windowedPoints } from '../core/analysis/window';
@@ -93,6 +94,7 @@ export class FitChecks extends Panel {
     } else if ((!w || w.mode === 'sigma') && points.sigma) {
       sigma = points.sigma;
     }
+    this._points = { x: points.x, sigma };
     const residuals = buildResidualSpec({ x: points.x, residuals: outcome.fit.residuals, sigma, xTitle: titles.x }, theme, { yUnit: titles.yUnit });
     const correlation = buildCorrelationSpec({ parameters: [...outcome.fit.parameters], correlation: outcome.fit.correlation.map(r => [...r]) }, theme);
     this._rendered = Promise.all([
@@ -121,6 +123,27 @@ export class FitChecks extends Panel {
     this._weights.replaceChildren(...nodes);
   }
 
+  /**
+   * Show other residuals of the points shown (e.g. of the model at other
+   * parameter values), in the order fitted, in the drawn chart without a new
+   * spec; null shows the fit's own again. Does nothing while no residual
+   * chart is shown or for a count that is not the points'.
+   */
+  async previewResiduals(residuals: ArrayLike<number> | null): Promise<void> {
+    const view = this._residuals.view;
+    const shown = this._shown;
+    const points = this._points;
+    if (!view || !shown || !points || this.isHidden) {
+      return;
+    }
+    const values = residuals ?? shown.fit.residuals;
+    if (values.length !== points.x.length) {
+      return;
+    }
+    view.data(RESIDUAL_DATA, residualRows({ x: points.x, residuals: values, sigma: points.sigma }));
+    await view.runAsync();
+  }
+
   /** Redraw (theme change). */
   redraw(): void {
     this._shown = null;
@@ -132,5 +155,6 @@ export class FitChecks extends Panel {
   private readonly _residuals: ChartView;
   private readonly _correlation: ChartView;
   private _shown: IAnalysisOutcome | null = null;
+  private _points: { x: number[]; sigma: ArrayLike<number> | undefined } | null = null;
   private _rendered: Promise<void> = Promise.resolve();
 }

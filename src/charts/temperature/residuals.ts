@@ -28,8 +28,15 @@ export interface IResidualChartOptions extends ITemperatureChartOptions {
   yUnit?: string;
 }
 
-/** Builds the residual chart; empty or non-finite input gives an empty chart saying so. */
-export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, options: IResidualChartOptions = {}): ISweepChart {
+/** Name of the residual points' dataset, with rows {@link residualRows}: a drawn view takes new residuals in place. */
+export const RESIDUAL_DATA = 'residuals';
+
+/** The rows of the residual points: (x, residual or residual/σ, row), reduced like the chart's. */
+export function residualRows(input: Omit<IResidualInput, 'xTitle'>, options: { maxPoints?: number } = {}): { x: number; r: number; row: number }[] {
+  return residualValues(input, options).points;
+}
+
+function residualValues(input: Omit<IResidualInput, 'xTitle'>, options: { maxPoints?: number }) {
   const { x, residuals } = input;
   const n = Math.min(x.length, residuals.length);
   const sigma = input.sigma;
@@ -43,6 +50,14 @@ export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, opt
     value[i] = normalised ? (usable(i) ? residuals[i] / Math.abs(sigma![i]) : Number.NaN) : residuals[i];
   }
   const { rows, total } = drawnRows(x, value, () => true, options.maxPoints);
+  const points = Array.from(rows, i => ({ x: x[i], r: value[i], row: i }));
+  return { n, normalised, value, rows, total, points };
+}
+
+/** Builds the residual chart; empty or non-finite input gives an empty chart saying so. */
+export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, options: IResidualChartOptions = {}): ISweepChart {
+  const { x } = input;
+  const { n, normalised, value, rows, total, points } = residualValues(input, options);
   let beyond = 0;
   if (normalised) {
     for (let i = 0; i < n; i++) {
@@ -51,7 +66,6 @@ export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, opt
       }
     }
   }
-  const points = Array.from(rows, i => ({ x: x[i], r: value[i], row: i }));
   const unit = (options.yUnit ?? '').trim();
   const yTitle = normalised ? '(y − model)/σ' : unit ? `y − model (${unit})` : 'y − model';
   const layer: ChartLayer[] = [];
@@ -76,7 +90,7 @@ export function buildResidualSpec(input: IResidualInput, theme: IChartTheme, opt
       encoding: { y: { field: 'zero', type: 'quantitative' } }
     },
     {
-      data: { values: points },
+      data: { name: RESIDUAL_DATA, values: points },
       mark: { type: 'point', filled: true, size: 30, color: theme.accent, opacity: 0.9, tooltip: true },
       encoding: {
         x: { field: 'x', type: 'quantitative', title: input.xTitle, scale: { zero: false } },

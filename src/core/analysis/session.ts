@@ -399,8 +399,18 @@ export class AnalysisSession {
       options: { ...this.options },
       xNames: [p.x.column.name],
       ...(this._weights ? { weights: { ...this._weights } } : {}),
-      ...(columns ? { columns } : {})
+      ...(columns ? { columns } : {}),
+      ...(this._start ? { start: { ...this._start } } : {})
     };
+  }
+
+  /**
+   * Where the next fits start, by parameter name (null: each kind's own
+   * start). Not saved, and no change of the controls: a start moves where
+   * the fit begins, not what it fits.
+   */
+  setStart(values: Readonly<Record<string, number>> | null): void {
+    this._start = values ? { ...values } : null;
   }
 
   /** Values of the chosen kind's column options (a header chosen, number columns only), by option key; null when none. */
@@ -738,6 +748,7 @@ export class AnalysisSession {
   private _source: ITableSource | null;
   private _isotherms: ISavedIsotherms | null = null;
   private _weights: { mode: 'sigma' | 'relative' | 'equal'; fraction: number | null } | null = null;
+  private _start: Record<string, number> | null = null;
   private _sourceState: SourceState = 'live';
   private _sourceMessages: readonly ICoreMessage[] = [];
   private _table: ITable | null = null;
