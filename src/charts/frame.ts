@@ -10,7 +10,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import type { Field } from 'vega-lite/types_unstable/channeldef.js';
 import type { LayerSpec, TopLevelUnitSpec, UnitSpec } from 'vega-lite/types_unstable/spec/index.js';
 import type { IChartTheme } from './theme';
-import { themeConfig } from './theme';
+import { scaleBody, themeConfig } from './theme';
 
 /** Vega-Lite's channel definitions, for encodings shared by several layers. */
 export type { ColorDef, Field, PositionFieldDef } from 'vega-lite/types_unstable/channeldef.js';
@@ -56,7 +56,7 @@ function envelope(frame: IChartFrame) {
 export function layeredChart(layer: ChartLayer[], frame: IChartFrame, resolve?: ChartResolve): TopLevelSpec {
   return {
     ...envelope(frame),
-    layer,
+    layer: scaleBody(layer, frame.theme),
     ...(resolve ? { resolve } : {}),
     config: themeConfig(frame.theme)
   };
@@ -66,7 +66,7 @@ export function layeredChart(layer: ChartLayer[], frame: IChartFrame, resolve?: 
 export function singleViewChart(view: ChartView, frame: IChartFrame): TopLevelSpec {
   return {
     ...envelope(frame),
-    ...view,
+    ...scaleBody(view, frame.theme),
     config: themeConfig(frame.theme)
   };
 }

@@ -15,6 +15,7 @@ import { locateOutputNode } from './locate';
 import type { IPsiscapeSettings } from './settings';
 import type { IWorkbench } from './workbench';
 import type { IRestoreHooks } from './restore';
+import { Presenter } from './presenter';
 
 /** Command ids. */
 export namespace CommandIDs {
@@ -35,6 +36,7 @@ export namespace CommandIDs {
   export const saveSvg = 'psiscape:save-chart-svg';
   export const savePng = 'psiscape:save-chart-png';
   export const copyVegaLite = 'psiscape:copy-chart-vega-lite';
+  export const presentAnalysis = 'psiscape:present-analysis';
 }
 
 /** The export commands and the toolbar action each runs (src/ui/export-bar.ts). */
@@ -71,6 +73,8 @@ export interface IWorkbenchLoader {
   workbench(): Promise<IWorkbench>;
   /** The workbench if it has been loaded, else null (never triggers a load). */
   loaded(): IWorkbench | null;
+  /** The presenter view of analysis panels. */
+  presenter: Presenter;
 }
 
 /** Register the commands; what they do loads with the first use. */
@@ -234,6 +238,34 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     const open = instance?.panels.filter(p => !p.isDisposed) ?? [];
     return (open.find(p => hit !== undefined && p.node === hit) ?? open.find(p => p === current))?.exportBar ?? null;
   };
+  const presenter = new Presenter({
+    app,
+    scale: () => ctx.settings().presenterScale,
+    panels: () => instance?.panels.filter(p => !p.isDisposed) ?? []
+  });
+  // The panel under the context menu, else the one in focus, else the one presented, else the last one shown.
+  const panelToPresent = () => {
+    const hit = app.contextMenuHitTest(n => n.classList.contains('jp-psiscape-AnalysisPanel'));
+    const current = app.shell.currentWidget;
+    const open = instance?.panels.filter(p => !p.isDisposed) ?? [];
+    const visible = open.filter(p => p.isVisible);
+    return open.find(p => hit !== undefined && p.node === hit) ?? open.find(p => p === current) ?? presenter.current ?? visible[visible.length - 1] ?? null;
+  };
+  app.commands.addCommand(CommandIDs.presentAnalysis, {
+    label: trans.__('Present Analysis'),
+    caption: trans.__('Show this analysis alone in the main area, its charts filling it with larger text, lines and points; again to return'),
+    describedBy: { args: { type: 'object', properties: {} } },
+    isEnabled: () => panelToPresent() !== null,
+    isToggled: () => presenter.current !== null && presenter.current === panelToPresent(),
+    execute: () => {
+      const panel = panelToPresent();
+      if (panel) {
+        presenter.toggle(panel);
+      }
+    }
+  });
+  presenter.changed.connect(() => app.commands.notifyCommandChanged(CommandIDs.presentAnalysis));
+
   for (const [id, action] of EXPORT_COMMANDS) {
     app.commands.addCommand(id, {
       label: exportLabels[action],
@@ -246,5 +278,5 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     });
   }
 
-  return { workbench, loaded: () => instance };
+  return { workbench, loaded: () => instance, presenter };
 }

@@ -48,9 +48,6 @@ const plugin: JupyterFrontEndPlugin<void> = {
     });
     const settings = await settingRegistry.load(PLUGIN_ID);
     let current = readSettings(settings.composite);
-    settings.changed.connect(() => {
-      current = readSettings(settings.composite);
-    });
     const loader = registerCommands({
       app,
       tracker,
@@ -63,8 +60,22 @@ const plugin: JupyterFrontEndPlugin<void> = {
         return item && !item.done && item.value.type !== 'directory' ? item.value.path : null;
       }
     });
+    // A change in the settings editor shows at once in every open panel.
+    settings.changed.connect(() => {
+      const previous = current;
+      current = readSettings(settings.composite);
+      const panels = loader.loaded()?.panels.filter(p => !p.isDisposed) ?? [];
+      if (current.pointSize !== previous.pointSize) {
+        for (const p of panels) {
+          p.pointSize = current.pointSize;
+        }
+      }
+      if (current.presenterScale !== previous.presenterScale) {
+        loader.presenter.updateScale();
+      }
+    });
     if (palette) {
-      for (const command of [CommandIDs.analyseSelectedCell, CommandIDs.analyseIsothermsSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer, ...EXPORT_COMMANDS.map(([id]) => id)]) {
+      for (const command of [CommandIDs.presentAnalysis, CommandIDs.analyseSelectedCell, CommandIDs.analyseIsothermsSelectedCell, CommandIDs.reopenSaved, CommandIDs.openLandauExplorer, ...EXPORT_COMMANDS.map(([id]) => id)]) {
         palette.addItem({ command, category: trans.__('psiscape') });
       }
     }

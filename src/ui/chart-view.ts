@@ -17,6 +17,27 @@ import type { Spec, View } from 'vega';
  */
 export const CANVAS_ABOVE_VALUES = 2000;
 
+/**
+ * Class of a panel shown in the presenter view: the charts inside it take
+ * their height from the panel's (see {@link presenterHeightFactor}).
+ */
+export const PRESENTING_CLASS = 'jp-psiscape-mod-presenting';
+
+/** Share of a presenting panel's height the default 300 px chart grows to. */
+const PRESENTER_HEIGHT_SHARE = 0.62;
+
+/**
+ * Factor by which a chart's own height grows inside a presenting panel of
+ * `panelHeight` px: a 300 px chart takes {@link PRESENTER_HEIGHT_SHARE} of
+ * the panel, other heights in proportion; never below 1 nor above 4.
+ */
+export function presenterHeightFactor(panelHeight: number): number {
+  if (!Number.isFinite(panelHeight) || panelHeight <= 0) {
+    return 1;
+  }
+  return Math.min(4, Math.max(1, (panelHeight * PRESENTER_HEIGHT_SHARE) / 300));
+}
+
 /** The Vega renderers a ChartView uses. */
 export type ChartRenderer = 'svg' | 'canvas';
 
@@ -78,6 +99,11 @@ export class ChartView extends Widget {
     super();
     this.addClass('jp-psiscape-ChartView');
     this.node.setAttribute('role', 'img');
+    if (typeof ResizeObserver !== 'undefined') {
+      // Widths change without a Lumino resize message too (a scroll bar appears, the panel's CSS changes).
+      this._observer = new ResizeObserver(() => this._scheduleFit());
+      this._observer.observe(this.node);
+    }
   }
 
   /** The current Vega view, once a spec has been rendered. */
@@ -111,7 +137,8 @@ export class ChartView extends Widget {
     // Compiling, parsing and drawing each run in their own task, so that a
     // large chart never holds the page for one long task; the previous chart
     // stays until the new one is ready to draw.
-    const compiled = vegaLite.compile(spec).spec;
+    const sized = this._sized(spec);
+    const compiled = vegaLite.compile(sized).spec;
     await nextTask();
     if (this.isDisposed || token !== this._renderToken) {
       return;
@@ -130,8 +157,64 @@ export class ChartView extends Widget {
     });
     this._view = view;
     this._renderer = renderer;
+    const drawnHeight = (sized as { height?: unknown }).height;
+    this._applied = { width: null, height: typeof drawnHeight === 'number' ? drawnHeight : null };
     this.node.setAttribute('aria-label', label);
     await view.runAsync();
+  }
+
+  /**
+   * The height the spec is drawn at here: its own, or grown with the panel
+   * in the presenter view; null when the spec sets none.
+   */
+  heightFor(spec: TopLevelSpec): number | null {
+    const own = (spec as { height?: unknown }).height;
+    if (typeof own !== 'number') {
+      return null;
+    }
+    const panel = this.node.closest(`.${PRESENTING_CLASS}`);
+    return panel ? Math.round(own * presenterHeightFactor((panel as HTMLElement).clientHeight)) : own;
+  }
+
+  /** Follow the container's width and the presenting panel's height without drawing the chart anew. */
+  fit(): void {
+    const view = this._view;
+    const spec = this._spec;
+    if (!view || !spec || this.isDisposed) {
+      return;
+    }
+    let changed = false;
+    const width = this.node.clientWidth;
+    if ((spec as { width?: unknown }).width === 'container' && width > 0 && width !== this._applied.width) {
+      view.width(width);
+      this._applied.width = width;
+      changed = true;
+    }
+    const height = this.heightFor(spec);
+    if (height !== null && height !== this._applied.height) {
+      view.height(height);
+      this._applied.height = height;
+      changed = true;
+    }
+    if (changed) {
+      void view.resize().runAsync();
+    }
+  }
+
+  private _sized(spec: TopLevelSpec): TopLevelSpec {
+    const height = this.heightFor(spec);
+    return height === null || height === (spec as { height?: unknown }).height ? spec : ({ ...spec, height } as TopLevelSpec);
+  }
+
+  private _scheduleFit(): void {
+    if (this._fitPending) {
+      return;
+    }
+    this._fitPending = true;
+    setTimeout(() => {
+      this._fitPending = false;
+      this.fit();
+    }, 0);
   }
 
   /** Remove the chart. */
@@ -146,14 +229,14 @@ export class ChartView extends Widget {
     if (this.isDisposed) {
       return;
     }
+    this._observer?.disconnect();
+    this._observer = null;
     this._finalize();
     super.dispose();
   }
 
   protected onResize(): void {
-    if (this._view) {
-      void this._view.resize().runAsync();
-    }
+    this.fit();
   }
 
   private _finalize(): void {
@@ -167,4 +250,7 @@ export class ChartView extends Widget {
   private _spec: TopLevelSpec | null = null;
   private _renderer: ChartRenderer = 'svg';
   private _renderToken = 0;
+  private _applied: { width: number | null; height: number | null } = { width: null, height: null };
+  private _observer: ResizeObserver | null = null;
+  private _fitPending = false;
 }

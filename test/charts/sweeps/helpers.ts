@@ -7,6 +7,7 @@ import { expect } from 'vitest';
 import { compile } from 'vega-lite';
 import type { TopLevelSpec } from 'vega-lite';
 import type { ISweepChart } from '../../../src/charts/sweeps/index';
+import { categoricalColours, divergingColours, sequentialColours } from '../../../src/charts/theme';
 import type { IChartTheme } from '../../../src/charts/theme';
 
 /** A theme of colours no library default uses, so each one found in a spec came from it. */
@@ -22,9 +23,9 @@ export const distinctTheme: IChartTheme = {
   diverging: ['#1a2b8c', '#8c9ad0', '#eeeef0', '#d09a8c', '#8c2b1a']
 };
 
-/** Every colour the theme defines, lower case. */
+/** Every colour the theme draws with (its series colours and ramps, or theme.ts's own where it gives none), lower case. */
 export function themeColours(theme: IChartTheme): Set<string> {
-  return new Set([theme.background, theme.text, theme.grid, theme.accent, theme.accent2, ...(theme.categorical ?? []), ...(theme.sequential ?? []), ...(theme.diverging ?? [])].map(c => c.toLowerCase()));
+  return new Set([theme.background, theme.text, theme.grid, theme.accent, theme.accent2, ...categoricalColours(theme), ...sequentialColours(theme), ...divergingColours(theme)].map(c => c.toLowerCase()));
 }
 
 /** Compiles the spec; fails on any Vega-Lite warning or error. */
