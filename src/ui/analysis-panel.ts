@@ -160,6 +160,18 @@ export class AnalysisPanel extends Panel {
     return this._session;
   }
 
+  /** Area of a data point in px² (the setting); a change redraws the chart. */
+  get pointSize(): number {
+    return this._pointSize;
+  }
+
+  set pointSize(value: number) {
+    if (value !== this._pointSize && Number.isFinite(value) && value > 0) {
+      this._pointSize = value;
+      this.redraw();
+    }
+  }
+
   /** The export toolbar, when the lab gave the panel somewhere to export to. */
   get exportBar(): ExportBar | null {
     return this._exports;
