@@ -424,8 +424,17 @@ export class AnalysisPanel extends Panel {
     this._reduced.setHidden(hidden || outcome === null || s.kind === 'curie-weiss' || s.kind === 'expression');
     if (outcome !== this._viewsOutcome) {
       this._viewsOutcome = outcome;
-      void this._reduced.update(outcome);
-      void this._inverseChi.update(outcome, null);
+      // In tasks of their own: on a large table each view reduces every point, and the page stays responsive between them.
+      setTimeout(() => {
+        if (!this.isDisposed && this._viewsOutcome === outcome) {
+          void this._reduced.update(outcome);
+        }
+      }, 0);
+      setTimeout(() => {
+        if (!this.isDisposed && this._viewsOutcome === outcome) {
+          void this._inverseChi.update(outcome, null);
+        }
+      }, 0);
     }
   }
 
@@ -435,13 +444,21 @@ export class AnalysisPanel extends Panel {
     const s = this._session;
     const p = s.plotted();
     const job = s.job();
+    const token = ++this._checksToken;
     if (hidden || !p || !('kind' in job) || !this.isAttached) {
       this._checks.setOutcome(null, null, readChartTheme(this.node), { x: '', yUnit: '' });
       this._sliders.setOutcome(null, null);
       return;
     }
     this._sliders.setOutcome(s.outcomeIsCurrent ? s.outcome : null, job);
-    this._checks.setOutcome(s.outcomeIsCurrent ? s.outcome : null, job, readChartTheme(this.node), { x: p.x.label, yUnit: p.y.column.unit ?? '' });
+    const outcome = s.outcomeIsCurrent ? s.outcome : null;
+    const theme = readChartTheme(this.node);
+    const titles = { x: p.x.label, yUnit: p.y.column.unit ?? '' };
+    setTimeout(() => {
+      if (!this.isDisposed && token === this._checksToken) {
+        this._checks.setOutcome(outcome, job, theme, titles);
+      }
+    }, 0);
   }
 
   /** Stop waiting for a restored analysis's fit and draw what there is. */
@@ -688,6 +705,7 @@ export class AnalysisPanel extends Panel {
   private _inverseChi: InverseChiView;
   private _taskRunners: AnalysisRunner[] = [];
   private _viewsOutcome: IAnalysisOutcome | null = null;
+  private _checksToken = 0;
   private _status: Widget;
   private _fit: FitSection;
   private _exports: ExportBar | null;
