@@ -12,6 +12,8 @@ import { hashBundle } from '../core/source';
 import type { ITableSource } from '../core/source';
 import { AnalysisPanel } from '../ui/analysis-panel';
 import { LandauExplorer } from '../ui/landau';
+import type { ILandauExplorerState, ILandauOverlay } from '../ui/landau/explorer';
+import type { ISavedExplorer } from '../core/saved/explorers';
 import type { ILocatedOutput } from './locate';
 import { outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
@@ -303,8 +305,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
         await revealCell(app, tracker, panel.context.path, cellId);
       },
       onExploreLandau: k => {
-        // The explorer keeps its scenario in this notebook and reopens with it.
-        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k, notebook: panel.context.path });
+        // The explorer keeps its scenario in this notebook and reopens with it; the fitted points and curve are drawn over its branches.
+        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k, notebook: panel.context.path, overlay: landauOverlay(session) as unknown as ReadonlyPartialJSONObject });
       },
       onForget: source
         ? () => {
@@ -420,7 +422,7 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     // Explorers opened from this notebook's fits, not open yet (e.g. restored with the layout).
     for (const e of saved.explorers) {
       if (!explorers.some(x => !x.isDisposed && x.id === e.id)) {
-        await openExplorer({ ...e.coefficients, convention: e.convention, T: e.T, h: e.h, id: e.id, notebook: panel.context.path });
+        await openExplorer({ ...e, ...e.coefficients, convention: e.convention, T: e.T, h: e.h, id: e.id, notebook: panel.context.path });
       }
     }
     const closed = analyses.filter(a => !openIds.has(a.id) && isKnownKind(a.settings?.kind ?? DEFAULT_KIND));
@@ -625,10 +627,22 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     const given = ['a', 'T0', 'b', 'c'].every(key => num(key) !== undefined);
     const explorer = new LandauExplorer({
       trans,
-      initial: given ? { a: num('a')!, T0: num('T0')!, b: num('b')!, c: num('c')!, d: num('d') ?? 0, T: num('T'), h: num('h') } : undefined
+      initial: given ? { a: num('a')!, T0: num('T0')!, b: num('b')!, c: num('c')!, d: num('d') ?? 0, T: num('T'), h: num('h') } : undefined,
+      overlay: overlayArg(args.overlay)
     });
-    if (given && typeof args.convention === 'string' && args.convention !== 'L') {
-      void explorer.setScenario({ a: num('a')!, T0: num('T0')!, b: num('b')!, c: num('c')!, d: num('d') ?? 0, T: num('T'), h: num('h'), convention: args.convention as LandauConvention });
+    const workbenchArgs = ['preset', 'typed', 'coupled', 'view', 'presetValues'].some(key => args[key] !== undefined);
+    if (given && ((typeof args.convention === 'string' && args.convention !== 'L') || workbenchArgs)) {
+      void explorer.setScenario({
+        a: num('a')!,
+        T0: num('T0')!,
+        b: num('b')!,
+        c: num('c')!,
+        d: num('d') ?? 0,
+        T: num('T'),
+        h: num('h'),
+        convention: (typeof args.convention === 'string' ? args.convention : 'L') as LandauConvention,
+        ...(workbenchArgs ? (args as unknown as Pick<ILandauExplorerState, 'preset' | 'presetValues' | 'typed' | 'coupled' | 'view'>) : {})
+      });
     }
     explorer.id = requested ?? `jp-psiscape-landau-${UUID.uuid4()}`;
     // Explorers share one dock area: the first splits the main area, later ones join it as tabs.
@@ -670,7 +684,17 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
         return;
       }
       const s = explorer.scenario();
-      const blocked = upsertExplorerIn(panel, { id: explorer.id, coefficients: { a: s.a, T0: s.T0, b: s.b, c: s.c, d: s.d }, convention: s.convention, T: s.T, h: s.h });
+      const blocked = upsertExplorerIn(panel, {
+        id: explorer.id,
+        coefficients: { a: s.a, T0: s.T0, b: s.b, c: s.c, d: s.d },
+        convention: s.convention,
+        T: s.T,
+        h: s.h,
+        ...(s.preset ? { preset: s.preset, presetValues: s.presetValues } : {}),
+        ...(s.typed ? { typed: s.typed } : {}),
+        ...(s.coupled ? { coupled: s.coupled as unknown as NonNullable<ISavedExplorer['coupled']> } : {}),
+        ...(s.view ? { view: s.view } : {})
+      });
       if (blocked) {
         notify(notebookPath, [blocked]);
       }
@@ -690,4 +714,40 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
   };
 
   return { panels: opened, followers, explorers, restore, reopenSaved, analyseOutput, analyseSelectedCell, analyseFile, openExplorer };
+}
+
+/** The fitted points (inside the window) and the fitted curve of a Landau fit, for the explorer's branches chart. */
+function landauOverlay(session: AnalysisSession): ILandauOverlay {
+  const data: ILandauOverlay['data'] = [];
+  const job = session.job();
+  if (!('code' in job)) {
+    for (let i = 0; i < job.x.length; i++) {
+      const T = job.x[i];
+      const psi = job.y[i];
+      if (Number.isFinite(T) && Number.isFinite(psi) && T >= job.window.min && T <= job.window.max) {
+        data.push({ T, psi });
+      }
+    }
+  }
+  const curve = session.outcome?.curve;
+  const fitted: ILandauOverlay['fitted'] = [];
+  if (curve) {
+    for (let i = 0; i < curve.x.length; i++) {
+      if (Number.isFinite(curve.x[i]) && Number.isFinite(curve.y[i])) {
+        fitted.push({ T: curve.x[i], psi: curve.y[i] });
+      }
+    }
+  }
+  return { data, fitted };
+}
+
+/** An overlay passed as a command argument, checked. */
+function overlayArg(value: unknown): ILandauOverlay | undefined {
+  if (typeof value !== 'object' || value === null) {
+    return undefined;
+  }
+  const rows = (v: unknown): { T: number; psi: number }[] =>
+    Array.isArray(v) ? v.filter((r): r is { T: number; psi: number } => typeof r === 'object' && r !== null && Number.isFinite((r as { T: unknown }).T) && Number.isFinite((r as { psi: unknown }).psi)) : [];
+  const o = value as { data?: unknown; fitted?: unknown };
+  return { data: rows(o.data), fitted: rows(o.fitted) };
 }

@@ -148,8 +148,8 @@ export function branchesRows(options: IBranchesChartOptions): Record<string, Rec
     markers: markers.map(m => ({ T: m.T, label: m.label })),
     marker_text: markers.map((m, i) => ({ T: m.T, label: m.label, py: 2 + 13 * i })),
     current: current.map(c => ({ T: c.T, label: c.label })),
-    data: xy(options.data),
-    fit: xy(options.fitted).map((r, i) => ({ ...r, order: i }))
+    ...(options.data !== undefined ? { data: xy(options.data) } : {}),
+    ...(options.fitted !== undefined ? { fit: xy(options.fitted).map((r, i) => ({ ...r, order: i })) } : {})
   };
 }
 
@@ -281,5 +281,5 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
     });
   }
   const spec = layeredChart(layer, { description: `${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, title: labels.title, theme });
-  return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length + rows.data.length + rows.fit.length };
+  return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length + (rows.data?.length ?? 0) + (rows.fit?.length ?? 0) };
 }

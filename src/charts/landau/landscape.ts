@@ -43,6 +43,11 @@ export interface ILandscapeChartOptions {
    * with different F (default true); the curve is clipped outside.
    */
   focus?: boolean;
+  /** Fixed axis domains (the view); `yDomain` replaces the focus. */
+  xDomain?: [number, number];
+  yDomain?: [number, number];
+  /** Keep every layer and every kind in the legend so a drawn view can take new rows in place ({@link landscapeRows}). */
+  patchable?: boolean;
 }
 
 const SHAPES: Record<LandauPointKind, string> = { stable: 'circle', metastable: 'square', unstable: 'triangle-up', inflection: 'diamond' };
@@ -92,26 +97,17 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
     ...options.labels,
     kinds
   };
-  const curve: { psi: number; F: number }[] = [];
-  for (let i = 0; i < psi.length; i++) {
-    if (finite(psi[i]) && finite(F[i])) {
-      curve.push({ psi: psi[i], F: F[i] });
-    }
-  }
-  const marks: { psi: number; F: number; kind: string }[] = [];
-  for (const p of points) {
-    if (finite(p.psi) && finite(p.F)) {
-      marks.push({ psi: p.psi, F: p.F, kind: kinds[p.kind] });
-    }
-  }
-  const g = options.global >= 0 && options.global < points.length ? points[options.global] : null;
-  const globalRow = g && finite(g.psi) && finite(g.F) ? [{ psi: g.psi, F: g.F, text: labels.globalMinimum }] : [];
+  const rows = landscapeRows(options);
+  const curve = rows.curve;
+  const marks = rows.stationary;
+  const globalRow = rows.global;
 
   const present = new Set(points.map(p => p.kind));
-  const shown = KIND_ORDER.filter(k => k !== 'inflection' || present.has(k));
+  const shown = KIND_ORDER.filter(k => options.patchable === true || k !== 'inflection' || present.has(k));
   const colours = kindColours(theme);
-  const focus = options.focus === false ? null : landscapeFocus(points);
-  const x: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: { zero: false, nice: false } };
+  const valid = (d: [number, number] | undefined): d is [number, number] => d !== undefined && finite(d[0]) && finite(d[1]) && d[1] > d[0];
+  const focus = valid(options.yDomain) ? options.yDomain : options.focus === false ? null : landscapeFocus(points);
+  const x: PositionFieldDef<Field> = { field: 'psi', type: 'quantitative', title: labels.psi, scale: valid(options.xDomain) ? { domain: options.xDomain, zero: false, nice: false } : { zero: false, nice: false } };
   const y: PositionFieldDef<Field> = { field: 'F', type: 'quantitative', title: labels.F, scale: focus ? { domain: focus, zero: false, nice: false } : { zero: false, padding: 14 } };
   const layer: ChartLayer[] = [
     {
@@ -137,7 +133,7 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
       }
     }
   ];
-  if (globalRow.length) {
+  if (options.patchable === true || globalRow.length) {
     layer.push(
       {
         name: 'landscape_global',
@@ -155,4 +151,26 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
   }
   const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, title: labels.title, theme });
   return { spec, rows: curve.length + marks.length + globalRow.length };
+}
+
+/** Rows of every dataset of the landscape chart, by dataset name (for in-place updates). */
+export function landscapeRows(options: ILandscapeChartOptions): { curve: { psi: number; F: number }[]; stationary: { psi: number; F: number; kind: string }[]; global: { psi: number; F: number; text: string }[]; global_text: { psi: number; F: number; text: string }[] } {
+  const { psi, F, points } = options;
+  const kinds = { ...DEFAULT_KIND_LABELS, ...options.labels?.kinds };
+  const globalText = options.labels?.globalMinimum ?? 'global minimum';
+  const curve: { psi: number; F: number }[] = [];
+  for (let i = 0; i < psi.length; i++) {
+    if (finite(psi[i]) && finite(F[i])) {
+      curve.push({ psi: psi[i], F: F[i] });
+    }
+  }
+  const stationary: { psi: number; F: number; kind: string }[] = [];
+  for (const p of points) {
+    if (finite(p.psi) && finite(p.F)) {
+      stationary.push({ psi: p.psi, F: p.F, kind: kinds[p.kind] });
+    }
+  }
+  const g = options.global >= 0 && options.global < points.length ? points[options.global] : null;
+  const global = g && finite(g.psi) && finite(g.F) ? [{ psi: g.psi, F: g.F, text: globalText }] : [];
+  return { curve, stationary, global, global_text: global };
 }

@@ -13,7 +13,8 @@ import { Signal } from '@lumino/signaling';
 import type { ISignal } from '@lumino/signaling';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
 import { readChartTheme } from '../chart-theme';
-import type { IBranchesData, IExplorerDerived } from '../../core/physics/landau/index';
+import type { IBranchesData, IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
+import type { TopLevelSpec } from 'vega-lite';
 import { branchesData, explorerDerived, landscapeData } from '../../core/physics/landau/index';
 import { DerivedSection } from './derived-section';
 import { formatValue } from './derived-table';
@@ -24,6 +25,14 @@ import { FrameThrottle } from './frame';
 import { CONVENTIONS, coefficientsFrom, valuesIn } from './fields';
 import { defaultTemperature, stateRanges } from './ranges';
 import { branchesSpec, landscapeSpec } from './specs';
+import { branchesRows, buildLandscape2dSpec, buildLoopSpec, buildPhaseDiagramSpec, landscapeFocus, landscapeRows, loopRows, phaseDiagramRows } from '../../charts/landau/index';
+import type { ICoupledCoefficients } from '../../core/physics/coupled';
+import { compileFreeEnergy, typedErrorText } from '../../core/expr/index';
+import { ExpressionError } from '../../core/expr/index';
+import type { ITypedFreeEnergy } from '../../core/physics/landau/index';
+import { coupledLandscape, landauFieldLoop, landauPhaseDiagram, linspace, typedCurve, typedStationary } from '../../core/physics/landau/index';
+import type { WorkbenchPreset, WorkbenchView } from './workbench-parts';
+import { DEFAULT_COUPLED, SliderGroup, WORKBENCH_PRESETS, WorkbenchTabs, coupledFields, presetFormula, presetName, presetSetting } from './workbench-parts';
 
 /** Starting coefficients (convention L) and state. */
 export interface ILandauExplorerInitial {
@@ -49,6 +58,33 @@ export interface ILandauExplorerState {
   convention: LandauConvention;
   T: number;
   h: number;
+  /** Preset the free energy was set from. */
+  preset?: WorkbenchPreset;
+  presetValues?: Record<string, number>;
+  /** A free energy typed by the user, with its coefficients' values. */
+  typed?: { text: string; values: Record<string, number> };
+  /** Coefficients of the two-order-parameter landscape (a1, T1, b1, a2, T2, b2, lambda). */
+  coupled?: Record<string, number>;
+  /** The chart tab shown. */
+  view?: WorkbenchView;
+}
+
+/** Measured points and a fitted curve drawn over the branches (e.g. from a Landau fit). */
+export interface ILandauOverlay {
+  data: { T: number; psi: number }[];
+  fitted: { T: number; psi: number }[];
+}
+
+/** Axes of the charts, fixed while sliders move. */
+export interface IWorkbenchAxes {
+  T: [number, number];
+  psi: [number, number];
+  landscapePsi: [number, number];
+  landscapeF: [number, number];
+  /** Field axis of the phase diagram (set when it is first drawn). */
+  h: [number, number] | null;
+  /** Half-range of the loop's field (set when it is first drawn). */
+  loop: number | null;
 }
 
 /** First-order example of [C5 in REFERENCES.md]: a = 0.5, b = −2, c = 4, T0 = 100. */
@@ -82,10 +118,46 @@ export class LandauExplorer extends Panel {
     charts.addClass('jp-psiscape-landau-charts');
     this._landscape.addClass('jp-psiscape-landau-landscape');
     this._branches.addClass('jp-psiscape-landau-branches');
-    charts.addWidget(this._landscape);
-    charts.addWidget(this._branches);
+    this._phase.addClass('jp-psiscape-landau-phase-diagram');
+    this._grid2d.addClass('jp-psiscape-landau-landscape-2d');
+    this._loop.addClass('jp-psiscape-landau-loop');
+    this._overlay = options.overlay ?? null;
+    const onInvalid = (label: string, text: string): void => {
+      this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
+      this._schedule();
+    };
+    // the two-order-parameter sliders live in their tab
+    this._coupledGroup = new SliderGroup({ trans, title: trans.__('two order parameters'), className: 'jp-psiscape-landau-coupled', onInvalid });
+    const grid2dPanel = new Panel();
+    grid2dPanel.addWidget(this._coupledGroup);
+    grid2dPanel.addWidget(this._grid2d);
+    this._phaseNote.addClass('jp-psiscape-landau-note');
+    const phasePanel = new Panel();
+    phasePanel.addWidget(this._phaseNote);
+    phasePanel.addWidget(this._phase);
+    this._loopNote.addClass('jp-psiscape-landau-note');
+    const loopPanel = new Panel();
+    loopPanel.addWidget(this._loopNote);
+    loopPanel.addWidget(this._loop);
+    const panels = { landscape: this._landscape as Widget, branches: this._branches as Widget, 'phase-diagram': phasePanel as Widget, 'landscape-2d': grid2dPanel as Widget, loop: loopPanel as Widget };
+    this._tabs = new WorkbenchTabs({
+      trans,
+      panels,
+      onSelect: () => {
+        this._scenarioChanged.emit();
+        this._schedule();
+      }
+    });
+    charts.addWidget(this._tabs);
+    for (const w of Object.values(panels)) {
+      charts.addWidget(w);
+    }
+    this._workbench = this._buildWorkbenchBar(onInvalid);
+    this._showCoupled();
     this._derivedSection = new DerivedSection(trans);
+    this.addWidget(this._workbench);
     this.addWidget(this._controls);
+    this.addWidget(this._typedGroup);
     this.addWidget(this._message);
     this.addWidget(charts);
     this.addWidget(this._derivedSection);
@@ -119,7 +191,260 @@ export class LandauExplorer extends Panel {
    */
   scenario(): ILandauExplorerState {
     const k = this._k ?? this._lastGood;
-    return { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0, convention: this._controls.convention, T: this._T, h: this._h };
+    return {
+      a: k.a,
+      T0: k.T0,
+      b: k.b,
+      c: k.c,
+      d: k.d ?? 0,
+      convention: this._controls.convention,
+      T: this._T,
+      h: this._h,
+      ...(this._preset ? { preset: this._preset, presetValues: { ...this._presetValues } } : {}),
+      ...(this._typed ? { typed: { text: this._typed.f.text, values: { ...this._typed.values } } } : {}),
+      coupled: { ...this._coupled } as unknown as Record<string, number>,
+      view: this._tabs.selected
+    };
+  }
+
+  /** The chart tab shown. */
+  get view(): WorkbenchView {
+    return this._tabs.selected;
+  }
+
+  /** Shows a chart tab. */
+  selectView(view: string): void {
+    this._tabs.select(view);
+  }
+
+  /** The measured points and fitted curve drawn over the branches, or null. */
+  get overlay(): ILandauOverlay | null {
+    return this._overlay;
+  }
+
+  /** The typed free energy in use, or null. */
+  get typed(): { text: string; coefficients: readonly string[]; values: Record<string, number> } | null {
+    return this._typed ? { text: this._typed.f.text, coefficients: this._typed.f.coefficients, values: { ...this._typed.values } } : null;
+  }
+
+  /** The preset the free energy was set from, or null. */
+  get preset(): WorkbenchPreset | null {
+    return this._preset;
+  }
+
+  /** Fixed axes of the charts (set with the view; moved only by {@link fitView}). */
+  get axes(): IWorkbenchAxes | null {
+    return this._axes ? { ...this._axes } : null;
+  }
+
+  /** Recomputes the axes of every chart from what is shown now. */
+  fitView(): Promise<void> {
+    this._axes = null;
+    return this._schedule();
+  }
+
+  /**
+   * Sets the free energy from a preset (its coefficients, convention and
+   * own sliders) and shows its chart.
+   */
+  applyPreset(preset: WorkbenchPreset | null, values: Record<string, number> = {}): Promise<void> {
+    this._preset = preset;
+    this._presetSelect.value = preset ?? '';
+    if (!preset) {
+      this._presetValues = {};
+      this._presetGroup.node.hidden = true;
+      this._scenarioChanged.emit();
+      return this._schedule();
+    }
+    const setting = presetSetting(preset, values);
+    this._presetValues = { ...setting.values };
+    this._showPresetSliders();
+    this._clearTyped();
+    const done = this.setScenario({ ...setting.coefficients, convention: setting.convention, preset, presetValues: setting.values });
+    this._tabs.select(setting.view);
+    return done;
+  }
+
+  /**
+   * Uses a free energy typed by the user (null: back to the Landau form).
+   * Resolves with the error text (with a caret line) when it cannot be read.
+   */
+  async setTypedFreeEnergy(text: string | null, values: Record<string, number> = {}): Promise<string | null> {
+    if (text === null || text.trim() === '') {
+      this._clearTyped();
+      this._axes = null;
+      this._scenarioChanged.emit();
+      await this._schedule();
+      return null;
+    }
+    this._typedInput.value = text;
+    let f: ITypedFreeEnergy;
+    try {
+      f = compileFreeEnergy(text);
+    } catch (e) {
+      const words = translateMessage(this._trans, messageOf(e));
+      const shown = typedErrorText(text, words, e instanceof ExpressionError ? e.position : null);
+      this._typedError.textContent = shown;
+      this._typedError.hidden = false;
+      return shown;
+    }
+    this._typedError.hidden = true;
+    this._typedError.textContent = '';
+    const k = this._k ?? this._lastGood;
+    const guess: Record<string, number> = { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0 };
+    const next: Record<string, number> = {};
+    for (const name of f.coefficients) {
+      next[name] = Number.isFinite(values[name]) ? values[name] : Number.isFinite(guess[name]) ? guess[name] : 1;
+    }
+    this._typed = { f, values: next };
+    this._preset = null;
+    this._presetSelect.value = '';
+    this._presetGroup.node.hidden = true;
+    this._typedGroup.setFields(
+      this._trans.__('F = %1', text),
+      f.coefficients.map(name => ({ key: name, symbol: name, description: this._trans.__('coefficient %1 of the typed free energy', name), value: next[name], range: name.startsWith('T') ? 'temperature' : 'signed' })),
+      (key, v) => {
+        if (this._typed) {
+          this._typed.values = { ...this._typed.values, [key]: v };
+          this._badText = null;
+          this._scenarioChanged.emit();
+          this._schedule();
+        }
+      }
+    );
+    this._typedGroup.node.hidden = false;
+    this._axes = null;
+    this._scenarioChanged.emit();
+    await this._schedule();
+    return null;
+  }
+
+  private _clearTyped(): void {
+    this._typed = null;
+    this._typedGroup.node.hidden = true;
+    this._typedError.hidden = true;
+  }
+
+  private _showPresetSliders(): void {
+    const preset = this._preset;
+    const trans = this._trans;
+    if (!preset) {
+      this._presetGroup.node.hidden = true;
+      return;
+    }
+    const own = preset === 'bean-rodbell'
+      ? [
+          { key: 'eta', symbol: 'η', description: trans.__('magnetovolume coupling η (first order above 1)'), value: this._presetValues.eta, range: 'non-negative' as const },
+          { key: 'T0', symbol: 'T0', description: trans.__('Curie temperature T0 of the rigid lattice'), value: this._presetValues.T0, range: 'temperature' as const }
+        ]
+      : [];
+    this._presetGroup.setFields(presetFormula(trans, preset), own, (key, v) => {
+      this._presetValues = { ...this._presetValues, [key]: v };
+      if (this._preset === 'bean-rodbell') {
+        const s = presetSetting('bean-rodbell', this._presetValues);
+        this._replaceCoefficients(s.coefficients);
+      }
+    });
+    this._presetGroup.node.hidden = false;
+  }
+
+  /** New coefficients from a preset's own slider, keeping T − T0, h and the axes. */
+  private _replaceCoefficients(k: ILandauCoefficients): void {
+    const before = this._k ?? this._lastGood;
+    this._k = { ...k, d: k.d ?? 0 };
+    this._lastGood = { ...this._k };
+    this._T += this._k.T0 - before.T0;
+    this._controls.setState('T', this._T);
+    try {
+      this._values = valuesIn(this._k, this._controls.convention);
+      this._controls.showCoefficients(this._controls.convention, this._values);
+    } catch {
+      // shown in L by the next setCoefficients
+    }
+    this._scenarioChanged.emit();
+    this._schedule();
+  }
+
+  private _showCoupled(): void {
+    this._coupledGroup.setFields(this._trans.__('F(ψ, φ) = (a1/2)(T − T1)ψ² + (b1/4)ψ⁴ + (a2/2)(T − T2)φ² + (b2/4)φ⁴ + (λ/2)ψ²φ²'), coupledFields(this._trans, this._coupled), (key, v) => {
+      this._coupled = { ...this._coupled, [key]: v };
+      this._badText = null;
+      this._scenarioChanged.emit();
+      this._schedule();
+    });
+  }
+
+  private _buildWorkbenchBar(onInvalid: (label: string, text: string) => void): Widget {
+    const trans = this._trans;
+    const bar = new Panel();
+    bar.addClass('jp-psiscape-landau-workbench');
+    const row = new Widget();
+    row.addClass('jp-psiscape-landau-workbench-row');
+    const pick = document.createElement('label');
+    pick.className = 'jp-psiscape-picker';
+    const pickText = document.createElement('span');
+    pickText.textContent = trans.__('preset');
+    this._presetSelect.className = 'jp-mod-styled jp-psiscape-landau-preset';
+    for (const p of ['', ...WORKBENCH_PRESETS] as const) {
+      const option = document.createElement('option');
+      option.value = p;
+      option.textContent = presetName(trans, p);
+      this._presetSelect.appendChild(option);
+    }
+    pick.append(pickText, this._presetSelect);
+    this._presetSelect.addEventListener('change', () => {
+      const v = this._presetSelect.value;
+      void this.applyPreset(v === '' ? null : (v as WorkbenchPreset));
+    });
+    const fit = document.createElement('button');
+    fit.type = 'button';
+    fit.className = 'jp-mod-styled jp-psiscape-landau-fit-view';
+    fit.textContent = trans.__('Fit the view');
+    fit.title = trans.__('Recompute the axes of the charts from what they show now (the axes stay put while sliders move)');
+    fit.addEventListener('click', () => void this.fitView());
+    row.node.append(pick, fit);
+    const typed = new Widget();
+    typed.addClass('jp-psiscape-landau-typed');
+    const label = document.createElement('label');
+    label.className = 'jp-psiscape-landau-typed-label';
+    const labelText = document.createElement('span');
+    labelText.textContent = trans.__('free energy F(ψ; T, h) of your own (ψ or psi, T, h and named coefficients)');
+    this._typedInput.type = 'text';
+    this._typedInput.className = 'jp-mod-styled jp-psiscape-landau-typed-input';
+    this._typedInput.placeholder = 'a/2*(T - T0)*ψ^2 + b/4*ψ^4 + c/6*ψ^6 - h*ψ';
+    this._typedInput.spellcheck = false;
+    label.append(labelText, this._typedInput);
+    const use = document.createElement('button');
+    use.type = 'button';
+    use.className = 'jp-mod-styled jp-psiscape-landau-typed-use';
+    use.textContent = trans.__('Use');
+    use.addEventListener('click', () => void this.setTypedFreeEnergy(this._typedInput.value));
+    const clear = document.createElement('button');
+    clear.type = 'button';
+    clear.className = 'jp-mod-styled jp-psiscape-landau-typed-clear';
+    clear.textContent = trans.__('Back to the Landau form');
+    clear.addEventListener('click', () => {
+      this._typedInput.value = '';
+      void this.setTypedFreeEnergy(null);
+    });
+    this._typedInput.addEventListener('keydown', e => {
+      if (e.key === 'Enter') {
+        e.preventDefault();
+        void this.setTypedFreeEnergy(this._typedInput.value);
+      }
+    });
+    this._typedError.className = 'jp-psiscape-landau-typed-error';
+    this._typedError.setAttribute('role', 'alert');
+    this._typedError.hidden = true;
+    typed.node.append(label, use, clear, this._typedError);
+    this._presetGroup = new SliderGroup({ trans, title: trans.__('preset parameters'), className: 'jp-psiscape-landau-preset-values', onInvalid });
+    this._presetGroup.node.hidden = true;
+    this._typedGroup = new SliderGroup({ trans, title: trans.__('coefficients of the typed free energy'), className: 'jp-psiscape-landau-typed-coefficients', onInvalid });
+    this._typedGroup.node.hidden = true;
+    bar.addWidget(row);
+    bar.addWidget(this._presetGroup);
+    bar.addWidget(typed);
+    return bar;
   }
 
   /** Show a scenario (as returned by {@link scenario}): its coefficients in its convention, at its T and h. */
@@ -133,7 +458,24 @@ export class LandauExplorer extends Panel {
         // the convention cannot hold them: setCoefficients shows them in L and says why
       }
     }
-    return this.setCoefficients({ a: state.a, T0: state.T0, b: state.b, c: state.c, d: state.d ?? 0 }, { T: state.T, h: state.h });
+    if (state.coupled) {
+      this._coupled = { ...DEFAULT_COUPLED, ...(state.coupled as Partial<ICoupledCoefficients>) };
+      this._showCoupled();
+    }
+    if (state.preset && (WORKBENCH_PRESETS as readonly string[]).includes(state.preset)) {
+      this._preset = state.preset;
+      this._presetSelect.value = state.preset;
+      this._presetValues = presetSetting(state.preset, state.presetValues ?? {}).values;
+      this._showPresetSliders();
+    }
+    const done = this.setCoefficients({ a: state.a, T0: state.T0, b: state.b, c: state.c, d: state.d ?? 0 }, { T: state.T, h: state.h });
+    if (state.view) {
+      this._tabs.select(state.view);
+    }
+    if (state.typed && typeof state.typed.text === 'string') {
+      return this.setTypedFreeEnergy(state.typed.text, state.typed.values).then(() => undefined);
+    }
+    return done;
   }
 
   /** Emitted when the user changes the scenario (coefficients, convention, T or h) or it is set. */
@@ -175,6 +517,7 @@ export class LandauExplorer extends Panel {
     this._T = Number.isFinite(state.T) ? (state.T as number) : defaultTemperature(this._k);
     this._h = Number.isFinite(state.h) ? (state.h as number) : 0;
     this._rangesKey = '';
+    this._axes = null;
     this._controls.setState('T', this._T);
     this._controls.setState('h', this._h);
     this._lastGood = { ...this._k };
@@ -284,32 +627,235 @@ export class LandauExplorer extends Panel {
       this._rangesKey = key;
     }
     const bounds = this._controls.stateBounds('T');
-    const bkey = JSON.stringify([k, h, bounds.min, bounds.max]);
+    const typed = this._typed;
+    const bkey = JSON.stringify([k, h, bounds.min, bounds.max, typed ? [typed.f.text, typed.values] : null]);
     if (bkey !== this._branchesKey || !this._branchesData) {
-      this._branchesData = branchesData(k, bounds.min, bounds.max, h);
+      this._branchesData = typed ? this._typedBranches(typed, bounds.min, bounds.max, h) : branchesData(k, bounds.min, bounds.max, h);
       this._branchesKey = bkey;
     }
-    const land = landscapeData(k, T, h, 1.25 * this._branchesData.psiMax);
+    let land: ILandscapeData;
+    if (typed) {
+      const st = typedStationary(typed.f, T, h, typed.values, { psiMax: this._typedReach() });
+      let reach = 0;
+      for (const p of st.points) {
+        reach = Math.max(reach, Math.abs(p.psi));
+      }
+      const psiMax = this._axes ? Math.max(Math.abs(this._axes.landscapePsi[0]), Math.abs(this._axes.landscapePsi[1])) : 1.25 * Math.max(reach, this._branchesData.psiMax, 1e-3);
+      const c = typedCurve(typed.f, T, h, typed.values, psiMax);
+      land = { psi: c.psi, F: c.F, points: st.points, global: st.global };
+    } else {
+      const psiMax = this._axes ? Math.max(Math.abs(this._axes.landscapePsi[0]), Math.abs(this._axes.landscapePsi[1])) : 1.25 * this._branchesData.psiMax;
+      land = landscapeData(k, T, h, psiMax);
+    }
+    if (!this._axes) {
+      this._axes = this._fitAxes(land, bounds);
+    }
+    const axes = this._axes;
     const theme = readChartTheme(this.node);
     const trans = this._trans;
-    const ls = landscapeSpec(land, T, h, theme, trans);
-    const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans);
+    const ls = landscapeSpec(land, T, h, theme, trans, { xDomain: axes.landscapePsi, yDomain: axes.landscapeF });
+    const overlay = this._overlay;
+    const branchOptions = { xDomain: axes.T, yDomain: axes.psi, data: overlay?.data, fitted: overlay?.fitted };
+    const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans, branchOptions);
     this._derived = derived;
     this._derivedSection.present(derived, this._controls.conventionName(this._controls.convention), T, h, land);
+    this._derivedSection.node.hidden = typed !== null;
     this._showMessage(this._notice);
-    // Only the current-T rule of the branches chart follows T: move it in place when nothing else changed.
-    const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention]);
+    // the landscape: rows in place while its frame (theme, axes, labels) stays
+    const landRows = landscapeRows(ls.options);
+    const landFrame = JSON.stringify([theme, axes.landscapePsi, axes.landscapeF, ls.options.labels?.title === undefined]);
+    const landscape =
+      landFrame === this._landscapeDrawn && this._landscapeBusy === 0
+        ? this._landscape.patchMany(landRows, ls.label).then(ok => (ok ? undefined : this._full(this._landscape, ls.spec, ls.label, 'landscape')))
+        : this._full(this._landscape, ls.spec, ls.label, 'landscape');
+    this._landscapeDrawn = landFrame;
+    // the branches: only the current-T rule moves when nothing else changed; otherwise every dataset in place
+    const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention, axes]);
+    const frameKey = JSON.stringify([theme, axes, h, this._controls.convention, overlay !== null]);
     const current = [{ T, label: trans.__('T = %1', formatValue(T)) }];
-    const full = (): Promise<void> => {
-      this._branchesBusy++;
-      return this._branches.render(bs.spec, bs.label).finally(() => this._branchesBusy--);
-    };
-    const branches =
-      drawnKey === this._branchesDrawn && this._branchesBusy === 0
-        ? this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : full()))
-        : full();
+    let branches: Promise<void>;
+    if (drawnKey === this._branchesDrawn && this._branchesBusy === 0) {
+      branches = this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
+    } else if (frameKey === this._branchesFrame && this._branchesBusy === 0) {
+      branches = this._branches.patchMany(branchesRows(bs.options), bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
+    } else {
+      branches = this._full(this._branches, bs.spec, bs.label, 'branches');
+    }
     this._branchesDrawn = drawnKey;
-    await Promise.all([this._landscape.render(ls.spec, ls.label), branches]);
+    this._branchesFrame = frameKey;
+    const heavy = this._drawSelected(k, T, h, theme, axes, typed !== null);
+    await Promise.all([landscape, branches, heavy]);
+  }
+
+  /** A full render, counted so in-place updates wait for it. */
+  private _full(view: PatchableChartView, spec: TopLevelSpec, label: string, which: 'landscape' | 'branches' | 'heavy'): Promise<void> {
+    if (which === 'landscape') {
+      this._landscapeBusy++;
+      return view.render(spec, label).finally(() => this._landscapeBusy--);
+    }
+    if (which === 'branches') {
+      this._branchesBusy++;
+      return view.render(spec, label).finally(() => this._branchesBusy--);
+    }
+    return view.render(spec, label);
+  }
+
+  /** Draws the phase diagram, the two-order-parameter landscape or the loop when its tab is shown. */
+  private async _drawSelected(k: ILandauCoefficients, T: number, h: number, theme: ReturnType<typeof readChartTheme>, axes: IWorkbenchAxes, typed: boolean): Promise<void> {
+    const trans = this._trans;
+    const view = this._tabs.selected;
+    if (view === 'phase-diagram') {
+      if (typed || (k.d ?? 0) !== 0) {
+        this._phaseNote.node.textContent = typed ? trans.__('The phase diagram is drawn for the Landau form; go back to it to see one.') : trans.__('The phase diagram in (T, h) is drawn for the 2-4-6 free energy without a cubic term; set d to 0.');
+        this._phase.node.hidden = true;
+        return;
+      }
+      this._phase.node.hidden = false;
+      const pd = landauPhaseDiagram(k, { Tmin: axes.T[0], Tmax: axes.T[1] });
+      this._phaseNote.node.textContent = pd.regime === 'first-order' ? trans.__('First-order lines end at critical end points; dashed: limits of metastability (spinodals).') : trans.__('The line h = 0 ends at the critical point Tc; dashed: limits of metastability (spinodals).');
+      const hSpan = axes.h ?? [-1.15 * pd.hMax, 1.15 * pd.hMax];
+      if (!axes.h) {
+        axes.h = hSpan;
+      }
+      const options = {
+        lines: pd.lines,
+        points: pd.points,
+        current: { T, h },
+        xDomain: axes.T,
+        yDomain: hSpan,
+        theme,
+        labels: {
+          title: trans.__('Phase diagram in (T, h)'),
+          T: trans.__('temperature T'),
+          h: trans.__('field h'),
+          line: trans.__('line'),
+          current: trans.__('T and h of the sliders'),
+          lines: { 'first-order': trans.__('first order (equal minima)'), 'second-order': trans.__('h = 0 up to Tc'), spinodal: trans.__('limit of metastability') },
+          points: { 'critical-end': trans.__('critical end point'), critical: trans.__('critical point'), tricritical: trans.__('tricritical point'), triple: trans.__('three equal minima') }
+        }
+      };
+      const label = trans.__('Phase diagram in (T, h): %1 lines, %2 special points', pd.lines.length, pd.points.length);
+      const frame = JSON.stringify([theme, axes.T, hSpan, pd.regime, pd.lines.map(l => l.id)]);
+      if (frame === this._phaseDrawn && !(await this._phase.patchMany(phaseDiagramRows(options), label)) === false) {
+        return;
+      }
+      this._phaseDrawn = frame;
+      await this._phase.render(buildPhaseDiagramSpec(options).spec, label);
+      return;
+    }
+    if (view === 'landscape-2d') {
+      let L;
+      try {
+        L = coupledLandscape(this._coupled, T);
+      } catch (e) {
+        this._showMessage(translateMessage(trans, messageOf(e)));
+        return;
+      }
+      const phaseNames = { disordered: trans.__('neither (disordered)'), psi: trans.__('ψ only'), phi: trans.__('φ only'), mixed: trans.__('both ψ and φ') };
+      const options = {
+        ...L,
+        minima: L.minima.map(m => ({ ...m, label: `${m.global ? trans.__('global minimum') : trans.__('minimum')}: ${phaseNames[m.phase]}` })),
+        theme,
+        labels: { title: trans.__('F(ψ, φ) at T = %1: phase %2', formatValue(T), phaseNames[L.phase]), psi: trans.__('order parameter ψ'), phi: trans.__('order parameter φ'), F: 'F', minimum: trans.__('minimum'), global: trans.__('global minimum') }
+      };
+      const label = trans.__('Landscape of two order parameters at T = %1: phase %2, %3 minima', formatValue(T), phaseNames[L.phase], L.minima.length);
+      this._grid2d.node.dataset.phase = L.phase;
+      await this._grid2d.render(buildLandscape2dSpec(options).spec, label);
+      return;
+    }
+    if (view === 'loop') {
+      if (typed) {
+        this._loopNote.node.textContent = trans.__('The field loop is drawn for the Landau form; go back to it to see one.');
+        this._loop.node.hidden = true;
+        return;
+      }
+      this._loop.node.hidden = false;
+      const hMax = axes.loop ?? this._loopRange(k, T);
+      if (!axes.loop) {
+        axes.loop = hMax;
+      }
+      const n = 161;
+      const path = landauFieldLoop(k, T, hMax, n);
+      this._loopNote.node.textContent = trans._n('The loop follows the occupied minimum and jumps where it ends (%1 jump). The intrinsic coercive field exceeds measured ones by orders of magnitude.', 'The loop follows the occupied minimum and jumps where it ends (%1 jumps). The intrinsic coercive field exceeds measured ones by orders of magnitude.', path.jumps.length);
+      const options = { points: path.points, turn: n, theme, labels: { title: trans.__('Field loop at T = %1', formatValue(T)), h: trans.__('field h (E)'), psi: trans.__('order parameter ψ (P)'), leg: trans.__('field'), up: trans.__('rising'), down: trans.__('falling') } };
+      const label = trans.__('Field loop at T = %1 with %2 jumps', formatValue(T), path.jumps.length);
+      if (this._loopDrawn === JSON.stringify([theme, hMax]) && (await this._loop.patchMany(loopRows(options), label))) {
+        return;
+      }
+      this._loopDrawn = JSON.stringify([theme, hMax]);
+      await this._loop.render(buildLoopSpec(options).spec, label);
+    }
+  }
+
+  /** Field range of the loop: past the coercive field (end of the ordered branch), or the h slider's range. */
+  private _loopRange(k: ILandauCoefficients, T: number): number {
+    let end = 0;
+    for (const p of linspace(0, 3 * this._branchesPsiMax(), 400)) {
+      const d2 = k.a * (T - k.T0) + 2 * (k.d ?? 0) * p + 3 * k.b * p * p + 5 * k.c * p ** 4;
+      if (d2 < 0) {
+        end = Math.max(end, Math.abs(k.a * (T - k.T0) * p + (k.d ?? 0) * p * p + k.b * p ** 3 + k.c * p ** 5));
+      }
+    }
+    const hb = this._controls.stateBounds('h');
+    return end > 0 ? 1.5 * end : Math.max(Math.abs(hb.min), Math.abs(hb.max), 1e-9);
+  }
+
+  private _branchesPsiMax(): number {
+    return this._branchesData?.psiMax ?? 1;
+  }
+
+  /** ψ range searched for the stationary points of a typed free energy. */
+  private _typedReach(): number {
+    return this._axes ? 1.5 * Math.max(Math.abs(this._axes.landscapePsi[0]), Math.abs(this._axes.landscapePsi[1])) : 10;
+  }
+
+  /** Stationary branches of a typed free energy over a T grid (no hysteresis paths). */
+  private _typedBranches(typed: { f: ITypedFreeEnergy; values: Record<string, number> }, Tmin: number, Tmax: number, h: number): IBranchesData {
+    const branches: IBranchesData['branches'] = [];
+    let psiMax = 0;
+    const reach = this._typedReach();
+    for (const t of linspace(Tmin, Tmax, 121)) {
+      for (const p of typedStationary(typed.f, t, h, typed.values, { psiMax: reach, n: 400 }).points) {
+        branches.push({ T: t, psi: p.psi, kind: p.kind });
+        psiMax = Math.max(psiMax, Math.abs(p.psi));
+      }
+    }
+    const empty = { points: [], jumps: [], convention: 'L' as const };
+    return { branches, heating: empty, cooling: empty, psiMax: psiMax > 0 ? psiMax : 1 };
+  }
+
+  /** Axes of every chart from what is shown now. */
+  private _fitAxes(land: ILandscapeData, bounds: { min: number; max: number }): IWorkbenchAxes {
+    let psiMax = this._branchesPsiMax();
+    let psiMin = -psiMax;
+    for (const p of this._branchesData?.branches ?? []) {
+      psiMin = Math.min(psiMin, p.psi);
+    }
+    let Tlo = bounds.min;
+    let Thi = bounds.max;
+    for (const r of [...(this._overlay?.data ?? []), ...(this._overlay?.fitted ?? [])]) {
+      if (Number.isFinite(r.T) && Number.isFinite(r.psi)) {
+        psiMax = Math.max(psiMax, r.psi);
+        psiMin = Math.min(psiMin, r.psi);
+        Tlo = Math.min(Tlo, r.T);
+        Thi = Math.max(Thi, r.T);
+      }
+    }
+    const pad = 0.06 * (psiMax - psiMin || 1);
+    const lp = Math.max(Math.abs(land.psi[0]), Math.abs(land.psi[land.psi.length - 1]));
+    let F = landscapeFocus(land.points);
+    if (!F) {
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (const f of land.F) {
+        if (Number.isFinite(f)) {
+          lo = Math.min(lo, f);
+          hi = Math.max(hi, f);
+        }
+      }
+      F = Number.isFinite(lo) && hi > lo ? [lo - 0.05 * (hi - lo), hi + 0.05 * (hi - lo)] : [-1, 1];
+    }
+    return { T: [Tlo, Thi], psi: [psiMin - pad, psiMax + pad], landscapePsi: [-lp, lp], landscapeF: F, h: null, loop: null };
   }
 
   private _trans: TranslationBundle;
@@ -317,6 +863,30 @@ export class LandauExplorer extends Panel {
   private _message: Widget;
   private _landscape = new PatchableChartView();
   private _branches = new PatchableChartView();
+  private _phase = new PatchableChartView();
+  private _grid2d = new PatchableChartView();
+  private _loop = new PatchableChartView();
+  private _phaseNote = new Widget({ node: document.createElement('p') });
+  private _loopNote = new Widget({ node: document.createElement('p') });
+  private _tabs: WorkbenchTabs;
+  private _workbench: Widget;
+  private _presetSelect = document.createElement('select');
+  private _presetGroup!: SliderGroup;
+  private _typedGroup!: SliderGroup;
+  private _coupledGroup: SliderGroup;
+  private _typedInput = document.createElement('input');
+  private _typedError = document.createElement('pre');
+  private _preset: WorkbenchPreset | null = null;
+  private _presetValues: Record<string, number> = {};
+  private _typed: { f: ITypedFreeEnergy; values: Record<string, number> } | null = null;
+  private _coupled: ICoupledCoefficients = { ...DEFAULT_COUPLED };
+  private _overlay: ILandauOverlay | null;
+  private _axes: IWorkbenchAxes | null = null;
+  private _landscapeDrawn = '';
+  private _landscapeBusy = 0;
+  private _branchesFrame = '';
+  private _phaseDrawn = '';
+  private _loopDrawn = '';
   /** What the branches chart was last fully drawn from (all but T). */
   private _branchesDrawn = '';
   /** Full renders of the branches chart in flight (no in-place moves meanwhile). */
@@ -347,5 +917,7 @@ export namespace LandauExplorer {
     trans: TranslationBundle;
     /** Starting values; default the first-order example a = 0.5, b = −2, c = 4, T0 = 100. */
     initial?: ILandauExplorerInitial;
+    /** Measured points and a fitted curve drawn over the branches. */
+    overlay?: ILandauOverlay;
   }
 }

@@ -27,4 +27,30 @@ export class PatchableChartView extends ChartView {
     await view.runAsync();
     return true;
   }
+
+  /**
+   * Replaces the rows of several datasets at once and re-runs the view once.
+   *
+   * @returns false, changing nothing, when there is no view or one of the datasets is missing.
+   */
+  async patchMany(datasets: Readonly<Record<string, readonly object[]>>, label: string): Promise<boolean> {
+    const view = this.view;
+    if (!view) {
+      return false;
+    }
+    const names = Object.keys(datasets);
+    try {
+      for (const name of names) {
+        view.data(name);
+      }
+    } catch {
+      return false;
+    }
+    for (const name of names) {
+      view.data(name, datasets[name] as object[]);
+    }
+    this.node.setAttribute('aria-label', label);
+    await view.runAsync();
+    return true;
+  }
 }

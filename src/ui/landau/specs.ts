@@ -4,16 +4,26 @@
  */
 import type { TranslationBundle } from '@jupyterlab/translation';
 import type { TopLevelSpec } from 'vega-lite';
-import type { IKindLabels, ITemperatureMarker } from '../../charts/landau/index';
+import type { IBranchesChartOptions, IKindLabels, ILandscapeChartOptions, ITemperatureMarker } from '../../charts/landau/index';
 import { buildBranchesSpec, buildLandscapeSpec } from '../../charts/landau/index';
 import type { IChartTheme } from '../../charts/theme';
 import type { IBranchesData, IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
 import { formatValue } from './derived-table';
 
 /** A spec with its accessible label. */
-export interface ILabelledSpec {
+export interface ILabelledSpec<O = unknown> {
   spec: TopLevelSpec;
   label: string;
+  /** What the spec was built from (for in-place updates of a drawn view). */
+  options: O;
+}
+
+/** Fixed axes and overlays of the workbench. */
+export interface ISpecView {
+  xDomain?: [number, number];
+  yDomain?: [number, number];
+  data?: { T: number; psi: number }[];
+  fitted?: { T: number; psi: number }[];
 }
 
 function kindLabels(trans: TranslationBundle): IKindLabels {
@@ -26,11 +36,13 @@ function kindLabels(trans: TranslationBundle): IKindLabels {
 }
 
 /** Landscape spec at (T, h). */
-export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme: IChartTheme, trans: TranslationBundle): ILabelledSpec {
+export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme: IChartTheme, trans: TranslationBundle, view: ISpecView = {}): ILabelledSpec<ILandscapeChartOptions> {
   const title = trans.__('Free energy at T = %1, h = %2', formatValue(T), formatValue(h));
+  // a fixed frame keeps one title, so the view can take new rows in place
+  const frameTitle = view.xDomain ? trans.__('Free energy F(ψ) at the T and h of the sliders') : title;
   // minima as low as the global one (±ψ at h = 0, three at T1) are all labelled stable
   const equal = data.points.filter(p => p.kind === 'stable').length;
-  const { spec } = buildLandscapeSpec({
+  const options: ILandscapeChartOptions = {
     psi: data.psi,
     F: data.F,
     points: data.points,
@@ -38,21 +50,25 @@ export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme:
     T,
     h,
     theme,
+    xDomain: view.xDomain,
+    yDomain: view.yDomain,
+    patchable: view.xDomain !== undefined,
     labels: {
-      title,
+      title: frameTitle,
       psi: trans.__('order parameter ψ'),
       F: trans.__('F − F0'),
       kind: trans.__('stationary point'),
       kinds: kindLabels(trans),
       globalMinimum: equal > 1 ? trans.__('global minimum (one of %1 equal minima)', equal) : trans.__('global minimum')
     }
-  });
+  };
+  const { spec } = buildLandscapeSpec(options);
   const n = data.points.length;
-  return { spec, label: trans._n('%2: %1 stationary point', '%2: %1 stationary points', n, title) };
+  return { spec, label: trans._n('%2: %1 stationary point', '%2: %1 stationary points', n, title), options };
 }
 
 /** Branches spec at field h with markers at the characteristic temperatures. */
-export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: number, h: number, theme: IChartTheme, trans: TranslationBundle): ILabelledSpec {
+export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: number, h: number, theme: IChartTheme, trans: TranslationBundle, view: ISpecView = {}): ILabelledSpec<IBranchesChartOptions> {
   const markers: ITemperatureMarker[] = [{ T: derived.T0, label: 'T0' }];
   if (derived.regime === 'first-order') {
     markers.push({ T: derived.T1, label: 'T1' });
@@ -64,7 +80,9 @@ export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: 
     h === 0
       ? trans.__('Order parameter against temperature at h = 0')
       : trans.__('Order parameter against temperature at h = %1 (T0, T1, T** of h = 0 marked)', formatValue(h));
-  const { spec } = buildBranchesSpec({
+  const options: IBranchesChartOptions = {
+    ...view,
+    patchable: view.xDomain !== undefined,
     branches: data.branches,
     heating: data.heating,
     cooling: data.cooling,
@@ -79,8 +97,11 @@ export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: 
       kind: trans.__('branch'),
       kinds: kindLabels(trans),
       heating: trans.__('heating'),
-      cooling: trans.__('cooling')
+      cooling: trans.__('cooling'),
+      data: trans.__('data'),
+      fitted: trans.__('fit')
     }
-  });
-  return { spec, label: trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) };
+  };
+  const { spec } = buildBranchesSpec(options);
+  return { options, spec, label: trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) };
 }

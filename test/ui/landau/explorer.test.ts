@@ -60,14 +60,16 @@ describe('LandauExplorer', () => {
     await w.rendered;
     const render = vi.spyOn(ChartView.prototype, 'render');
     const patch = vi.spyOn(PatchableChartView.prototype, 'patch');
+    const patchMany = vi.spyOn(PatchableChartView.prototype, 'patchMany');
     const before = w.redraws;
     for (const T of [99.2, 99.4, 99.6, 99.8, 100.1]) {
       slide(w, 'T', T);
     }
     await w.rendered;
     expect(w.redraws).toBe(before + 1);
-    // T alone moved: a new landscape, and the current-T rule of the branches chart moved in place
-    expect(render).toHaveBeenCalledTimes(1);
+    // T alone moved: the landscape's rows replaced in place, and the current-T rule of the branches chart moved in place; no new spec
+    expect(render).not.toHaveBeenCalled();
+    expect(patchMany).toHaveBeenCalledTimes(1);
     expect(patch).toHaveBeenCalledTimes(1);
     expect(w.state.T).toBe(100.1);
     const labels = [...w.node.querySelectorAll('.jp-psiscape-landau-branches svg text')].map(t => t.textContent);
@@ -75,15 +77,17 @@ describe('LandauExplorer', () => {
     expect(labels).not.toContain('T = 100.375');
   });
 
-  it('should draw both charts anew when a coefficient changes', async () => {
+  it('should update both charts in place, on axes that stay put, when a coefficient changes', async () => {
     const w = explorer();
     await w.rendered;
+    const axes = w.axes;
     const render = vi.spyOn(ChartView.prototype, 'render');
-    const patch = vi.spyOn(PatchableChartView.prototype, 'patch');
+    const patchMany = vi.spyOn(PatchableChartView.prototype, 'patchMany');
     slide(w, 'b', -1.5);
     await w.rendered;
-    expect(render).toHaveBeenCalledTimes(2);
-    expect(patch).not.toHaveBeenCalled();
+    expect(render).not.toHaveBeenCalled();
+    expect(patchMany).toHaveBeenCalledTimes(2);
+    expect(w.axes).toEqual(axes);
     // T1 = T0 + 3b²/(16ac) = 100 + 6.75/32 (REFERENCE.md B3 ii, by hand)
     expect(w.derived!.T1).toBeCloseTo(100 + 6.75 / 32, 12);
   });

@@ -1,0 +1,129 @@
+/**
+ * The landscape workbench in real Lumino widgets: chart tabs with arrow
+ * keys, axes that stay put until "Fit the view", the data overlay from a fit,
+ * presets, a typed free energy with generated sliders and errors with a
+ * caret, the phase diagram and the two-order-parameter landscape drawn, and
+ * the scenario round trip.
+ */
+import { nullTranslator } from '@jupyterlab/translation';
+import { Widget } from '@lumino/widgets';
+import { afterEach, describe, expect, it } from 'vitest';
+import { LandauExplorer } from '../../../src/ui/landau/explorer';
+import { explorer, slide } from './helpers';
+
+afterEach(() => {
+  document.body.innerHTML = '';
+});
+
+function tab(w: Widget, view: string): HTMLButtonElement {
+  return w.node.querySelector<HTMLButtonElement>(`.jp-psiscape-landau-tab[data-view="${view}"]`)!;
+}
+
+describe('landscape workbench', () => {
+  it('should move between chart tabs with the arrow keys and draw the phase diagram and the 2-D landscape', async () => {
+    const w = explorer();
+    await w.rendered;
+    expect(tab(w, 'landscape').getAttribute('aria-selected')).toBe('true');
+    tab(w, 'landscape').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', bubbles: true }));
+    expect(w.view).toBe('branches');
+    tab(w, 'branches').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', bubbles: true }));
+    expect(w.view).toBe('phase-diagram');
+    await w.rendered;
+    const phase = w.node.querySelector('.jp-psiscape-landau-phase-diagram')!;
+    expect(phase.querySelector('svg')).not.toBeNull();
+    expect(phase.getAttribute('aria-label')).toMatch(/Phase diagram/);
+    tab(w, 'phase-diagram').dispatchEvent(new KeyboardEvent('keydown', { key: 'End', bubbles: true }));
+    expect(w.view).toBe('loop');
+    tab(w, 'loop').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowLeft', bubbles: true }));
+    expect(w.view).toBe('landscape-2d');
+    await w.rendered;
+    const grid = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-landscape-2d')!;
+    expect(grid.querySelector('svg, canvas')).not.toBeNull();
+    // T1 = 100.375 of the default: ψ orders below 100, φ below 90, so neither orders here
+    expect(grid.dataset.phase).toBe('disordered');
+    expect(w.scenario().view).toBe('landscape-2d');
+  });
+
+  it('should keep the axes while sliders move and fit them again on request', async () => {
+    const w = explorer();
+    await w.rendered;
+    const axes = w.axes!;
+    slide(w, 'T', 99);
+    slide(w, 'c', 6);
+    await w.rendered;
+    expect(w.axes).toEqual(axes);
+    const fit = w.node.querySelector<HTMLButtonElement>('.jp-psiscape-landau-fit-view')!;
+    fit.click();
+    await w.rendered;
+    expect(w.axes).not.toEqual(axes);
+  });
+
+  it('should draw the data and the fitted curve of a fit over the branches', async () => {
+    const data = [
+      { T: 96, psi: 1.0 },
+      { T: 99, psi: 0.8 }
+    ];
+    const fitted = [
+      { T: 95, psi: 1.05 },
+      { T: 100, psi: 0.7 }
+    ];
+    const w = new LandauExplorer({ trans: nullTranslator.load('x'), overlay: { data, fitted } });
+    Widget.attach(w, document.body);
+    await w.rendered;
+    const markup = w.node.querySelector('.jp-psiscape-landau-branches')!.innerHTML;
+    expect(markup).toContain('branches_data');
+    expect(markup).toContain('branches_fit');
+    // the T axis reaches the data
+    expect(w.axes!.T[0]).toBeLessThanOrEqual(95);
+  });
+
+  it('should set the free energy and its sliders from a preset', async () => {
+    const w = explorer();
+    await w.rendered;
+    const select = w.node.querySelector<HTMLSelectElement>('select.jp-psiscape-landau-preset')!;
+    select.value = 'de-gennes';
+    select.dispatchEvent(new Event('change'));
+    await w.rendered;
+    // Landau–de Gennes a = 0.1, B = 1, C = 2, T* = 300 [C5]: T_NI = 301.1111111111
+    expect(w.coefficients).toEqual({ a: 0.1, T0: 300, b: 2, c: 0, d: -1 });
+    expect(w.derived!.T1).toBeCloseTo(301.1111111111, 6);
+    await w.applyPreset('bean-rodbell', { eta: 2, T0: 300 });
+    await w.rendered;
+    expect(w.view).toBe('branches');
+    expect(w.node.querySelector('input.jp-psiscape-landau-range[data-key="eta"]')).not.toBeNull();
+    // η = 2 > 1: first order
+    expect(w.derived!.regime).toBe('first-order');
+    await w.applyPreset('devonshire');
+    await w.rendered;
+    expect(w.view).toBe('loop');
+    expect(w.convention).toBe('devonshire');
+    expect(w.node.querySelector('.jp-psiscape-landau-loop svg')).not.toBeNull();
+    expect(w.scenario().preset).toBe('devonshire');
+  });
+
+  it('should take a typed free energy with one slider per coefficient, and say what is wrong with a caret', async () => {
+    const w = explorer();
+    await w.rendered;
+    expect(await w.setTypedFreeEnergy('a/2*(T - T0)*ψ^2 + b/4*ψ^4 + g*ψ^6 - h*ψ')).toBeNull();
+    await w.rendered;
+    expect(w.typed!.coefficients).toEqual(['a', 'T0', 'b', 'g']);
+    expect(w.node.querySelector('input.jp-psiscape-landau-range[data-key="g"]')).not.toBeNull();
+    expect(w.node.querySelector('.jp-psiscape-landau-landscape')!.getAttribute('aria-label')).toMatch(/stationary point/);
+    const error = await w.setTypedFreeEnergy('a*ψ^2 + (b*ψ^4');
+    expect(error).toContain('^');
+    const shown = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-typed-error')!;
+    expect(shown.hidden).toBe(false);
+    expect(shown.textContent).toContain('a*ψ^2 + (b*ψ^4');
+  });
+
+  it('should give back the scenario it was given (preset, typed free energy, coupled coefficients, view)', async () => {
+    const w = explorer();
+    await w.rendered;
+    await w.setScenario({ a: 0.5, T0: 100, b: -2, c: 4, T: 100.2, h: 0, typed: { text: 'a/2*(T - T0)*psi^2 + b/4*psi^4 + c/6*psi^6 - h*psi', values: { a: 0.5, T0: 100, b: -2, c: 5 } }, coupled: { a1: 1, T1: 100, b1: 1, a2: 1, T2: 95, b2: 2, lambda: 0.3 }, view: 'branches' });
+    await w.rendered;
+    const s = w.scenario();
+    expect(s.typed).toEqual({ text: 'a/2*(T - T0)*psi^2 + b/4*psi^4 + c/6*psi^6 - h*psi', values: { a: 0.5, T0: 100, b: -2, c: 5 } });
+    expect(s.coupled).toEqual({ a1: 1, T1: 100, b1: 1, a2: 1, T2: 95, b2: 2, lambda: 0.3 });
+    expect(s.view).toBe('branches');
+  });
+});
