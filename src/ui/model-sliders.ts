@@ -308,7 +308,11 @@ export class ModelSliders extends Widget {
     this._backButton.disabled = this.atFit;
   }
 
-  /** One preview per animation frame, and none while the previous one is being drawn. */
+  /**
+   * At most one preview per animation frame, and none while the previous
+   * one is being drawn: the first input of a frame is drawn at once, later
+   * ones of the same frame together at the next.
+   */
   private _schedule(): void {
     this._dirty = true;
     this._backButton.disabled = this.atFit;
@@ -317,13 +321,17 @@ export class ModelSliders extends Widget {
       const promise = new Promise<void>(r => (resolve = r));
       this._settled = { promise, resolve };
     }
-    if (this._frame !== null || this._busy) {
+    if (this._busy || this._frame !== null) {
+      // The preview being drawn, or the next frame, takes this input.
       return;
     }
     this._frame = requestFrame(() => {
       this._frame = null;
-      void this._flush();
+      if (this._dirty && !this._busy) {
+        this._schedule();
+      }
     });
+    void this._flush();
   }
 
   private async _flush(): Promise<void> {
