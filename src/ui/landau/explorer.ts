@@ -202,8 +202,9 @@ export class LandauExplorer extends Panel {
       h: this._h,
       ...(this._preset ? { preset: this._preset, presetValues: { ...this._presetValues } } : {}),
       ...(this._typed ? { typed: { text: this._typed.f.text, values: { ...this._typed.values } } } : {}),
-      coupled: { ...this._coupled } as unknown as Record<string, number>,
-      view: this._tabs.selected
+      // the two-order-parameter coefficients and the tab only when they differ from the defaults (older scenarios keep their shape)
+      ...(JSON.stringify(this._coupled) !== JSON.stringify(DEFAULT_COUPLED) ? { coupled: { ...this._coupled } as unknown as Record<string, number> } : {}),
+      ...(this._tabs.selected !== 'landscape' ? { view: this._tabs.selected } : {})
     };
   }
 
