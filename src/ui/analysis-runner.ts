@@ -608,16 +608,7 @@ export class AnalysisRunner {
     if (this._disposed) {
       return Promise.resolve(cancelledResult(null));
     }
-    this.cancel();
-    const { id, result } = this._host.submit(job, onProgress);
-    this._current = id;
-    const clear = (): void => {
-      if (this._current === id) {
-        this._current = null;
-      }
-    };
-    result.then(clear, clear);
-    return result;
+    return this._own(() => this._host.submit(job, onProgress));
   }
 
   /**
@@ -630,16 +621,7 @@ export class AnalysisRunner {
     if (this._disposed) {
       return Promise.resolve({ kind: 'cancelled' });
     }
-    this.cancel();
-    const { id, result } = this._host.submitIsotherms(job, onProgress);
-    this._current = id;
-    const clear = (): void => {
-      if (this._current === id) {
-        this._current = null;
-      }
-    };
-    result.then(clear, clear);
-    return result;
+    return this._own(() => this._host.submitIsotherms(job, onProgress));
   }
 
   /**
@@ -650,8 +632,13 @@ export class AnalysisRunner {
     if (this._disposed) {
       return Promise.resolve({ kind: 'cancelled' });
     }
+    return this._own(() => this._host.submitTask(task, onProgress));
+  }
+
+  /** Cancel this runner's previous job, submit the next one and follow it until it settles. */
+  private _own<R>(submit: () => { id: number; result: Promise<R> }): Promise<R> {
     this.cancel();
-    const { id, result } = this._host.submitTask(task, onProgress);
+    const { id, result } = submit();
     this._current = id;
     const clear = (): void => {
       if (this._current === id) {

@@ -3,21 +3,7 @@
 // points, and a refusal shown as a message.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, screenshot, setWindow, useDemoLab } from './lab.mjs';
-
-/** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
-async function darkScreenshot(page, name, ready, options = {}) {
-  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
-  await theme('JupyterLab Dark');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
-  // the theme switch shows a splash screen for a moment
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-  await ready();
-  await screenshot(page, name, options);
-  await theme('JupyterLab Light');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-}
+import { contextMenu, darkScreenshot, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab(async ({ page }) => {
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();

@@ -5,24 +5,11 @@
 // save and reload.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, saveAndReload, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, darkScreenshot, drawn as drawnChart, saveAndReload, screenshot, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
 
 const VIEWS = ['arrott', 'modified-arrott', 'kouvel-fisher', 'critical', 'collapse', 'banerjee', 'window', 'entropy', 'entropy-map'];
-
-/** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
-async function darkScreenshot(page, name, ready, options = {}) {
-  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
-  await theme('JupyterLab Dark');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-  await ready();
-  await screenshot(page, name, options);
-  await theme('JupyterLab Light');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-}
 
 /** The Tc of the primary table as [value, sigma]. */
 async function primaryTc(section) {
@@ -32,27 +19,9 @@ async function primaryTc(section) {
   return [Number(m[1]), Number(m[2])];
 }
 
-/** Wait until the view's chart has drawn marks (SVG mark elements or a canvas). */
-async function drawn(section, view) {
-  const chart = section.locator(`.jp-psiscape-IsothermViews .jp-psiscape-ChartView[data-view="${view}"]`);
-  await chart.waitFor({ timeout: 30000 });
-  await chart.evaluate(
-    node =>
-      new Promise((resolve, reject) => {
-        const started = Date.now();
-        const check = () => {
-          if (node.querySelector('canvas') || node.querySelectorAll('svg g.role-mark > *').length > 0) {
-            resolve(true);
-          } else if (Date.now() - started > 30000) {
-            reject(new Error('no marks drawn'));
-          } else {
-            setTimeout(check, 50);
-          }
-        };
-        check();
-      })
-  );
-  return chart;
+/** Wait until the chart of the isotherm view `view` has drawn marks. */
+function drawn(section, view) {
+  return drawnChart(section.locator(`.jp-psiscape-IsothermViews .jp-psiscape-ChartView[data-view="${view}"]`));
 }
 
 test('isotherms open with their own command, run with the defaults, and every view draws', async () => {

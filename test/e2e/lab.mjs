@@ -49,6 +49,42 @@ export async function screenshot(page, name, { guide } = {}) {
   return file;
 }
 
+/** Switch to the dark theme, wait for `ready`, take a screenshot (as `screenshot` does), and switch back. */
+export async function darkScreenshot(page, name, ready, options = {}) {
+  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
+  await theme('JupyterLab Dark');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
+  // the theme switch shows a splash screen for a moment
+  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
+  await ready();
+  await screenshot(page, name, options);
+  await theme('JupyterLab Light');
+  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
+  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
+}
+
+/** Wait until the chart in `chart` (a locator) has drawn marks: SVG mark elements, or a canvas. */
+export async function drawn(chart) {
+  await chart.waitFor({ timeout: 30000 });
+  await chart.evaluate(
+    node =>
+      new Promise((resolve, reject) => {
+        const started = Date.now();
+        const check = () => {
+          if (node.querySelector('canvas') || node.querySelectorAll('svg g.role-mark > *').length > 0) {
+            resolve(true);
+          } else if (Date.now() - started > 30000) {
+            reject(new Error('no marks drawn'));
+          } else {
+            setTimeout(check, 50);
+          }
+        };
+        check();
+      })
+  );
+  return chart;
+}
+
 /** Save the demo notebook (to the browser's storage), reload the page and wait for the lab. */
 export async function saveAndReload(page) {
   await page.locator('.jp-NotebookPanel').first().click({ position: { x: 200, y: 10 } });

@@ -5,47 +5,13 @@
 // power law; light and dark screenshots.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, screenshot, useDemoLab } from './lab.mjs';
+import { contextMenu, darkScreenshot, drawn, screenshot, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab(async ({ page }) => {
   const output = page.locator('.jp-Notebook .jp-OutputArea-child', { has: page.locator('table.dataframe') }).first();
   await contextMenu(page, output, 'Analyse This Table with psiscape');
   await page.locator('.jp-psiscape-AnalysisPanel .jp-psiscape-ChartView svg').first().waitFor({ timeout: 30000 });
 });
-
-/** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
-async function darkScreenshot(page, name, ready) {
-  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
-  await theme('JupyterLab Dark');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-  await ready();
-  await screenshot(page, name);
-  await theme('JupyterLab Light');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-}
-
-/** Wait until a chart has drawn marks (SVG mark elements or a canvas). */
-async function drawn(chart) {
-  await chart.waitFor({ timeout: 30000 });
-  await chart.evaluate(
-    node =>
-      new Promise((resolve, reject) => {
-        const started = Date.now();
-        const check = () => {
-          if (node.querySelector('canvas') || node.querySelectorAll('svg g.role-mark > *').length > 0) {
-            resolve(true);
-          } else if (Date.now() - started > 30000) {
-            reject(new Error('no marks drawn'));
-          } else {
-            setTimeout(check, 50);
-          }
-        };
-        check();
-      })
-  );
-}
 
 test('dragging across the chart sets the fit window, and the arrow keys move it', async () => {
   const { page } = suite.lab;

@@ -4,43 +4,9 @@
 // the scenario survives save and reload; light, dark and 400 px pictures.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
-import { contextMenu, saveAndReload, screenshot, setWindow, useDemoLab } from './lab.mjs';
+import { contextMenu, darkScreenshot, drawn, saveAndReload, screenshot, setWindow, useDemoLab } from './lab.mjs';
 
 const suite = useDemoLab();
-
-/** Switch to the dark theme, wait for `ready`, take a screenshot, and switch back. */
-async function darkScreenshot(page, name, ready) {
-  const theme = t => page.evaluate(n => window.jupyterapp.commands.execute('apputils:change-theme', { theme: n }), t);
-  await theme('JupyterLab Dark');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'false');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-  await ready();
-  await screenshot(page, name);
-  await theme('JupyterLab Light');
-  await page.waitForFunction(() => document.body.dataset.jpThemeLight === 'true');
-  await page.locator('#jupyterlab-splash').waitFor({ state: 'detached', timeout: 10000 });
-}
-
-/** Wait until a chart has drawn marks (SVG mark elements or a canvas). */
-async function drawn(chart) {
-  await chart.waitFor({ timeout: 30000 });
-  await chart.evaluate(
-    node =>
-      new Promise((resolve, reject) => {
-        const started = Date.now();
-        const check = () => {
-          if (node.querySelector('canvas') || node.querySelectorAll('svg g.role-mark > *').length > 0) {
-            resolve(true);
-          } else if (Date.now() - started > 30000) {
-            reject(new Error('no marks drawn'));
-          } else {
-            setTimeout(check, 50);
-          }
-        };
-        check();
-      })
-  );
-}
 
 /** The chart under the tab of `view`. */
 function tabChart(explorer, view) {

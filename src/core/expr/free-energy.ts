@@ -52,10 +52,10 @@ export function compileFreeEnergy(text: string): ICompiledFreeEnergy {
   const symbols = collectSymbols(node);
   const psiNames = ORDER_PARAMETER_NAMES.filter(n => symbols.includes(n));
   if (psiNames.length === 0) {
-    throw new ExpressionError(msg('landau.typed.no-psi', 'The free energy does not depend on the order parameter: write it in ψ (or psi), e.g. a/2*(T - T0)*ψ^2 + b/4*ψ^4 - h*ψ.'), null);
+    throw new ExpressionError(msg('expression.free-energy.no-psi', 'The free energy does not depend on the order parameter: write it in ψ (or psi), e.g. a/2*(T - T0)*ψ^2 + b/4*ψ^4 - h*ψ.'), null);
   }
   if (psiNames.length > 1) {
-    throw errorAtName(analysed.rhsLocator, 'psi', k => msg('landau.typed.two-psi', 'Character %1: write the order parameter one way, ψ or psi, not both.', k));
+    throw errorAtName(analysed.rhsLocator, 'psi', k => msg('expression.free-energy.two-psi', 'Character %1: write the order parameter one way, ψ or psi, not both.', k));
   }
   const psiName = psiNames[0];
   const coefficients = symbols.filter(s => s !== psiName && s !== 'T' && s !== 'h' && !hasOwn(BUILTIN_CONSTANTS, s));
@@ -67,7 +67,7 @@ export function compileFreeEnergy(text: string): ICompiledFreeEnergy {
     d2 = diff.derivative(d1, psiName);
   } catch (err) {
     if (err instanceof DerivativeLimitError) {
-      throw new ExpressionError(msg('landau.typed.derivative', 'The free energy has no symbolic derivative in ψ here (%1); write it with the supported functions.', String(err.what)), null);
+      throw new ExpressionError(msg('expression.free-energy.derivative', 'The free energy has no symbolic derivative in ψ here (%1); write it with the supported functions.', String(err.what)), null);
     }
     throw err;
   }
