@@ -183,6 +183,16 @@ test('the presenter view at 1920 × 1080: the panel alone, chart text at least 1
   assert.ok(panelBox.width > 1800, `the panel fills the main area (${panelBox.width} px)`);
   assert.ok(presented.height > before.height * 1.5, `chart grew from ${before.height} to ${presented.height} px`);
   assert.ok(presented.width > panelBox.width * 0.9, 'the chart takes the panel width');
+  // Every picker's control stays inside its own label (nothing runs over the next label).
+  const overlaps = await panel.evaluate(node =>
+    [...node.querySelectorAll('.jp-psiscape-picker')]
+      .filter(l => l.offsetParent !== null)
+      .flatMap(l => {
+        const box = l.getBoundingClientRect();
+        return [...l.querySelectorAll('select, input')].filter(c => c.getBoundingClientRect().right > box.right + 1).map(c => c.className);
+      })
+  );
+  assert.deepEqual(overlaps, [], 'controls running past their labels in the presenter view');
   await panel.evaluate(n => (n.scrollTop = 0));
   await screenshot(page, 'presenter-light');
   await setTheme(page, 'JupyterLab Dark');
