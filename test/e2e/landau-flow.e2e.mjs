@@ -14,7 +14,7 @@ test('the explorer opens from the View menu with the first-order example', async
   await page.locator('.lm-Menu-item', { hasText: 'Open Landau Free-Energy Explorer' }).click();
   const explorer = page.locator('.jp-psiscape-LandauExplorer');
   await explorer.waitFor({ state: 'visible', timeout: 30000 });
-  await explorer.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await explorer.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
   const text = await explorer.textContent();
   assert.match(text, /100\.375/, 'T1 of the C5 example');
   assert.match(text, /100\.5/, 'T** of the C5 example');

@@ -74,7 +74,7 @@ test('analyses, a file analysis and an explorer reopen once each after a reload,
   // A Landau explorer with T and h moved by keyboard.
   await page.evaluate(() => window.jupyterapp.commands.execute('psiscape:open-landau-explorer'));
   const explorer = page.locator('.jp-psiscape-LandauExplorer');
-  await explorer.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await explorer.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
   for (const [key, presses] of [['T', 4], ['h', 3]]) {
     await explorer.locator(`input.jp-psiscape-landau-range[data-key="${key}"]`).focus();
     for (let i = 0; i < presses; i++) {
@@ -143,7 +143,7 @@ test('an explorer opened from a Landau fit keeps its scenario in the notebook an
   await panel.locator('button.jp-psiscape-fit-explore').waitFor({ timeout: 60000 });
   await panel.locator('button.jp-psiscape-fit-explore').click();
   const explorer = page.locator('.jp-psiscape-LandauExplorer');
-  await explorer.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await explorer.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
   await explorer.locator('select.jp-psiscape-landau-convention').selectOption('no-fractions');
   await explorer.locator('input.jp-psiscape-landau-range[data-key="h"]').focus();
   for (let i = 0; i < 2; i++) {
@@ -173,7 +173,7 @@ test('an explorer opened from a Landau fit keeps its scenario in the notebook an
   assert.equal(await again.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue(), h);
   // T0 is shown in the no-fractions form too (same T0 in every convention).
   assert.equal(await again.locator('input.jp-psiscape-landau-number[data-key="T0"]').inputValue(), T0);
-  await again.locator('svg').nth(1).waitFor({ timeout: 30000 });
+  await again.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
   await page.locator('.lm-TabBar-tab', { hasText: 'Landau explorer' }).click();
   await screenshot(page, 'restore-explorer-from-fit');
   assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
