@@ -239,31 +239,11 @@ export class AnalysisWorkerHost {
       controls: structuredClone(job.controls)
     };
     const request: IIsothermRequest = { id, kind: 'isotherms', job: copy };
-    if (this._sharedMemory) {
-      request.cancelFlag = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT));
-    }
     const transfer = [copy.temperature, copy.field, copy.magnetisation].map(c => (c.values as Float64Array).buffer as ArrayBuffer);
-    const result = new Promise<IsothermRunResult>((resolve, reject) => {
-      const task: ITask = {
-        id,
-        request,
-        transfer,
-        onProgress: undefined,
-        onIsotherms: answer => resolve({ kind: 'done', answer }),
-        onStage: onProgress,
-        resolve: () => resolve({ kind: 'cancelled' }),
-        reject,
-        best: null,
-        cancelRequested: false,
-        graceTimer: null
-      };
-      if (this._disposed) {
-        resolve({ kind: 'cancelled' });
-      } else {
-        this._queue.push(task);
-        this._pump();
-      }
-    });
+    const result = this._enqueue<IsothermRunResult>(request, transfer, { kind: 'cancelled' }, resolve => ({
+      onIsotherms: answer => resolve({ kind: 'done', answer }),
+      onStage: onProgress
+    }));
     return { id, result };
   }
 
@@ -283,31 +263,46 @@ export class AnalysisWorkerHost {
     const columns = job.columns ? Object.fromEntries(Object.entries(job.columns).map(([k, v]) => [k, copy(v)])) : undefined;
     const jobCopy = { ...job, x: copy(job.x), y: copy(job.y), ...(job.sigma ? { sigma: copy(job.sigma) } : {}), ...(columns ? { columns } : {}) };
     const request: ITaskRequest = { id, kind: 'task', task: { ...task, job: jobCopy } };
+    const result = this._enqueue<TaskRunResult>(request, transfer, { kind: 'cancelled' }, resolve => ({
+      onTask: r => resolve(r.type === 'cancelled' ? { kind: 'cancelled' } : { kind: 'done', result: r }),
+      onFraction: onProgress
+    }));
+    return { id, result };
+  }
+
+  /**
+   * Queue an isotherm or task request (with a cancel flag where memory is
+   * shared); its promise resolves through `handlers`, or with `cancelled`.
+   */
+  private _enqueue<R>(
+    request: IIsothermRequest | ITaskRequest,
+    transfer: Transferable[],
+    cancelled: R,
+    handlers: (resolve: (r: R) => void) => Pick<ITask, 'onIsotherms' | 'onStage' | 'onTask' | 'onFraction'>
+  ): Promise<R> {
     if (this._sharedMemory) {
       request.cancelFlag = new Int32Array(new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT));
     }
-    const result = new Promise<TaskRunResult>((resolve, reject) => {
-      const taskEntry: ITask = {
-        id,
+    return new Promise<R>((resolve, reject) => {
+      const entry: ITask = {
+        id: request.id,
         request,
         transfer,
         onProgress: undefined,
-        onTask: r => resolve(r.type === 'cancelled' ? { kind: 'cancelled' } : { kind: 'done', result: r }),
-        onFraction: onProgress,
-        resolve: () => resolve({ kind: 'cancelled' }),
+        ...handlers(resolve),
+        resolve: () => resolve(cancelled),
         reject,
         best: null,
         cancelRequested: false,
         graceTimer: null
       };
       if (this._disposed) {
-        resolve({ kind: 'cancelled' });
+        resolve(cancelled);
       } else {
-        this._queue.push(taskEntry);
+        this._queue.push(entry);
         this._pump();
       }
     });
-    return { id, result };
   }
 
   /**
