@@ -52,10 +52,13 @@
  * 4. `gtol` test, or zero residual;
  * otherwise: maximum evaluations, cancellation, non-finite values — all
  * with `converged: false` and the best point so far.
- * Finite differences start forward; at the first stop signal the Jacobian
- * switches to Richardson-extrapolated central differences (falling back to
- * small-step central ones where D(h) and D(h/2) disagree) and the iteration
- * continues until a rule is met again with that Jacobian.
+ * Finite differences start forward; below `stationaryRows` points, at the
+ * first stop signal the Jacobian switches to Richardson-extrapolated central
+ * differences (falling back to small-step central ones where D(h) and D(h/2)
+ * disagree) and the iteration continues until a rule is met again with that
+ * Jacobian. From `stationaryRows` points on (and in subsample stages) forward
+ * differences stay: their error moves the step and the standard errors by
+ * about √ε·|p·f''/f'| of a standard error, far below rule 1b's fraction.
  */
 export const FIT_DEFAULTS = Object.freeze({
   ftol: 1e-15,

@@ -13,8 +13,9 @@
  * eigen-decomposition [N5]), and the radius update and gain-ratio test of
  * MINPACK's lmder [N2]. Geodesic acceleration [N3] (`geodesic.ts`) while
  * μ > 0; Jacobians by forward differences until the first noise-level step,
- * then Richardson-extrapolated central differences [N4] (or the model's
- * analytic Jacobian throughout).
+ * then Richardson-extrapolated central differences [N4] below
+ * `stationaryRows` points (forward differences throughout from there on, or
+ * the model's analytic Jacobian throughout).
  *
  * Accuracy: a fit is reported converged only by the stopping rules of
  * `defaults.ts`, all of which hold at a point where the gradient vanishes
@@ -148,10 +149,16 @@ export function* levenbergMarquardtSteps(
   const spectral = new SpectralWork(n, k);
   const cols: number[] = [];
   // The accurate difference scheme: Richardson-extrapolated central
-  // differences, or plain central ones from `stationaryRows` points on
-  // (relative error ≈ ε^(2/3), far below the statistical errors there).
-  const accurate: DifferenceScheme = n >= FIT_DEFAULTS.stationaryRows ? 'central' : 'extrapolated';
+  // differences below `stationaryRows` points (the certified digits of
+  // small problems). From there on, and in a subsample stage, forward
+  // differences are final: their relative error (≈ √ε·|p·f''/f'|) moves
+  // the Gauss–Newton step by about that fraction of a standard error and
+  // the standard errors by that fraction, far below the stopping rule's
+  // `stationaryErrorFraction`, at half the passes of central differences.
+  const accurate: DifferenceScheme = coarse || n >= FIT_DEFAULTS.stationaryRows ? 'forward' : 'extrapolated';
   let scheme: DifferenceScheme = ev.analytic ? accurate : 'forward';
+  // The Jacobian is analytic or comes from the accurate scheme.
+  let settled = ev.analytic || accurate === 'forward';
 
   const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => {
     // A Jacobian from a combined pass is checked here unless JᵀJ was formed from it.
@@ -168,7 +175,7 @@ export function* levenbergMarquardtSteps(
       reason,
       gradientCosine: gcos,
       restarts,
-      jacobianAccurate: jacobianOk && (ev.analytic || scheme !== 'forward')
+      jacobianAccurate: jacobianOk && settled
     };
   };
 
@@ -266,7 +273,7 @@ export function* levenbergMarquardtSteps(
       if (cost === 0) {
         return out(true, msg('fit.stop.exact', 'The model passes exactly through every point.'));
       }
-      if (gcos <= problem.gtol && scheme !== 'forward') {
+      if (gcos <= problem.gtol && settled) {
         return out(true, msg('fit.stop.gradient', 'The gradient vanished: a minimum was found.'));
       }
       cols.length = 0;
@@ -290,18 +297,13 @@ export function* levenbergMarquardtSteps(
       // or of 1 when σ were given and χ²/dof exceeds 1).
       if (stationaryRule && lastGaussNewton) {
         const gn = gaussNewtonReduction(model);
-        if (scheme === 'forward') {
+        if (!settled) {
           // The forward-difference model (relative error ≈ 1e-8) already
           // predicts a negligible step: take the accurate Jacobian here and
           // apply the test below to it.
-          if (coarse && gn <= stationaryThreshold(problem, n, k, cost, errorFraction)) {
-            return out(
-              true,
-              msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', errorFraction)
-            );
-          }
           if (gn <= FIT_DEFAULTS.stationaryNoiseFraction * noise || gn <= stationaryThreshold(problem, n, k, cost, errorFraction) * 100) {
             scheme = accurate;
+            settled = true;
             jacAtP = false;
             needJacobian = true;
             continue;
@@ -410,9 +412,10 @@ export function* levenbergMarquardtSteps(
     yield;
     // Forward differences: switch to the accurate Jacobian at the first
     // noise-level step; then two consecutive noise-level steps end the fit.
-    if (noiseSteps >= (scheme === 'forward' ? 1 : 2)) {
-      if (scheme === 'forward') {
+    if (noiseSteps >= (settled ? 2 : 1)) {
+      if (!settled) {
         scheme = accurate;
+        settled = true;
         jacAtP = false;
         noiseSteps = 0;
         needJacobian = true;
@@ -427,8 +430,9 @@ export function* levenbergMarquardtSteps(
     const xtolHit = delta <= problem.xtol * xnorm || delta <= Number.MIN_VALUE * 1e10;
     const machineHit = actRel <= Number.EPSILON && predRel <= Number.EPSILON && rho <= 2;
     if (ftolHit || xtolHit || machineHit) {
-      if (scheme === 'forward') {
+      if (!settled) {
         scheme = accurate;
+        settled = true;
         jacAtP = false;
         needJacobian = true;
         const pn = scaledNorm(diag, p);
