@@ -33,7 +33,7 @@ async function main(): Promise<void> {
     const explorer = page.locator('.jp-psiscape-LandauExplorer').last();
     await explorer.locator('input.jp-psiscape-landau-range[data-key="T"]').waitFor({ timeout: 60000 });
     await explorer.locator('svg').first().waitFor({ timeout: 60000 });
-    // Both charts side by side are what a meeting sees: show the branches tab's chart too when tabs hide it.
+    // The first tab shows the landscape and the branches side by side: what a meeting sees while T moves.
     // Page source (never transpiled).
     const inPage = `(async () => {
       const node = [...document.querySelectorAll('.jp-psiscape-LandauExplorer')].pop();

@@ -18,6 +18,12 @@ export type { ColorDef, Field, PositionFieldDef } from 'vega-lite/types_unstable
 /** The Vega-Lite version every spec is written for. */
 export const VEGA_LITE_SCHEMA = 'https://vega.github.io/schema/vega-lite/v6.json';
 
+/**
+ * Name of the parameter holding a live title's text: a drawn view takes a new
+ * title through this signal, with no new spec (see {@link IChartFrame.liveTitle}).
+ */
+export const TITLE_PARAM = 'chart_title';
+
 /** Height of a chart in px unless its builder says otherwise. */
 export const DEFAULT_CHART_HEIGHT = 300;
 
@@ -39,13 +45,26 @@ export interface IChartFrame {
   title?: string | { text: string; subtitle?: string | string[] };
   /** Height in px (default {@link DEFAULT_CHART_HEIGHT}). */
   height?: number;
+  /** The title's text is the {@link TITLE_PARAM} parameter (its value the title given), so a view can change it in place. */
+  liveTitle?: boolean;
+}
+
+function titleOf(frame: IChartFrame): object {
+  if (frame.title === undefined) {
+    return {};
+  }
+  if (!frame.liveTitle) {
+    return { title: frame.title };
+  }
+  const given = typeof frame.title === 'string' ? { text: frame.title } : frame.title;
+  return { params: [{ name: TITLE_PARAM, value: given.text }], title: { ...given, text: { expr: TITLE_PARAM } } };
 }
 
 function envelope(frame: IChartFrame) {
   return {
     $schema: VEGA_LITE_SCHEMA,
     description: frame.description,
-    ...(frame.title !== undefined ? { title: frame.title } : {}),
+    ...titleOf(frame),
     width: 'container' as const,
     height: frame.height ?? DEFAULT_CHART_HEIGHT,
     autosize: { type: 'fit' as const, contains: 'padding' as const }

@@ -16,6 +16,7 @@ import type { IPsiscapeSettings } from './settings';
 import type { IWorkbench } from './workbench';
 import type { IRestoreHooks } from './restore';
 import { Presenter } from './presenter';
+import type { IPresentable } from './presenter';
 
 /** Command ids. */
 export namespace CommandIDs {
@@ -238,22 +239,24 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
     const open = instance?.panels.filter(p => !p.isDisposed) ?? [];
     return (open.find(p => hit !== undefined && p.node === hit) ?? open.find(p => p === current))?.exportBar ?? null;
   };
+  // Analysis panels and Landau explorers, open ones only.
+  const presentable = (): IPresentable[] => [...(instance?.panels ?? []), ...(instance?.explorers ?? [])].filter(p => !p.isDisposed);
   const presenter = new Presenter({
     app,
     scale: () => ctx.settings().presenterScale,
-    panels: () => instance?.panels.filter(p => !p.isDisposed) ?? []
+    panels: () => presentable()
   });
   // The panel under the context menu, else the one in focus, else the one presented, else the last one shown.
   const panelToPresent = () => {
-    const hit = app.contextMenuHitTest(n => n.classList.contains('jp-psiscape-AnalysisPanel'));
+    const hit = app.contextMenuHitTest(n => n.classList.contains('jp-psiscape-AnalysisPanel') || n.classList.contains('jp-psiscape-LandauExplorer'));
     const current = app.shell.currentWidget;
-    const open = instance?.panels.filter(p => !p.isDisposed) ?? [];
+    const open = presentable();
     const visible = open.filter(p => p.isVisible);
     return open.find(p => hit !== undefined && p.node === hit) ?? open.find(p => p === current) ?? presenter.current ?? visible[visible.length - 1] ?? null;
   };
   app.commands.addCommand(CommandIDs.presentAnalysis, {
     label: trans.__('Present Analysis'),
-    caption: trans.__('Show this analysis alone in the main area, its charts filling it with larger text, lines and points; again to return'),
+    caption: trans.__('Show this analysis or Landau explorer alone in the main area, its charts filling it with larger text, lines and points; again to return'),
     describedBy: { args: { type: 'object', properties: {} } },
     isEnabled: () => panelToPresent() !== null,
     isToggled: () => presenter.current !== null && presenter.current === panelToPresent(),

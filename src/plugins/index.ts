@@ -66,7 +66,7 @@ const plugin: JupyterFrontEndPlugin<void> = {
       current = readSettings(settings.composite);
       const panels = loader.loaded()?.panels.filter(p => !p.isDisposed) ?? [];
       if (current.pointSize !== previous.pointSize) {
-        for (const p of panels) {
+        for (const p of [...panels, ...(loader.loaded()?.explorers.filter(e => !e.isDisposed) ?? [])]) {
           p.pointSize = current.pointSize;
         }
       }

@@ -14,6 +14,7 @@ import { AnalysisPanel } from '../ui/analysis-panel';
 import { LandauExplorer } from '../ui/landau';
 import type { ILandauExplorerState, ILandauOverlay } from '../ui/landau/explorer';
 import type { ISavedExplorer } from '../core/saved/explorers';
+import { OVERLAY_LIMITS, overlayColumns, overlayRows } from '../core/saved/explorers';
 import type { ILocatedOutput } from './locate';
 import { outputAt, outputCount } from './locate';
 import { revealCell } from './reveal';
@@ -422,7 +423,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     // Explorers opened from this notebook's fits, not open yet (e.g. restored with the layout).
     for (const e of saved.explorers) {
       if (!explorers.some(x => !x.isDisposed && x.id === e.id)) {
-        await openExplorer({ ...e, ...e.coefficients, convention: e.convention, T: e.T, h: e.h, id: e.id, notebook: panel.context.path });
+        const overlay = e.overlay ? { data: overlayRows(e.overlay.data), fitted: overlayRows(e.overlay.fitted) } : undefined;
+        await openExplorer({ ...e, ...e.coefficients, convention: e.convention, T: e.T, h: e.h, id: e.id, notebook: panel.context.path, overlay: overlay as unknown as ReadonlyPartialJSONObject | undefined });
       }
     }
     const closed = analyses.filter(a => !openIds.has(a.id) && isKnownKind(a.settings?.kind ?? DEFAULT_KIND));
@@ -659,7 +661,10 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
     const hooks = ctx.restore;
     if (hooks) {
       explorer.scenarioChanged.connect(() => hooks.save(explorer));
-      await hooks.track('explorer', explorer, explorer.id, () => ({ ...explorer.scenario(), id: explorer.id, ...(notebookPath ? { notebook: notebookPath } : {}) }));
+      await hooks.track('explorer', explorer, explorer.id, () => {
+        const { overlay, ...scenario } = explorer.scenario();
+        return { ...scenario, ...(overlay ? { overlay: overlay as unknown as ReadonlyPartialJSONObject } : {}), id: explorer.id, ...(notebookPath ? { notebook: notebookPath } : {}) };
+      });
     }
     return explorer.id;
   };
@@ -693,7 +698,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
         ...(s.preset ? { preset: s.preset, presetValues: s.presetValues } : {}),
         ...(s.typed ? { typed: s.typed } : {}),
         ...(s.coupled ? { coupled: s.coupled as unknown as NonNullable<ISavedExplorer['coupled']> } : {}),
-        ...(s.view ? { view: s.view } : {})
+        ...(s.view ? { view: s.view as NonNullable<ISavedExplorer['view']> } : {}),
+        ...(s.overlay ? { overlay: { data: overlayColumns(s.overlay.data, OVERLAY_LIMITS.data), fitted: overlayColumns(s.overlay.fitted, OVERLAY_LIMITS.fitted) } } : {})
       });
       if (blocked) {
         notify(notebookPath, [blocked]);

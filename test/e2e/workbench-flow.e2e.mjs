@@ -1,7 +1,9 @@
 // The landscape workbench in the lab: opened from a Landau fit of the demo
-// M(T) it overlays the data on the ψ(T) branches; the phase diagram and the
-// two-order-parameter landscape draw; a preset and a typed free energy work;
-// the scenario survives save and reload; light, dark and 400 px pictures.
+// M(T) it overlays the data on the ψ(T) branches, beside the landscape; the
+// phase diagram and the two-order-parameter landscape draw, the latter taking
+// slider moves in place; a preset and a typed free energy work; the scenario
+// (with the data) survives save and reload; the presenter view takes an
+// explorer too; light, dark, presenter and 400 px pictures.
 import assert from 'node:assert/strict';
 import { test } from 'node:test';
 import { contextMenu, darkScreenshot, drawn, saveAndReload, screenshot, setWindow, useDemoLab } from './lab.mjs';
@@ -26,15 +28,17 @@ test('a Landau fit of the demo M(T) opens the workbench with the data over the �
   await panel.locator('button.jp-psiscape-fit-explore').click();
   const explorer = page.locator('.jp-psiscape-LandauExplorer').last();
   await explorer.waitFor({ state: 'visible', timeout: 30000 });
-  await explorer.locator('.jp-psiscape-landau-tab[data-view="branches"]').click();
-  const branches = tabChart(explorer, 'branches');
+  // The first tab holds the landscape and the branches side by side.
+  const branches = explorer.locator('.jp-psiscape-landau-branches');
   await drawn(branches);
+  await drawn(explorer.locator('.jp-psiscape-landau-landscape'));
   // The fitted points (the demo's rows in 240–300 K, 16 of them) are drawn as points over the branch lines.
   await page.waitForFunction(
     sel => document.querySelector(sel)?.querySelectorAll('g.mark-symbol.role-mark path').length >= 10,
-    '.jp-psiscape-LandauExplorer:last-of-type [aria-labelledby^="jp-psiscape-landau-tab-branches-"] svg',
+    '.jp-psiscape-LandauExplorer:last-of-type .jp-psiscape-landau-branches svg',
     { timeout: 30000 }
   );
+  await branches.scrollIntoViewIfNeeded();
   await screenshot(page, 'workbench-branches-light', { guide: 'workbench-data-overlay' });
   await darkScreenshot(page, 'workbench-branches-dark', () => drawn(branches));
 });
@@ -48,6 +52,18 @@ test('the phase diagram and the two-order-parameter landscape draw', async () =>
   await explorer.locator('.jp-psiscape-landau-tab[data-view="landscape-2d"]').click();
   await drawn(tabChart(explorer, 'landscape-2d'));
   assert.doesNotMatch((await explorer.textContent()) ?? '', /NaN/);
+  // A T move redraws the 2-D landscape in place: the same canvas takes the new grid, the note and the label follow.
+  const grid = explorer.locator('.jp-psiscape-landau-landscape-2d');
+  await grid.evaluate(node => {
+    window.__psiscapeGrid = node.querySelector('canvas, svg');
+  });
+  const labelBefore = await grid.getAttribute('aria-label');
+  await explorer.locator('input.jp-psiscape-landau-range[data-key="T"]').evaluate(range => {
+    range.value = String(Number(range.min) + 0.2 * (Number(range.max) - Number(range.min)));
+    range.dispatchEvent(new Event('input', { bubbles: true }));
+  });
+  await page.waitForFunction(([sel, before]) => document.querySelector(sel)?.getAttribute('aria-label') !== before, ['.jp-psiscape-LandauExplorer:last-of-type .jp-psiscape-landau-landscape-2d', labelBefore], { timeout: 15000 });
+  assert.ok(await grid.evaluate(node => node.querySelector('canvas, svg') === window.__psiscapeGrid), 'the drawn 2-D view took the new rows in place');
   await screenshot(page, 'workbench-landscape-2d-light', { guide: 'workbench-landscape-2d' });
   await darkScreenshot(page, 'workbench-landscape-2d-dark', () => drawn(tabChart(explorer, 'landscape-2d')));
 });
@@ -86,6 +102,9 @@ test('the scenario survives save and reload; the workbench holds at 400 px', asy
     .waitForFunction(text => document.querySelector('.jp-psiscape-LandauExplorer input.jp-psiscape-landau-typed-input')?.value === text, typedBefore, { timeout: 15000 })
     .catch(() => undefined);
   assert.equal(await again.locator('input.jp-psiscape-landau-typed-input').inputValue(), typedBefore, 'the typed free energy is restored');
+  // the data of the fit come back with the scenario, over the branches
+  await again.locator('.jp-psiscape-landau-tab[data-view="landscape"]').click();
+  await again.locator('.jp-psiscape-landau-branches svg g.mark-symbol.role-mark path').nth(9).waitFor({ state: 'attached', timeout: 30000 });
   // 400 px wide (single-document mode, side bars collapsed, the viewport sized to it): no control narrower than its content.
   const id = await again.getAttribute('id');
   await page.evaluate(explorerId => {
@@ -116,5 +135,33 @@ test('the scenario survives save and reload; the workbench holds at 400 px', asy
   await page.evaluate(() => {
     window.jupyterapp.shell.mode = 'multiple-document';
   });
+  await page.setViewportSize({ width: 1400, height: 900 });
+});
+
+test('the presenter view takes an explorer: both charts side by side, text at least 18 px', async () => {
+  const { page } = suite.lab;
+  const explorer = page.locator('.jp-psiscape-LandauExplorer').last();
+  await page.setViewportSize({ width: 1920, height: 1080 });
+  await page.evaluate(id => window.jupyterapp.shell.activateById(id), await explorer.getAttribute('id'));
+  await page.evaluate(() => window.jupyterapp.commands.execute('psiscape:present-analysis'));
+  await page.waitForFunction(() => document.querySelector('.jp-psiscape-LandauExplorer.jp-psiscape-mod-presenting') !== null, null, { timeout: 15000 });
+  await page.waitForFunction(() => {
+    const t = document.querySelector('.jp-psiscape-mod-presenting .jp-psiscape-landau-branches svg .role-axis-label text');
+    return t && parseFloat(getComputedStyle(t).fontSize) >= 18;
+  }, null, { timeout: 15000 });
+  await page.waitForTimeout(500);
+  const boxes = await explorer.evaluate(node => {
+    const box = el => node.querySelector(el).getBoundingClientRect();
+    const texts = [...node.querySelectorAll('.jp-psiscape-landau-pair svg .role-axis-label text, .jp-psiscape-landau-pair svg .role-axis-title text')];
+    return { landscape: box('.jp-psiscape-landau-landscape svg').toJSON(), branches: box('.jp-psiscape-landau-branches svg').toJSON(), min: Math.min(...texts.map(t => parseFloat(getComputedStyle(t).fontSize))), panel: node.getBoundingClientRect().width };
+  });
+  console.log(`explorer presented: panel ${Math.round(boxes.panel)} px, charts ${Math.round(boxes.landscape.width)}×${Math.round(boxes.landscape.height)} and ${Math.round(boxes.branches.width)}×${Math.round(boxes.branches.height)}, axis text ≥ ${boxes.min} px`);
+  assert.ok(boxes.min >= 18, `axis text ${boxes.min} px`);
+  assert.ok(boxes.panel > 1800, 'the explorer fills the main area');
+  assert.ok(Math.abs(boxes.landscape.top - boxes.branches.top) < 2 && boxes.landscape.right <= boxes.branches.left + 1, 'the two charts side by side');
+  await screenshot(page, 'workbench-presenter-light');
+  await darkScreenshot(page, 'workbench-presenter-dark', () => drawn(explorer.locator('.jp-psiscape-landau-branches')));
+  await page.evaluate(() => window.jupyterapp.commands.execute('psiscape:present-analysis'));
+  await page.waitForFunction(() => document.querySelector('.jp-psiscape-mod-presenting') === null);
   await page.setViewportSize({ width: 1400, height: 900 });
 });

@@ -54,6 +54,8 @@ export interface IBranchesChartOptions {
   labels?: Partial<IBranchesLabels>;
   /** Measured points drawn over the branches (e.g. the data of a fit). */
   data?: readonly { T: number; psi: number }[];
+  /** Area of a measured point in px² (the point-size setting; default 30). */
+  pointSize?: number;
   /** A fitted curve drawn over the branches. */
   fitted?: readonly { T: number; psi: number }[];
   /** Fixed axis domains (the view); the data decide when absent. */
@@ -234,7 +236,7 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
     layer.push({
       name: 'branches_data',
       data: { name: 'data', values: rows.data },
-      mark: { type: 'point', filled: false, size: 30, color: theme.text, opacity: 0.75, clip: true, tooltip: true },
+      mark: { type: 'point', filled: false, size: options.pointSize !== undefined && options.pointSize > 0 ? options.pointSize : 30, color: theme.text, opacity: 0.75, clip: true, tooltip: true },
       encoding: {
         x: { field: 'T', type: 'quantitative' },
         y: { field: 'psi', type: 'quantitative' },
@@ -280,6 +282,6 @@ export function buildBranchesSpec(options: IBranchesChartOptions): ILandauChart 
       ]
     });
   }
-  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, title: labels.title, theme });
+  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.psi} against ${labels.T}, stationary branches by kind, heating and cooling paths`, title: labels.title, theme, liveTitle: all });
   return { spec, rows: segments.length + paths.length + jumps.length + markers.length + current.length + (rows.data?.length ?? 0) + (rows.fit?.length ?? 0) };
 }

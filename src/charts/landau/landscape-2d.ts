@@ -33,6 +33,8 @@ export interface ILandscape2dChartOptions {
   labels?: Partial<ILandscape2dLabels>;
   /** Most cells drawn per axis (default 80). */
   maxCells?: number;
+  /** The title is a parameter, so a drawn view takes new rows and title in place ({@link landscape2dRows}); default false. */
+  patchable?: boolean;
 }
 
 /** Rows of every dataset, by name (for in-place updates of a drawn view). */
@@ -56,7 +58,7 @@ export function landscape2dRows(options: ILandscape2dChartOptions): Record<strin
   const minima = options.minima
     .filter(m => finite(m.psi) && finite(m.phi) && finite(m.F))
     .map(m => ({ psi: m.psi, phi: m.phi, F: m.F, text: m.label ?? (m.global ? labels.global : labels.minimum), global: m.global ? 1 : 0 }));
-  return { landscape2d_cells: cells, landscape2d_minima: minima };
+  return { landscape2d_cells: cells, landscape2d_minima: minima, landscape2d_global: minima.filter(m => m.global === 1) };
 }
 
 function labels2d(given: Partial<ILandscape2dLabels> | undefined): ILandscape2dLabels {
@@ -100,11 +102,11 @@ export function buildLandscape2dSpec(options: ILandscape2dChartOptions): ILandau
     },
     {
       name: 'landscape2d_global',
-      data: { name: 'landscape2d_global', values: rows.landscape2d_minima.filter(m => m.global === 1) },
+      data: { name: 'landscape2d_global', values: rows.landscape2d_global },
       mark: { type: 'point', filled: false, size: 360, stroke: theme.accent, strokeWidth: 2.5, clip: true },
       encoding: { x: { field: 'psi', type: 'quantitative' }, y: { field: 'phi', type: 'quantitative' } }
     }
   ];
-  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} over ${labels.psi} and ${labels.phi} as colour, with ${rows.landscape2d_minima.length} minima`, title: labels.title, theme, height: 340 });
+  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} over ${labels.psi} and ${labels.phi} as colour, with ${rows.landscape2d_minima.length} minima`, title: labels.title, theme, height: 340, liveTitle: options.patchable === true });
   return { spec, rows: rows.landscape2d_cells.length + rows.landscape2d_minima.length };
 }

@@ -149,7 +149,7 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
       }
     );
   }
-  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, title: labels.title, theme });
+  const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, title: labels.title, theme, liveTitle: options.patchable === true });
   return { spec, rows: curve.length + marks.length + globalRow.length };
 }
 

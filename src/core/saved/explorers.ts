@@ -35,6 +35,63 @@ export interface ISavedExplorer {
   coupled?: { a1: number; T1: number; b1: number; a2: number; T2: number; b2: number; lambda: number };
   /** The chart tab shown (absent: the landscape, or an unknown one). */
   view?: (typeof EXPLORER_VIEWS)[number];
+  /** Measured points and fitted curve drawn over the branches, as columns (see {@link OVERLAY_LIMITS}). */
+  overlay?: ISavedOverlay;
+}
+
+/** Points as two columns of equal length. */
+export interface ISavedColumns {
+  T: number[];
+  psi: number[];
+}
+
+/** The data and fitted curve of a fit, drawn over an explorer's branches. */
+export interface ISavedOverlay {
+  data: ISavedColumns;
+  fitted: ISavedColumns;
+}
+
+/**
+ * Most points kept of each overlay series: a longer series is thinned to
+ * every k-th point (the first and last kept), so an explorer stays a few kB
+ * in the notebook.
+ */
+export const OVERLAY_LIMITS = { data: 2000, fitted: 400 } as const;
+
+/** Rows as columns, finite points only, thinned to at most `limit` points. */
+export function overlayColumns(rows: readonly { T: number; psi: number }[], limit: number): ISavedColumns {
+  const ok = rows.filter(r => finite(r.T) && finite(r.psi));
+  const step = Math.max(1, Math.ceil(ok.length / Math.max(2, limit)));
+  const T: number[] = [];
+  const psi: number[] = [];
+  for (let i = 0; i < ok.length; i += step) {
+    T.push(ok[i].T);
+    psi.push(ok[i].psi);
+  }
+  const last = ok[ok.length - 1];
+  if (last && T.length > 0 && (T[T.length - 1] !== last.T || psi[psi.length - 1] !== last.psi) && T.length < limit) {
+    T.push(last.T);
+    psi.push(last.psi);
+  }
+  return { T, psi };
+}
+
+/** Columns as rows. */
+export function overlayRows(c: ISavedColumns): { T: number; psi: number }[] {
+  return c.T.map((T, i) => ({ T, psi: c.psi[i] }));
+}
+
+/** Two finite columns of equal length, or undefined. */
+function columnsOf(v: unknown): ISavedColumns | undefined {
+  if (!isRecord(v)) {
+    return undefined;
+  }
+  const T = own(v, 'T');
+  const psi = own(v, 'psi');
+  if (!Array.isArray(T) || !Array.isArray(psi) || T.length !== psi.length || !T.every(finite) || !psi.every(finite)) {
+    return undefined;
+  }
+  return { T: T.slice() as number[], psi: psi.slice() as number[] };
 }
 
 /** Presets of the workbench. */
@@ -86,6 +143,14 @@ function optionalFields(raw: JsonRecord): Partial<ISavedExplorer> {
   const view = own(raw, 'view');
   if ((EXPLORER_VIEWS as readonly unknown[]).includes(view)) {
     out.view = view as ISavedExplorer['view'];
+  }
+  const overlay = own(raw, 'overlay');
+  if (isRecord(overlay)) {
+    const data = columnsOf(own(overlay, 'data'));
+    const fitted = columnsOf(own(overlay, 'fitted'));
+    if (data && fitted) {
+      out.overlay = { data, fitted };
+    }
   }
   return out;
 }
@@ -158,7 +223,7 @@ export function readSavedExplorers(value: unknown): ISavedExplorersRead {
   }
 }
 
-const KNOWN = ['id', 'coefficients', 'convention', 'T', 'h', 'preset', 'presetValues', 'typed', 'coupled', 'view'];
+const KNOWN = ['id', 'coefficients', 'convention', 'T', 'h', 'preset', 'presetValues', 'typed', 'coupled', 'view', 'overlay'];
 const KNOWN_COEFFICIENTS = ['a', 'T0', 'b', 'c', 'd'];
 
 /** Stored fields in their order, known ones replaced by the new ones, unknown ones kept; then new fields. */
@@ -197,6 +262,12 @@ function encode(e: ISavedExplorer): JsonRecord {
   if (e.view !== undefined) {
     out.view = e.view;
   }
+  if (e.overlay !== undefined) {
+    out.overlay = {
+      data: { T: e.overlay.data.T.slice(), psi: e.overlay.data.psi.slice() },
+      fitted: { T: e.overlay.fitted.T.slice(), psi: e.overlay.fitted.psi.slice() }
+    };
+  }
   return out;
 }
 
@@ -223,7 +294,9 @@ function rebuild(block: JsonRecord, version: 1 | 2, entries: unknown[], explorer
 function invalid(e: ISavedExplorer): boolean {
   const k = e.coefficients;
   const extra = [...Object.values(e.presetValues ?? {}), ...Object.values(e.typed?.values ?? {}), ...Object.values(e.coupled ?? {})];
-  return e.id === '' || ![k.a, k.T0, k.b, k.c, k.d, e.T, e.h, ...extra].every(v => Number.isFinite(v));
+  const o = e.overlay;
+  const columnsBad = (c: ISavedColumns): boolean => c.T.length !== c.psi.length || !c.T.every(finite) || !c.psi.every(finite);
+  return e.id === '' || ![k.a, k.T0, k.b, k.c, k.d, e.T, e.h, ...extra].every(v => Number.isFinite(v)) || (o !== undefined && (columnsBad(o.data) || columnsBad(o.fitted)));
 }
 
 /**

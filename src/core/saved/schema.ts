@@ -105,8 +105,26 @@ export const SAVED_SCHEMA = {
         },
         view: {
           type: 'string',
-          description: 'Optional. The chart tab shown: "landscape", "branches", "phase-diagram", "landscape-2d" or "loop"; readers show the landscape for an unknown one.'
+          description: 'Optional. The chart tab shown: "landscape" (the landscape and the branches), "phase-diagram", "landscape-2d" or "loop"; "branches", written before the branches joined the landscape\'s tab, shows that tab; readers show the landscape for an unknown one.'
+        },
+        overlay: {
+          type: 'object',
+          description: 'Optional. The measured points (at most 2000) and the fitted curve (at most 400 points) of the fit the explorer was opened from, drawn over its branches; longer series are thinned to every k-th point. Each is two columns of equal length. Readers ignore a malformed one.',
+          required: ['data', 'fitted'],
+          properties: {
+            data: { $ref: '#/definitions/overlayColumns' },
+            fitted: { $ref: '#/definitions/overlayColumns' }
+          }
         }
+      }
+    },
+    overlayColumns: {
+      type: 'object',
+      description: 'Points as a temperature column T and an order-parameter column psi of equal length.',
+      required: ['T', 'psi'],
+      properties: {
+        T: { type: 'array', items: { type: 'number' } },
+        psi: { type: 'array', items: { type: 'number' } }
       }
     },
     analysis: {

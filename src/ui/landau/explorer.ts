@@ -16,6 +16,7 @@ import { readChartTheme } from '../chart-theme';
 import type { IBranchesData, IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
 import type { TopLevelSpec } from 'vega-lite';
 import { branchesData, explorerDerived, landscapeData } from '../../core/physics/landau/index';
+import { OVERLAY_LIMITS, overlayColumns, overlayRows } from '../../core/saved/explorers';
 import { DerivedSection } from './derived-section';
 import { formatValue } from './derived-table';
 import { PatchableChartView } from './patchable-view';
@@ -25,7 +26,8 @@ import { FrameThrottle } from './frame';
 import { CONVENTIONS, coefficientsFrom, valuesIn } from './fields';
 import { defaultTemperature, stateRanges } from './ranges';
 import { branchesSpec, landscapeSpec } from './specs';
-import { branchesRows, buildLandscape2dSpec, buildLoopSpec, buildPhaseDiagramSpec, landscapeFocus, landscapeRows, loopRows, phaseDiagramRows } from '../../charts/landau/index';
+import { branchesRows, buildLandscape2dSpec, buildLoopSpec, buildPhaseDiagramSpec, landscape2dRows, landscapeFocus, landscapeRows, loopRows, phaseDiagramRows } from '../../charts/landau/index';
+import { TITLE_PARAM } from '../../charts/frame';
 import type { ICoupledCoefficients } from '../../core/physics/coupled';
 import { compileFreeEnergy, typedErrorText } from '../../core/expr/index';
 import { ExpressionError } from '../../core/expr/index';
@@ -65,8 +67,10 @@ export interface ILandauExplorerState {
   typed?: { text: string; values: Record<string, number> };
   /** Coefficients of the two-order-parameter landscape (a1, T1, b1, a2, T2, b2, lambda). */
   coupled?: Record<string, number>;
-  /** The chart tab shown. */
-  view?: WorkbenchView;
+  /** The chart tab shown ("branches", from scenarios saved before, shows the first tab). */
+  view?: WorkbenchView | 'branches';
+  /** Measured points and fitted curve drawn over the branches (thinned to {@link OVERLAY_LIMITS}). */
+  overlay?: ILandauOverlay;
 }
 
 /** Measured points and a fitted curve drawn over the branches (e.g. from a Landau fit). */
@@ -85,7 +89,17 @@ export interface IWorkbenchAxes {
   h: [number, number] | null;
   /** Half-range of the loop's field (set when it is first drawn). */
   loop: number | null;
+  /** Half-widths of ψ and φ of the two-order-parameter landscape (set when it is first drawn). */
+  grid2d?: [number, number] | null;
 }
+
+/** The overlay with finite points only, each series thinned to its limit in {@link OVERLAY_LIMITS}. */
+function thinOverlay(o: ILandauOverlay): ILandauOverlay {
+  return { data: overlayRows(overlayColumns(o.data, OVERLAY_LIMITS.data)), fitted: overlayRows(overlayColumns(o.fitted, OVERLAY_LIMITS.fitted)) };
+}
+
+/** Area in px² of the measured points when no setting is given. */
+const DEFAULT_POINT_SIZE = 30;
 
 /** First-order example of [C5 in REFERENCES.md]: a = 0.5, b = −2, c = 4, T0 = 100. */
 export const DEFAULT_LANDAU_INITIAL: ILandauExplorerInitial = { a: 0.5, b: -2, c: 4, T0: 100 };
@@ -121,7 +135,8 @@ export class LandauExplorer extends Panel {
     this._phase.addClass('jp-psiscape-landau-phase-diagram');
     this._grid2d.addClass('jp-psiscape-landau-landscape-2d');
     this._loop.addClass('jp-psiscape-landau-loop');
-    this._overlay = options.overlay ?? null;
+    this._overlay = options.overlay ? thinOverlay(options.overlay) : null;
+    this._pointSize = options.pointSize ?? DEFAULT_POINT_SIZE;
     const onInvalid = (label: string, text: string): void => {
       this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
       this._schedule();
@@ -130,6 +145,9 @@ export class LandauExplorer extends Panel {
     this._coupledGroup = new SliderGroup({ trans, title: trans.__('two order parameters'), className: 'jp-psiscape-landau-coupled', onInvalid });
     const grid2dPanel = new Panel();
     grid2dPanel.addWidget(this._coupledGroup);
+    this._grid2dNote.addClass('jp-psiscape-landau-note');
+    this._grid2dNote.node.setAttribute('aria-live', 'polite');
+    grid2dPanel.addWidget(this._grid2dNote);
     grid2dPanel.addWidget(this._grid2d);
     this._phaseNote.addClass('jp-psiscape-landau-note');
     const phasePanel = new Panel();
@@ -139,7 +157,12 @@ export class LandauExplorer extends Panel {
     const loopPanel = new Panel();
     loopPanel.addWidget(this._loopNote);
     loopPanel.addWidget(this._loop);
-    const panels = { landscape: this._landscape as Widget, branches: this._branches as Widget, 'phase-diagram': phasePanel as Widget, 'landscape-2d': grid2dPanel as Widget, loop: loopPanel as Widget };
+    // the landscape and the branches side by side (stacked when narrow): what a slider move changes at once
+    const pair = new Panel();
+    pair.addClass('jp-psiscape-landau-pair');
+    pair.addWidget(this._landscape);
+    pair.addWidget(this._branches);
+    const panels = { landscape: pair as Widget, 'phase-diagram': phasePanel as Widget, 'landscape-2d': grid2dPanel as Widget, loop: loopPanel as Widget };
     this._tabs = new WorkbenchTabs({
       trans,
       panels,
@@ -204,7 +227,8 @@ export class LandauExplorer extends Panel {
       ...(this._typed ? { typed: { text: this._typed.f.text, values: { ...this._typed.values } } } : {}),
       // the two-order-parameter coefficients and the tab only when they differ from the defaults (older scenarios keep their shape)
       ...(JSON.stringify(this._coupled) !== JSON.stringify(DEFAULT_COUPLED) ? { coupled: { ...this._coupled } as unknown as Record<string, number> } : {}),
-      ...(this._tabs.selected !== 'landscape' ? { view: this._tabs.selected } : {})
+      ...(this._tabs.selected !== 'landscape' ? { view: this._tabs.selected } : {}),
+      ...(this._overlay ? { overlay: { data: this._overlay.data.slice(), fitted: this._overlay.fitted.slice() } } : {})
     };
   }
 
@@ -216,6 +240,18 @@ export class LandauExplorer extends Panel {
   /** Shows a chart tab. */
   selectView(view: string): void {
     this._tabs.select(view);
+  }
+
+  /** Area in px² of the measured points drawn over the branches (the point-size setting). */
+  get pointSize(): number {
+    return this._pointSize;
+  }
+
+  set pointSize(value: number) {
+    if (value !== this._pointSize && Number.isFinite(value) && value > 0) {
+      this._pointSize = value;
+      void this._schedule();
+    }
   }
 
   /** The measured points and fitted curve drawn over the branches, or null. */
@@ -459,6 +495,9 @@ export class LandauExplorer extends Panel {
         // the convention cannot hold them: setCoefficients shows them in L and says why
       }
     }
+    if (state.overlay && Array.isArray(state.overlay.data) && Array.isArray(state.overlay.fitted)) {
+      this._overlay = thinOverlay(state.overlay);
+    }
     if (state.coupled) {
       this._coupled = { ...DEFAULT_COUPLED, ...(state.coupled as Partial<ICoupledCoefficients>) };
       this._showCoupled();
@@ -656,34 +695,42 @@ export class LandauExplorer extends Panel {
     const trans = this._trans;
     const ls = landscapeSpec(land, T, h, theme, trans, { xDomain: axes.landscapePsi, yDomain: axes.landscapeF });
     const overlay = this._overlay;
-    const branchOptions = { xDomain: axes.T, yDomain: axes.psi, data: overlay?.data, fitted: overlay?.fitted };
+    const branchOptions = { xDomain: axes.T, yDomain: axes.psi, data: overlay?.data, fitted: overlay?.fitted, pointSize: this._pointSize };
     const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans, branchOptions);
     this._derived = derived;
     this._derivedSection.present(derived, this._controls.conventionName(this._controls.convention), T, h, land);
     this._derivedSection.node.hidden = typed !== null;
     this._showMessage(this._notice);
-    // the landscape: rows in place while its frame (theme, axes, labels) stays
-    const landRows = landscapeRows(ls.options);
-    const landFrame = JSON.stringify([theme, axes.landscapePsi, axes.landscapeF, ls.options.labels?.title === undefined]);
-    const landscape =
-      landFrame === this._landscapeDrawn && this._landscapeBusy === 0
-        ? this._landscape.patchMany(landRows, ls.label).then(ok => (ok ? undefined : this._full(this._landscape, ls.spec, ls.label, 'landscape')))
-        : this._full(this._landscape, ls.spec, ls.label, 'landscape');
-    this._landscapeDrawn = landFrame;
-    // the branches: only the current-T rule moves when nothing else changed; otherwise every dataset in place
-    const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention, axes]);
-    const frameKey = JSON.stringify([theme, axes, h, this._controls.convention, overlay !== null]);
-    const current = [{ T, label: trans.__('T = %1', formatValue(T)) }];
-    let branches: Promise<void>;
-    if (drawnKey === this._branchesDrawn && this._branchesBusy === 0) {
-      branches = this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
-    } else if (frameKey === this._branchesFrame && this._branchesBusy === 0) {
-      branches = this._branches.patchMany(branchesRows(bs.options), bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
-    } else {
-      branches = this._full(this._branches, bs.spec, bs.label, 'branches');
+    // Only the charts of the tab shown are drawn; the others catch up when their tab is chosen.
+    const pairShown = this._tabs.selected === 'landscape';
+    let landscape: Promise<void> = Promise.resolve();
+    let branches: Promise<void> = Promise.resolve();
+    if (pairShown) {
+      // the landscape: rows and title in place while its frame (theme, axes) stays
+      const landRows = landscapeRows(ls.options);
+      const landFrame = JSON.stringify([theme, axes.landscapePsi, axes.landscapeF]);
+      const landTitle = { [TITLE_PARAM]: ls.options.labels?.title ?? '' };
+      landscape =
+        landFrame === this._landscapeDrawn && this._landscapeBusy === 0
+          ? this._landscape.patchMany(landRows, ls.label, landTitle).then(ok => (ok ? undefined : this._full(this._landscape, ls.spec, ls.label, 'landscape')))
+          : this._full(this._landscape, ls.spec, ls.label, 'landscape');
+      this._landscapeDrawn = landFrame;
+      // the branches: only the current-T rule moves when nothing else changed; otherwise every dataset and the title in place
+      const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention, axes]);
+      const frameKey = JSON.stringify([theme, axes, this._controls.convention, overlay !== null, this._pointSize]);
+      const current = [{ T, label: trans.__('T = %1', formatValue(T)) }];
+      if (drawnKey === this._branchesDrawn && this._branchesBusy === 0) {
+        branches = this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
+      } else if (frameKey === this._branchesFrame && this._branchesBusy === 0) {
+        branches = this._branches
+          .patchMany(branchesRows(bs.options), bs.label, { [TITLE_PARAM]: bs.options.labels?.title ?? '' })
+          .then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
+      } else {
+        branches = this._full(this._branches, bs.spec, bs.label, 'branches');
+      }
+      this._branchesDrawn = drawnKey;
+      this._branchesFrame = frameKey;
     }
-    this._branchesDrawn = drawnKey;
-    this._branchesFrame = frameKey;
     const heavy = this._drawSelected(k, T, h, theme, axes, typed !== null);
     await Promise.all([landscape, branches, heavy]);
   }
@@ -747,20 +794,32 @@ export class LandauExplorer extends Panel {
     if (view === 'landscape-2d') {
       let L;
       try {
-        L = coupledLandscape(this._coupled, T);
+        L = coupledLandscape(this._coupled, T, axes.grid2d ? { psiMax: axes.grid2d[0], phiMax: axes.grid2d[1] } : {});
+        if (!axes.grid2d) {
+          axes.grid2d = [L.psi[L.n - 1], L.phi[L.n - 1]];
+        }
       } catch (e) {
         this._showMessage(translateMessage(trans, messageOf(e)));
         return;
       }
       const phaseNames = { disordered: trans.__('neither (disordered)'), psi: trans.__('ψ only'), phi: trans.__('φ only'), mixed: trans.__('both ψ and φ') };
+      const title = trans.__('F(ψ, φ) at T = %1: phase %2', formatValue(T), phaseNames[L.phase]);
       const options = {
         ...L,
         minima: L.minima.map(m => ({ ...m, label: `${m.global ? trans.__('global minimum') : trans.__('minimum')}: ${phaseNames[m.phase]}` })),
         theme,
-        labels: { title: trans.__('F(ψ, φ) at T = %1: phase %2', formatValue(T), phaseNames[L.phase]), psi: trans.__('order parameter ψ'), phi: trans.__('order parameter φ'), F: 'F', minimum: trans.__('minimum'), global: trans.__('global minimum') }
+        patchable: true,
+        labels: { title, psi: trans.__('order parameter ψ'), phi: trans.__('order parameter φ'), F: 'F', minimum: trans.__('minimum'), global: trans.__('global minimum') }
       };
       const label = trans.__('Landscape of two order parameters at T = %1: phase %2, %3 minima', formatValue(T), phaseNames[L.phase], L.minima.length);
       this._grid2d.node.dataset.phase = L.phase;
+      this._grid2dNote.node.textContent = trans._n('At T = %2 the stable phase has %3; %1 minimum in view.', 'At T = %2 the stable phase has %3; %1 minima in view.', L.minima.length, formatValue(T), phaseNames[L.phase]);
+      // the grid's extent and the theme make the frame; new rows and title go into a drawn view in place
+      const frame = JSON.stringify([theme, L.n, axes.grid2d]);
+      if (frame === this._grid2dDrawn && (await this._grid2d.patchMany(landscape2dRows(options), label, { [TITLE_PARAM]: title }))) {
+        return;
+      }
+      this._grid2dDrawn = frame;
       await this._grid2d.render(buildLandscape2dSpec(options).spec, label);
       return;
     }
@@ -856,7 +915,7 @@ export class LandauExplorer extends Panel {
       }
       F = Number.isFinite(lo) && hi > lo ? [lo - 0.05 * (hi - lo), hi + 0.05 * (hi - lo)] : [-1, 1];
     }
-    return { T: [Tlo, Thi], psi: [psiMin - pad, psiMax + pad], landscapePsi: [-lp, lp], landscapeF: F, h: null, loop: null };
+    return { T: [Tlo, Thi], psi: [psiMin - pad, psiMax + pad], landscapePsi: [-lp, lp], landscapeF: F, h: null, loop: null, grid2d: null };
   }
 
   private _trans: TranslationBundle;
@@ -869,6 +928,8 @@ export class LandauExplorer extends Panel {
   private _loop = new PatchableChartView();
   private _phaseNote = new Widget({ node: document.createElement('p') });
   private _loopNote = new Widget({ node: document.createElement('p') });
+  private _grid2dNote = new Widget({ node: document.createElement('p') });
+  private _grid2dDrawn = '';
   private _tabs: WorkbenchTabs;
   private _workbench: Widget;
   private _presetSelect = document.createElement('select');
@@ -882,6 +943,7 @@ export class LandauExplorer extends Panel {
   private _typed: { f: ITypedFreeEnergy; values: Record<string, number> } | null = null;
   private _coupled: ICoupledCoefficients = { ...DEFAULT_COUPLED };
   private _overlay: ILandauOverlay | null;
+  private _pointSize: number;
   private _axes: IWorkbenchAxes | null = null;
   private _landscapeDrawn = '';
   private _landscapeBusy = 0;
@@ -920,5 +982,7 @@ export namespace LandauExplorer {
     initial?: ILandauExplorerInitial;
     /** Measured points and a fitted curve drawn over the branches. */
     overlay?: ILandauOverlay;
+    /** Area in px² of those points (default 30). */
+    pointSize?: number;
   }
 }

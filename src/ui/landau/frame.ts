@@ -1,6 +1,9 @@
 /**
- * Runs an asynchronous redraw at most once per animation frame: any number
- * of requests before the frame share one run and one promise.
+ * Runs an asynchronous redraw at most once per animation frame. The first
+ * request after a quiet spell runs at once (in a microtask, so every request
+ * of the same task shares it): a slider move is drawn in the frame it
+ * arrives in rather than one frame later. Requests made while a run is in
+ * flight, or in the frame a run started in, share one run at the next frame.
  */
 
 /** Coalesces redraw requests into one run per animation frame. */
@@ -24,44 +27,85 @@ export class FrameThrottle {
     return this._runs;
   }
 
-  /** Requests a run in the next frame (shared with other requests before it). */
+  /** Requests a run: now when idle, else at the next frame (shared with other requests before it). */
   request(): Promise<void> {
     if (!this._pending) {
       let resolve!: () => void;
       const promise = new Promise<void>(r => (resolve = r));
-      const pending = { promise, resolve };
-      this._pending = pending;
-      this._frame = requestAnimationFrame(() => {
-        this._pending = null;
-        this._frame = 0;
-        this._runs++;
-        this._run().then(
-          () => pending.resolve(),
-          (e: unknown) => {
-            this._onError(e);
-            pending.resolve();
-          }
-        );
+      this._pending = { promise, resolve };
+    }
+    const promise = this._pending.promise;
+    this._settled = promise;
+    if (!this._busy && !this._frame && !this._queued) {
+      this._queued = true;
+      queueMicrotask(() => {
+        if (this._queued) {
+          this._queued = false;
+          this._start();
+        }
       });
     }
-    this._settled = this._pending.promise;
-    return this._pending.promise;
+    return promise;
   }
 
-  /** Drops a pending run (its promise resolves). */
+  /** Drops a pending run (its promise resolves); a run in flight finishes. */
   cancel(): void {
-    if (this._frame) {
-      cancelAnimationFrame(this._frame);
-      this._frame = 0;
-    }
+    this._queued = false;
     this._pending?.resolve();
     this._pending = null;
+  }
+
+  /** Starts the pending run, and guards the rest of this frame. */
+  private _start(): void {
+    const pending = this._pending;
+    if (!pending || this._busy) {
+      return;
+    }
+    this._pending = null;
+    this._busy = true;
+    this._runs++;
+    if (!this._frame) {
+      this._frame = requestFrame(() => {
+        this._frame = 0;
+        if (!this._busy && this._pending) {
+          this._start();
+        }
+      });
+    }
+    let result: Promise<void>;
+    try {
+      result = this._run();
+    } catch (e) {
+      result = Promise.reject(e);
+    }
+    result.then(
+      () => this._finish(pending),
+      (e: unknown) => {
+        this._onError(e);
+        this._finish(pending);
+      }
+    );
+  }
+
+  private _finish(done: { resolve: () => void }): void {
+    this._busy = false;
+    done.resolve();
+    // The frame the run started in has passed: a request made meanwhile runs now.
+    if (!this._frame && this._pending) {
+      this._start();
+    }
   }
 
   private _run: () => Promise<void>;
   private _onError: (e: unknown) => void;
   private _frame = 0;
   private _runs = 0;
+  private _busy = false;
+  private _queued = false;
   private _pending: { promise: Promise<void>; resolve: () => void } | null = null;
   private _settled: Promise<void> = Promise.resolve();
+}
+
+function requestFrame(callback: () => void): number {
+  return typeof requestAnimationFrame === 'function' ? requestAnimationFrame(callback) : (setTimeout(callback, 16) as unknown as number);
 }

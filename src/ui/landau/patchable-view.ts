@@ -29,11 +29,12 @@ export class PatchableChartView extends ChartView {
   }
 
   /**
-   * Replaces the rows of several datasets at once and re-runs the view once.
+   * Replaces the rows of several datasets at once, sets the given signals
+   * (e.g. a live title, `chart_title` of charts/frame.ts) and re-runs the view once.
    *
-   * @returns false, changing nothing, when there is no view or one of the datasets is missing.
+   * @returns false, changing nothing, when there is no view or one of the datasets or signals is missing.
    */
-  async patchMany(datasets: Readonly<Record<string, readonly object[]>>, label: string): Promise<boolean> {
+  async patchMany(datasets: Readonly<Record<string, readonly object[]>>, label: string, signals: Readonly<Record<string, unknown>> = {}): Promise<boolean> {
     const view = this.view;
     if (!view) {
       return false;
@@ -43,11 +44,17 @@ export class PatchableChartView extends ChartView {
       for (const name of names) {
         view.data(name);
       }
+      for (const name of Object.keys(signals)) {
+        view.signal(name);
+      }
     } catch {
       return false;
     }
     for (const name of names) {
       view.data(name, datasets[name] as object[]);
+    }
+    for (const [name, value] of Object.entries(signals)) {
+      view.signal(name, value);
     }
     this.node.setAttribute('aria-label', label);
     await view.runAsync();

@@ -24,6 +24,8 @@ export interface ISpecView {
   yDomain?: [number, number];
   data?: { T: number; psi: number }[];
   fitted?: { T: number; psi: number }[];
+  /** Area of a measured point in px². */
+  pointSize?: number;
 }
 
 function kindLabels(trans: TranslationBundle): IKindLabels {
@@ -37,9 +39,8 @@ function kindLabels(trans: TranslationBundle): IKindLabels {
 
 /** Landscape spec at (T, h). */
 export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme: IChartTheme, trans: TranslationBundle, view: ISpecView = {}): ILabelledSpec<ILandscapeChartOptions> {
+  // with fixed axes the title is a parameter: a drawn view takes a new one in place with its rows
   const title = trans.__('Free energy at T = %1, h = %2', formatValue(T), formatValue(h));
-  // a fixed frame keeps one title, so the view can take new rows in place
-  const frameTitle = view.xDomain ? trans.__('Free energy F(ψ) at the T and h of the sliders') : title;
   // minima as low as the global one (±ψ at h = 0, three at T1) are all labelled stable
   const equal = data.points.filter(p => p.kind === 'stable').length;
   const options: ILandscapeChartOptions = {
@@ -54,7 +55,7 @@ export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme:
     yDomain: view.yDomain,
     patchable: view.xDomain !== undefined,
     labels: {
-      title: frameTitle,
+      title,
       psi: trans.__('order parameter ψ'),
       F: trans.__('F − F0'),
       kind: trans.__('stationary point'),

@@ -11,8 +11,8 @@ import type { ICoupledCoefficients } from '../../core/physics/coupled';
 import { coefficientRange } from './ranges';
 import { SliderField } from './slider';
 
-/** The chart tabs, in order. */
-export const WORKBENCH_VIEWS = ['landscape', 'branches', 'phase-diagram', 'landscape-2d', 'loop'] as const;
+/** The chart tabs, in order (the first shows the landscape and the branches side by side). */
+export const WORKBENCH_VIEWS = ['landscape', 'phase-diagram', 'landscape-2d', 'loop'] as const;
 export type WorkbenchView = (typeof WORKBENCH_VIEWS)[number];
 
 let tabCount = 0;
@@ -26,8 +26,7 @@ export class WorkbenchTabs extends Widget {
     this._onSelect = options.onSelect;
     this._panels = options.panels;
     const names: Record<WorkbenchView, string> = {
-      landscape: t.__('Landscape F(ψ)'),
-      branches: t.__('Branches ψ(T)'),
+      landscape: t.__('Landscape F(ψ) and branches ψ(T)'),
       'phase-diagram': t.__('Phase diagram (T, h)'),
       'landscape-2d': t.__('Two order parameters F(ψ, φ)'),
       loop: t.__('Field loop (P–E)')
@@ -62,8 +61,14 @@ export class WorkbenchTabs extends Widget {
     return this._selected;
   }
 
-  /** Shows a view (`user`: chosen by the user, which is told through onSelect). */
+  /**
+   * Shows a view (`user`: chosen by the user, which is told through onSelect).
+   * "branches", a tab of its own in scenarios saved before, shows the first tab, which holds them.
+   */
   select(id: string, options: { user?: boolean; focus?: boolean } = {}): void {
+    if (id === 'branches') {
+      id = 'landscape';
+    }
     if (!(WORKBENCH_VIEWS as readonly string[]).includes(id)) {
       return;
     }
@@ -134,7 +139,7 @@ export function presetSetting(preset: WorkbenchPreset, values: Record<string, nu
     case 'bean-rodbell': {
       const eta = Number.isFinite(values.eta) ? values.eta : 2;
       const T0 = Number.isFinite(values.T0) && values.T0 > 0 ? values.T0 : 300;
-      return { coefficients: beanRodbellCoefficients(eta, T0), convention: 'L', values: { eta, T0 }, view: 'branches' };
+      return { coefficients: beanRodbellCoefficients(eta, T0), convention: 'L', values: { eta, T0 }, view: 'landscape' };
     }
     case 'devonshire':
       // ferroelectric of the order of BaTiO3 (illustrative): C_CW = 1.5e5 K, T0 = 381 K, α11 < 0 (first order), α111 > 0; P in C/m², E in V/m

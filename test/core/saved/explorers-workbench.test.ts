@@ -9,7 +9,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import Ajv from 'ajv';
 import { describe, expect, it } from 'vitest';
-import { readSavedExplorers, upsertExplorerWith } from '../../../src/core/saved/explorers';
+import { OVERLAY_LIMITS, overlayColumns, overlayRows, readSavedExplorers, upsertExplorerWith } from '../../../src/core/saved/explorers';
 import type { ISavedExplorer } from '../../../src/core/saved/explorers';
 import { kinds } from './helpers';
 
@@ -22,7 +22,8 @@ const full: ISavedExplorer = {
   presetValues: { eta: 2, T0: 300 },
   typed: { text: 'a/2*(T - T0)*ψ^2 + b/4*ψ^4 - h*ψ', values: { a: 1, T0: 100, b: 1 } },
   coupled: { a1: 1, T1: 100, b1: 1, a2: 1, T2: 90, b2: 1, lambda: 0.5 },
-  view: 'phase-diagram'
+  view: 'phase-diagram',
+  overlay: { data: { T: [95, 97, 99], psi: [1.1, 0.9, 0.6] }, fitted: { T: [94, 100], psi: [1.15, 0.5] } }
 };
 
 function valueOf(r: ReturnType<typeof upsertExplorerWith>): unknown {
@@ -48,7 +49,11 @@ describe('saved workbench scenarios', () => {
   });
 
   it('should leave out malformed optional fields on reading and keep them in the notebook until replaced', () => {
-    const raw = { version: 2, analyses: [], explorers: [{ ...base, preset: 'unknown-model', view: 'nowhere', typed: { text: 'ψ^2', values: { a: 'x' } }, coupled: { a1: 1 } }] };
+    const raw = {
+      version: 2,
+      analyses: [],
+      explorers: [{ ...base, preset: 'unknown-model', view: 'nowhere', typed: { text: 'ψ^2', values: { a: 'x' } }, coupled: { a1: 1 }, overlay: { data: { T: [1, 2], psi: [1] }, fitted: { T: [], psi: [] } } }]
+    };
     const read = readSavedExplorers(raw).explorers[0];
     expect(read).toEqual(base);
     // writing the same scenario back drops the known-but-malformed fields (they are replaced), keeps everything else
@@ -63,6 +68,24 @@ describe('saved workbench scenarios', () => {
     expect(next.explorers[0].typed).toBeUndefined();
     expect(next.explorers[0].preset).toBe('bean-rodbell');
     const bad = upsertExplorerWith(undefined, { ...full, typed: { text: 'ψ^2', values: { a: Number.NaN } } }, kinds);
+    expect('blocked' in bad).toBe(true);
+  });
+
+  it('should keep the data and fitted curve of the fit as columns, thinned to their limits, and refuse unequal or non-finite columns', () => {
+    // a long series keeps its first and last points and at most the limit
+    const rows = Array.from({ length: 5001 }, (_, i) => ({ T: 90 + i * 0.002, psi: Math.sqrt(Math.max(0, 100 - (90 + i * 0.002))) }));
+    const thin = overlayColumns([...rows, { T: Number.NaN, psi: 1 }], OVERLAY_LIMITS.data);
+    expect(thin.T.length).toBeLessThanOrEqual(OVERLAY_LIMITS.data);
+    expect(thin.T.length).toBeGreaterThan(OVERLAY_LIMITS.data / 2);
+    expect(thin.T[0]).toBe(90);
+    expect(thin.T[thin.T.length - 1]).toBe(rows[rows.length - 1].T);
+    expect(thin.psi.every(Number.isFinite)).toBe(true);
+    // a short one is kept whole
+    expect(overlayRows(overlayColumns(rows.slice(0, 10), OVERLAY_LIMITS.fitted))).toEqual(rows.slice(0, 10));
+    const validate = new Ajv({ allowUnionTypes: true }).compile(JSON.parse(fs.readFileSync(SCHEMA_FILE, 'utf8')));
+    expect(validate({ version: 2, analyses: [], explorers: [{ ...base, overlay: { data: thin, fitted: { T: [1], psi: [2] } } }] })).toBe(true);
+    expect(validate({ version: 2, analyses: [], explorers: [{ ...base, overlay: { data: { T: [1] } } }] })).toBe(false);
+    const bad = upsertExplorerWith(undefined, { ...base, overlay: { data: { T: [1], psi: [Number.POSITIVE_INFINITY] }, fitted: { T: [], psi: [] } } }, kinds);
     expect('blocked' in bad).toBe(true);
   });
 });

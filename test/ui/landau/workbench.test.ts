@@ -25,8 +25,6 @@ describe('landscape workbench', () => {
     await w.rendered;
     expect(tab(w, 'landscape').getAttribute('aria-selected')).toBe('true');
     tab(w, 'landscape').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', bubbles: true }));
-    expect(w.view).toBe('branches');
-    tab(w, 'branches').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', bubbles: true }));
     expect(w.view).toBe('phase-diagram');
     await w.rendered;
     const phase = w.node.querySelector('.jp-psiscape-landau-phase-diagram')!;
@@ -75,6 +73,15 @@ describe('landscape workbench', () => {
     expect(markup).toContain('branches_fit');
     // the T axis reaches the data
     expect(w.axes!.T[0]).toBeLessThanOrEqual(95);
+    // the overlay is part of the scenario, and a scenario brings it back
+    expect(w.scenario().overlay).toEqual({ data, fitted });
+    const again = explorer();
+    await again.rendered;
+    expect(again.overlay).toBeNull();
+    await again.setScenario(w.scenario());
+    await again.rendered;
+    expect(again.overlay).toEqual({ data, fitted });
+    expect(again.node.querySelector('.jp-psiscape-landau-branches')!.innerHTML).toContain('branches_data');
   });
 
   it('should set the free energy and its sliders from a preset', async () => {
@@ -89,7 +96,7 @@ describe('landscape workbench', () => {
     expect(w.derived!.T1).toBeCloseTo(301.1111111111, 6);
     await w.applyPreset('bean-rodbell', { eta: 2, T0: 300 });
     await w.rendered;
-    expect(w.view).toBe('branches');
+    expect(w.view).toBe('landscape');
     expect(w.node.querySelector('input.jp-psiscape-landau-range[data-key="eta"]')).not.toBeNull();
     // η = 2 > 1: first order
     expect(w.derived!.regime).toBe('first-order');
@@ -124,6 +131,49 @@ describe('landscape workbench', () => {
     const s = w.scenario();
     expect(s.typed).toEqual({ text: 'a/2*(T - T0)*psi^2 + b/4*psi^4 + c/6*psi^6 - h*psi', values: { a: 0.5, T0: 100, b: -2, c: 5 } });
     expect(s.coupled).toEqual({ a1: 1, T1: 100, b1: 1, a2: 1, T2: 95, b2: 2, lambda: 0.3 });
-    expect(s.view).toBe('branches');
+    // "branches" was a tab of its own before: it now opens the tab that holds them
+    expect(s.view).toBeUndefined();
+    expect(w.view).toBe('landscape');
+    await w.setScenario({ ...s, view: 'loop' });
+    expect(w.scenario().view).toBe('loop');
+  });
+
+  it('should move the landscape, the branches and the 2-D landscape in place as sliders move, titles included', async () => {
+    const w = explorer();
+    await w.rendered;
+    const landscape = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-landscape')!;
+    const branches = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-branches')!;
+    // both charts of the first tab are shown and drawn
+    expect(landscape.querySelector('svg')).not.toBeNull();
+    expect(branches.querySelector('svg')).not.toBeNull();
+    const svgs = [landscape.querySelector('svg'), branches.querySelector('svg')];
+    slide(w, 'T', 99.5);
+    await w.rendered;
+    slide(w, 'h', 0.05);
+    await w.rendered;
+    // the same drawn views took the new rows: no new chart was built
+    expect(landscape.querySelector('svg')).toBe(svgs[0]);
+    expect(branches.querySelector('svg')).toBe(svgs[1]);
+    expect(landscape.textContent).toContain('T = 99.5');
+    expect(landscape.textContent).toContain('h = 0.05');
+    expect(branches.textContent).toContain('h = 0.05');
+    tab(w, 'landscape').dispatchEvent(new KeyboardEvent('keydown', { key: 'End', bubbles: true }));
+    tab(w, 'loop').dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowLeft', bubbles: true }));
+    expect(w.view).toBe('landscape-2d');
+    await w.rendered;
+    const grid = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-landscape-2d')!;
+    const axes = w.axes!.grid2d;
+    expect(axes).not.toBeNull();
+    const note = grid.parentElement!.querySelector('.jp-psiscape-landau-note')!;
+    const before = note.textContent;
+    expect(before).toBe('At T = 99.5 the stable phase has ψ only; 2 minima in view.');
+    slide(w, 'T', 80);
+    await w.rendered;
+    // the grid keeps its extent while T moves (so a drawn view takes the rows in place: checked in Chromium,
+    // as jsdom has no canvas to draw this many cells on)
+    expect(w.axes!.grid2d).toEqual(axes);
+    expect(w.state.T).toBeLessThan(99.5);
+    expect(note.textContent).not.toBe(before);
+    expect(note.textContent).toContain(`At T = ${w.state.T}`);
   });
 });
