@@ -73,23 +73,23 @@ export class ResidualEvaluator {
   }
 
   private get fplus(): Float64Array {
-    return (this.fplusBuf ??= new Float64Array(this.n));
+    return (this.fplusBuf ??= this.problem.workspace.take(this.n));
   }
 
   private get fminus(): Float64Array {
-    return (this.fminusBuf ??= new Float64Array(this.n));
+    return (this.fminusBuf ??= this.problem.workspace.take(this.n));
   }
 
   private get fplus2(): Float64Array {
-    return (this.fplus2Buf ??= new Float64Array(this.n));
+    return (this.fplus2Buf ??= this.problem.workspace.take(this.n));
   }
 
   private get fminus2(): Float64Array {
-    return (this.fminus2Buf ??= new Float64Array(this.n));
+    return (this.fminus2Buf ??= this.problem.workspace.take(this.n));
   }
 
   private get jfull(): Float64Array {
-    return (this.jfullBuf ??= new Float64Array(this.n * this.problem.kAll));
+    return (this.jfullBuf ??= this.problem.workspace.take(this.n * this.problem.kAll));
   }
 
   /** Full parameter vector (fixed values included) for free values `p`. */

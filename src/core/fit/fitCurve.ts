@@ -84,7 +84,10 @@ export function startFit(model: IFitModel, data: IFitData, options: IFitOptions)
         // Only a callback (onProgress / shouldStop) can throw here.
         outcome = abortedOutcome(problem, ev, err);
       }
-      return withWarmStart(assemble(problem, ev, refineInDoubleDouble(problem, ev, outcome)), warmStart);
+      const result = withWarmStart(assemble(problem, ev, refineInDoubleDouble(problem, ev, outcome)), warmStart);
+      // The result holds copies only: the work arrays go back to the pool.
+      problem.workspace.release();
+      return result;
     }
   };
 }
@@ -153,7 +156,7 @@ function assemble(problem: IFitProblem, ev: ResidualEvaluator, refinement: IRefi
   // Jacobian at the solution: analytic (reused from the iteration when it
   // holds it there), or central differences.
   const reuse = o.jacobian !== null && o.jacobianAccurate;
-  const jac = reuse ? o.jacobian! : new Float64Array(n * k);
+  const jac = reuse ? o.jacobian! : problem.workspace.take(n * k);
   const finite = Number.isFinite(chi2) && (reuse || ev.jacobian(o.p, o.f, jac, 'central'));
   const factor = finite
     ? inverseNormal(jac, n, k, reuse ? o.normal : null)

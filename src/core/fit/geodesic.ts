@@ -22,6 +22,7 @@ import type { ResidualEvaluator } from './evaluator';
 import { geodesicRightHandSide } from './kernels';
 import { solveDamped } from './subproblem';
 import type { ISpectralModel } from './subproblem';
+import type { Workspace } from './workspace';
 
 /** State of the iteration the acceleration reads (and `step` it updates). */
 export interface IGeodesicState {
@@ -52,11 +53,11 @@ export interface IGeodesicWork {
   full: Float64Array;
 }
 
-/** Allocates work arrays for n points and k parameters. */
-export function geodesicWork(n: number, k: number): IGeodesicWork {
+/** Allocates work arrays for n points and k parameters (the length-n one from `workspace`). */
+export function geodesicWork(n: number, k: number, workspace: Workspace): IGeodesicWork {
   let rvv: Float64Array | null = null;
   return {
-    rvv: () => (rvv ??= new Float64Array(n)),
+    rvv: () => (rvv ??= workspace.take(n)),
     za: new Float64Array(k),
     rhs: new Float64Array(k),
     full: new Float64Array(k)

@@ -158,9 +158,11 @@ export function scaledNorm(diag: Float64Array, v: Float64Array): number {
 
 /**
  * One pass over the row-major n×k `jac`: upper triangle of JᵀJ into
- * `normal` (k×k row-major) and compensated Jᵀr into `grad`. Returns false
- * when a sum is not finite (then `jac` has a non-finite entry, or entries
- * whose squares overflow).
+ * `normal` (k×k row-major) and Jᵀr into `grad`, compensated when
+ * `compensated` (the default; large problems, whose stopping rules are
+ * statistical, sum plainly: the rounding of Jᵀr then moves the step by
+ * about ε·√n standard errors). Returns false when a sum is not finite
+ * (then `jac` has a non-finite entry, or entries whose squares overflow).
  */
 export function normalAndGradient(
   jac: Float64Array,
@@ -168,9 +170,10 @@ export function normalAndGradient(
   n: number,
   k: number,
   normal: Float64Array,
-  grad: Float64Array
+  grad: Float64Array,
+  compensated = true
 ): boolean {
-  const fast = normalGradientKernel(k);
+  const fast = normalGradientKernel(k, compensated);
   if (fast) {
     fast(jac, r, n, normal, grad);
   } else {

@@ -119,16 +119,17 @@ export function* levenbergMarquardtSteps(
   const k = problem.free.length;
   const lower = Float64Array.from(problem.free, (j) => problem.lower[j]);
   const upper = Float64Array.from(problem.free, (j) => problem.upper[j]);
+  const ws = problem.workspace;
   let p = Float64Array.from(problem.free, (j) => problem.start[j]);
-  let r = new Float64Array(n);
-  let f = new Float64Array(n);
+  let r = ws.take(n);
+  let f = ws.take(n);
   let pT = new Float64Array(k);
-  let rT = new Float64Array(n);
-  let fT = new Float64Array(n);
-  let jac = new Float64Array(n * k);
+  let rT = ws.take(n);
+  let fT = ws.take(n);
+  let jac = ws.take(n * k);
   // Combined models: the Jacobian at each trial point comes with its values.
   const combined = ev.combined;
-  let jacT = combined ? new Float64Array(n * k) : null;
+  let jacT = combined ? ws.take(n * k) : null;
   const large = n > FIT_DEFAULTS.largeRows;
   // Rule 1b (one confirming Jacobian instead of two noise-level steps).
   const coarse = hooks.coarse === true;
@@ -137,7 +138,7 @@ export function* levenbergMarquardtSteps(
   // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
   // JᵀJ and Jᵀr in one pass (also the finiteness check of the Jacobian); ‖J·s‖² from JᵀJ for large problems.
   const normal = new Float64Array(k * k);
-  const jd = large ? null : new Float64Array(n);
+  const jd = large ? null : ws.take(n);
   const diag = new Float64Array(k);
   const colNorm = new Float64Array(k);
   const grad = new Float64Array(k);
@@ -145,8 +146,8 @@ export function* levenbergMarquardtSteps(
   const step = new Float64Array(k);
   const useSvd = !large;
   const useGeodesic = FIT_DEFAULTS.geodesicAcceleration;
-  const work = geodesicWork(n, k);
-  const spectral = new SpectralWork(n, k);
+  const work = geodesicWork(n, k, ws);
+  const spectral = new SpectralWork(n, k, ws);
   const cols: number[] = [];
   // The accurate difference scheme: Richardson-extrapolated central
   // differences below `stationaryRows` points (the certified digits of
@@ -227,9 +228,9 @@ export function* levenbergMarquardtSteps(
       // Large problems check the entries of a Jacobian from a combined pass
       // through the sums of JᵀJ; a non-finite one is evaluated again alone
       // (with the difference fallback of the evaluator).
-      let ok = jacAtP && (!normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad)));
+      let ok = jacAtP && (!normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, !large)));
       if (!ok && ev.jacobian(p, f, jac, scheme)) {
-        ok = !normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad));
+        ok = !normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, !large));
       }
       jacAtP = ok;
       if (!ok) {

@@ -9,6 +9,7 @@ import { ulp } from '../numeric/ulp';
 import { FIT_DEFAULTS } from './defaults';
 import { FitInputError } from './types';
 import type { IFitData, IFitModel, IFitOptions } from './types';
+import { Workspace } from './workspace';
 
 /**
  * Largest |y|/σ (|y| without σ) the engine accepts. χ² sums the squares of
@@ -45,6 +46,8 @@ export interface IFitProblem {
   xtol: number;
   gtol: number;
   confidenceLevel: number;
+  /** Where the fit's work arrays come from (released when the fit ends). */
+  workspace: Workspace;
 }
 
 /** The messages about one input list: data (x, y, σ), their low-order parts, or per-parameter values. */
@@ -113,7 +116,7 @@ function boundList(side: 'lower' | 'upper', names: readonly string[]): IListMess
       };
 }
 
-function toFloat64(values: ArrayLike<number>, say: IListMessages, length?: number): Float64Array {
+function toFloat64(values: ArrayLike<number>, say: IListMessages, length?: number, workspace?: Workspace): Float64Array {
   if (values === null || typeof values !== 'object' || typeof values.length !== 'number') {
     throw new FitInputError(say.notList());
   }
@@ -121,9 +124,9 @@ function toFloat64(values: ArrayLike<number>, say: IListMessages, length?: numbe
     throw new FitInputError(say.length(values.length, length));
   }
   if (values instanceof Float64Array) {
-    return values.slice();
+    return workspace ? workspace.copy(values) : values.slice();
   }
-  const out = new Float64Array(values.length);
+  const out = workspace ? workspace.take(values.length) : new Float64Array(values.length);
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
     if (typeof v !== 'number') {
@@ -216,9 +219,10 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
   if (!data) {
     throw new FitInputError(msg('fit.no-data', 'There are no data to fit.'));
   }
-  const x = toFloat64(data.x, DATA_X);
+  const workspace = new Workspace();
+  const x = toFloat64(data.x, DATA_X, undefined, workspace);
   const n = x.length;
-  const y = toFloat64(data.y, DATA_Y, n);
+  const y = toFloat64(data.y, DATA_Y, n, workspace);
   if (n === 0) {
     throw new FitInputError(msg('fit.empty-data', 'There are no data points to fit.'));
   }
@@ -229,7 +233,7 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
   let weights: Float64Array | null = null;
   if (data.sigma !== undefined && data.sigma !== null) {
     const sigma = toFloat64(data.sigma, DATA_SIGMA, n);
-    weights = new Float64Array(n);
+    weights = workspace.take(n);
     for (let i = 0; i < n; i++) {
       if (!(sigma[i] > 0) || !Number.isFinite(sigma[i])) {
         throw new FitInputError(
@@ -341,6 +345,7 @@ export function buildProblem(model: IFitModel, data: IFitData, options: IFitOpti
     ftol: positiveTolerance('chi2', options.ftol, FIT_DEFAULTS.ftol),
     xtol: positiveTolerance('step', options.xtol, FIT_DEFAULTS.xtol),
     gtol: positiveTolerance('gradient', options.gtol, FIT_DEFAULTS.gtol),
-    confidenceLevel
+    confidenceLevel,
+    workspace
   };
 }

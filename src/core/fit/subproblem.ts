@@ -23,6 +23,7 @@
 import { FIT_DEFAULTS } from './defaults';
 import { symmetricEigen, tallSvd } from './dense';
 import { normalKernel } from './unrolled';
+import type { Workspace } from './workspace';
 
 /** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
 export interface ISpectralModel {
@@ -56,10 +57,13 @@ export class SpectralWork {
   readonly ub: Float64Array;
   private _js: Float64Array | null = null;
   private _rhs: Float64Array | null = null;
+  private readonly _workspace: Workspace | null;
 
-  constructor(n: number, k: number) {
+  /** Length-n arrays come from `workspace` when given. */
+  constructor(n: number, k: number, workspace: Workspace | null = null) {
     this.n = n;
     this.k = k;
+    this._workspace = workspace;
     this.normal = new Float64Array(k * k);
     this.values = new Float64Array(k);
     this.vectors = new Float64Array(k * k);
@@ -85,12 +89,16 @@ export class SpectralWork {
 
   /** Column-major n×k scratch for the scaled Jacobian. */
   get js(): Float64Array {
-    return (this._js ??= new Float64Array(this.n * this.k));
+    return (this._js ??= this._array(this.n * this.k));
   }
 
   /** Length-n scratch for the residuals. */
   get rhs(): Float64Array {
-    return (this._rhs ??= new Float64Array(this.n));
+    return (this._rhs ??= this._array(this.n));
+  }
+
+  private _array(length: number): Float64Array {
+    return this._workspace ? this._workspace.take(length) : new Float64Array(length);
   }
 }
 

@@ -121,17 +121,23 @@ return norm2;`;
   return timesCache.get(k) ?? null;
 }
 
-/** Upper triangle of JᵀJ (row-major k×k) and compensated Jᵀr, in one pass. */
+/** Upper triangle of JᵀJ (row-major k×k) and Jᵀr, in one pass. */
 export type NormalGradientKernel = (jac: Float64Array, r: Float64Array, n: number, normal: Float64Array, grad: Float64Array) => void;
 
 const normalGradientCache = new Map<number, NormalGradientKernel | null>();
+const plainNormalGradientCache = new Map<number, NormalGradientKernel | null>();
 
-/** Unrolled fused JᵀJ / Jᵀr kernel for k columns, or null. */
-export function normalGradientKernel(k: number): NormalGradientKernel | null {
+/**
+ * Unrolled fused JᵀJ / Jᵀr kernel for k columns, or null. Jᵀr is summed
+ * with compensation when `compensated` (about twice the arithmetic per
+ * point), otherwise plainly.
+ */
+export function normalGradientKernel(k: number, compensated = true): NormalGradientKernel | null {
   if (k > MAX_UNROLLED_COLUMNS) {
     return null;
   }
-  if (!normalGradientCache.has(k)) {
+  const cache = compensated ? normalGradientCache : plainNormalGradientCache;
+  if (!cache.has(k)) {
     const decl: string[] = [];
     const load: string[] = [];
     const acc: string[] = [];
@@ -141,8 +147,10 @@ export function normalGradientKernel(k: number): NormalGradientKernel | null {
       load.push(`const j${a} = jac[o + ${a}];`);
       // Jᵀr compensated by branch-free TwoSum, as in the gradient kernel.
       acc.push(
-        `const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; const w${a} = u${a} - g${a}; ` +
-          `e${a} += (g${a} - (u${a} - w${a})) + (t${a} - w${a}); g${a} = u${a};`
+        compensated
+          ? `const t${a} = j${a} * ri; const u${a} = g${a} + t${a}; const w${a} = u${a} - g${a}; ` +
+              `e${a} += (g${a} - (u${a} - w${a})) + (t${a} - w${a}); g${a} = u${a};`
+          : `g${a} += j${a} * ri;`
       );
       store.push(`grad[${a}] = g${a} + e${a};`);
       for (let b = a; b < k; b++) {
@@ -160,9 +168,9 @@ for (let i = 0; i < n; i++) {
   ${acc.join(' ')}
 }
 ${store.join('\n')}`;
-    normalGradientCache.set(k, compile<NormalGradientKernel>(['jac', 'r', 'n', 'normal', 'grad'], body));
+    cache.set(k, compile<NormalGradientKernel>(['jac', 'r', 'n', 'normal', 'grad'], body));
   }
-  return normalGradientCache.get(k) ?? null;
+  return cache.get(k) ?? null;
 }
 
 /**

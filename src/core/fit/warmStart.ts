@@ -66,7 +66,7 @@ export function warmStartStride(problem: IFitProblem): number {
 function subsample(problem: IFitProblem, stride: number): IFitProblem {
   const m = Math.ceil(problem.n / stride);
   const pick = (a: Float64Array): Float64Array => {
-    const out = new Float64Array(m);
+    const out = problem.workspace.take(m);
     for (let i = 0, j = 0; j < m; i += stride, j++) {
       out[j] = a[i];
     }
