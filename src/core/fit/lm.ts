@@ -207,6 +207,12 @@ export function* levenbergMarquardtSteps(
   // The last accepted step was an undamped, unclipped step whose actual χ²
   // reduction matched the prediction (0.9 ≤ ρ ≤ 1.1) or was at noise level.
   let lastGaussNewton = false;
+  // Sizes in standard errors of the last two accepted steps when both were
+  // such Gauss–Newton steps (NaN otherwise), and whether the Jacobian held
+  // is the previous point's, kept for rule 1c.
+  let stepErrors = Number.NaN;
+  let stepErrorsBefore = Number.NaN;
+  let reused = false;
   const progress = (): void => {
     hooks.onProgress?.({
       iteration: iterations,
@@ -285,11 +291,25 @@ export function* levenbergMarquardtSteps(
           cols.push(j);
         }
       }
-      if (cols.length === 0) {
+      if (cols.length === 0 && !reused) {
         return out(true, msg('fit.stop.held-at-bounds', 'Every free parameter is held at the edge of its range: χ² would fall only outside the ranges.'));
       }
-      model = spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal, spectral);
+      model = cols.length > 0 ? spectralModel(jac, n, k, cols, diag, r, grad, useSvd, FIT_DEFAULTS.singularTolerance, normal, spectral) : null;
       needJacobian = false;
+      if (reused) {
+        // Rule 1c: the previous point's Jacobian, with the residuals here.
+        reused = false;
+        if (model !== null && gaussNewtonReduction(model) <= stationaryThreshold(problem, n, k, cost, errorFraction)) {
+          return out(
+            true,
+            msg('fit.stop.stationary-statistical', 'The next step would move the parameters by less than %1 of their standard errors: a minimum was found.', errorFraction)
+          );
+        }
+        jacAtP = false;
+        normalAtP = false;
+        needJacobian = true;
+        continue;
+      }
       // Many points: after an accepted Gauss–Newton step that the linear
       // model predicted well, the full Gauss–Newton step from here (accurate
       // Jacobian) promises a χ² reduction below 1e-4 of its rounding noise.
@@ -297,7 +317,7 @@ export function* levenbergMarquardtSteps(
       // their standard errors (a χ² change of fraction² in units of χ²/dof,
       // or of 1 when σ were given and χ²/dof exceeds 1).
       if (stationaryRule && lastGaussNewton) {
-        const gn = gaussNewtonReduction(model);
+        const gn = gaussNewtonReduction(model!);
         if (!settled) {
           // The forward-difference model (relative error ≈ 1e-8) already
           // predicts a negligible step: take the accurate Jacobian here and
@@ -393,6 +413,9 @@ export function* levenbergMarquardtSteps(
     noiseSteps = atNoise ? noiseSteps + 1 : accepted ? 0 : noiseSteps;
     if (accepted) {
       lastGaussNewton = mu === 0 && !clipped && !accelerated && (atNoise || Math.abs(rho - 1) <= 0.1);
+      const unit = stationaryThreshold(problem, n, k, cost, 1);
+      stepErrorsBefore = lastGaussNewton ? stepErrors : Number.NaN;
+      stepErrors = lastGaussNewton && unit > 0 ? Math.sqrt(Math.max(pred, 0) / unit) : Number.NaN;
       costPrevious = cost;
       havePrevious = true;
       [p, pT] = [pT, p];
@@ -403,6 +426,24 @@ export function* levenbergMarquardtSteps(
       }
       jacAtP = jacTFinite;
       normalAtP = false;
+      // Rule 1c (a Jacobian that costs passes of its own: differences, or an
+      // analytic one without values): after two Gauss–Newton steps, the last
+      // below `reuseJacobianStep` standard errors and converging so fast
+      // that the next would be below a tenth of the stopping fraction
+      // (quadratic convergence: d₃ ≈ d₂³/d₁²), the Jacobian of the previous
+      // point, within that fraction of a standard error, tests the new
+      // point; the fit ends there when it passes rule 1b's statistical test.
+      if (
+        !combined &&
+        settled &&
+        stationaryRule &&
+        jacAtP === false &&
+        stepErrors <= FIT_DEFAULTS.reuseJacobianStep &&
+        (stepErrors * stepErrors * stepErrors) / (stepErrorsBefore * stepErrorsBefore) <= 0.1 * errorFraction
+      ) {
+        jacAtP = true;
+        reused = true;
+      }
       cost = costT;
       noisePrevious = noise;
       noise = costNoise(costT, roundingT);
