@@ -82,6 +82,17 @@ test('a preset and a typed free energy set the landscape; a bad one is refused i
   await typed.fill('a/2*(T - T0)*ψ^2 + b/4*ψ^4 + c/6*ψ^6 - h*ψ');
   await explorer.locator('button.jp-psiscape-landau-typed-use').click();
   await explorer.locator('.jp-psiscape-landau-typed-error').waitFor({ state: 'hidden', timeout: 10000 });
+  // the typed free energy has its own phase diagram and loop, found from it on a grid
+  await explorer.locator('.jp-psiscape-landau-tab[data-view="phase-diagram"]').click();
+  await explorer.locator('.jp-psiscape-landau-phase-diagram').waitFor({ state: 'visible', timeout: 15000 });
+  await drawn(tabChart(explorer, 'phase-diagram'));
+  assert.match((await explorer.locator('.jp-psiscape-landau-phase-diagram').getAttribute('aria-label')) ?? '', /[1-9]\d* lines, [1-9]\d* special points/);
+  assert.match((await tabChart(explorer, 'phase-diagram').locator('.jp-psiscape-landau-note').textContent()) ?? '', /on a grid/);
+  await screenshot(page, 'workbench-typed-phase-diagram-light');
+  await explorer.locator('.jp-psiscape-landau-tab[data-view="loop"]').click();
+  await explorer.locator('.jp-psiscape-landau-loop').waitFor({ state: 'visible', timeout: 15000 });
+  await drawn(tabChart(explorer, 'loop'));
+  assert.match((await explorer.locator('.jp-psiscape-landau-loop').getAttribute('aria-label')) ?? '', /with [1-9]\d* jumps/);
   await explorer.locator('.jp-psiscape-landau-tab[data-view="landscape"]').click();
   await drawn(explorer.locator('[aria-labelledby^="jp-psiscape-landau-tab-landscape-"]:not([aria-labelledby*="landscape-2d"])'));
   assert.ok((await explorer.locator('.jp-psiscape-landau-typed-coefficients input').count()) >= 4, 'a slider per coefficient of the typed free energy');

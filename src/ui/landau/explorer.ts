@@ -32,7 +32,8 @@ import type { ICoupledCoefficients } from '../../core/physics/coupled';
 import { compileFreeEnergy, typedErrorText } from '../../core/expr/index';
 import { ExpressionError } from '../../core/expr/index';
 import type { ITypedFreeEnergy } from '../../core/physics/landau/index';
-import { coupledLandscape, landauFieldLoop, landauPhaseDiagram, linspace, typedCurve, typedStationary } from '../../core/physics/landau/index';
+import { coupledLandscape, landauFieldLoop, landauPhaseDiagram, linspace, typedCurve, typedFieldLoop, typedPhaseDiagram, typedStationary } from '../../core/physics/landau/index';
+import type { IPhaseDiagram } from '../../core/physics/landau/index';
 import type { WorkbenchPreset, WorkbenchView } from './workbench-parts';
 import { DEFAULT_COUPLED, SliderGroup, WORKBENCH_PRESETS, WorkbenchTabs, coupledFields, presetFormula, presetName, presetSetting } from './workbench-parts';
 
@@ -96,6 +97,13 @@ export interface IWorkbenchAxes {
 /** The overlay with finite points only, each series thinned to its limit in {@link OVERLAY_LIMITS}. */
 function thinOverlay(o: ILandauOverlay): ILandauOverlay {
   return { data: overlayRows(overlayColumns(o.data, OVERLAY_LIMITS.data)), fitted: overlayRows(overlayColumns(o.fitted, OVERLAY_LIMITS.fitted)) };
+}
+
+/** The 2-4-6 free energy with its cubic term, compiled once (its phase diagram comes from the free energy on a grid). */
+let cubicLandau: ITypedFreeEnergy | null = null;
+function landauWithCubic(): ITypedFreeEnergy {
+  cubicLandau ??= compileFreeEnergy('a/2*(T - T0)*ψ^2 + d/3*ψ^3 + b/4*ψ^4 + c/6*ψ^6 - h*ψ');
+  return cubicLandau;
 }
 
 /** Area in px² of the measured points when no setting is given. */
@@ -753,14 +761,20 @@ export class LandauExplorer extends Panel {
     const trans = this._trans;
     const view = this._tabs.selected;
     if (view === 'phase-diagram') {
-      if (typed || (k.d ?? 0) !== 0) {
-        this._phaseNote.node.textContent = typed ? trans.__('The phase diagram is drawn for the Landau form; go back to it to see one.') : trans.__('The phase diagram in (T, h) is drawn for the 2-4-6 free energy without a cubic term; set d to 0.');
+      // the closed form for the 2-4-6 free energy; a typed one, or one with a cubic term, from its convex hull
+      let pd: IPhaseDiagram;
+      try {
+        pd = this._phaseDiagram(k, axes);
+      } catch (e) {
+        this._phaseNote.node.textContent = translateMessage(trans, messageOf(e));
         this._phase.node.hidden = true;
         return;
       }
       this._phase.node.hidden = false;
-      const pd = landauPhaseDiagram(k, { Tmin: axes.T[0], Tmax: axes.T[1] });
-      this._phaseNote.node.textContent = pd.regime === 'first-order' ? trans.__('First-order lines end at critical end points; dashed: limits of metastability (spinodals).') : trans.__('The line h = 0 ends at the critical point Tc; dashed: limits of metastability (spinodals).');
+      const numeric = typed !== null || (k.d ?? 0) !== 0;
+      this._phaseNote.node.textContent =
+        (pd.regime === 'first-order' ? trans.__('First-order lines end at critical end points; dashed: limits of metastability (spinodals).') : trans.__('The line h = 0 ends at the critical point Tc; dashed: limits of metastability (spinodals).')) +
+        (numeric ? ' ' + trans.__('Found from the free energy on a grid (common tangents and F″ = 0), to about one grid step.') : '');
       const hSpan = axes.h ?? [-1.15 * pd.hMax, 1.15 * pd.hMax];
       if (!axes.h) {
         axes.h = hSpan;
@@ -824,18 +838,21 @@ export class LandauExplorer extends Panel {
       return;
     }
     if (view === 'loop') {
-      if (typed) {
-        this._loopNote.node.textContent = trans.__('The field loop is drawn for the Landau form; go back to it to see one.');
-        this._loop.node.hidden = true;
-        return;
-      }
       this._loop.node.hidden = false;
-      const hMax = axes.loop ?? this._loopRange(k, T);
+      const typedNow = this._typed;
+      const hMax = axes.loop ?? (typedNow ? this._typedLoopRange(typedNow, T) : this._loopRange(k, T));
       if (!axes.loop) {
         axes.loop = hMax;
       }
       const n = 161;
-      const path = landauFieldLoop(k, T, hMax, n);
+      let path;
+      try {
+        path = typedNow ? typedFieldLoop(typedNow.f, typedNow.values, T, hMax, n, this._typedReach()) : landauFieldLoop(k, T, hMax, n);
+      } catch (e) {
+        this._loopNote.node.textContent = translateMessage(trans, messageOf(e));
+        this._loop.node.hidden = true;
+        return;
+      }
       this._loopNote.node.textContent = trans._n('The loop follows the occupied minimum and jumps where it ends (%1 jump). The intrinsic coercive field exceeds measured ones by orders of magnitude.', 'The loop follows the occupied minimum and jumps where it ends (%1 jumps). The intrinsic coercive field exceeds measured ones by orders of magnitude.', path.jumps.length);
       const options = { points: path.points, turn: n, theme, labels: { title: trans.__('Field loop at T = %1', formatValue(T)), h: trans.__('field h (E)'), psi: trans.__('order parameter ψ (P)'), leg: trans.__('field'), up: trans.__('rising'), down: trans.__('falling') } };
       const label = trans.__('Field loop at T = %1 with %2 jumps', formatValue(T), path.jumps.length);
@@ -845,6 +862,44 @@ export class LandauExplorer extends Panel {
       this._loopDrawn = JSON.stringify([theme, hMax]);
       await this._loop.render(buildLoopSpec(options).spec, label);
     }
+  }
+
+  /** The phase diagram over the T axis, kept while the coefficients and the axes stay (a typed one costs a few ms). */
+  private _phaseDiagram(k: ILandauCoefficients, axes: IWorkbenchAxes): IPhaseDiagram {
+    const typed = this._typed;
+    const key = JSON.stringify([typed ? [typed.f.text, typed.values] : k, axes.T, axes.psi]);
+    if (this._phaseCache?.key === key) {
+      return this._phaseCache.value;
+    }
+    let value: IPhaseDiagram;
+    if (typed) {
+      value = typedPhaseDiagram(typed.f, typed.values, { Tmin: axes.T[0], Tmax: axes.T[1], psiMax: this._typedReach() });
+    } else if ((k.d ?? 0) !== 0) {
+      const reach = 1.5 * Math.max(Math.abs(axes.psi[0]), Math.abs(axes.psi[1]), 1e-9);
+      value = typedPhaseDiagram(landauWithCubic(), { a: k.a, T0: k.T0, b: k.b, c: k.c, d: k.d ?? 0 }, { Tmin: axes.T[0], Tmax: axes.T[1], psiMax: reach });
+    } else {
+      value = landauPhaseDiagram(k, { Tmin: axes.T[0], Tmax: axes.T[1] });
+    }
+    this._phaseCache = { key, value };
+    return value;
+  }
+
+  /** Field range of a typed free energy's loop: past the largest |F′| where F″ < 0 at h = 0, or the h slider's range. */
+  private _typedLoopRange(typed: { f: ITypedFreeEnergy; values: Record<string, number> }, T: number): number {
+    const reach = this._typedReach();
+    const psi = new Float64Array(801);
+    for (let i = 0; i < psi.length; i++) {
+      psi[i] = -reach + (2 * reach * i) / (psi.length - 1);
+    }
+    const out = typed.f.evaluate(psi, T, 0, typed.values);
+    let end = 0;
+    for (let i = 0; i < psi.length; i++) {
+      if (out[3 * i + 2] < 0 && Number.isFinite(out[3 * i + 1])) {
+        end = Math.max(end, Math.abs(out[3 * i + 1]));
+      }
+    }
+    const hb = this._controls.stateBounds('h');
+    return end > 0 ? 1.5 * end : Math.max(Math.abs(hb.min), Math.abs(hb.max), 1e-9);
   }
 
   /** Field range of the loop: past the coercive field (end of the ordered branch), or the h slider's range. */
@@ -930,6 +985,7 @@ export class LandauExplorer extends Panel {
   private _loopNote = new Widget({ node: document.createElement('p') });
   private _grid2dNote = new Widget({ node: document.createElement('p') });
   private _grid2dDrawn = '';
+  private _phaseCache: { key: string; value: IPhaseDiagram } | null = null;
   private _tabs: WorkbenchTabs;
   private _workbench: Widget;
   private _presetSelect = document.createElement('select');

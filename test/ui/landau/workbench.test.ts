@@ -94,6 +94,12 @@ describe('landscape workbench', () => {
     // Landau–de Gennes a = 0.1, B = 1, C = 2, T* = 300 [C5]: T_NI = 301.1111111111
     expect(w.coefficients).toEqual({ a: 0.1, T0: 300, b: 2, c: 0, d: -1 });
     expect(w.derived!.T1).toBeCloseTo(301.1111111111, 6);
+    // with its cubic term the phase diagram comes from the free energy on a grid
+    w.selectView('phase-diagram');
+    await w.rendered;
+    const phase = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-phase-diagram')!;
+    expect(phase.hidden).toBe(false);
+    expect(phase.getAttribute('aria-label')).toMatch(/special points/);
     await w.applyPreset('bean-rodbell', { eta: 2, T0: 300 });
     await w.rendered;
     expect(w.view).toBe('landscape');
@@ -116,6 +122,26 @@ describe('landscape workbench', () => {
     expect(w.typed!.coefficients).toEqual(['a', 'T0', 'b', 'g']);
     expect(w.node.querySelector('input.jp-psiscape-landau-range[data-key="g"]')).not.toBeNull();
     expect(w.node.querySelector('.jp-psiscape-landau-landscape')!.getAttribute('aria-label')).toMatch(/stationary point/);
+    // its phase diagram and its field loop come from the free energy itself
+    w.selectView('phase-diagram');
+    await w.rendered;
+    const phase = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-phase-diagram')!;
+    expect(phase.hidden).toBe(false);
+    expect(phase.getAttribute('aria-label')).toMatch(/Phase diagram in \(T, h\): [1-9]\d* lines, [1-9]\d* special points/);
+    expect(phase.parentElement!.querySelector('.jp-psiscape-landau-note')!.textContent).toContain('on a grid');
+    w.selectView('loop');
+    await w.rendered;
+    const loop = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-loop')!;
+    expect(loop.hidden).toBe(false);
+    // at T1 = 100.375 the loop passes the ψ = 0 minimum between −ψ and +ψ: two jumps each way
+    expect(loop.getAttribute('aria-label')).toMatch(/Field loop at T = 100\.375 with 4 jumps/);
+    // a field that does not enter as −hψ: the phase diagram says why instead
+    expect(await w.setTypedFreeEnergy('a/2*(T - T0)*ψ^2 + b/4*ψ^4 + g*ψ^6 - h^3*ψ')).toBeNull();
+    w.selectView('phase-diagram');
+    await w.rendered;
+    expect(phase.hidden).toBe(true);
+    expect(phase.parentElement!.querySelector('.jp-psiscape-landau-note')!.textContent).toMatch(/field enters as −h·ψ/);
+    w.selectView('landscape');
     const error = await w.setTypedFreeEnergy('a*ψ^2 + (b*ψ^4');
     expect(error).toContain('^');
     const shown = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-typed-error')!;

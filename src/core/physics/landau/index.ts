@@ -9,3 +9,5 @@ export * from './explorer';
 export * from './phase-diagram';
 export * from './landscape-2d';
 export * from './typed';
+export * from './typed-loop';
+export * from './typed-phase-diagram';

@@ -10,7 +10,7 @@ import { wholeNumber } from '../../numeric/messageArgs';
 import { lengthsDiffer, PhysicsInputError, pointNotFinite } from '../errors';
 import type { ILandauCoefficients } from './conventions';
 import { validateLandau } from './conventions';
-import type { IStationaryResult, StationaryKind } from './free-energy';
+import type { StationaryKind } from './free-energy';
 import { stationaryUnchecked } from './free-energy';
 
 /** One state on a path. */
@@ -42,8 +42,15 @@ export interface ILandauPath {
   convention: 'L';
 }
 
+/** What a path needs of the landscape at one state: its stationary points (sorted by ψ) and the global minimum. */
+export interface IPathLandscape {
+  points: readonly { psi: number; F: number; curvature: number; kind: StationaryKind }[];
+  /** Index of the global minimum in `points` (−1: none). */
+  global: number;
+}
+
 /** Minimum of the basin containing ψ (basins are separated by maxima). */
-function basinMinimum(r: IStationaryResult, psi: number, preferUp: boolean): number {
+function basinMinimum(r: IPathLandscape, psi: number, preferUp: boolean): number {
   const pts = r.points;
   let lowMax = -Infinity;
   let highMax = Infinity;
@@ -81,25 +88,21 @@ function basinMinimum(r: IStationaryResult, psi: number, preferUp: boolean): num
 }
 
 /**
- * Follows the occupied minimum through the states (T[i], h[i]). The first
- * state starts in the global minimum (ψ ≥ 0 on a tie). A state whose previous
- * ψ lies on a maximum falls towards the sign of h (or +ψ at h = 0).
- * A jump is recorded when the new ψ lies outside the basin of the previously
- * occupied minimum of the previous landscape (that minimum has ended).
+ * Follows the occupied minimum through the states (T[i], h[i]) of any
+ * landscape given by `at` (checked finite states). The first state starts in
+ * the global minimum. A state whose previous ψ lies on a maximum falls
+ * towards the sign of h (or +ψ at h = 0). A jump is recorded when the new ψ
+ * lies outside the basin of the previously occupied minimum of the previous
+ * landscape (that minimum has ended). States with no minimum at all end the path.
  */
-export function followPath(
-  k: ILandauCoefficients,
-  T: ArrayLike<number>,
-  h: ArrayLike<number>
-): ILandauPath {
-  validateLandau(k);
+export function followLandscape(T: ArrayLike<number>, h: ArrayLike<number>, at: (T: number, h: number) => IPathLandscape): { points: IPathPoint[]; jumps: IPathJump[] } {
   if (T.length !== h.length) {
     throw new PhysicsInputError(lengthsDiffer({ T: T.length, h: h.length }));
   }
   const points: IPathPoint[] = [];
   const jumps: IPathJump[] = [];
   let prev = NaN;
-  let prevResult: IStationaryResult | null = null;
+  let prevResult: IPathLandscape | null = null;
   let prevIdx = -1;
   for (let i = 0; i < T.length; i++) {
     if (!Number.isFinite(T[i])) {
@@ -108,20 +111,34 @@ export function followPath(
     if (!Number.isFinite(h[i])) {
       throw new PhysicsInputError(pointNotFinite(i, 'h', h[i]));
     }
-    const r = stationaryUnchecked(k, T[i], h[i]);
+    const r = at(T[i], h[i]);
     const idx = prevResult === null ? r.global : basinMinimum(r, prev, h[i] >= 0);
+    if (idx < 0) {
+      break;
+    }
     const p = r.points[idx];
     points.push({ T: T[i], h: h[i], psi: p.psi, F: p.F, curvature: p.curvature, kind: p.kind });
-    // Jump: the new ψ lies in a different basin of the previous landscape,
-    // i.e. the previously occupied minimum has ended between the two states.
     if (prevResult !== null && basinMinimum(prevResult, p.psi, h[i] >= 0) !== prevIdx) {
-      jumps.push({ index: i, T: T[i], h: h[i], psiBefore: prev, psiAfter: p.psi });
+      jumps.push({ index: points.length - 1, T: T[i], h: h[i], psiBefore: prev, psiAfter: p.psi });
     }
     prev = p.psi;
     prevResult = r;
     prevIdx = idx;
   }
-  return { points, jumps, convention: 'L' };
+  return { points, jumps };
+}
+
+/**
+ * Follows the occupied minimum of the Landau free energy through the states
+ * (T[i], h[i]); see {@link followLandscape}.
+ */
+export function followPath(
+  k: ILandauCoefficients,
+  T: ArrayLike<number>,
+  h: ArrayLike<number>
+): ILandauPath {
+  validateLandau(k);
+  return { ...followLandscape(T, h, (t, hh) => stationaryUnchecked(k, t, hh)), convention: 'L' };
 }
 
 /** Evenly spaced values from `from` to `to` inclusive. */
