@@ -13,12 +13,17 @@
  *
  * Every array handed out is zero-filled, as a new one would be. The pool
  * holds arrays only weakly (a garbage collection may reclaim them between
- * jobs) and at most `POOL_LIMIT` doubles; arrays below `MIN_POOLED`
- * elements come from the allocator directly.
+ * jobs) and at most `POOL_LIMIT` doubles; small arrays are carved from
+ * pooled chunks.
  */
 
-/** Smallest array (elements) worth pooling: below it allocation is cheap. */
-const MIN_POOLED = 4096;
+/**
+ * Arrays below this many elements are carved from shared chunks of
+ * `CHUNK` elements: a fit of a few hundred points needs dozens of small
+ * arrays, and each new typed array of its own costs an allocation of its
+ * backing store (microseconds, a noticeable part of such a fit).
+ */
+const CHUNK = 1 << 16;
 /** Most doubles the pool keeps (128 MB). */
 const POOL_LIMIT = 1 << 24;
 
@@ -61,6 +66,9 @@ function reuse(length: number): Float64Array | null {
 /** The arrays one fit has taken; `release` gives them back when the fit ends. */
 export class Workspace {
   private readonly _taken: Float64Array[] = [];
+  /** The chunk small arrays are carved from, and its first free element. */
+  private _chunk: Float64Array | null = null;
+  private _used = 0;
 
   /** A zero-filled array of `length` elements (a view of a pooled array, or a new one). */
   take(length: number): Float64Array {
@@ -75,19 +83,30 @@ export class Workspace {
   }
 
   private _take(length: number, clear: boolean): Float64Array {
-    if (length < MIN_POOLED) {
-      return new Float64Array(length);
-    }
-    let base = reuse(length);
-    if (base) {
-      if (clear) {
-        base.fill(0, 0, length);
+    if (length < CHUNK / 4) {
+      if (this._chunk === null || this._used + length > CHUNK) {
+        this._chunk = this._pooled(CHUNK);
+        this._used = 0;
       }
-    } else {
-      base = new Float64Array(length);
+      const out = this._chunk.subarray(this._used, this._used + length);
+      this._used += length;
+      if (clear) {
+        out.fill(0);
+      }
+      return out;
     }
-    this._taken.push(base);
+    const base = this._pooled(length);
+    if (clear) {
+      base.fill(0, 0, length);
+    }
     return base.length === length ? base : base.subarray(0, length);
+  }
+
+  /** An array of at least `length` elements (contents undefined), recorded as taken. */
+  private _pooled(length: number): Float64Array {
+    const base = reuse(length) ?? new Float64Array(length);
+    this._taken.push(base);
+    return base;
   }
 
   /** Gives every array taken back to the pool; none of them may be used afterwards. */
@@ -97,6 +116,8 @@ export class Workspace {
       pooledDoubles += array.length;
     }
     this._taken.length = 0;
+    this._chunk = null;
+    this._used = 0;
     while (pooledDoubles > POOL_LIMIT && pool.length > 0) {
       drop(0);
     }
