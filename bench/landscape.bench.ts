@@ -1,7 +1,8 @@
 /**
  * Landscape workbench grids: the 200 × 200 two-order-parameter landscape
- * F(ψ, φ) with its minima, the (T, h) phase diagram, and the stationary
- * points of a typed free energy. Each figure is the median of many runs
+ * F(ψ, φ) with its minima, the (T, h) phase diagram (closed form, and from
+ * a typed free energy on its default 65 × 801 grid), the stationary points
+ * of a typed free energy and its field loop (161 fields each way). Each figure is the median of many runs
  * after a warm-up; the budget is one animation frame (16 ms).
  *
  *   npx tsx bench/landscape.bench.ts [--json-part FILE]
@@ -9,7 +10,7 @@
 import { writeFileSync } from 'node:fs';
 import { performance } from 'node:perf_hooks';
 import { compileFreeEnergy } from '../src/core/expr/index';
-import { coupledLandscape, landauPhaseDiagram, typedStationary } from '../src/core/physics/landau/index';
+import { coupledLandscape, landauPhaseDiagram, typedFieldLoop, typedPhaseDiagram, typedStationary } from '../src/core/physics/landau/index';
 
 function arg(name: string): string | null {
   const i = process.argv.indexOf(name);
@@ -36,11 +37,15 @@ const K = { a: 0.5, b: -2, c: 4, T0: 100, d: 0 };
 const diagram = median(i => landauPhaseDiagram({ ...K, b: -2 - 1e-3 * (i % 10) }, { Tmin: 98, Tmax: 102 }), 100);
 const typed = compileFreeEnergy('a/2*(T - T0)*ψ^2 + b/4*ψ^4 + c/6*ψ^6 - h*ψ');
 const stationary = median(i => typedStationary(typed, 100 + 0.01 * (i % 50), 0.01, { a: 0.5, T0: 100, b: -2, c: 4 }, { psiMax: 3 }), 200);
+const typedDiagram = median(i => typedPhaseDiagram(typed, { a: 0.5, T0: 100, b: -2 - 1e-3 * (i % 10), c: 4 }, { Tmin: 98, Tmax: 102, psiMax: 1.5 }), 40);
+const typedLoop = median(i => typedFieldLoop(typed, { a: 0.5, T0: 100, b: -2, c: 4 }, 99 + 0.01 * (i % 20), 0.3, 161, 1.5), 40);
 
 const rows: [string, number][] = [
   ['coupled landscape 200 × 200 with minima', grid],
   ['phase diagram (T, h), 120 points per line', diagram],
-  ['typed free energy: stationary points (800-interval scan)', stationary]
+  ['typed free energy: stationary points (800-interval scan)', stationary],
+  ['typed free energy: phase diagram (T, h), 65 × 801 grid', typedDiagram],
+  ['typed free energy: field loop, 2 × 161 fields', typedLoop]
 ];
 console.log('landscape workbench (median ms; budget 16 ms per frame)');
 for (const [name, ms] of rows) {

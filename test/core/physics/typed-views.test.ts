@@ -124,6 +124,16 @@ describe('typed free energy: field loop', () => {
     expect(worst).toBeLessThan(1e-8);
   });
 
+  it('should give the same loop when the field also enters otherwise (sampled anew at each field)', () => {
+    // + e·h² does not depend on ψ: the same stationary points, but F − F(h = 0) is no longer −hψ
+    const other = compileFreeEnergy(`${LANDAU} + e*h^2`);
+    const T = 99;
+    const a = typedFieldLoop(other, { ...values, e: 0.3 }, T, 1.5, 121, 2);
+    const b = landauFieldLoop(k, T, 1.5, 121);
+    expect(a.jumps.map(j => j.index)).toEqual(b.jumps.map(j => j.index));
+    expect(Math.max(...a.points.map((p, i) => Math.abs(p.psi - b.points[i].psi)))).toBeLessThan(1e-8);
+  });
+
   it('should refuse a non-finite temperature or a field range of 0', () => {
     expect(() => typedFieldLoop(f, values, Number.POSITIVE_INFINITY, 1, 11, 2)).toThrow(PhysicsInputError);
     expect(() => typedFieldLoop(f, values, 99, 0, 11, 2)).toThrow(PhysicsInputError);

@@ -44,8 +44,8 @@ interface ITrack<P> {
   last: number;
 }
 
-/** Whether F − G is −hψ: checked at a few ψ, two fields and the middle temperature. */
-function fieldIsLinear(f: ITypedFreeEnergy, values: Readonly<Record<string, number>>, T: number, psiMax: number): boolean {
+/** Whether F − G is −hψ: checked at a few ψ, two fields and the temperature T. */
+export function fieldIsLinear(f: ITypedFreeEnergy, values: Readonly<Record<string, number>>, T: number, psiMax: number): boolean {
   const psi = new Float64Array([-0.8, -0.3, 0.45, 1].map(x => x * psiMax));
   const g = f.evaluate(psi, T, 0, values);
   for (const h of [1, -2.5]) {

@@ -52,6 +52,16 @@ export function typedStationary(f: ITypedFreeEnergy, T: number, h: number, value
     const o = f.evaluate(one, T, h, values);
     return [o[0], o[1], o[2]];
   };
+  return stationaryFromSamples(grid, g, at);
+}
+
+/**
+ * The stationary points from F, F′, F″ sampled on an increasing grid (3
+ * values per point in `g`) and `at`, which gives them at any ψ (for the
+ * Newton steps); see {@link typedStationary}.
+ */
+export function stationaryFromSamples(grid: Float64Array, g: Float64Array, at: (x: number) => [number, number, number]): ITypedStationary {
+  const n = grid.length - 1;
   const roots: { psi: number; rising: boolean }[] = [];
   for (let i = 0; i < n; i++) {
     const a = grid[i];
