@@ -170,6 +170,16 @@ test('the presenter view takes an explorer: both charts side by side, text at le
   assert.ok(boxes.min >= 18, `axis text ${boxes.min} px`);
   assert.ok(boxes.panel > 1800, 'the explorer fills the main area');
   assert.ok(Math.abs(boxes.landscape.top - boxes.branches.top) < 2 && boxes.landscape.right <= boxes.branches.left + 1, 'the two charts side by side');
+  // no field runs past the box of its slider group (or the explorer) at this width
+  const spill = await explorer.evaluate(node =>
+    [...node.querySelectorAll('.jp-psiscape-landau-group, .jp-psiscape-landau-fields > *')]
+      .filter(g => g.offsetParent !== null)
+      .flatMap(g => {
+        const right = Math.min(g.getBoundingClientRect().right, node.getBoundingClientRect().right);
+        return [...g.querySelectorAll('input, select')].filter(c => c.offsetParent !== null && c.getBoundingClientRect().right > right + 1).map(c => `${c.className} ${c.dataset.key ?? ''}`);
+      })
+  );
+  assert.deepEqual(spill, [], 'fields running past their slider group in the presenter view');
   await screenshot(page, 'workbench-presenter-light');
   await darkScreenshot(page, 'workbench-presenter-dark', () => drawn(explorer.locator('.jp-psiscape-landau-branches')));
   await page.evaluate(() => window.jupyterapp.commands.execute('psiscape:present-analysis'));

@@ -44,6 +44,7 @@ export class ExplorerControls extends Widget {
       this._select.appendChild(option);
     }
     pick.append(pickText, this._select);
+    this._pick = pick;
     this._formula = document.createElement('p');
     this._formula.className = 'jp-psiscape-landau-formula';
 
@@ -65,6 +66,17 @@ export class ExplorerControls extends Widget {
     groups.append(this._coefficients, state);
     this.node.append(heading, pick, this._formula, groups);
     this._select.addEventListener('change', () => options.onConvention(this._select.value as LandauConvention));
+  }
+
+  /**
+   * Shows or hides the Landau form's own controls (convention, formula,
+   * coefficient sliders): hidden while a typed free energy, with sliders of
+   * its own, is in use. T and h stay.
+   */
+  setLandauShown(shown: boolean): void {
+    for (const node of [this._pick, this._formula, this._coefficients]) {
+      node.hidden = !shown;
+    }
   }
 
   /** Convention whose coefficients are shown. */
@@ -134,6 +146,7 @@ export class ExplorerControls extends Widget {
   }
 
   private _options: IExplorerControlsOptions;
+  private _pick: HTMLLabelElement;
   private _select: HTMLSelectElement;
   private _formula: HTMLParagraphElement;
   private _coefficients: HTMLDivElement;

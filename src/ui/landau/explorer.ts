@@ -358,6 +358,7 @@ export class LandauExplorer extends Panel {
       }
     );
     this._typedGroup.node.hidden = false;
+    this._controls.setLandauShown(false);
     this._axes = null;
     this._scenarioChanged.emit();
     await this._schedule();
@@ -366,6 +367,7 @@ export class LandauExplorer extends Panel {
 
   private _clearTyped(): void {
     this._typed = null;
+    this._controls.setLandauShown(true);
     this._typedGroup.node.hidden = true;
     this._typedError.hidden = true;
   }

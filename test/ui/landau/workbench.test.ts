@@ -121,6 +121,10 @@ describe('landscape workbench', () => {
     await w.rendered;
     expect(w.typed!.coefficients).toEqual(['a', 'T0', 'b', 'g']);
     expect(w.node.querySelector('input.jp-psiscape-landau-range[data-key="g"]')).not.toBeNull();
+    // the Landau form's own sliders step aside while the typed one is in use; T and h stay
+    expect(w.node.querySelector<HTMLElement>('.jp-psiscape-landau-coefficients')!.hidden).toBe(true);
+    expect(w.node.querySelector<HTMLElement>('select.jp-psiscape-landau-convention')!.closest<HTMLElement>('label')!.hidden).toBe(true);
+    expect(w.node.querySelector<HTMLElement>('.jp-psiscape-landau-state-controls')!.hidden).toBe(false);
     expect(w.node.querySelector('.jp-psiscape-landau-landscape')!.getAttribute('aria-label')).toMatch(/stationary point/);
     // its phase diagram and its field loop come from the free energy itself
     w.selectView('phase-diagram');
@@ -145,6 +149,9 @@ describe('landscape workbench', () => {
     const error = await w.setTypedFreeEnergy('a*ψ^2 + (b*ψ^4');
     expect(error).toContain('^');
     const shown = w.node.querySelector<HTMLElement>('.jp-psiscape-landau-typed-error')!;
+    await w.setTypedFreeEnergy(null);
+    expect(w.node.querySelector<HTMLElement>('.jp-psiscape-landau-coefficients')!.hidden).toBe(false);
+    expect(await w.setTypedFreeEnergy('a*ψ^2 + (b*ψ^4')).toContain('^');
     expect(shown.hidden).toBe(false);
     expect(shown.textContent).toContain('a*ψ^2 + (b*ψ^4');
   });
