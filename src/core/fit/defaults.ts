@@ -17,7 +17,7 @@
  * | `stationaryRows` | 1000 | rule 1b applies from this many points on (statistical errors then dwarf the last digits that a second confirming step would settle) |
  * | `stationaryNoiseFraction` | 1e-4 | rule 1b: the full Gauss–Newton step predicts a χ² reduction below this fraction of the rounding noise of χ² |
  * | `stationaryErrorFraction` | 3e-5 | rule 1b also: the full Gauss–Newton step moves the parameters by less than this fraction of their standard errors (χ² reduction ≤ fraction²·χ²/dof; ≤ fraction² when σ were given and χ²/dof > 1) |
- * | `reuseJacobianStep` | 0.01 | rule 1c: largest last step, in standard errors, after which the previous point's Jacobian may test the new point |
+ * | `reuseJacobianStep` | 0.1 | rule 1c: largest last step, in standard errors, after which the previous point's Jacobian may test the new point |
  * | `singularTolerance` | 1e-13 | singular values below tolerance·s_max are treated as zero (rank deficiency) |
  * | `correlationWarning` | 0.99 | |correlation| above this adds a warning |
  * | `conditionWarning` | 1e12 | condition number of the scaled Jacobian above this adds a warning |
@@ -49,11 +49,11 @@
  *    of their standard errors;
  * 1c. as 1b's statistical test, for Jacobians that cost model passes of
  *    their own (differences; analytic without values): after two such
- *    Gauss–Newton steps whose sizes d₁, d₂ (in standard errors) show that
- *    the next would be below a tenth of the fraction (d₂³/d₁² ≤
- *    0.1·fraction, d₂ ≤ `reuseJacobianStep`), the previous point's Jacobian
- *    (d₂ standard errors away) with the new residuals; the covariance then
- *    comes from that Jacobian;
+ *    Gauss–Newton steps of d₁ and d₂ standard errors converging
+ *    quadratically ((d₂/d₁)² ≤ fraction, d₂ ≤ `reuseJacobianStep`: the
+ *    next step and the change of the Jacobian over d₂ are then below the
+ *    fraction), the previous point's Jacobian (d₂ standard errors away)
+ *    with the new residuals; the covariance then comes from that Jacobian;
  * 2. `ftol` test (MINPACK form), 3. `xtol` test on the trust radius — a stop
  *    on 3 while the Gauss–Newton model still predicts a relative reduction
  *    above `restartReductionThreshold` restarts from the best point instead;
@@ -83,7 +83,7 @@ export const FIT_DEFAULTS = Object.freeze({
   stationaryRows: 1000,
   stationaryNoiseFraction: 1e-4,
   stationaryErrorFraction: 3e-5,
-  reuseJacobianStep: 0.01,
+  reuseJacobianStep: 0.1,
   singularTolerance: 1e-13,
   correlationWarning: 0.99,
   conditionWarning: 1e12,

@@ -427,20 +427,15 @@ export function* levenbergMarquardtSteps(
       jacAtP = jacTFinite;
       normalAtP = false;
       // Rule 1c (a Jacobian that costs passes of its own: differences, or an
-      // analytic one without values): after two Gauss–Newton steps, the last
-      // below `reuseJacobianStep` standard errors and converging so fast
-      // that the next would be below a tenth of the stopping fraction
-      // (quadratic convergence: d₃ ≈ d₂³/d₁²), the Jacobian of the previous
-      // point, within that fraction of a standard error, tests the new
-      // point; the fit ends there when it passes rule 1b's statistical test.
-      if (
-        !combined &&
-        settled &&
-        stationaryRule &&
-        jacAtP === false &&
-        stepErrors <= FIT_DEFAULTS.reuseJacobianStep &&
-        (stepErrors * stepErrors * stepErrors) / (stepErrorsBefore * stepErrorsBefore) <= 0.1 * errorFraction
-      ) {
+      // analytic one without values): after two Gauss–Newton steps of d₁
+      // and d₂ standard errors, quadratic convergence (d₂ ≈ c·d₁²) puts the
+      // next step at c·d₂², and the previous point's Jacobian differs from
+      // this point's by about c·d₂ of a standard error in the step it gives.
+      // With (d₂/d₁)² = c·d₂ below the stopping fraction and d₂ below
+      // `reuseJacobianStep`, the previous point's Jacobian tests this point;
+      // the fit ends here when it passes rule 1b's statistical test.
+      const ratio = stepErrors / stepErrorsBefore;
+      if (!combined && settled && stationaryRule && !jacAtP && stepErrors <= FIT_DEFAULTS.reuseJacobianStep && ratio * ratio <= errorFraction) {
         jacAtP = true;
         reused = true;
       }
