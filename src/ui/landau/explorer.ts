@@ -705,7 +705,7 @@ export class LandauExplorer extends Panel {
     const trans = this._trans;
     const ls = landscapeSpec(land, T, h, theme, trans, { xDomain: axes.landscapePsi, yDomain: axes.landscapeF });
     const overlay = this._overlay;
-    const branchOptions = { xDomain: axes.T, yDomain: axes.psi, data: overlay?.data, fitted: overlay?.fitted, pointSize: this._pointSize };
+    const branchOptions = { xDomain: axes.T, yDomain: axes.psi, data: overlay?.data, fitted: overlay?.fitted, pointSize: this._pointSize, markers: typed === null };
     const bs = branchesSpec(this._branchesData, derived, T, h, theme, trans, branchOptions);
     this._derived = derived;
     this._derivedSection.present(derived, this._controls.conventionName(this._controls.convention), T, h, land);

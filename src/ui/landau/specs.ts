@@ -26,6 +26,8 @@ export interface ISpecView {
   fitted?: { T: number; psi: number }[];
   /** Area of a measured point in px². */
   pointSize?: number;
+  /** Mark T0, T1 and T** of the Landau form (default true; not for a typed free energy). */
+  markers?: boolean;
 }
 
 function kindLabels(trans: TranslationBundle): IKindLabels {
@@ -70,17 +72,20 @@ export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme:
 
 /** Branches spec at field h with markers at the characteristic temperatures. */
 export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: number, h: number, theme: IChartTheme, trans: TranslationBundle, view: ISpecView = {}): ILabelledSpec<IBranchesChartOptions> {
-  const markers: ITemperatureMarker[] = [{ T: derived.T0, label: 'T0' }];
-  if (derived.regime === 'first-order') {
+  const markers: ITemperatureMarker[] = view.markers === false ? [] : [{ T: derived.T0, label: 'T0' }];
+  if (view.markers !== false && derived.regime === 'first-order') {
     markers.push({ T: derived.T1, label: 'T1' });
     if (derived.Tsuperheat !== null) {
       markers.push({ T: derived.Tsuperheat, label: 'T**' });
     }
   }
+  const marked = view.markers !== false;
   const title =
     h === 0
       ? trans.__('Order parameter against temperature at h = 0')
-      : trans.__('Order parameter against temperature at h = %1 (T0, T1, T** of h = 0 marked)', formatValue(h));
+      : marked
+        ? trans.__('Order parameter against temperature at h = %1 (T0, T1, T** of h = 0 marked)', formatValue(h))
+        : trans.__('Order parameter against temperature at h = %1', formatValue(h));
   const options: IBranchesChartOptions = {
     ...view,
     patchable: view.xDomain !== undefined,
@@ -104,5 +109,9 @@ export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: 
     }
   };
   const { spec } = buildBranchesSpec(options);
-  return { options, spec, label: trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) };
+  return {
+    options,
+    spec,
+    label: marked ? trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) : trans.__('%1: stationary branches', title)
+  };
 }

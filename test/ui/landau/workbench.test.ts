@@ -126,6 +126,8 @@ describe('landscape workbench', () => {
     expect(w.node.querySelector<HTMLElement>('select.jp-psiscape-landau-convention')!.closest<HTMLElement>('label')!.hidden).toBe(true);
     expect(w.node.querySelector<HTMLElement>('.jp-psiscape-landau-state-controls')!.hidden).toBe(false);
     expect(w.node.querySelector('.jp-psiscape-landau-landscape')!.getAttribute('aria-label')).toMatch(/stationary point/);
+    // the Landau form's T0, T1, T** are not marked on the typed free energy's branches
+    expect(w.node.querySelector('.jp-psiscape-landau-branches')!.getAttribute('aria-label')).not.toMatch(/T\*\* marked/);
     // its phase diagram and its field loop come from the free energy itself
     w.selectView('phase-diagram');
     await w.rendered;
