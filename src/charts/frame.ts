@@ -49,15 +49,18 @@ export interface IChartFrame {
   liveTitle?: boolean;
 }
 
+/** A title no wider than the plot: a longer one ends in an ellipsis (the description keeps it whole). */
+const TITLE_LIMIT = { expr: 'width' };
+
 function titleOf(frame: IChartFrame): object {
   if (frame.title === undefined) {
     return {};
   }
-  if (!frame.liveTitle) {
-    return { title: frame.title };
-  }
   const given = typeof frame.title === 'string' ? { text: frame.title } : frame.title;
-  return { params: [{ name: TITLE_PARAM, value: given.text }], title: { ...given, text: { expr: TITLE_PARAM } } };
+  if (!frame.liveTitle) {
+    return { title: { ...given, limit: TITLE_LIMIT } };
+  }
+  return { params: [{ name: TITLE_PARAM, value: given.text }], title: { ...given, text: { expr: TITLE_PARAM }, limit: TITLE_LIMIT } };
 }
 
 function envelope(frame: IChartFrame) {

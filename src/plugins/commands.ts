@@ -212,7 +212,8 @@ export function registerCommands(ctx: ICommandContext): IWorkbenchLoader {
           convention: { type: 'string', description: trans.__('Convention the coefficients are shown in') },
           T: { type: 'number', description: trans.__('Temperature of the landscape') },
           h: { type: 'number', description: trans.__('Conjugate field h') },
-          id: { type: 'string', description: trans.__('Identifier of the explorer (kept when it is restored)') }
+          id: { type: 'string', description: trans.__('Identifier of the explorer (kept when it is restored)') },
+          near: { type: 'string', description: trans.__('Identifier of the widget the explorer opens beside, as a tab') }
         }
       }
     },

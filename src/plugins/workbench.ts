@@ -307,7 +307,8 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       },
       onExploreLandau: k => {
         // The explorer keeps its scenario in this notebook and reopens with it; the fitted points and curve are drawn over its branches.
-        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k, notebook: panel.context.path, overlay: landauOverlay(session) as unknown as ReadonlyPartialJSONObject });
+        // It opens as a tab beside the analysis (the width of its area, not a third of the window).
+        void app.commands.execute(CommandIDs.openLandauExplorer, { ...k, notebook: panel.context.path, near: widget.id, overlay: landauOverlay(session) as unknown as ReadonlyPartialJSONObject });
       },
       onForget: source
         ? () => {
@@ -647,9 +648,12 @@ export function createWorkbench(ctx: ICommandContext): IWorkbench {
       });
     }
     explorer.id = requested ?? `jp-psiscape-landau-${UUID.uuid4()}`;
-    // Explorers share one dock area: the first splits the main area, later ones join it as tabs.
+    // Explorers share one dock area: the first opens beside the analysis it came from (or splits the main area), later ones join it as tabs.
     const previous = explorers.filter(e => !e.isDisposed && e.isAttached).pop();
-    app.shell.add(explorer, 'main', previous ? { mode: 'tab-after', ref: previous.id } : { mode: 'split-right' });
+    const nearId = typeof args.near === 'string' ? args.near : null;
+    const near = nearId !== null ? [...app.shell.widgets('main')].find(w => w.id === nearId && w.isAttached) : undefined;
+    const ref = previous ?? near;
+    app.shell.add(explorer, 'main', ref ? { mode: 'tab-after', ref: ref.id } : { mode: 'split-right' });
     if (!requested) {
       app.shell.activateById(explorer.id);
     }

@@ -173,8 +173,9 @@ test('an explorer opened from a Landau fit keeps its scenario in the notebook an
   assert.equal(await again.locator('input.jp-psiscape-landau-range[data-key="h"]').inputValue(), h);
   // T0 is shown in the no-fractions form too (same T0 in every convention).
   assert.equal(await again.locator('input.jp-psiscape-landau-number[data-key="T0"]').inputValue(), T0);
-  await again.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
+  // the explorer is a tab beside the analysis it came from
   await page.locator('.lm-TabBar-tab', { hasText: 'Landau explorer' }).click();
+  await again.locator('.jp-psiscape-landau-landscape svg').waitFor({ timeout: 30000 }); // the landscape tab is shown first
   await screenshot(page, 'restore-explorer-from-fit');
   assert.deepEqual(suite.lab.errors, [], 'no uncaught page errors');
 });
