@@ -23,7 +23,12 @@ export class DerivedSection extends Widget {
   /** Shows the values of one good picture. */
   present(derived: IExplorerDerived, conventionName: string, T: number, h: number, land: ILandscapeData): void {
     const trans = this._trans;
-    renderDerivedTable(this._table, derived, conventionName, trans);
+    // the zero-field values depend on the coefficients alone: a T or h move leaves the table as it is
+    const key = JSON.stringify([derived, conventionName]);
+    if (key !== this._tableKey) {
+      renderDerivedTable(this._table, derived, conventionName, trans);
+      this._tableKey = key;
+    }
     const g = land.global >= 0 ? land.points[land.global] : null;
     this._state.textContent = g
       ? trans._n(
@@ -41,4 +46,5 @@ export class DerivedSection extends Widget {
   private _trans: TranslationBundle;
   private _state: HTMLParagraphElement;
   private _table: HTMLTableElement;
+  private _tableKey = '';
 }

@@ -9,6 +9,7 @@ import { messageOf } from '../../core/messages';
 import { translateMessage } from '../translate';
 import type { TranslationBundle } from '@jupyterlab/translation';
 import { Panel, Widget } from '@lumino/widgets';
+import type { Message } from '@lumino/messaging';
 import { Signal } from '@lumino/signaling';
 import type { ISignal } from '@lumino/signaling';
 import type { ILandauCoefficients, LandauConvention } from '../../core/physics/landau/index';
@@ -575,9 +576,15 @@ export class LandauExplorer extends Panel {
     return this._schedule();
   }
 
-  /** Redraw with the current theme colours. */
+  /** Redraw with the current theme colours (and chart scale). */
   redraw(): Promise<void> {
+    this._theme = null;
     return this._schedule();
+  }
+
+  protected onAfterAttach(msg: Message): void {
+    super.onAfterAttach(msg);
+    this._theme = null;
   }
 
   dispose(): void {
@@ -701,7 +708,10 @@ export class LandauExplorer extends Panel {
       this._axes = this._fitAxes(land, bounds);
     }
     const axes = this._axes;
-    const theme = readChartTheme(this.node);
+    // the theme is read once until redraw() (a theme change, the presenter view) asks again: reading it forces a style pass
+    const theme = this._theme ?? readChartTheme(this.node);
+    // kept only once attached (before, the CSS variables are not known here)
+    this._theme = this.isAttached ? theme : null;
     const trans = this._trans;
     const ls = landscapeSpec(land, T, h, theme, trans, { xDomain: axes.landscapePsi, yDomain: axes.landscapeF });
     const overlay = this._overlay;
@@ -988,6 +998,7 @@ export class LandauExplorer extends Panel {
   private _grid2dNote = new Widget({ node: document.createElement('p') });
   private _grid2dDrawn = '';
   private _phaseCache: { key: string; value: IPhaseDiagram } | null = null;
+  private _theme: ReturnType<typeof readChartTheme> | null = null;
   private _tabs: WorkbenchTabs;
   private _workbench: Widget;
   private _presetSelect = document.createElement('select');

@@ -10,9 +10,12 @@ import type { IChartTheme } from '../../charts/theme';
 import type { IBranchesData, IExplorerDerived, ILandscapeData } from '../../core/physics/landau/index';
 import { formatValue } from './derived-table';
 
-/** A spec with its accessible label. */
+/**
+ * A spec with its accessible label. The spec is built when first read: a
+ * slider move that only swaps rows in a drawn view never builds one.
+ */
 export interface ILabelledSpec<O = unknown> {
-  spec: TopLevelSpec;
+  readonly spec: TopLevelSpec;
   label: string;
   /** What the spec was built from (for in-place updates of a drawn view). */
   options: O;
@@ -28,6 +31,18 @@ export interface ISpecView {
   pointSize?: number;
   /** Mark T0, T1 and T** of the Landau form (default true; not for a typed free energy). */
   markers?: boolean;
+}
+
+function lazySpec<O>(options: O, label: string, build: () => TopLevelSpec): ILabelledSpec<O> {
+  let spec: TopLevelSpec | null = null;
+  return {
+    options,
+    label,
+    get spec(): TopLevelSpec {
+      spec ??= build();
+      return spec;
+    }
+  };
 }
 
 function kindLabels(trans: TranslationBundle): IKindLabels {
@@ -65,9 +80,8 @@ export function landscapeSpec(data: ILandscapeData, T: number, h: number, theme:
       globalMinimum: equal > 1 ? trans.__('global minimum (one of %1 equal minima)', equal) : trans.__('global minimum')
     }
   };
-  const { spec } = buildLandscapeSpec(options);
   const n = data.points.length;
-  return { spec, label: trans._n('%2: %1 stationary point', '%2: %1 stationary points', n, title), options };
+  return lazySpec(options, trans._n('%2: %1 stationary point', '%2: %1 stationary points', n, title), () => buildLandscapeSpec(options).spec);
 }
 
 /** Branches spec at field h with markers at the characteristic temperatures. */
@@ -108,10 +122,6 @@ export function branchesSpec(data: IBranchesData, derived: IExplorerDerived, T: 
       fitted: trans.__('fit')
     }
   };
-  const { spec } = buildBranchesSpec(options);
-  return {
-    options,
-    spec,
-    label: marked ? trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) : trans.__('%1: stationary branches', title)
-  };
+  const label = marked ? trans.__('%1: stationary branches, heating and cooling paths; T0, T1 and T** marked (zero field)', title) : trans.__('%1: stationary branches', title);
+  return lazySpec(options, label, () => buildBranchesSpec(options).spec);
 }
