@@ -144,7 +144,8 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
       {
         name: 'landscape_global_text',
         data: { name: 'global_text', values: globalRow },
-        mark: { type: 'text', dy: -18, color: theme.accent, fontWeight: 'bold', clip: true },
+        // anchored towards the middle of the plot, so a label near an edge stays inside it
+        mark: { type: 'text', dy: -18, color: theme.accent, fontWeight: 'bold', clip: true, align: { expr: GLOBAL_TEXT_ALIGN } },
         encoding: { x: { field: 'psi', type: 'quantitative' }, y: { field: 'F', type: 'quantitative' }, text: { field: 'text' } }
       }
     );
@@ -152,6 +153,9 @@ export function buildLandscapeSpec(options: ILandscapeChartOptions): ILandauChar
   const spec = layeredChart(layer, { description: `${labels.title}: ${labels.F} against ${labels.psi} with ${marks.length} stationary points`, title: labels.title, theme, liveTitle: options.patchable === true });
   return { spec, rows: curve.length + marks.length + globalRow.length };
 }
+
+/** Text anchor of the global-minimum label: towards the middle from the outer thirds of the plot. */
+const GLOBAL_TEXT_ALIGN = "scale('x', datum.psi) > 0.66 * width ? 'right' : scale('x', datum.psi) < 0.34 * width ? 'left' : 'center'";
 
 /** Rows of every dataset of the landscape chart, by dataset name (for in-place updates). */
 export function landscapeRows(options: ILandscapeChartOptions): { curve: { psi: number; F: number }[]; stationary: { psi: number; F: number; kind: string }[]; global: { psi: number; F: number; text: string }[]; global_text: { psi: number; F: number; text: string }[] } {
