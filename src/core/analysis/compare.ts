@@ -162,7 +162,7 @@ function candidates(job: IAnalysisJob, x: ArrayLike<number>, y: ArrayLike<number
 }
 
 /** y − model at the window points, or null when the outcome holds no such residuals. */
-function windowResiduals(outcome: IAnalysisOutcome, x: readonly number[], y: readonly number[]): number[] | null {
+function windowResiduals(outcome: IAnalysisOutcome, x: readonly number[], y: readonly number[]): ArrayLike<number> | null {
   const n = y.length;
   if (outcome.used === n && outcome.fit.residuals.length === n) {
     return outcome.fit.residuals;

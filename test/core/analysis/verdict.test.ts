@@ -322,7 +322,7 @@ describe('judgeFit: edge inputs', () => {
 
   it('empty residuals (a result with no points) gives a verdict, not an exception', () => {
     const { fit } = lineCase();
-    const v = judgeFit({ ...fit, residuals: [], dof: -2, chi2: 0, reducedChi2: Number.NaN }, { x: [], y: [] });
+    const v = judgeFit({ ...fit, residuals: new Float64Array(0), dof: -2, chi2: 0, reducedChi2: Number.NaN }, { x: [], y: [] });
     expect(v.state).toBe('does-not-describe');
     expect(v.summary.code).toBe('verdict.dof.failed');
     expectFilled(v);
@@ -401,7 +401,7 @@ function decayCase(seed: number, withSigma: boolean): IVerdict {
 /** x and residuals of the decay fit without σ, for the runs test alone. */
 function decayResiduals(seed: number): [number[], number[]] {
   const { x, y } = decayData(seed);
-  return [x, fitCurve(decay, { x, y }, { start: [1, 1, 0] }).residuals];
+  return [x, Array.from(fitCurve(decay, { x, y }, { start: [1, 1, 0] }).residuals)];
 }
 
 /**
