@@ -11,7 +11,7 @@
  * | `initialStepFactor` | 1 | first trust radius = factor·‖D·p₀‖ (or factor when that is 0); MINPACK uses 100, 1 avoids first steps onto plateaus (e.g. exp(−b·x) → 0) |
  * | `forwardStep` | √ε | relative forward-difference step |
  * | `centralStep` | ε^(1/3) | relative central-difference step |
- * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2), used to polish the solution and for the covariance |
+ * | `extrapolatedStep` | ε^(1/5) | relative step h of Richardson-extrapolated central differences (h and h/2): double-double polishing (`refine.ts`), and an analytic Jacobian that is not finite |
  * | `largeRows` | 20000 | large-problem threshold n. Up to this many points the trust-region step may use an SVD of the scaled Jacobian (accuracy on small ill-conditioned problems such as NIST StRD). Above it: the eigen-decomposition of the k×k JᵀJ only (formed in one tight pass; for n ≫ k the statistical error dwarfs its rounding), and stopping rule 1b |
  * | `normalEquationsMinRatio` | 1e-11 | the trust-region model uses the eigen-decomposition of the scaled JᵀJ when λmin/λmax ≥ this (condition of the scaled Jacobian ≤ 3e5), otherwise the SVD of the scaled Jacobian (up to `largeRows` points) |
  * | `stationaryRows` | 1000 | rule 1b applies from this many points on (statistical errors then dwarf the last digits that a second confirming step would settle) |
@@ -61,9 +61,10 @@
  * otherwise: maximum evaluations, cancellation, non-finite values — all
  * with `converged: false` and the best point so far.
  * Finite differences start forward; below `stationaryRows` points, at the
- * first stop signal the Jacobian switches to Richardson-extrapolated central
- * differences (falling back to small-step central ones where D(h) and D(h/2)
- * disagree) and the iteration continues until a rule is met again with that
+ * first stop signal the Jacobian switches to central differences (step
+ * `centralStep`, relative error ≈ ε^(2/3); every NIST StRD fit keeps its
+ * certified digits with them, as with Richardson extrapolation at twice the
+ * passes) and the iteration continues until a rule is met again with that
  * Jacobian. From `stationaryRows` points on (and in subsample stages) forward
  * differences stay: their error moves the step and the standard errors by
  * about √ε·|p·f''/f'| of a standard error, far below rule 1b's fraction.

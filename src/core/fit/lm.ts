@@ -1,7 +1,7 @@
 /**
  * Levenberg–Marquardt trust-region iteration: Moré column scaling, projected
  * box bounds with an active set, geodesic acceleration, forward differences
- * switching to Richardson-extrapolated ones before convergence is declared,
+ * switching to central ones before convergence is declared,
  * rounding-noise-aware acceptance near the solution, and a restart from the
  * best point when the step collapses while the Gauss–Newton model still
  * predicts progress. Stopping rules: see `defaults.ts`.
@@ -13,8 +13,7 @@
  * eigen-decomposition [N5]), and the radius update and gain-ratio test of
  * MINPACK's lmder [N2]. Geodesic acceleration [N3] (`geodesic.ts`) while
  * μ > 0; Jacobians by forward differences until the first noise-level step,
- * then Richardson-extrapolated central differences [N4] below
- * `stationaryRows` points (forward differences throughout from there on, or
+ * then central differences below `stationaryRows` points (forward differences throughout from there on, or
  * the model's analytic Jacobian throughout).
  *
  * Accuracy: a fit is reported converged only by the stopping rules of
@@ -135,8 +134,10 @@ export function* levenbergMarquardtSteps(
   const coarse = hooks.coarse === true;
   const stationaryRule = coarse || n >= FIT_DEFAULTS.stationaryRows;
   const errorFraction = coarse ? FIT_DEFAULTS.warmStartErrorFraction : FIT_DEFAULTS.stationaryErrorFraction;
-  // Large problems: JᵀJ and Jᵀr in one pass; ‖J·s‖² from JᵀJ.
   // JᵀJ and Jᵀr in one pass (also the finiteness check of the Jacobian); ‖J·s‖² from JᵀJ for large problems.
+  // Compensated Jᵀr only where the stopping rules are at rounding level (below `stationaryRows`, full data):
+  // with the statistical rule 1b its rounding moves the step by ≈ ε·√n standard errors.
+  const compensated = !stationaryRule;
   const normal = new Float64Array(k * k);
   const jd = large ? null : ws.take(n);
   const diag = new Float64Array(k);
@@ -149,17 +150,32 @@ export function* levenbergMarquardtSteps(
   const work = geodesicWork(n, k, ws);
   const spectral = new SpectralWork(n, k, ws);
   const cols: number[] = [];
-  // The accurate difference scheme: Richardson-extrapolated central
-  // differences below `stationaryRows` points (the certified digits of
-  // small problems). From there on, and in a subsample stage, forward
+  // The accurate difference scheme below `stationaryRows` points: central
+  // differences (relative error ≈ ε^(2/3), 2 passes per column) until a
+  // stopping rule is first met, then Richardson-extrapolated ones (≈ ε^(4/5),
+  // 4 passes) for the one step that settles the last digits (`polish`): the
+  // point where a Gauss–Newton step vanishes moves with the Jacobian's error
+  // (by ≈ (JᵀJ)⁻¹Eᵀr), and the certified digits of small problems need the
+  // smaller one; the steps before it only need to get there. From there on, and in a subsample stage, forward
   // differences are final: their relative error (≈ √ε·|p·f''/f'|) moves
   // the Gauss–Newton step by about that fraction of a standard error and
   // the standard errors by that fraction, far below the stopping rule's
   // `stationaryErrorFraction`, at half the passes of central differences.
-  const accurate: DifferenceScheme = coarse || n >= FIT_DEFAULTS.stationaryRows ? 'forward' : 'extrapolated';
+  const accurate: DifferenceScheme = coarse || n >= FIT_DEFAULTS.stationaryRows ? 'forward' : 'central';
   let scheme: DifferenceScheme = ev.analytic ? accurate : 'forward';
   // The Jacobian is analytic or comes from the accurate scheme.
   let settled = ev.analytic || accurate === 'forward';
+  // At a stopping rule met with central differences: Richardson-extrapolated
+  // ones from here, and the rule must be met again with them (true: go on).
+  const polish = (): boolean => {
+    if (ev.analytic || scheme !== 'central') {
+      return false;
+    }
+    scheme = 'extrapolated';
+    jacAtP = false;
+    needJacobian = true;
+    return true;
+  };
 
   const out = (converged: boolean, reason: ICoreMessage): ILmOutcome => {
     // A Jacobian from a combined pass is checked here unless JᵀJ was formed from it.
@@ -234,9 +250,9 @@ export function* levenbergMarquardtSteps(
       // Large problems check the entries of a Jacobian from a combined pass
       // through the sums of JᵀJ; a non-finite one is evaluated again alone
       // (with the difference fallback of the evaluator).
-      let ok = jacAtP && (!normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, !large)));
+      let ok = jacAtP && (!normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, compensated)));
       if (!ok && ev.jacobian(p, f, jac, scheme)) {
-        ok = !normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, !large));
+        ok = !normal || (normalAtP = normalAndGradient(jac, r, n, k, normal, grad, compensated));
       }
       jacAtP = ok;
       if (!ok) {
@@ -281,6 +297,9 @@ export function* levenbergMarquardtSteps(
         return out(true, msg('fit.stop.exact', 'The model passes exactly through every point.'));
       }
       if (gcos <= problem.gtol && settled) {
+        if (polish()) {
+          continue;
+        }
         return out(true, msg('fit.stop.gradient', 'The gradient vanished: a minimum was found.'));
       }
       cols.length = 0;
@@ -449,6 +468,11 @@ export function* levenbergMarquardtSteps(
     yield;
     // Forward differences: switch to the accurate Jacobian at the first
     // noise-level step; then two consecutive noise-level steps end the fit.
+    // The first noise-level step with central differences counts towards
+    // rule 1: one more with Richardson-extrapolated ones ends the fit.
+    if (settled && noiseSteps === 1 && polish()) {
+      continue;
+    }
     if (noiseSteps >= (settled ? 2 : 1)) {
       if (!settled) {
         scheme = accurate;
@@ -493,6 +517,9 @@ export function* levenbergMarquardtSteps(
         const pn = scaledNorm(diag, p);
         delta = FIT_DEFAULTS.initialStepFactor * (pn > 0 ? pn : 1);
         needJacobian = true;
+        continue;
+      }
+      if (polish()) {
         continue;
       }
       const which = ftolHit
