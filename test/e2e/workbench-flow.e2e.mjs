@@ -48,6 +48,7 @@ test('the phase diagram and the two-order-parameter landscape draw', async () =>
   const explorer = page.locator('.jp-psiscape-LandauExplorer').last();
   await explorer.locator('.jp-psiscape-landau-tab[data-view="phase-diagram"]').click();
   await drawn(tabChart(explorer, 'phase-diagram'));
+  await explorer.locator('.jp-psiscape-landau-phase-diagram').scrollIntoViewIfNeeded();
   await screenshot(page, 'workbench-phase-diagram-light', { guide: 'workbench-phase-diagram' });
   await explorer.locator('.jp-psiscape-landau-tab[data-view="landscape-2d"]').click();
   await drawn(tabChart(explorer, 'landscape-2d'));
@@ -64,6 +65,15 @@ test('the phase diagram and the two-order-parameter landscape draw', async () =>
   });
   await page.waitForFunction(([sel, before]) => document.querySelector(sel)?.getAttribute('aria-label') !== before, ['.jp-psiscape-LandauExplorer:last-of-type .jp-psiscape-landau-landscape-2d', labelBefore], { timeout: 15000 });
   assert.ok(await grid.evaluate(node => node.querySelector('canvas, svg') === window.__psiscapeGrid), 'the drawn 2-D view took the new rows in place');
+  // the picture with both order parameters set near this fit's temperatures: an ordered landscape
+  for (const [key, value] of [['T1', '300'], ['T2', '280']]) {
+    const field = explorer.locator(`.jp-psiscape-landau-coupled input.jp-psiscape-landau-number[data-key="${key}"]`);
+    await field.fill(value);
+    await field.dispatchEvent('change');
+  }
+  await page.waitForFunction(sel => document.querySelector(sel)?.dataset.phase !== 'disordered', '.jp-psiscape-LandauExplorer .jp-psiscape-landau-landscape-2d', { timeout: 15000 });
+  await grid.scrollIntoViewIfNeeded();
+  await page.waitForTimeout(300);
   await screenshot(page, 'workbench-landscape-2d-light', { guide: 'workbench-landscape-2d' });
   await darkScreenshot(page, 'workbench-landscape-2d-dark', () => drawn(tabChart(explorer, 'landscape-2d')));
 });
