@@ -33,7 +33,7 @@ import type { ICoupledCoefficients } from '../../core/physics/coupled';
 import { compileFreeEnergy, typedErrorText } from '../../core/expr/index';
 import { ExpressionError } from '../../core/expr/index';
 import type { ITypedFreeEnergy } from '../../core/physics/landau/index';
-import { coupledLandscape, landauFieldLoop, landauPhaseDiagram, linspace, typedCurve, typedFieldLoop, typedPhaseDiagram, typedStationary } from '../../core/physics/landau/index';
+import { coupledLandscape, landauFieldLoop, landauPhaseDiagram, linspace, typedCurve, typedFieldLoop, typedLoopRange, typedPhaseDiagram, typedStationary } from '../../core/physics/landau/index';
 import type { IPhaseDiagram } from '../../core/physics/landau/index';
 import type { WorkbenchPreset, WorkbenchView } from './workbench-parts';
 import { DEFAULT_COUPLED, SliderGroup, WORKBENCH_PRESETS, WorkbenchTabs, coupledFields, presetFormula, presetName, presetSetting } from './workbench-parts';
@@ -123,14 +123,16 @@ export class LandauExplorer extends Panel {
     this.node.setAttribute('aria-label', trans.__('Landau free-energy explorer'));
     this.title.label = trans.__('Landau explorer');
     this.title.closable = true;
+    // a field that does not hold a finite number: said once, the last good picture stays
+    const onInvalid = (label: string, text: string): void => {
+      this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
+      this._schedule();
+    };
     this._controls = new ExplorerControls({
       trans,
       onCoefficient: (key, v) => this._onCoefficient(key, v),
       onState: (key, v) => this._onState(key, v),
-      onInvalid: (label, text) => {
-        this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
-        this._schedule();
-      },
+      onInvalid,
       onConvention: c => this._onConvention(c)
     });
     this._message = new Widget({ node: document.createElement('p') });
@@ -146,10 +148,6 @@ export class LandauExplorer extends Panel {
     this._loop.addClass('jp-psiscape-landau-loop');
     this._overlay = options.overlay ? thinOverlay(options.overlay) : null;
     this._pointSize = options.pointSize ?? DEFAULT_POINT_SIZE;
-    const onInvalid = (label: string, text: string): void => {
-      this._badText = text === '' ? trans.__('%1: enter a finite number.', label) : trans.__('%1: “%2” is not a finite number.', label, text);
-      this._schedule();
-    };
     // the two-order-parameter sliders live in their tab
     this._coupledGroup = new SliderGroup({ trans, title: trans.__('two order parameters'), className: 'jp-psiscape-landau-coupled', onInvalid });
     const grid2dPanel = new Panel();
@@ -709,9 +707,15 @@ export class LandauExplorer extends Panel {
     }
     const axes = this._axes;
     // the theme is read once until redraw() (a theme change, the presenter view) asks again: reading it forces a style pass
-    const theme = this._theme ?? readChartTheme(this.node);
+    if (!this._theme) {
+      const read = readChartTheme(this.node);
+      this._theme = { theme: read, key: JSON.stringify(read) };
+    }
+    const { theme, key: themeKey } = this._theme;
     // kept only once attached (before, the CSS variables are not known here)
-    this._theme = this.isAttached ? theme : null;
+    if (!this.isAttached) {
+      this._theme = null;
+    }
     const trans = this._trans;
     const ls = landscapeSpec(land, T, h, theme, trans, { xDomain: axes.landscapePsi, yDomain: axes.landscapeF });
     const overlay = this._overlay;
@@ -728,7 +732,7 @@ export class LandauExplorer extends Panel {
     if (pairShown) {
       // the landscape: rows and title in place while its frame (theme, axes) stays
       const landRows = landscapeRows(ls.options);
-      const landFrame = JSON.stringify([theme, axes.landscapePsi, axes.landscapeF]);
+      const landFrame = JSON.stringify([themeKey, axes.landscapePsi, axes.landscapeF]);
       const landTitle = { [TITLE_PARAM]: ls.options.labels?.title ?? '' };
       landscape =
         landFrame === this._landscapeDrawn && this._landscapeBusy === 0
@@ -736,8 +740,8 @@ export class LandauExplorer extends Panel {
           : this._full(this._landscape, ls.spec, ls.label, 'landscape');
       this._landscapeDrawn = landFrame;
       // the branches: only the current-T rule moves when nothing else changed; otherwise every dataset and the title in place
-      const drawnKey = JSON.stringify([bkey, theme, derived.T1, derived.Tsuperheat, this._controls.convention, axes]);
-      const frameKey = JSON.stringify([theme, axes, this._controls.convention, overlay !== null, this._pointSize]);
+      const drawnKey = JSON.stringify([bkey, themeKey, derived.T1, derived.Tsuperheat, this._controls.convention, axes]);
+      const frameKey = JSON.stringify([themeKey, axes, this._controls.convention, overlay !== null, this._pointSize]);
       const current = [{ T, label: trans.__('T = %1', formatValue(T)) }];
       if (drawnKey === this._branchesDrawn && this._branchesBusy === 0) {
         branches = this._branches.patch('current', current, bs.label).then(ok => (ok ? undefined : this._full(this._branches, bs.spec, bs.label, 'branches')));
@@ -751,7 +755,7 @@ export class LandauExplorer extends Panel {
       this._branchesDrawn = drawnKey;
       this._branchesFrame = frameKey;
     }
-    const heavy = this._drawSelected(k, T, h, theme, axes, typed !== null);
+    const heavy = this._drawSelected(k, T, h, theme, themeKey, axes, typed !== null);
     await Promise.all([landscape, branches, heavy]);
   }
 
@@ -769,7 +773,7 @@ export class LandauExplorer extends Panel {
   }
 
   /** Draws the phase diagram, the two-order-parameter landscape or the loop when its tab is shown. */
-  private async _drawSelected(k: ILandauCoefficients, T: number, h: number, theme: ReturnType<typeof readChartTheme>, axes: IWorkbenchAxes, typed: boolean): Promise<void> {
+  private async _drawSelected(k: ILandauCoefficients, T: number, h: number, theme: ReturnType<typeof readChartTheme>, themeKey: string, axes: IWorkbenchAxes, typed: boolean): Promise<void> {
     const trans = this._trans;
     const view = this._tabs.selected;
     if (view === 'phase-diagram') {
@@ -809,7 +813,7 @@ export class LandauExplorer extends Panel {
         }
       };
       const label = trans.__('Phase diagram in (T, h): %1 lines, %2 special points', pd.lines.length, pd.points.length);
-      const frame = JSON.stringify([theme, axes.T, hSpan, pd.regime, pd.lines.map(l => l.id)]);
+      const frame = JSON.stringify([themeKey, axes.T, hSpan, pd.regime, pd.lines.map(l => l.id)]);
       if (frame === this._phaseDrawn && !(await this._phase.patchMany(phaseDiagramRows(options), label)) === false) {
         return;
       }
@@ -841,7 +845,7 @@ export class LandauExplorer extends Panel {
       this._grid2d.node.dataset.phase = L.phase;
       this._grid2dNote.node.textContent = trans._n('At T = %2 the stable phase has %3; %1 minimum in view.', 'At T = %2 the stable phase has %3; %1 minima in view.', L.minima.length, formatValue(T), phaseNames[L.phase]);
       // the grid's extent and the theme make the frame; new rows and title go into a drawn view in place
-      const frame = JSON.stringify([theme, L.n, axes.grid2d]);
+      const frame = JSON.stringify([themeKey, L.n, axes.grid2d]);
       if (frame === this._grid2dDrawn && (await this._grid2d.patchMany(landscape2dRows(options), label, { [TITLE_PARAM]: title }))) {
         return;
       }
@@ -868,10 +872,11 @@ export class LandauExplorer extends Panel {
       this._loopNote.node.textContent = trans._n('The loop follows the occupied minimum and jumps where it ends (%1 jump). The intrinsic coercive field exceeds measured ones by orders of magnitude.', 'The loop follows the occupied minimum and jumps where it ends (%1 jumps). The intrinsic coercive field exceeds measured ones by orders of magnitude.', path.jumps.length);
       const options = { points: path.points, turn: n, theme, labels: { title: trans.__('Field loop at T = %1', formatValue(T)), h: trans.__('field h (E)'), psi: trans.__('order parameter ψ (P)'), leg: trans.__('field'), up: trans.__('rising'), down: trans.__('falling') } };
       const label = trans.__('Field loop at T = %1 with %2 jumps', formatValue(T), path.jumps.length);
-      if (this._loopDrawn === JSON.stringify([theme, hMax]) && (await this._loop.patchMany(loopRows(options), label))) {
+      const loopFrame = JSON.stringify([themeKey, hMax]);
+      if (this._loopDrawn === loopFrame && (await this._loop.patchMany(loopRows(options), label))) {
         return;
       }
-      this._loopDrawn = JSON.stringify([theme, hMax]);
+      this._loopDrawn = loopFrame;
       await this._loop.render(buildLoopSpec(options).spec, label);
     }
   }
@@ -896,22 +901,11 @@ export class LandauExplorer extends Panel {
     return value;
   }
 
-  /** Field range of a typed free energy's loop: past the largest |F′| where F″ < 0 at h = 0, or the h slider's range. */
+  /** Field range of a typed free energy's loop ({@link typedLoopRange}), or the h slider's range. */
   private _typedLoopRange(typed: { f: ITypedFreeEnergy; values: Record<string, number> }, T: number): number {
-    const reach = this._typedReach();
-    const psi = new Float64Array(801);
-    for (let i = 0; i < psi.length; i++) {
-      psi[i] = -reach + (2 * reach * i) / (psi.length - 1);
-    }
-    const out = typed.f.evaluate(psi, T, 0, typed.values);
-    let end = 0;
-    for (let i = 0; i < psi.length; i++) {
-      if (out[3 * i + 2] < 0 && Number.isFinite(out[3 * i + 1])) {
-        end = Math.max(end, Math.abs(out[3 * i + 1]));
-      }
-    }
+    const end = typedLoopRange(typed.f, typed.values, T, this._typedReach());
     const hb = this._controls.stateBounds('h');
-    return end > 0 ? 1.5 * end : Math.max(Math.abs(hb.min), Math.abs(hb.max), 1e-9);
+    return end > 0 ? end : Math.max(Math.abs(hb.min), Math.abs(hb.max), 1e-9);
   }
 
   /** Field range of the loop: past the coercive field (end of the ordered branch), or the h slider's range. */
@@ -998,7 +992,7 @@ export class LandauExplorer extends Panel {
   private _grid2dNote = new Widget({ node: document.createElement('p') });
   private _grid2dDrawn = '';
   private _phaseCache: { key: string; value: IPhaseDiagram } | null = null;
-  private _theme: ReturnType<typeof readChartTheme> | null = null;
+  private _theme: { theme: ReturnType<typeof readChartTheme>; key: string } | null = null;
   private _tabs: WorkbenchTabs;
   private _workbench: Widget;
   private _presetSelect = document.createElement('select');

@@ -12,20 +12,8 @@ export class PatchableChartView extends ChartView {
    *
    * @returns false, changing nothing, when there is no view or no such dataset.
    */
-  async patch(name: string, rows: object[], label: string): Promise<boolean> {
-    const view = this.view;
-    if (!view) {
-      return false;
-    }
-    try {
-      view.data(name);
-    } catch {
-      return false;
-    }
-    view.data(name, rows);
-    this.node.setAttribute('aria-label', label);
-    await view.runAsync();
-    return true;
+  patch(name: string, rows: object[], label: string): Promise<boolean> {
+    return this.patchMany({ [name]: rows }, label);
   }
 
   /**

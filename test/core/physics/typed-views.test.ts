@@ -9,7 +9,7 @@
 import { describe, expect, it } from 'vitest';
 import { compileFreeEnergy } from '../../../src/core/expr/index';
 import { landauFieldLoop, landauPhaseDiagram } from '../../../src/core/physics/landau/index';
-import { typedFieldLoop } from '../../../src/core/physics/landau/typed-loop';
+import { typedFieldLoop, typedLoopRange } from '../../../src/core/physics/landau/typed-loop';
 import { typedPhaseDiagram } from '../../../src/core/physics/landau/typed-phase-diagram';
 import { PhysicsInputError } from '../../../src/core/physics/errors';
 
@@ -132,6 +132,15 @@ describe('typed free energy: field loop', () => {
     const b = landauFieldLoop(k, T, 1.5, 121);
     expect(a.jumps.map(j => j.index)).toEqual(b.jumps.map(j => j.index));
     expect(Math.max(...a.points.map((p, i) => Math.abs(p.psi - b.points[i].psi)))).toBeLessThan(1e-8);
+  });
+
+  it('should reach past the coercive field with its default range, and give 0 where no minimum can end', () => {
+    const T = 99;
+    const range = typedLoopRange(f, values, T, 2);
+    // the loop over that range jumps both ways, as the Landau form's does
+    expect(typedFieldLoop(f, values, T, range, 161, 2).jumps.length).toBe(2);
+    // far above the critical end points (100.9 K), at 110 K, F is convex on the range: no range of its own
+    expect(typedLoopRange(f, values, 110, 2)).toBe(0);
   });
 
   it('should refuse a non-finite temperature or a field range of 0', () => {

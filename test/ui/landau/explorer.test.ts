@@ -69,8 +69,11 @@ describe('LandauExplorer', () => {
     expect(w.redraws).toBe(before + 1);
     // T alone moved: the landscape's rows replaced in place, and the current-T rule of the branches chart moved in place; no new spec
     expect(render).not.toHaveBeenCalled();
-    expect(patchMany).toHaveBeenCalledTimes(1);
     expect(patch).toHaveBeenCalledTimes(1);
+    expect(patch.mock.calls[0][0]).toBe('current');
+    // patch goes through patchMany: the landscape's datasets once, and the branches' current-T rule alone
+    expect(patchMany).toHaveBeenCalledTimes(2);
+    expect(patchMany.mock.calls.filter(c => Object.keys(c[0]).join() === 'current').length).toBe(1);
     expect(w.state.T).toBe(100.1);
     const labels = [...w.node.querySelectorAll('.jp-psiscape-landau-branches svg text')].map(t => t.textContent);
     expect(labels).toContain('T = 100.1');

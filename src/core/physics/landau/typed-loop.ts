@@ -22,6 +22,26 @@ export function typedLandscape(f: ITypedFreeEnergy, T: number, h: number, values
 }
 
 /**
+ * A field range for the loop at T: 1.5 × the largest |F′(ψ; T, 0)| where
+ * F″ < 0 on [−psiMax, psiMax] (past the field at which a minimum ends), or
+ * 0 when F has no such region there (then the caller chooses).
+ */
+export function typedLoopRange(f: ITypedFreeEnergy, values: Readonly<Record<string, number>>, T: number, psiMax: number, n = 801): number {
+  const psi = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    psi[i] = -psiMax + (2 * psiMax * i) / (n - 1);
+  }
+  const out = f.evaluate(psi, T, 0, values);
+  let end = 0;
+  for (let i = 0; i < n; i++) {
+    if (out[3 * i + 2] < 0 && Number.isFinite(out[3 * i + 1])) {
+      end = Math.max(end, Math.abs(out[3 * i + 1]));
+    }
+  }
+  return 1.5 * end;
+}
+
+/**
  * Field loop at T, `n` states per leg, minima sought on [−psiMax, psiMax].
  * The path ends early where no minimum is left in that range.
  */

@@ -273,12 +273,11 @@ export function typedPhaseDiagram(f: ITypedFreeEnergy, values: Readonly<Record<s
     const end = t.T[t.T.length - 1];
     Ttransition = Number.isNaN(Ttransition) ? end : Math.max(Ttransition, end);
   }
-  const unique = points;
   return {
     convention: 'L',
-    regime: offAxis || unique.some(p => p.kind === 'triple') ? 'first-order' : 'second-order',
+    regime: offAxis || points.some(p => p.kind === 'triple') ? 'first-order' : 'second-order',
     lines,
-    points: unique,
+    points,
     Ttransition,
     hMax: hScale
   };
