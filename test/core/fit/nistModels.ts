@@ -1,5 +1,5 @@
 /**
- * Hand-written models for the 27 NIST StRD nonlinear regression problems,
+ * Hand-written array models for the 27 NIST StRD nonlinear regression problems,
  * transcribed from the model line printed in each file (NIST Statistical
  * Reference Datasets, Nonlinear Regression). Nelson has two predictors and
  * the response log(y): it uses x = point index and closes over x1, x2.
@@ -10,59 +10,161 @@ import * as DD from '../../../src/core/numeric/dd/index';
 import type { IDoubleDouble, IDoubleDoubleArray } from '../../../src/core/numeric/dd/index';
 import type { INistProblem } from './nistData';
 
-type Pointwise = (b: Float64Array, x: number) => number;
+/** Model values for parameters b at every x, into out. */
+type ArrayModel = (b: Float64Array, x: Float64Array, out: Float64Array) => void;
 type PrecisePointwise = (b: IDoubleDouble[], x: IDoubleDouble) => IDoubleDouble;
 
-const { exp, cos, sin, atan, PI } = Math;
+const { exp, cos, sin, atan, pow, sqrt, PI } = Math;
 
-const POINTWISE: Record<string, Pointwise> = {
-  Bennett5: (b, x) => b[0] * (b[1] + x) ** (-1 / b[2]),
-  BoxBOD: (b, x) => b[0] * (1 - exp(-b[1] * x)),
-  Chwirut1: (b, x) => exp(-b[0] * x) / (b[1] + b[2] * x),
-  Chwirut2: (b, x) => exp(-b[0] * x) / (b[1] + b[2] * x),
-  DanWood: (b, x) => b[0] * x ** b[1],
-  ENSO: (b, x) =>
-    b[0] +
-    b[1] * cos((2 * PI * x) / 12) +
-    b[2] * sin((2 * PI * x) / 12) +
-    b[4] * cos((2 * PI * x) / b[3]) +
-    b[5] * sin((2 * PI * x) / b[3]) +
-    b[7] * cos((2 * PI * x) / b[6]) +
-    b[8] * sin((2 * PI * x) / b[6]),
-  Eckerle4: (b, x) => (b[0] / b[1]) * exp(-0.5 * ((x - b[2]) / b[1]) ** 2),
+/**
+ * Each model is its own loop over the points (one call per pass, not one
+ * per point), with what depends on the parameters only taken out of the
+ * loop and integer powers written as products: the way a model for this
+ * engine is written by hand. Nothing depending on x alone is kept between
+ * passes.
+ */
+const KERNELS: Record<string, ArrayModel> = {
+  Bennett5(b, x, out) {
+    const e = -1 / b[2];
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] * pow(b[1] + x[i], e);
+    }
+  },
+  BoxBOD: saturation,
+  Chwirut1: chwirut,
+  Chwirut2: chwirut,
+  DanWood(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] * pow(x[i], b[1]);
+    }
+  },
+  ENSO(b, x, out) {
+    const w1 = (2 * PI) / 12;
+    const w2 = (2 * PI) / b[3];
+    const w3 = (2 * PI) / b[6];
+    for (let i = 0; i < x.length; i++) {
+      const xi = x[i];
+      out[i] =
+        b[0] + b[1] * cos(w1 * xi) + b[2] * sin(w1 * xi) + b[4] * cos(w2 * xi) + b[5] * sin(w2 * xi) + b[7] * cos(w3 * xi) + b[8] * sin(w3 * xi);
+    }
+  },
+  Eckerle4(b, x, out) {
+    const a = b[0] / b[1];
+    const inv = 1 / b[1];
+    for (let i = 0; i < x.length; i++) {
+      const d = (x[i] - b[2]) * inv;
+      out[i] = a * exp(-0.5 * d * d);
+    }
+  },
   Gauss1: gauss,
   Gauss2: gauss,
   Gauss3: gauss,
-  Hahn1: (b, x) =>
-    (b[0] + b[1] * x + b[2] * x ** 2 + b[3] * x ** 3) / (1 + b[4] * x + b[5] * x ** 2 + b[6] * x ** 3),
-  Kirby2: (b, x) => (b[0] + b[1] * x + b[2] * x ** 2) / (1 + b[3] * x + b[4] * x ** 2),
+  Hahn1: rationalCubic,
+  Kirby2(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const xi = x[i];
+      out[i] = (b[0] + xi * (b[1] + xi * b[2])) / (1 + xi * (b[3] + xi * b[4]));
+    }
+  },
   Lanczos1: lanczos,
   Lanczos2: lanczos,
   Lanczos3: lanczos,
-  MGH09: (b, x) => (b[0] * (x ** 2 + x * b[1])) / (x ** 2 + x * b[2] + b[3]),
-  MGH10: (b, x) => b[0] * exp(b[1] / (x + b[2])),
-  MGH17: (b, x) => b[0] + b[1] * exp(-x * b[3]) + b[2] * exp(-x * b[4]),
-  Misra1a: (b, x) => b[0] * (1 - exp(-b[1] * x)),
-  Misra1b: (b, x) => b[0] * (1 - (1 + (b[1] * x) / 2) ** -2),
-  Misra1c: (b, x) => b[0] * (1 - (1 + 2 * b[1] * x) ** -0.5),
-  Misra1d: (b, x) => (b[0] * b[1] * x) / (1 + b[1] * x),
-  Rat42: (b, x) => b[0] / (1 + exp(b[1] - b[2] * x)),
-  Rat43: (b, x) => b[0] / (1 + exp(b[1] - b[2] * x)) ** (1 / b[3]),
-  Roszman1: (b, x) => b[0] - b[1] * x - atan(b[2] / (x - b[3])) / PI,
-  Thurber: (b, x) =>
-    (b[0] + b[1] * x + b[2] * x ** 2 + b[3] * x ** 3) / (1 + b[4] * x + b[5] * x ** 2 + b[6] * x ** 3)
+  MGH09(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const xi = x[i];
+      out[i] = (b[0] * xi * (xi + b[1])) / (xi * (xi + b[2]) + b[3]);
+    }
+  },
+  MGH10(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] * exp(b[1] / (x[i] + b[2]));
+    }
+  },
+  MGH17(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const xi = x[i];
+      out[i] = b[0] + b[1] * exp(-xi * b[3]) + b[2] * exp(-xi * b[4]);
+    }
+  },
+  Misra1a: saturation,
+  Misra1b(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const t = 1 + (b[1] * x[i]) / 2;
+      out[i] = b[0] * (1 - 1 / (t * t));
+    }
+  },
+  Misra1c(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] * (1 - 1 / sqrt(1 + 2 * b[1] * x[i]));
+    }
+  },
+  Misra1d(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const t = b[1] * x[i];
+      out[i] = (b[0] * t) / (1 + t);
+    }
+  },
+  Rat42(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] / (1 + exp(b[1] - b[2] * x[i]));
+    }
+  },
+  Rat43(b, x, out) {
+    const e = 1 / b[3];
+    for (let i = 0; i < x.length; i++) {
+      out[i] = b[0] / pow(1 + exp(b[1] - b[2] * x[i]), e);
+    }
+  },
+  Roszman1(b, x, out) {
+    for (let i = 0; i < x.length; i++) {
+      const xi = x[i];
+      out[i] = b[0] - b[1] * xi - atan(b[2] / (xi - b[3])) / PI;
+    }
+  },
+  Thurber: rationalCubic
 };
 
-function gauss(b: Float64Array, x: number): number {
-  return (
-    b[0] * exp(-b[1] * x) +
-    b[2] * exp(-((x - b[3]) ** 2) / b[4] ** 2) +
-    b[5] * exp(-((x - b[6]) ** 2) / b[7] ** 2)
-  );
+/** b1·(1 − e^(−b2·x)) (BoxBOD, Misra1a). */
+function saturation(b: Float64Array, x: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < x.length; i++) {
+    out[i] = b[0] * (1 - exp(-b[1] * x[i]));
+  }
 }
 
-function lanczos(b: Float64Array, x: number): number {
-  return b[0] * exp(-b[1] * x) + b[2] * exp(-b[3] * x) + b[4] * exp(-b[5] * x);
+/** e^(−b1·x) / (b2 + b3·x) (Chwirut1, Chwirut2). */
+function chwirut(b: Float64Array, x: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < x.length; i++) {
+    const xi = x[i];
+    out[i] = exp(-b[0] * xi) / (b[1] + b[2] * xi);
+  }
+}
+
+/** (b1 + b2·x + b3·x² + b4·x³) / (1 + b5·x + b6·x² + b7·x³) (Hahn1, Thurber), by Horner's rule. */
+function rationalCubic(b: Float64Array, x: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < x.length; i++) {
+    const xi = x[i];
+    out[i] = (b[0] + xi * (b[1] + xi * (b[2] + xi * b[3]))) / (1 + xi * (b[4] + xi * (b[5] + xi * b[6])));
+  }
+}
+
+/** b1·e^(−b2·x) + b3·e^(−(x−b4)²/b5²) + b6·e^(−(x−b7)²/b8²) (Gauss1–3). */
+function gauss(b: Float64Array, x: Float64Array, out: Float64Array): void {
+  const s1 = 1 / (b[4] * b[4]);
+  const s2 = 1 / (b[7] * b[7]);
+  for (let i = 0; i < x.length; i++) {
+    const xi = x[i];
+    const d1 = xi - b[3];
+    const d2 = xi - b[6];
+    out[i] = b[0] * exp(-b[1] * xi) + b[2] * exp(-d1 * d1 * s1) + b[5] * exp(-d2 * d2 * s2);
+  }
+}
+
+/** b1·e^(−b2·x) + b3·e^(−b4·x) + b5·e^(−b6·x) (Lanczos1–3). */
+function lanczos(b: Float64Array, x: Float64Array, out: Float64Array): void {
+  for (let i = 0; i < x.length; i++) {
+    const xi = x[i];
+    out[i] = b[0] * exp(-b[1] * xi) + b[2] * exp(-b[3] * xi) + b[4] * exp(-b[5] * xi);
+  }
 }
 
 /** Lanczos1–3 in double-double: b1·e^(−b2·x) + b3·e^(−b4·x) + b5·e^(−b6·x). */
@@ -121,18 +223,11 @@ export function handModel(p: INistProblem): IHandProblem {
     };
     return { model, x: x1.map((_, i) => i), ...logResponse(p) };
   }
-  const fn = POINTWISE[p.name];
-  if (!fn) {
+  const kernel = KERNELS[p.name];
+  if (!kernel) {
     throw new Error(`no hand-written model for ${p.name}`);
   }
-  const model: IFitModel = {
-    parameters: p.parameters,
-    evaluate(b, x, out) {
-      for (let i = 0; i < x.length; i++) {
-        out[i] = fn(b, x[i]);
-      }
-    }
-  };
+  const model: IFitModel = { parameters: p.parameters, evaluate: kernel };
   const precise = PRECISE[p.name];
   if (precise) {
     model.evaluatePrecise = preciseEvaluator(precise);
