@@ -44,7 +44,8 @@ export class ResidualEvaluator {
   private readonly hasJacobian: boolean;
   /** Analytic Jacobian written straight into the n×k buffer (no weights, nothing fixed). */
   private readonly direct: boolean;
-  // Allocated on first use: difference buffers and the all-parameter Jacobian.
+  // Allocated on first use, not cleared (written in full before any read):
+  // difference buffers and the all-parameter Jacobian.
   private fplusBuf: Float64Array | null = null;
   private fminusBuf: Float64Array | null = null;
   private fplus2Buf: Float64Array | null = null;
@@ -73,23 +74,23 @@ export class ResidualEvaluator {
   }
 
   private get fplus(): Float64Array {
-    return (this.fplusBuf ??= this.problem.workspace.take(this.n));
+    return (this.fplusBuf ??= this.problem.workspace.scratch(this.n));
   }
 
   private get fminus(): Float64Array {
-    return (this.fminusBuf ??= this.problem.workspace.take(this.n));
+    return (this.fminusBuf ??= this.problem.workspace.scratch(this.n));
   }
 
   private get fplus2(): Float64Array {
-    return (this.fplus2Buf ??= this.problem.workspace.take(this.n));
+    return (this.fplus2Buf ??= this.problem.workspace.scratch(this.n));
   }
 
   private get fminus2(): Float64Array {
-    return (this.fminus2Buf ??= this.problem.workspace.take(this.n));
+    return (this.fminus2Buf ??= this.problem.workspace.scratch(this.n));
   }
 
   private get jfull(): Float64Array {
-    return (this.jfullBuf ??= this.problem.workspace.take(this.n * this.problem.kAll));
+    return (this.jfullBuf ??= this.problem.workspace.scratch(this.n * this.problem.kAll));
   }
 
   /** Full parameter vector (fixed values included) for free values `p`. */

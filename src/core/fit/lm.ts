@@ -123,12 +123,13 @@ export function* levenbergMarquardtSteps(
   let r = ws.take(n);
   let f = ws.take(n);
   let pT = new Float64Array(k);
-  let rT = ws.take(n);
-  let fT = ws.take(n);
-  let jac = ws.take(n * k);
+  // Written in full before they are read: not cleared (`Workspace.scratch`).
+  let rT = ws.scratch(n);
+  let fT = ws.scratch(n);
+  let jac = ws.scratch(n * k);
   // Combined models: the Jacobian at each trial point comes with its values.
   const combined = ev.combined;
-  let jacT = combined ? ws.take(n * k) : null;
+  let jacT = combined ? ws.scratch(n * k) : null;
   const large = n > FIT_DEFAULTS.largeRows;
   // Rule 1b (one confirming Jacobian instead of two noise-level steps).
   const coarse = hooks.coarse === true;
@@ -139,7 +140,7 @@ export function* levenbergMarquardtSteps(
   // with the statistical rule 1b its rounding moves the step by ≈ ε·√n standard errors.
   const compensated = !stationaryRule;
   const normal = new Float64Array(k * k);
-  const jd = large ? null : ws.take(n);
+  const jd = large ? null : ws.scratch(n);
   const diag = new Float64Array(k);
   const colNorm = new Float64Array(k);
   const grad = new Float64Array(k);

@@ -11,7 +11,11 @@
  * window scans, bootstrap refits, repeated fits of one table) therefore
  * reuse the arrays of the previous fit.
  *
- * Every array handed out is zero-filled, as a new one would be. The pool
+ * Arrays from `take` are zero-filled, as a new one would be; arrays from
+ * `scratch` are not (their contents are left from an earlier fit) and are
+ * only for buffers that are written in full before they are read (trial
+ * residuals and model values, Jacobians): clearing megabytes that are
+ * overwritten anyway is a pass over memory for nothing. The pool
  * holds arrays only weakly (a garbage collection may reclaim them between
  * jobs) and at most `POOL_LIMIT` doubles; small arrays are carved from
  * pooled chunks.
@@ -73,6 +77,14 @@ export class Workspace {
   /** A zero-filled array of `length` elements (a view of a pooled array, or a new one). */
   take(length: number): Float64Array {
     return this._take(length, true);
+  }
+
+  /**
+   * An array of `length` elements whose contents are undefined (left from
+   * an earlier fit): only for buffers written in full before any read.
+   */
+  scratch(length: number): Float64Array {
+    return this._take(length, false);
   }
 
   /** A copy of `source` in an array from the pool. */
