@@ -27,7 +27,7 @@
  *   NIST total, parsed expressions          ≤ 0.25 × curve_fit
  *   NIST accuracy: 54/54 fits with LRE ≥ 6 (values), ≥ 4 (σ), ≥ 6 (RSS) on each path.
  *
- * Args: --repeats N (default 5), --skip-reference, --max-n N, --json-part FILE,
+ * Args: --repeats N (default 10, `DEFAULT_REPEATS`; passed to the reference too), --skip-reference, --max-n N, --json-part FILE,
  *   --workload TEXT (only workloads whose name contains TEXT; 'nist' for NIST),
  *   --keep-reference DIR / --reuse-reference DIR (development only: a kept
  *   SciPy run instead of a new one; its ratios are then from two runs).
