@@ -9,6 +9,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { IFitModel } from '../../../src/core/fit/index';
+import { beanRodbellTransition } from '../../../src/core/physics/bean-rodbell';
+import { beanRodbellFitModel, beanRodbellStartModel } from '../../../src/core/physics/bean-rodbell-fit';
 import { powerLawModel } from '../../../src/core/physics/critical/index';
 import { curieWeissModel } from '../../../src/core/physics/curie-weiss';
 import { landauFitModel } from '../../../src/core/physics/landau/fit-model';
@@ -118,5 +120,61 @@ describe('analytic Jacobians of the fitted physics models', () => {
       // ΔC is defined for b > 0 only: the first-order case without that point
       checkJacobian(landauFitModel(kinds.slice(0, -1), Ts.slice(0, -1)), [...p], x.subarray(0, x.length - 1));
     }
+  });
+  // Points on both sides of the transition at Tc = T0·τc(η), none within
+  // 3 K of it: the steps (1e-6 of T0 and η) move Tc by far less than that.
+  // η < 1: continuous at T0 (derivatives in T0 and η diverge there); η > 1:
+  // first order, σ jumps at Tc > T0.
+  it.each([
+    [0.5, 0.4],
+    [0.5, 1.8],
+    [3.5, 0.7],
+    [3.5, 1.4],
+    [Infinity, 0.5],
+    [Infinity, 2.5]
+  ])('Bean–Rodbell M(T) (Ms, T0, η), J = %f, η = %f', (J, eta) => {
+    const T0 = 300;
+    const Tc = T0 * beanRodbellTransition(J, eta).tauC;
+    const T = Float64Array.from([...grid(40, Tc - 3, 50), ...grid(Tc + 3, 1.3 * Tc, 10)]);
+    const model = beanRodbellFitModel(J);
+    checkJacobian(model, [2.5, T0, eta], T);
+    // disordered points (σ = 0) have zero rows, ordered points none
+    const jac = new Float64Array(3 * T.length);
+    model.jacobian!(Float64Array.from([2.5, T0, eta]), T, jac);
+    for (let i = 0; i < T.length; i++) {
+      const row = Array.from(jac.subarray(3 * i, 3 * i + 3));
+      if (T[i] > Tc) {
+        expect(row).toEqual([0, 0, 0]);
+      } else {
+        expect(row.every(v => v !== 0 && Number.isFinite(v))).toBe(true);
+      }
+    }
+  });
+
+  it('Bean–Rodbell M(T): NaN values and Jacobian where T0 ≤ 0 or η < 0', () => {
+    const model = beanRodbellFitModel(0.5);
+    const T = grid(50, 400, 5);
+    for (const p of [
+      [2, 0, 0.5],
+      [2, 300, -0.1]
+    ]) {
+      const out = new Float64Array(5);
+      const jac = new Float64Array(15);
+      model.evaluateWithJacobian!(Float64Array.from(p), T, out, jac);
+      expect(Array.from(out).every(Number.isNaN)).toBe(true);
+      expect(Array.from(jac).every(Number.isNaN)).toBe(true);
+    }
+  });
+
+  it.each([
+    [0.5, 0.6],
+    [0.5, 1.8],
+    [3.5, 1.2],
+    [Infinity, 0.3]
+  ])('Bean–Rodbell start model T(M) (Ms, T0, η), J = %f, η = %f', (J, eta) => {
+    // ordered-branch magnetisations m = M/Ms from 0.04 to 0.98; x holds indices
+    const M = Array.from(grid(0.08, 1.96, 40));
+    const model = beanRodbellStartModel(J, M);
+    checkJacobian(model, [2, 300, eta], Float64Array.from(M, (_, i) => i));
   });
 });
