@@ -183,7 +183,7 @@ export async function runIsothermJobBench(): Promise<boolean> {
   }
 }
 
-const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /isotherm-job\.bench\.ts$/.test(process.argv[1]);
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /isotherm-job\.bench\.(ts|cjs)$/.test(process.argv[1]);
 if (isMain) {
   runIsothermJobBench().then(
     ok => {

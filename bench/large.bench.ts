@@ -160,7 +160,7 @@ export function runLargeBench(): ILargeBenchResult {
   };
 }
 
-const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /large\.bench\.ts$/.test(process.argv[1]);
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /large\.bench\.(ts|cjs)$/.test(process.argv[1]);
 if (isMain) {
   const result = runLargeBench();
   const at = process.argv.indexOf('--json-part');

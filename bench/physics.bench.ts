@@ -170,7 +170,7 @@ export function runPhysicsBench(): boolean | null {
   return ok;
 }
 
-const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /physics\.bench\.ts$/.test(process.argv[1]);
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /physics\.bench\.(ts|cjs)$/.test(process.argv[1]);
 if (isMain) {
   const ok = runPhysicsBench();
   process.exitCode = ok === false ? 1 : 0;

@@ -119,7 +119,7 @@ export function runSweepsBench(): boolean {
   return ok;
 }
 
-const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /sweeps\.bench\.ts$/.test(process.argv[1]);
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /sweeps\.bench\.(ts|cjs)$/.test(process.argv[1]);
 if (isMain) {
   process.exitCode = runSweepsBench() ? 0 : 1;
 }

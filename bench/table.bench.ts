@@ -113,7 +113,7 @@ export function runTableBench(): ITableBenchResult {
   return { ...base, meetsTargets: ok };
 }
 
-const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /table\.bench\.ts$/.test(process.argv[1]);
+const isMain = typeof process !== 'undefined' && process.argv[1] !== undefined && /table\.bench\.(ts|cjs)$/.test(process.argv[1]);
 if (isMain) {
   const result = runTableBench();
   const at = process.argv.indexOf('--json-part');
