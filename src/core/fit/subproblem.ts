@@ -9,6 +9,16 @@
  * 1/‖z(μ)‖, which is concave in μ so Newton from the left converges
  * monotonically).
  *
+ * The eigen-decomposition starts from the eigenvectors of the previous one
+ * over the same columns (`symmetricEigen` with a warm start; a cold start
+ * after 32 warm ones in a row), and when the previous model's λmin/λmax was
+ * near or below `normalEquationsMinRatio`, a pivoted Cholesky
+ * factorisation first tries to prove the SVD necessary, which skips the
+ * eigen-decomposition (`choleskyPivotRatio`: a pivot bounds λmin from
+ * above, so the test chooses the SVD only where the eigenvalues would, up
+ * to rounding at the threshold itself; on the NIST StRD fits it decides 97
+ * of the 101 SVD models and no other).
+ *
  * References (keys of REFERENCES.md): [N2] for the scaling and the
  * iteration for μ, [N5] for the decompositions (`dense.ts`).
  *
@@ -17,13 +27,45 @@
  * dropped as rank-deficient; the eigen-decomposition of JsᵀJs squares the
  * condition number and is used only when λmin/λmax ≥
  * `normalEquationsMinRatio` (or for many points, where statistical error
- * dwarfs it). μ is found to the accuracy the trust region needs
+ * dwarfs it). A warm start changes the model only by rounding: its basis
+ * departs from orthonormality by ≈ 2e-15 after 32 warm starts (measured,
+ * m ≤ 9). μ is found to the accuracy the trust region needs
  * (‖z(μ)‖ within 10 % of Δ), not to full precision.
  */
 import { FIT_DEFAULTS } from './defaults';
-import { symmetricEigen, tallSvd } from './dense';
+import { choleskyPivotRatio, MAX_SWEEPS, symmetricEigen, tallSvd } from './dense';
+import { allFinite } from './residualSums';
 import { normalKernel } from './unrolled';
 import type { Workspace } from './workspace';
+
+/** Smallest column count whose eigen-decomposition starts from the previous eigenvectors (m = 2 takes one rotation from cold). */
+const WARM_MIN_COLUMNS = 3;
+/**
+ * Consecutive warm starts before a cold one: each adds rounding of order ε
+ * to the basis's departure from orthonormality (a random walk: ≈ 2e-15
+ * after 32, measured for m ≤ 9), which the next decomposition inherits.
+ */
+const WARM_MAX_CHAIN = 32;
+/**
+ * The Cholesky test for an ill-conditioned normal matrix runs when the
+ * previous λmin/λmax for the same column count was below this multiple of
+ * `normalEquationsMinRatio` (or unknown); otherwise it would rarely decide.
+ */
+const PRETEST_MARGIN = 1e3;
+
+/** State kept between decompositions with the same column count m. */
+export interface ISpectralBasis {
+  /** Eigenvectors (columns, row-major m×m) of the last decomposition or SVD. */
+  vectors: Float64Array;
+  /** The columns they belong to. */
+  cols: number[];
+  /** `vectors` is orthonormal and may start the next decomposition over `cols`. */
+  valid: boolean;
+  /** Warm starts since the last cold decomposition or SVD. */
+  age: number;
+  /** λmin/λmax of the last model (NaN before the first). */
+  ratio: number;
+}
 
 /** Spectral form of the scaled Gauss–Newton model restricted to `cols`. */
 export interface ISpectralModel {
@@ -41,7 +83,9 @@ export interface ISpectralModel {
  * Work arrays of the spectral model for one fit (n points, k free
  * parameters), allocated once: the model for each column count m ≤ k is a
  * reused object, so an iteration allocates nothing. The model returned by
- * `spectralModel` stays valid until the next call with the same m.
+ * `spectralModel` stays valid until the next call with the same m. For
+ * each m it also keeps the last eigenvectors, the start of the next
+ * eigen-decomposition over the same columns.
  */
 export class SpectralWork {
   readonly n: number;
@@ -49,12 +93,12 @@ export class SpectralWork {
   private readonly _models: (ISpectralModel | undefined)[] = [];
   readonly normal: Float64Array;
   readonly values: Float64Array;
-  readonly vectors: Float64Array;
   readonly g: Float64Array;
   readonly order: number[] = [];
   readonly triangle: Float64Array;
   readonly s: Float64Array;
   readonly ub: Float64Array;
+  private readonly _bases: (ISpectralBasis | undefined)[] = [];
   private _js: Float64Array | null = null;
   private _rhs: Float64Array | null = null;
   private readonly _workspace: Workspace | null;
@@ -66,7 +110,6 @@ export class SpectralWork {
     this._workspace = workspace;
     this.normal = new Float64Array(k * k);
     this.values = new Float64Array(k);
-    this.vectors = new Float64Array(k * k);
     this.g = new Float64Array(k);
     this.triangle = new Float64Array(k * k);
     this.s = new Float64Array(k);
@@ -85,6 +128,16 @@ export class SpectralWork {
       model.cols[a] = cols[a];
     }
     return model;
+  }
+
+  /** The state kept between decompositions with m columns. */
+  basis(m: number): ISpectralBasis {
+    let basis = this._bases[m];
+    if (!basis) {
+      basis = { vectors: new Float64Array(m * m), cols: new Array<number>(m).fill(-1), valid: false, age: 0, ratio: Number.NaN };
+      this._bases[m] = basis;
+    }
+    return basis;
   }
 
   /** Column-major n×k scratch for the scaled Jacobian. */
@@ -106,10 +159,13 @@ export class SpectralWork {
  * Builds the spectral model from the weighted Jacobian `jac` (row-major n×k)
  * restricted to `cols`, scaled by `diag`, for residuals `r` whose unscaled
  * gradient Jᵀr is `grad` (length k).
- * The m×m normal matrix is formed in a tight loop and eigen-decomposed; when
- * `useSvd` and its eigenvalue ratio is below `normalEquationsMinRatio`
- * (ill-conditioned), the SVD of the n×m scaled Jacobian is used instead
- * (Householder QR, then Jacobi on the triangle).
+ * The m×m normal matrix is formed in a tight loop and eigen-decomposed
+ * (from the eigenvectors of the previous call with the same `cols` in
+ * `work`); when `useSvd` and its eigenvalue ratio is below
+ * `normalEquationsMinRatio` (ill-conditioned), the SVD of the n×m scaled
+ * Jacobian is used instead (Householder QR, then Jacobi on the triangle).
+ * When a Cholesky pivot of the normal matrix already proves that ratio,
+ * the eigen-decomposition is skipped.
  * `normalFull`, when given, is the unscaled k×k JᵀJ (symmetric, row-major)
  * already formed, and saves the pass over `jac`.
  */
@@ -142,18 +198,49 @@ export function spectralModel(
   for (let a = 0; a < m; a++) {
     g[a] = grad[cols[a]] / diag[cols[a]];
   }
+  // The eigenvectors of the previous decomposition over the same columns
+  // start this one.
+  const basis = work.basis(m);
+  let same = basis.valid;
+  for (let a = 0; a < m; a++) {
+    same &&= basis.cols[a] === cols[a];
+    basis.cols[a] = cols[a];
+  }
+  basis.valid = false;
+  const minRatio = FIT_DEFAULTS.normalEquationsMinRatio;
+  // A pivot of the Cholesky factorisation below minRatio·max diagonal proves
+  // λmin/λmax < minRatio: the SVD is then taken without the decomposition.
+  if (useSvd && !(basis.ratio >= PRETEST_MARGIN * minRatio) && choleskyPivotRatio(normal, m, minRatio, work.triangle) < minRatio) {
+    svdModel(jac, n, k, cols, diag, r, singularTolerance, work, model);
+    basis.vectors.set(v);
+    basis.valid = allFinite(v, m * m);
+    basis.age = 0;
+    basis.ratio = (work.s[m - 1] / work.s[0]) ** 2;
+    return model;
+  }
   const ev = work.values;
-  const vec = work.vectors;
-  symmetricEigen(normal, m, ev, vec);
+  const vec = basis.vectors;
+  const warm = same && m >= WARM_MIN_COLUMNS && basis.age < WARM_MAX_CHAIN;
+  const sweeps = symmetricEigen(normal, m, ev, vec, warm);
+  basis.age = warm ? basis.age + 1 : 0;
+  // Descending eigenvalues by insertion sort of the indices (stable, m is small).
   const order = work.order;
   order.length = m;
+  let finite = sweeps < MAX_SWEEPS;
   for (let a = 0; a < m; a++) {
-    order[a] = a;
+    const e = ev[a];
+    finite &&= Number.isFinite(e);
+    let b = a;
+    for (; b > 0 && ev[order[b - 1]] < e; b--) {
+      order[b] = order[b - 1];
+    }
+    order[b] = a;
   }
-  order.sort((p, q) => ev[q] - ev[p]);
+  basis.valid = finite;
   const lmax = Math.max(ev[order[0]], 0);
   const lmin = ev[order[m - 1]];
-  if (useSvd && !(lmin >= FIT_DEFAULTS.normalEquationsMinRatio * lmax)) {
+  basis.ratio = lmin / lmax;
+  if (useSvd && !(lmin >= minRatio * lmax)) {
     svdModel(jac, n, k, cols, diag, r, singularTolerance, work, model);
     return model;
   }
@@ -197,7 +284,9 @@ function svdModel(
     }
   }
   const rhs = work.rhs;
-  rhs.set(r.subarray(0, n));
+  for (let i = 0; i < n; i++) {
+    rhs[i] = r[i];
+  }
   const s = work.s;
   const ub = work.ub;
   tallSvd(js, n, m, rhs, s, v, ub, work.triangle);
