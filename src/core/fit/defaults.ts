@@ -27,8 +27,9 @@
  * | `warmStartSample` | 16384 | largest size of that subsample, and its size from `warmStartFullSampleRows` points on |
  * | `warmStartFullSampleRows` | 50000 | from this many points on the subsample has `warmStartSample` points (stride ⌊n / 16384⌋) |
  * | `warmStartErrorFraction` | 0.05 | a subsample stage stops (rule 1b at any size, forward differences allowed) once its next step would move the parameters by less than this fraction of the subsample's standard errors: its answer is only a start, about √stride full-data standard errors from the full-data minimum |
- * | `warmStartMinSample` | 250 | smallest size of that subsample |
- * | `warmStartSampleFactor` | 10 | below `warmStartFullSampleRows` points: subsample size ≈ factor·√n, at least `warmStartMinSample` (stride ⌊n / size⌋) |
+ * | `warmStartMinSample` | 100 | smallest size of that subsample |
+ * | `warmStartSampleFactor` | 10 | below `warmStartFullSampleRows` points: subsample size ≈ factor·√n (stride ⌊n / size⌋) when that is at least `warmStartRows` points (the subsample stage then has a subsample of its own) |
+ * | `warmStartInnerFactor` | 5 | otherwise (the innermost stage, which runs from the user's start): ≈ factor·√n points, at least `warmStartMinSample` |
  * | `refineNoiseFraction` | 1e-9 | a converged fit whose χ² rounding noise exceeds this fraction of χ² is polished with double-double residuals when the model has `evaluatePrecise` (`refine.ts`) |
  * | `refineMaxSteps` | 8 | Gauss–Newton steps of that refinement at most |
  * | `geodesicAcceleration` | true | while damped (μ > 0), add ½a, the geodesic acceleration (one extra evaluation), to the step |
@@ -93,9 +94,10 @@ export const FIT_DEFAULTS = Object.freeze({
   warmStartRows: 1000,
   warmStartSample: 16384,
   warmStartFullSampleRows: 50000,
-  warmStartMinSample: 250,
+  warmStartMinSample: 100,
   warmStartErrorFraction: 0.05,
   warmStartSampleFactor: 10,
+  warmStartInnerFactor: 5,
   refineNoiseFraction: 1e-9,
   refineMaxSteps: 8,
   geodesicAcceleration: true,

@@ -39,15 +39,24 @@ export interface IWarmStartInfo {
  * Points of the subsample for a problem of n points: `warmStartSample`
  * from `warmStartFullSampleRows` points on (the continuation then starts
  * within a few standard errors of the full-data minimum), otherwise about
- * `warmStartSampleFactor`·√n, at least `warmStartMinSample` (the
- * subsample's own minimum then lies about (n/m)^½ standard errors away, and
- * its iterations cost a small part of one full-data pass each).
+ * `warmStartSampleFactor`·√n (the subsample's own minimum then lies about
+ * (n/m)^½ standard errors away, and its iterations cost a small part of
+ * one full-data pass each). A subsample below `warmStartRows` points has
+ * no subsample of its own: it is the innermost stage, which runs from the
+ * user's start and takes most of the iterations, so it is smaller, about
+ * `warmStartInnerFactor`·√n points, at least `warmStartMinSample` (the
+ * next stage then starts about √stride ≈ 2.5 of its standard errors away,
+ * as the full data do from `warmStartFullSampleRows` points on).
  */
 export function warmStartSampleSize(n: number): number {
   if (n >= FIT_DEFAULTS.warmStartFullSampleRows) {
     return FIT_DEFAULTS.warmStartSample;
   }
-  return Math.min(FIT_DEFAULTS.warmStartSample, Math.max(FIT_DEFAULTS.warmStartMinSample, Math.ceil(FIT_DEFAULTS.warmStartSampleFactor * Math.sqrt(n))));
+  const m = Math.min(FIT_DEFAULTS.warmStartSample, Math.ceil(FIT_DEFAULTS.warmStartSampleFactor * Math.sqrt(n)));
+  if (m >= FIT_DEFAULTS.warmStartRows) {
+    return m;
+  }
+  return Math.max(FIT_DEFAULTS.warmStartMinSample, Math.ceil(FIT_DEFAULTS.warmStartInnerFactor * Math.sqrt(n)));
 }
 
 /** Stride for n points of a pointwise model, or 0 when no warm start applies. */

@@ -90,11 +90,14 @@ describe('warm start from a strided subsample', () => {
 });
 
 describe('subsample size', () => {
-  it('grows like 10·√n from its smallest size, is warmStartSample from warmStartFullSampleRows points on, and applies from warmStartRows points on', () => {
+  it('grows like 10·√n while it has a subsample of its own, like 5·√n (at least warmStartMinSample) for the innermost stage, is warmStartSample from warmStartFullSampleRows points on, and applies from warmStartRows points on', () => {
     expect(warmStartStrideFor(FIT_DEFAULTS.warmStartRows - 1, true)).toBe(0);
     expect(warmStartStrideFor(1e6, false)).toBe(0);
-    expect(warmStartSampleSize(400)).toBe(FIT_DEFAULTS.warmStartMinSample);
-    expect(warmStartSampleSize(1000)).toBe(317);
+    expect(warmStartSampleSize(300)).toBe(FIT_DEFAULTS.warmStartMinSample);
+    // 10·√1000 = 317 points would have no subsample of their own: the innermost size 5·√1000
+    expect(warmStartSampleSize(1000)).toBe(159);
+    expect(warmStartStrideFor(1000, true)).toBe(6);
+    expect(warmStartSampleSize(9800)).toBe(495);
     expect(warmStartSampleSize(1e4)).toBe(1000);
     expect(warmStartSampleSize(1e9)).toBe(FIT_DEFAULTS.warmStartSample);
     expect(warmStartStrideFor(1e4, true)).toBe(10);
