@@ -7,8 +7,9 @@
  * packages left as imports), the form in which the lab ships the same code
  * (one bundle per chunk), and run with node. Run through `tsx` instead, every
  * module is transformed and loaded on its own, and the hot loops of the fit
- * engine measured 20–30 % slower than in the bundle. A bench that reads
- * `import.meta` is run with `tsx` as before. Each file's `__dirname` is kept
+ * engine measured 20–30 % slower than in the bundle. A bench that bundles a
+ * file reading `import.meta` (the browser benches, through the demo lab's
+ * build script) is run with `tsx` as before. Each file's `__dirname` is kept
  * (replaced by its own folder at bundle time).
  *
  *   npm run bench [-- --json FILE] [--only NAME] [other args passed to each bench]
@@ -55,29 +56,39 @@ const partsDir = mkdtempSync(path.join(tmpdir(), 'psiscape-bench-'));
 // Inside the repository, so that the bundles find node_modules.
 const bundleDir = path.join(repoRoot, '.bench', 'bundled');
 
-/** `__dirname` in each source file becomes that file's own folder (a bundle has one `__dirname`). */
-const keepDirname = {
-  name: 'keep-dirname',
-  setup(build) {
-    build.onLoad({ filter: /\.[cm]?ts$/ }, (args) => {
-      const source = readFileSync(args.path, 'utf8');
-      if (!source.includes('__dirname')) {
-        return undefined;
-      }
-      return { contents: source.replace(/\b__dirname\b/g, JSON.stringify(path.dirname(args.path))), loader: 'ts' };
-    });
-  }
-};
+/**
+ * `__dirname` in each source file becomes that file's own folder (a bundle
+ * has one `__dirname`); `state.importMeta` records whether any bundled file
+ * of the repository reads `import.meta` (which a CommonJS bundle cannot keep).
+ */
+function repositoryFiles(state) {
+  return {
+    name: 'repository-files',
+    setup(build) {
+      build.onLoad({ filter: /\.[cm]?[jt]s$/ }, (args) => {
+        if (args.path.includes(`${path.sep}node_modules${path.sep}`)) {
+          return undefined;
+        }
+        const source = readFileSync(args.path, 'utf8');
+        if (source.includes('import.meta')) {
+          state.importMeta = true;
+        }
+        if (!/\.[cm]?ts$/.test(args.path) || !source.includes('__dirname')) {
+          return undefined;
+        }
+        return { contents: source.replace(/\b__dirname\b/g, JSON.stringify(path.dirname(args.path))), loader: 'ts' };
+      });
+    }
+  };
+}
 
-/** The command that runs one bench: node on its bundle, or tsx when it reads import.meta. */
+/** The command that runs one bench: node on its bundle, or tsx when a file it bundles reads import.meta. */
 async function benchCommand(file) {
   const source = path.join(benchDir, file);
-  if (readFileSync(source, 'utf8').includes('import.meta')) {
-    return ['npx', ['tsx', source]];
-  }
   const { build } = await import('esbuild');
   mkdirSync(bundleDir, { recursive: true });
   const out = path.join(bundleDir, file.replace(/\.ts$/, '.cjs'));
+  const state = { importMeta: false };
   await build({
     entryPoints: [source],
     outfile: out,
@@ -87,9 +98,12 @@ async function benchCommand(file) {
     target: 'node20',
     packages: 'external',
     sourcemap: 'inline',
-    logLevel: 'warning',
-    plugins: [keepDirname]
+    logLevel: 'error',
+    plugins: [repositoryFiles(state)]
   });
+  if (state.importMeta) {
+    return ['npx', ['tsx', source]];
+  }
   return [process.execPath, ['--enable-source-maps', out]];
 }
 
@@ -98,9 +112,9 @@ let failures = 0;
 for (const file of files) {
   const name = file.replace(/\.bench\.ts$/, '');
   const part = path.join(partsDir, `${name}.json`);
-  console.log(`\n=== bench/${file} ===`);
   const extra = jsonFile ? ['--json-part', part] : [];
   const [command, commandArgs] = await benchCommand(file);
+  console.log(`\n=== bench/${file} (${command === 'npx' ? 'tsx' : 'bundled'}) ===`);
   const run = spawnSync(command, [...commandArgs, ...passThrough, ...extra], {
     cwd: repoRoot,
     stdio: 'inherit'
