@@ -3,7 +3,8 @@
  * M(B, T) isotherms (Ms, Tc, moment), built on the shared least-squares
  * engine. The M(T) model has an analytic Jacobian from implicit
  * differentiation of m = B_J((k m + h)/τ):
- *   ∂m/∂τ = −B′ x /(τ − k B′),   ∂m/∂h = B′/(τ − k B′).
+ *   ∂m/∂τ = −B′ x /(τ − k B′),   ∂m/∂h = B′/(τ − k B′),
+ * and in u = 1/J when the spin is free (`inverseSpinSlope`).
  */
 import { fitCurve } from '../fit/index';
 import type { IFitModel, IFitOptions, IFitResult } from '../fit/index';
@@ -11,6 +12,7 @@ import { msg } from '../messages';
 import type { ICoreMessage } from '../messages';
 import { wholeNumber } from '../numeric/messageArgs';
 import { PHYS } from '../units/constants';
+import { brillouinCoupledInverseSpinDerivative, brillouinInverseSpinDerivative, brillouinTangentIntercept } from './brillouin';
 import { lengthsDiffer, PhysicsInputError, pointNotFinite, requireSpin, temperatureNotPositive, tooFewPoints } from './errors';
 import { solveWeiss } from './weiss';
 
@@ -146,6 +148,31 @@ export function spinFromInverse(u: number): number {
 }
 
 /**
+ * ∂m/∂u (u = 1/J) of the Weiss solution m = B(x; u), x = (k m + h)/τ,
+ * k = 3/(1 + u), at fixed τ and h. Implicit function theorem on
+ * F(m, u) = m − B(x; u): ∂m/∂u = −F_u/F_m = (τ ∂B/∂u + B′ k′ m)/(τ − k B′),
+ * k′ = −3/(1 + u)². With τ = (k m + h)/x and m = B this becomes
+ *   ∂m/∂u = (k m N + h ∂B/∂u)/(k Q + h),  N = ∂B/∂u − x B′/(1 + u),  Q = B − x B′,
+ * (m N/Q at h = 0): near Tc both terms of the numerator and of the
+ * denominator above cancel to O(m³), while N and Q (brillouin.ts) come
+ * from their Taylor series there. m = 0 at h = 0 (τ ≥ 1, also τ = 1 where
+ * F_m = 0) gives 0, as ∂m/∂τ does; a denominator ≤ 0 gives NaN.
+ */
+function inverseSpinSlope(u: number, k: number, m: number, tau: number, h: number): number {
+  if (m === 0 && h === 0) {
+    return 0;
+  }
+  const s = h < 0 ? -1 : 1;
+  const ma = s * m;
+  const ha = s * h;
+  const x = (k * ma + ha) / tau;
+  const N = brillouinCoupledInverseSpinDerivative(u, x);
+  const den = k * brillouinTangentIntercept(u, x) + ha;
+  const num = ha === 0 ? k * ma * N : k * ma * N + ha * brillouinInverseSpinDerivative(u, x);
+  return den > 0 ? (s * num) / den : NaN;
+}
+
+/**
  * The M(T) model as an engine model: parameters Ms, Tc, and J when `fitJ` is
  * true, or u = 1/J (named '1/J') when `fitJ` is 'inverse'.
  */
@@ -200,8 +227,8 @@ export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 
     }
   };
   /**
-   * ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂J (or ∂M/∂u) by
-   * central differences of the solution (forward from u = 0, where J = ∞).
+   * ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂u = Ms ∂m/∂u
+   * analytic (`inverseSpinSlope`); ∂M/∂J by central differences of the solution.
    */
   function jacobianInto(p: Float64Array, x: Float64Array, out: Float64Array): void {
     const Ms = p[0];
@@ -214,13 +241,19 @@ export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 
       out[i * k] = s.m[i];
       out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
     }
-    if (fitJ !== false) {
-      const dJ = inverse ? 1e-6 : 1e-6 * Math.max(1, p[2]);
+    if (inverse) {
+      const u = p[2];
+      const kc = 3 / (1 + u);
+      for (let i = 0; i < x.length; i++) {
+        // below u = 0 the model stays at J = ∞ (spinFromInverse); at u = 0 this is the one-sided slope
+        out[i * k + 2] = u < 0 ? 0 : Ms * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h);
+      }
+    } else if (fitJ !== false) {
+      const dJ = 1e-6 * Math.max(1, p[2]);
       const pp = Float64Array.from(p);
       pp[2] = p[2] + dJ;
       const up = reduced(pp, x).m.slice();
-      // one-sided at the lower bound u = 0 (no spin beyond ∞)
-      const below = inverse && p[2] - dJ < 0 ? p[2] : p[2] - dJ;
+      const below = p[2] - dJ;
       pp[2] = below;
       const dn = reduced(pp, x).m;
       for (let i = 0; i < x.length; i++) {

@@ -16,7 +16,12 @@ import { curieWeissModel } from '../../../src/core/physics/curie-weiss';
 import { landauFitModel } from '../../../src/core/physics/landau/fit-model';
 import { weissIsothermModel, weissMTModel } from '../../../src/core/physics/weiss-fit';
 
-function checkJacobian(model: IFitModel, p: number[], x: Float64Array, tol = 1e-6): void {
+/**
+ * `forward` lists columns checked with the one-sided difference (−3f(p) + 4f(p + h) − f(p + 2h))/(2h),
+ * h = 1e-6·max(|p|, 1), error O(h²): for a parameter at a bound beyond which the model is flat
+ * (u = 1/J at 0, the classical limit).
+ */
+function checkJacobian(model: IFitModel, p: number[], x: Float64Array, tol = 1e-6, forward: number[] = []): void {
   const n = x.length;
   const k = p.length;
   const pp = Float64Array.from(p);
@@ -25,19 +30,24 @@ function checkJacobian(model: IFitModel, p: number[], x: Float64Array, tol = 1e-
   const up = new Float64Array(n);
   const dn = new Float64Array(n);
   for (let j = 0; j < k; j++) {
-    const h = 1e-6 * Math.max(Math.abs(p[j]), 1e-3);
+    const oneSided = forward.includes(j);
+    const h = 1e-6 * Math.max(Math.abs(p[j]), oneSided ? 1 : 1e-3);
     const q = Float64Array.from(p);
     q[j] = p[j] + h;
     model.evaluate(q, x, up);
-    q[j] = p[j] - h;
+    q[j] = oneSided ? p[j] + 2 * h : p[j] - h;
     model.evaluate(q, x, dn);
+    const at = new Float64Array(n);
+    if (oneSided) {
+      model.evaluate(pp, x, at);
+    }
     let scale = 0;
     for (let i = 0; i < n; i++) {
       scale = Math.max(scale, Math.abs(jac[i * k + j]));
     }
     expect(scale).toBeGreaterThan(0);
     for (let i = 0; i < n; i++) {
-      const fd = (up[i] - dn[i]) / (2 * h);
+      const fd = oneSided ? (-3 * at[i] + 4 * up[i] - dn[i]) / (2 * h) : (up[i] - dn[i]) / (2 * h);
       expect(Math.abs(jac[i * k + j] - fd)).toBeLessThanOrEqual(tol * scale);
     }
   }
@@ -76,6 +86,40 @@ describe('analytic Jacobians of the fitted physics models', () => {
     // points below Tc = 630 and above it, not within 2 K of it
     const T = Float64Array.from([...grid(30, 620, 150), ...grid(640, 700, 30)]);
     checkJacobian(weissMTModel(J, false, field, moment), [1.5, 630], T, 1e-5);
+  });
+
+  it.each([
+    [0, 0, 0],
+    [0.3, 0, 0],
+    [1, 0, 0],
+    [2, 0, 0],
+    [0.3, 2, 7]
+  ])('Weiss M(T) with the spin free as u = 1/J = %f, field %f T, moment %f μB', (u, field, moment) => {
+    // points below Tc = 630 and above it, not within 2 K of it; u = 0 (J = ∞) is the lower
+    // bound, beyond which the model stays at J = ∞: one-sided differences in u there
+    const T = Float64Array.from([...grid(30, 620, 150), ...grid(640, 700, 30)]);
+    const model = weissMTModel(1, 'inverse', field, moment);
+    const p = [1.5, 630, u];
+    checkJacobian(model, p, T, 1e-5, u === 0 ? [2] : []);
+    // the u column is analytic: zero above Tc in zero field and at Tc itself (F_m = 0 there)
+    const Ts = Float64Array.from([...T, 630]);
+    const jac = new Float64Array(3 * Ts.length);
+    const out = new Float64Array(Ts.length);
+    model.evaluateWithJacobian!(Float64Array.from(p), Ts, out, jac);
+    for (let i = 0; i < Ts.length; i++) {
+      const du = jac[3 * i + 2];
+      expect(Number.isFinite(du)).toBe(true);
+      if (field === 0 && Ts[i] >= 630) {
+        expect(du).toBe(0);
+      } else {
+        expect(du).not.toBe(0);
+      }
+      // at u = 0 in zero field ∂m/∂u = m/2 exactly (B ≈ a L(a x), a = 1 + u/2, to first order in u):
+      // the u column is Ms·m/2, parallel to the Ms column
+      if (u === 0 && field === 0) {
+        expect(Math.abs(du - out[i] / 2)).toBeLessThanOrEqual(1e-12 * Math.abs(out[i]));
+      }
+    }
   });
 
   it('Weiss M(B, T) isotherms (Ms, Tc, moment)', () => {

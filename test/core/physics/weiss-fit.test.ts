@@ -69,6 +69,21 @@ describe('Weiss M(T) fits', () => {
     expect(r.J).toBe(r.values[2]);
   });
 
+  it('fits the spin as u = 1/J (analytic u column) and recovers J = 7/2 with sigma given', () => {
+    const T = grid(20, 400, 150);
+    const m = weissMagnetisation(3.5, T.map(t => t / 300));
+    const g = normal(5);
+    const M = T.map((_, i) => 2 * m[i] + 0.002 * g());
+    const sigma = T.map(() => 0.002);
+    const r = fitWeissMT({ T, M, sigma }, { J: 1, fitInverseJ: true, start: [1.8, 280] });
+    expect(r.converged).toBe(true);
+    expect(r.parameters).toEqual(['Ms', 'Tc', '1/J']);
+    expect(Math.abs(r.values[2] - 1 / 3.5)).toBeLessThan(3 * r.standardErrors[2]);
+    expect(Math.abs(r.values[1] - 300)).toBeLessThan(3 * r.standardErrors[1]);
+    expect(Math.abs(r.values[0] - 2)).toBeLessThan(3 * r.standardErrors[0]);
+    expect(r.J).toBe(1 / r.values[2]);
+  });
+
   it('fits M(T) measured in a constant applied field (field tail above Tc)', () => {
     const mu = 7; // g J in Bohr magnetons
     const B = 1; // tesla
