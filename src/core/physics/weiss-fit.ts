@@ -228,7 +228,7 @@ export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 
   };
   /**
    * ∂M/∂Ms = m, ∂M/∂Tc from the implicit derivatives; ∂M/∂u = Ms ∂m/∂u
-   * analytic (`inverseSpinSlope`); ∂M/∂J by central differences of the solution.
+   * analytic (`inverseSpinSlope`); ∂M/∂J = −∂M/∂u / J² from it.
    */
   function jacobianInto(p: Float64Array, x: Float64Array, out: Float64Array): void {
     const Ms = p[0];
@@ -249,18 +249,12 @@ export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 
         out[i * k + 2] = u < 0 ? 0 : Ms * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h);
       }
     } else if (fitJ !== false) {
-      const dJ = 1e-6 * Math.max(1, p[2]);
-      const pp = Float64Array.from(p);
-      pp[2] = p[2] + dJ;
-      const up = reduced(pp, x).m.slice();
-      const below = p[2] - dJ;
-      pp[2] = below;
-      const dn = reduced(pp, x).m;
+      // J itself: ∂m/∂J = −u²·∂m/∂u with u = 1/J (chain rule on the 1/J column)
+      const u = 1 / p[2];
+      const kc = 3 / (1 + u);
       for (let i = 0; i < x.length; i++) {
-        out[i * k + 2] = (Ms * (up[i] - dn[i])) / (p[2] + dJ - below);
+        out[i * k + 2] = p[2] > 0 ? -u * u * Ms * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h) : Number.NaN;
       }
-      // leave the cache at p
-      reduced(p, x);
     }
   }
 }

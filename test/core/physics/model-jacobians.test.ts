@@ -122,6 +122,16 @@ describe('analytic Jacobians of the fitted physics models', () => {
     }
   });
 
+  it.each([
+    [0.5, 0, 0],
+    [3.5, 0, 0],
+    [2, 2, 7]
+  ])('Weiss M(T) with the spin J = %f itself free, field %f T, moment %f μB', (J, field, moment) => {
+    // the J column is the 1/J column times −1/J² (chain rule); points not within 2 K of Tc
+    const T = Float64Array.from([...grid(30, 620, 150), ...grid(640, 700, 30)]);
+    checkJacobian(weissMTModel(J, true, field, moment), [1.5, 630, J], T, 1e-5);
+  });
+
   it('Weiss M(B, T) isotherms (Ms, Tc, moment)', () => {
     const T: number[] = [];
     const B: number[] = [];
