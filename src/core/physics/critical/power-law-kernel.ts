@@ -123,6 +123,17 @@ function block(
   }
   const y0 = L.iBg >= 0 ? p[L.iBg] : 0;
   const aW = L.iW >= 0 ? p[L.iW] : 0;
+  // The plain law A·s|u|^e (no correction term, no background, three
+  // parameters), the common case: its own loops, with nothing to mask or add.
+  const plain = !wegner && L.iBg < 0 && L.k === 3;
+  if (jac === null && plain) {
+    for (let i = 0; i < m; i++) {
+      const u = (Tc - x[b + i]) * invTc;
+      const pe = expInline(e * logU[i], pow2, twoJ);
+      out[b + i] = u > 0 ? A * pe : signed && u < 0 ? A * -pe : 0;
+    }
+    return;
+  }
   if (jac === null) {
     for (let i = 0; i < m; i++) {
       const u = (Tc - x[b + i]) * invTc;
@@ -136,7 +147,35 @@ function block(
   }
   const k = L.k;
   const pw = L.proxyPower;
+  const iBg = L.iBg;
+  const iW = L.iW;
   const c1 = A * invTc * invTc;
+  const aWwd = wegner ? aW * (wd as number) : 0;
+  if (plain) {
+    // the values of the general loop below with y0 = aW = 0 (the same operations), its Jacobian to rounding
+    const Apw = A * pw;
+    const c1e = c1 * e;
+    for (let i = 0; i < m; i++) {
+      const xi = x[b + i];
+      const u = (Tc - xi) * invTc;
+      const row = (b + i) * 3;
+      if (!(u > 0 || (signed && u < 0))) {
+        jac[row] = 0;
+        jac[row + 1] = 0;
+        jac[row + 2] = 0;
+        out[b + i] = 0;
+        continue;
+      }
+      const lu = logU[i];
+      const pe = expInline(e * lu, pow2, twoJ);
+      const sp = u > 0 ? pe : -pe;
+      out[b + i] = A * sp;
+      jac[row] = sp;
+      jac[row + 1] = (c1e * xi * pe) / (u > 0 ? u : -u);
+      jac[row + 2] = Apw * sp * lu;
+    }
+    return;
+  }
   for (let i = 0; i < m; i++) {
     const xi = x[b + i];
     const u = (Tc - xi) * invTc;
@@ -145,8 +184,8 @@ function block(
       for (let j = 0; j < k; j++) {
         jac[row + j] = 0;
       }
-      if (L.iBg >= 0) {
-        jac[row + L.iBg] = 1;
+      if (iBg >= 0) {
+        jac[row + iBg] = 1;
       }
       out[b + i] = y0;
       continue;
@@ -160,13 +199,13 @@ function block(
     out[b + i] = A * base + y0;
     jac[row] = base;
     // ∂/∂Tc: d|u|/dTc = s·T/Tc², d/d|u| of A s |u|^e corr = A s (e|u|^(e−1) corr + |u|^e aW Δ |u|^(Δ−1))
-    jac[row + 1] = (c1 * xi * pe * (e * corr + (wegner ? aW * (wd as number) * pd : 0))) / au;
+    jac[row + 1] = (c1 * xi * pe * (e * corr + aWwd * pd)) / au;
     jac[row + 2] = A * base * logU[i] * pw;
-    if (L.iBg >= 0) {
-      jac[row + L.iBg] = 1;
+    if (iBg >= 0) {
+      jac[row + iBg] = 1;
     }
-    if (L.iW >= 0) {
-      jac[row + L.iW] = A * sp * pd;
+    if (iW >= 0) {
+      jac[row + iW] = A * sp * pd;
     }
   }
 }
