@@ -17,7 +17,11 @@
  *
  * Timing: like the reference (best of N wall times of the library call
  * alone), after untimed warm-up runs so that V8 has compiled the hot code
- * (`warmUp`); the same N as the reference's repeats.
+ * (`warmUp`); the same N as the reference's repeats. NIST: in N rounds
+ * through all fits. Synthetic: in three sweeps through all fits, each with
+ * about N/3 back-to-back runs of a fit after one untimed run of it; a slow
+ * spell of the shared machine then has to last through every sweep to
+ * slow a fit's best time.
  *
  * Targets (ratio psiscape / fastest SciPy method of the same run):
  *   synthetic, analytic Jacobian            ≤ 0.5 at every n
@@ -141,14 +145,17 @@ function sha256(a: Float64Array): string {
   return createHash('sha256').update(Buffer.from(a.buffer, a.byteOffset, a.byteLength)).digest('hex');
 }
 
+/** Sweeps through all synthetic fits that share their N timed runs. */
+const SWEEPS = 3;
+
 function runSynthetic(ref: IReferenceDoc | null, dumpDir: string | null): ISyntheticRow[] {
-  const rows: ISyntheticRow[] = [];
   const specs = [
     { workload: 'critical_power_law', sizes: [100, 1000, 10000, 100000, 1000000], start: [0.8, 310, 0.5], fd: powerLaw, an: powerLawAnalytic },
     // with the stopping tolerances `fitWeissMT` uses (the model's kink at Tc)
     { workload: 'weiss_mean_field_spin_half', sizes: [100, 1000, 10000], start: [1, 500], fd: weiss, an: weissAnalytic, options: WEISS_TOLERANCES },
     { workload: 'curie_weiss', sizes: [1000, 100000], start: [1, 0, 0], fd: curieWeiss, an: curieWeissAnalytic }
   ].filter((w) => !args.only || w.workload.includes(args.only));
+  const prepared: { row: ISyntheticRow; run: () => IFitResult }[] = [];
   for (const spec of specs) {
     for (const n of spec.sizes) {
       if (args.maxN && n > args.maxN) {
@@ -171,24 +178,40 @@ function runSynthetic(ref: IReferenceDoc | null, dumpDir: string | null): ISynth
         const run = (): IFitResult => fitCurve(model, { x: T, y }, { ...('options' in spec ? spec.options : {}), start: spec.start });
         const r = run();
         warmUp(run);
-        const t = bestOf(args.repeats, run);
-        rows.push({
-          workload: spec.workload,
-          n,
-          jacobian,
-          dataSource: 'reference dump (SHA-256 verified)',
-          converged: r.converged,
-          values: r.values,
-          standardErrors: r.standardErrors,
-          evaluations: r.evaluations,
-          jacobianEvaluations: r.jacobianEvaluations,
-          subsampleEvaluations: r.warmStart ? r.warmStart.evaluations : 0,
-          timeBestS: t
+        prepared.push({
+          run,
+          row: {
+            workload: spec.workload,
+            n,
+            jacobian,
+            dataSource: 'reference dump (SHA-256 verified)',
+            converged: r.converged,
+            values: r.values,
+            standardErrors: r.standardErrors,
+            evaluations: r.evaluations,
+            jacobianEvaluations: r.jacobianEvaluations,
+            subsampleEvaluations: r.warmStart ? r.warmStart.evaluations : 0,
+            timeBestS: Infinity
+          }
         });
       }
     }
   }
-  return rows;
+  // The reference's N timed runs, taken in `SWEEPS` sweeps through all fits
+  // (about N/SWEEPS back-to-back runs of a fit per sweep, after one untimed
+  // run that brings its arrays back into the processor cache and the work
+  // pool): a slow spell of the shared machine, which here lasts tens of
+  // milliseconds, then has to cover a fit's runs in every sweep to slow its
+  // best time.
+  const sweeps = Math.min(SWEEPS, args.repeats);
+  for (let sweep = 0; sweep < sweeps; sweep++) {
+    const runs = Math.floor(args.repeats / sweeps) + (sweep < args.repeats % sweeps ? 1 : 0);
+    for (const q of prepared) {
+      q.run();
+      q.row.timeBestS = Math.min(q.row.timeBestS, bestOf(runs, q.run));
+    }
+  }
+  return prepared.map((q) => q.row);
 }
 
 function refNistTime(ref: IReferenceDoc | null, name: string, start: number, method: string): number | null {
