@@ -278,13 +278,43 @@ function loadReference(): { ref: IReferenceDoc | null; dumpDir: string | null; t
   return { ref, dumpDir, temporary: keep === null };
 }
 
+/**
+ * Milliseconds of a fixed piece of floating-point work (best of 5): the
+ * machine's speed at one moment. Taken before the SciPy run, between the
+ * two parts and after psiscape's fits, it shows whether the shared machine
+ * slowed down under one side only (the ratios then mislead).
+ */
+function machineSpeed(): number {
+  let best = Infinity;
+  let sink = 0;
+  for (let r = 0; r < 5; r++) {
+    const t0 = process.hrtime.bigint();
+    let acc = 0;
+    for (let i = 1; i < 2_000_000; i++) {
+      acc += Math.exp(-i * 1e-6) * Math.log(i);
+    }
+    sink += acc;
+    best = Math.min(best, Number(process.hrtime.bigint() - t0) / 1e6);
+  }
+  return sink === 0 ? Number.NaN : best;
+}
+
 function main(): void {
+  const speedBefore = machineSpeed();
   const { ref, dumpDir, temporary } = loadReference();
   const verdicts: IVerdict[] = [];
   try {
+    const speedBetween = machineSpeed();
     const wantNist = !args.only || 'nist'.includes(args.only);
     const nist = wantNist ? runNist() : [];
     const synthetic = runSynthetic(ref, dumpDir);
+    const speedAfter = machineSpeed();
+    const speeds = [speedBefore, speedBetween, speedAfter];
+    const spread = Math.max(speedBefore, speedBetween, speedAfter) / Math.min(speedBefore, speedBetween, speedAfter);
+    console.log(
+      `\nmachine speed check (fixed work, ms; before SciPy / before psiscape / after): ${speeds.map((v) => v.toFixed(1)).join(' / ')}` +
+        (spread > 1.15 ? ` — differs by ${((spread - 1) * 100).toFixed(0)} %: the machine's speed changed during the run, so the ratios below mislead; run again` : ' (steady)')
+    );
     if (nist.length > 0) {
       console.log('\nNIST StRD (hand = hand-written model, finite differences; expr = parsed model text, symbolic Jacobian)');
       console.log('dataset   st via  | cv LREp LREsd LRErss evals       ms | curve_fit ms  ratio | least_sq ms  ratio');
