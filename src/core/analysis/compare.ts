@@ -220,7 +220,8 @@ export function compareModels(job: IAnalysisJob, hooks: ITaskHooks = {}): IModel
       if (stop()) {
         return null;
       }
-      const k = freeCount(out.fit.fixed);
+      // A fitted spin held at the classical limit (`fitWeissMT`) was still searched: it counts.
+      const k = cand.kind === 'weiss' && cand.options.freeJ === true ? out.fit.parameters.length : freeCount(out.fit.fixed);
       const r = windowResiduals(out, pts.x, pts.y);
       const values: Record<string, IValueSigma> = {};
       for (const d of out.derived) {

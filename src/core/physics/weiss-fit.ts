@@ -315,7 +315,40 @@ export function fitWeissMT(
       );
     }
   }
-  const res = fitCurve(model, { x: Float64Array.from(data.T), y: data.M, sigma: data.sigma }, { ...WEISS_TOLERANCES, lower, upper, ...options.engine, start });
+  const fitData = { x: Float64Array.from(data.T), y: data.M, sigma: data.sigma };
+  let res = fitCurve(model, fitData, { ...WEISS_TOLERANCES, lower, upper, ...options.engine, start });
+  if (mode === 'inverse' && Number.isFinite(res.chi2) && res.values[2] >= 0 && !(res.values[2] > 3 * res.standardErrors[2])) {
+    // 1/J near 0: at 1/J = 0 the curve depends on Ms and 1/J only through Ms·(1 + 1/(2J)) to
+    // first order (∂m/∂(1/J) = m/2), so the two move together, χ² is nearly flat along 1/J and
+    // the standard errors (a local, Gaussian approximation) do not describe it. The profile of χ²
+    // decides instead: when holding 1/J at 0 raises χ² by at most one unit of the fit's variance
+    // (χ²/dof, or 1 with σ given), J = ∞ lies within the one-standard-error interval and Ms
+    // and Tc are given with 1/J held at 0.
+    const free = { value: res.values[2], sigma: res.standardErrors[2] };
+    const held = fitCurve(model, fitData, {
+      ...WEISS_TOLERANCES,
+      lower,
+      upper,
+      ...options.engine,
+      start: [res.values[0], res.values[1], 0],
+      fixed: [false, false, true]
+    });
+    const unit = data.sigma !== undefined ? 1 : res.reducedChi2;
+    if (held.converged && held.chi2 - res.chi2 <= unit) {
+      res = {
+        ...held,
+        notes: [
+          ...held.notes,
+          msg(
+            'physics.weiss.classical-held',
+            'With the spin free, 1/J went to %1 (standard error %2), and holding it at 0, the classical limit J = ∞, raises χ² by less than one unit of its variance: the data do not tell J from ∞, where Ms and 1/J cannot be told apart, so Ms and Tc are given with 1/J held at 0.',
+            { value: free.value, digits: 2 },
+            { value: free.sigma, digits: 2 }
+          )
+        ]
+      };
+    }
+  }
   if (coarseNote !== null) {
     res.notes = [...res.notes, coarseNote];
   }

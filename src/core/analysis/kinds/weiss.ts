@@ -72,15 +72,22 @@ export const weissKind = {
     const extra: ICoreMessage[] = [];
     if (free) {
       const u = valueOf(fit, '1/J');
-      const Jfit = spinFromInverse(u.value);
+      // 1/J at 0, or held there by `fitWeissMT` because χ² cannot tell it from 0 (at 1/J = 0, Ms and
+      // 1/J move together): J = ∞, with no σ.
+      const classical = fit.fixed[fit.parameters.indexOf('1/J')] === true || !(u.value > 0);
       spin.push({
         name: 'J',
-        value: Jfit,
-        sigma: u.value > 0 ? u.sigma / (u.value * u.value) : Number.NaN,
+        value: classical ? Infinity : spinFromInverse(u.value),
+        sigma: classical ? Number.NaN : u.sigma / (u.value * u.value),
         note: msg('derived.weiss-j', 'effective spin J, fitted as u = 1/J over [0, 2] (σ_J = σ_u/u²); J = ∞ is the classical limit')
       });
-      if (!(u.value > 0)) {
-        extra.push(msg('caution.weiss-j-classical', 'J went to the classical limit (1/J = 0): the data prefer classical moments; fit with J = ∞ to quote Tc and Ms.'));
+      if (classical) {
+        extra.push(
+          msg(
+            'caution.weiss-j-classical',
+            'J went to the classical limit J = ∞, or the data do not tell it from there (then 1/J is held at 0, see the notes): the data prefer classical moments, and Tc and Ms are those of the J = ∞ fit.'
+          )
+        );
       } else if (u.value >= 2) {
         extra.push(msg('caution.weiss-j-half', 'J went to its smallest value ½: the curve is squarer than any Brillouin function allows.'));
       }
