@@ -86,24 +86,36 @@ describe('Weiss M(T) fits', () => {
 
   it('holds 1/J at 0 when χ² cannot tell the fitted spin from the classical limit (σ given and not)', () => {
     // Data of the classical (Langevin, J = ∞) Weiss curve, REFERENCE.md B1: at 1/J = 0 the u column is
-    // Ms·m/2, parallel to the Ms column, so the free fit is degenerate there; the profile of χ² decides.
+    // Ms·m/2, parallel to the Ms column, so the free fit is degenerate there and the profile of χ² decides:
+    // 1/J is held at 0 when that raises χ² by at most one unit of its variance (χ²/dof, or 1 with σ given).
     const T = grid(20, 400, 150);
     const m = weissMagnetisation(Infinity, T.map(t => t / 300));
-    const g = normal(2);
-    const M = T.map((_, i) => 2 * m[i] + 0.006 * g());
-    for (const sigma of [undefined, T.map(() => 0.006)]) {
-      const r = fitWeissMT({ T, M, sigma }, { J: 1, fitInverseJ: true, start: [1.8, 280] });
-      expect(r.converged).toBe(true);
-      expect(r.fixed).toEqual([false, false, true]);
-      expect(r.values[2]).toBe(0);
-      expect(r.J).toBe(Infinity);
-      expect(r.notes.map(n => n.code)).toContain('physics.weiss.classical-held');
-      // Ms and Tc as from the fit with J = ∞ given (to within the stopping tolerances of both)
-      const given = fitWeissMT({ T, M, sigma }, { J: Infinity, start: [1.8, 280] });
-      expect(Math.abs(r.values[0] - given.values[0])).toBeLessThan(1e-4 * given.standardErrors[0]);
-      expect(Math.abs(r.values[1] - given.values[1])).toBeLessThan(1e-4 * given.standardErrors[1]);
-      expect(Math.abs(r.values[0] - 2)).toBeLessThan(3 * r.standardErrors[0]);
+    let held = 0;
+    for (let seed = 1; seed <= 6; seed++) {
+      const g = normal(seed);
+      const M = T.map((_, i) => 2 * m[i] + 0.006 * g());
+      for (const sigma of [undefined, T.map(() => 0.006)]) {
+        const r = fitWeissMT({ T, M, sigma }, { J: 1, fitInverseJ: true, start: [1.8, 280] });
+        const given = fitWeissMT({ T, M, sigma }, { J: Infinity, start: [1.8, 280] });
+        expect(r.converged).toBe(true);
+        if (r.fixed[2]) {
+          held++;
+          expect(r.values[2]).toBe(0);
+          expect(r.J).toBe(Infinity);
+          expect(r.notes.map(n => n.code)).toContain('physics.weiss.classical-held');
+          // Ms and Tc as from the fit with J = ∞ given (to within the stopping tolerances of both)
+          expect(Math.abs(r.values[0] - given.values[0])).toBeLessThan(1e-4 * given.standardErrors[0]);
+          expect(Math.abs(r.values[1] - given.values[1])).toBeLessThan(1e-4 * given.standardErrors[1]);
+          expect(Math.abs(r.values[0] - 2)).toBeLessThan(3 * r.standardErrors[0]);
+        } else {
+          // kept free: J = ∞ is worse by more than one unit of the variance
+          expect(given.chi2 - r.chi2).toBeGreaterThan(sigma ? 1 : r.reducedChi2);
+          expect(r.values[2]).toBeGreaterThan(0);
+        }
+      }
     }
+    // at a boundary about 84 % of such fits keep J = ∞ within one standard error (common practice, no source)
+    expect(held).toBeGreaterThanOrEqual(8);
   });
 
   it('fits M(T) measured in a constant applied field (field tail above Tc)', () => {
