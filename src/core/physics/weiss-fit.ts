@@ -241,19 +241,14 @@ export function weissMTModel(J: number, fitJ: boolean | 'inverse', fieldTesla = 
       out[i * k] = s.m[i];
       out[i * k + 1] = Ms * (s.dmdtau[i] * (-tau / Tc) + s.dmdh[i] * (-h / Tc));
     }
-    if (inverse) {
-      const u = p[2];
+    if (fitJ !== false) {
+      // u = 1/J itself, or J through ∂m/∂J = −u²·∂m/∂u (chain rule)
+      const u = inverse ? p[2] : 1 / p[2];
+      const scale = inverse ? Ms : -u * u * Ms;
       const kc = 3 / (1 + u);
       for (let i = 0; i < x.length; i++) {
         // below u = 0 the model stays at J = ∞ (spinFromInverse); at u = 0 this is the one-sided slope
-        out[i * k + 2] = u < 0 ? 0 : Ms * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h);
-      }
-    } else if (fitJ !== false) {
-      // J itself: ∂m/∂J = −u²·∂m/∂u with u = 1/J (chain rule on the 1/J column)
-      const u = 1 / p[2];
-      const kc = 3 / (1 + u);
-      for (let i = 0; i < x.length; i++) {
-        out[i * k + 2] = p[2] > 0 ? -u * u * Ms * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h) : Number.NaN;
+        out[i * k + 2] = inverse && u < 0 ? 0 : !inverse && !(p[2] > 0) ? Number.NaN : scale * inverseSpinSlope(u, kc, s.m[i], x[i] / Tc, h);
       }
     }
   }
